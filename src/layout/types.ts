@@ -1,0 +1,130 @@
+/**
+ * The validated chip layout: what the layout stage hands to every later stage.
+ *
+ * Inside fluxlane, quantities are plain numbers with the unit in the name:
+ * frequencies and energies in GHz (E/h), times in ns, flux in units of Phi0,
+ * resistances in kOhm. Units are parsed only at the edges (layout file, CLI options).
+ */
+
+/** Where a value came from in the layout file (for error messages of later stages). */
+export interface SourceRef {
+  file: string;
+  /** 1-based. */
+  line: number;
+  column: number;
+  /** Dotted path inside the document, e.g. `qubits.Q1.fMax`. */
+  path: string;
+}
+
+/**
+ * The transmon model exactly as the user gave it. The transmon stage converts every form
+ * into (E_C, E_JS, d) on the exact spectrum (src/transmon/resolve.ts).
+ */
+export type TransmonSpec =
+  | {
+      /** `ec` + `ejMax` (+ `asymmetry`, default 0). */
+      kind: 'energies';
+      ecGHz: number;
+      ejMaxGHz: number;
+      asymmetry: number;
+    }
+  | {
+      /** `fMax` + `anharmonicity` (+ `asymmetry` or `fMin`); anharmonicity is negative. */
+      kind: 'frequencies';
+      fMaxGHz: number;
+      anharmonicityGHz: number;
+      asymmetry?: number;
+      fMinGHz?: number;
+    }
+  | {
+      /**
+       * `ec` + `rn` (Ambegaokar-Baratoff). A single resistance is the SQUID's total normal-state
+       * resistance (both junctions in parallel) and takes `asymmetry` (default 0); a pair
+       * `[r1, r2]` gives the two junctions, from which E_JS and d follow.
+       */
+      kind: 'resistance';
+      ecGHz: number;
+      rnKOhm: number | [number, number];
+      asymmetry?: number;
+    };
+
+export interface TlsDefect {
+  /** Frequency of the two-level defect. */
+  atGHz: number;
+  /** Half-width of the band to keep clear around it (also taken as its coupling 2g = width). */
+  widthGHz: number;
+}
+
+export interface QubitLayout {
+  id: string;
+  pos: [number, number];
+  transmon: TransmonSpec;
+  /** Energy relaxation time. */
+  t1Ns: number;
+  /** White (flux-independent) pure-dephasing time; absent means no white part. */
+  tphiNs?: number;
+  /** 1/f flux-noise amplitude A_Phi in Phi0 (the sqrt(S(1 Hz)) of the flux noise, i.e. Phi0/sqrt(Hz)). */
+  fluxNoisePhi0?: number;
+  /** Allowed parking band [lo, hi]. */
+  windowGHz?: [number, number];
+  /** Fixed parking frequency the plan must keep. */
+  parkGHz?: number;
+  tls: TlsDefect[];
+  /** Readout resonator frequency. */
+  readoutGHz?: number;
+  source: SourceRef;
+}
+
+export interface CouplingLayout {
+  a: string;
+  b: string;
+  /** 01-10 exchange coupling with both qubits at maximum frequency (../shared/physics.md sec. 2). */
+  gGHz: number;
+  source: SourceRef;
+}
+
+/**
+ * Collision thresholds and limits. Defaults live in shared/rules.json (documented there and in
+ * the README); a layout's `rules:` overrides any of them.
+ */
+export interface Rules {
+  /** Largest allowed |static ZZ| at idle on a coupled pair. */
+  zzLimitGHz: number;
+  /** Nearest neighbours at idle: |f01_i - f01_j| >= this. */
+  detuning0101GHz: number;
+  /** Nearest neighbours at idle: |f01_i - f12_j| and |f12_i - f01_j| >= this. */
+  detuning0112GHz: number;
+  /** Next-nearest neighbours (sharing a neighbour) at idle: |f01_i - f01_k| >= this. */
+  detuningNext0101GHz: number;
+  /** Extra clearance beyond a TLS's own width. */
+  tlsClearanceGHz: number;
+  /** |f01 - f_readout| >= this. */
+  readoutDetuningGHz: number;
+  /** During a CZ, spectator conditions (interaction frequency vs f01_S, f01_S - alpha_A, f01_S + alpha_S). */
+  spectatorDetuningGHz: number;
+  /** Largest allowed Landau-Zener transfer through a swept crossing. */
+  sweptTransferLimit: number;
+  /** Longest allowed CZ (ramps and hold). */
+  maxGateNs: number;
+  /** AWG sample rate of the flux lines. */
+  sampleRateGHz: number;
+  /** Gaussian flux-line filter bandwidth (-3 dB); absent means an ideal line. */
+  fluxBandwidthGHz?: number;
+  /** Relative junction-resistance spread from fabrication (1 sigma), e.g. 0.02. */
+  resistanceSpread: number;
+  /** Flag a qubit whose margin is below this many fabrication spreads. */
+  marginFlagSpreads: number;
+}
+
+export interface ChipLayout {
+  /** The layout file as the user named it (for messages). */
+  file: string;
+  chip: string;
+  description?: string;
+  /** In file order. Ids are unique. */
+  qubits: QubitLayout[];
+  /** In file order; no duplicates, no self couplings, only known qubits. */
+  couplings: CouplingLayout[];
+  /** Defaults merged with the layout's overrides. */
+  rules: Rules;
+}
