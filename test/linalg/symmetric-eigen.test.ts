@@ -1,0 +1,93 @@
+/**
+ * symmetricEigen (cyclic Jacobi) against numpy.linalg.eigh (LAPACK, live through
+ * test/reference/linalg_eigen.py) and mathjs eigs, and by the invariants A V = V D, V^T V = I
+ * (the checks ml-matrix uses for its decompositions).
+ */
+import { describe, expect, it } from 'vitest';
+import { eigs } from 'mathjs';
+import { symmetricEigen } from '../../src/linalg/symmetric-eigen.js';
+import { Random } from '../../src/util/random.js';
+import { expectAllClose } from '../support/close.js';
+import { normInf, randomSymmetric } from '../support/matrices.js';
+import { runPython } from '../support/python.js';
+
+const rng = new Random(31337);
+const cases: { name: string; n: number; a: Float64Array }[] = [];
+for (const n of [1, 2, 3, 8, 18, 36]) cases.push({ name: `random n=${n}`, n, a: randomSymmetric(rng, n) });
+cases.push({ name: 'random scale 100 n=12', n: 12, a: randomSymmetric(rng, 12, 100) });
+{
+  // I + u u^T: eigenvalue 1 with multiplicity n - 1.
+  const n = 10;
+  const a = new Float64Array(n * n);
+  const u = Array.from({ length: n }, () => rng.between(-1, 1));
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] = (i === j ? 1 : 0) + u[i] * u[j];
+  cases.push({ name: 'identity plus rank one (degenerate)', n, a });
+}
+{
+  // Coupled-transmon-like: diagonal spread over tens of GHz, couplings of a few MHz.
+  const n = 18;
+  const a = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) a[i * n + i] = 4.7 * i + rng.between(-0.2, 0.2);
+  for (let i = 0; i < n; i++)
+    for (let j = i + 1; j < n; j++) {
+      const x = (i + j) % 2 === 1 ? rng.between(-0.02, 0.02) : 0;
+      a[i * n + j] = x;
+      a[j * n + i] = x;
+    }
+  cases.push({ name: 'weakly coupled ladder n=18', n, a });
+}
+
+const reference = runPython<{ results: { values: number[] }[] }>('linalg_eigen.py', {
+  problems: cases.map((c) => ({ kind: 'symmetric', n: c.n, a: [...c.a] })),
+}).results;
+
+describe('symmetricEigen(a, n)', () => {
+  it('eigenvalues match numpy.linalg.eigh to 1e-12 relative', () => {
+    cases.forEach((c, i) => expectAllClose(symmetricEigen(c.a, c.n).values, reference[i].values, 1e-12, c.name));
+  });
+
+  it('eigenvalues match mathjs eigs to 1e-10 relative', () => {
+    for (const c of cases.filter((x) => x.n <= 18)) {
+      const rows: number[][] = [];
+      for (let i = 0; i < c.n; i++) rows.push([...c.a.subarray(i * c.n, (i + 1) * c.n)]);
+      const ref = (eigs(rows).values as number[]).slice().sort((x, y) => x - y);
+      expectAllClose(symmetricEigen(c.a, c.n).values, ref, 1e-10, `${c.name} vs mathjs`);
+    }
+  });
+
+  it('satisfies A V = V D and V^T V = I to 1e-13 n ||A||', () => {
+    for (const c of cases) {
+      const { n, a } = c;
+      const { values, vectors: v } = symmetricEigen(a, n);
+      const scale = Math.max(1, normInf(a, n));
+      let res = 0;
+      let orth = 0;
+      for (let i = 0; i < n; i++)
+        for (let k = 0; k < n; k++) {
+          let av = 0;
+          for (let j = 0; j < n; j++) av += a[i * n + j] * v[j * n + k];
+          res = Math.max(res, Math.abs(av - v[i * n + k] * values[k]));
+          let g = 0;
+          for (let j = 0; j < n; j++) g += v[j * n + i] * v[j * n + k];
+          orth = Math.max(orth, Math.abs(g - (i === k ? 1 : 0)));
+        }
+      expect(res, `${c.name} residual`).toBeLessThanOrEqual(1e-13 * n * scale);
+      expect(orth, `${c.name} orthogonality`).toBeLessThanOrEqual(1e-13 * n);
+    }
+  });
+
+  it('writes into a caller-supplied out and scratch and leaves the input untouched', () => {
+    const n = 6;
+    const a = randomSymmetric(new Random(5), n);
+    const copy = a.slice();
+    const out = { values: new Float64Array(n), vectors: new Float64Array(n * n) };
+    const res = symmetricEigen(a, n, out, new Float64Array(n * n));
+    expect(res.values).toBe(out.values);
+    expect(res.vectors).toBe(out.vectors);
+    expect([...a]).toEqual([...copy]);
+  });
+
+  it('rejects bad sizes with a RangeError', () => {
+    expect(() => symmetricEigen(new Float64Array(3), 2)).toThrow(RangeError);
+  });
+});
