@@ -72,6 +72,9 @@ export interface QubitLayout {
   tls: TlsDefect[];
   /** Readout resonator frequency. */
   readoutGHz?: number;
+  /** Free text from the layout's `note:` (kept for reports). */
+  note?: string;
+  /** Where the qubit's id stands in the layout file. */
   source: SourceRef;
 }
 

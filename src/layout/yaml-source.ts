@@ -1,0 +1,257 @@
+/**
+ * YAML text -> plain values plus a source map (path -> line:column), with the guards a file from
+ * anyone needs: UTF-8 check, a size limit, one document only, no duplicate keys, names as keys,
+ * known anchors only, no alias cycles, a bounded alias expansion (alias bombs, "billion laughs"),
+ * and a depth limit.
+ *
+ * Parsing is done by the `yaml` package (YAML 1.2 core schema, with `<<` merge keys). We walk its
+ * syntax tree ourselves instead of calling `toJS`, so that every value keeps the position it came
+ * from and every problem becomes a located diagnostic, never an exception. The alias-expansion
+ * guard is the package's own: `toJS({ maxAliasCount })` is run once as a check before the walk.
+ */
+
+import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
+import { DiagnosticCollector, type Anchor, type Path, type Position } from './diagnostics.js';
+
+export const YAML_LIMITS = Object.freeze({
+  /** The yaml package's alias budget (aliases times the nodes they expand to). */
+  maxAliasCount: 100,
+  /** Deepest nesting of lists and maps accepted. */
+  maxDepth: 32,
+  /** Largest file accepted. */
+  maxBytes: 32 * 1024 * 1024,
+  /** Most values (scalars, lists, maps) after alias expansion. */
+  maxNodes: 2_000_000,
+});
+
+export interface SourceTree {
+  /** The document as plain values: objects, arrays, strings, numbers, booleans, null. */
+  value: unknown;
+  /** Position of a path's key or value in the text (undefined for unknown paths). */
+  locate(path: Path, anchor: Anchor): Position | undefined;
+}
+
+/** Decode a file's bytes as UTF-8 (a leading byte-order mark is dropped); undefined on bad bytes. */
+export function decodeUtf8(bytes: Uint8Array, collector: DiagnosticCollector): string | undefined {
+  if (bytes.length > YAML_LIMITS.maxBytes) {
+    collector.addAt(undefined, `expected a layout file of at most ${YAML_LIMITS.maxBytes} bytes, found ${bytes.length} bytes`);
+    return undefined;
+  }
+  try {
+    const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    return text.startsWith('\uFEFF') ? text.slice(1) : text;
+  } catch {
+    const lossy = new TextDecoder('utf-8').decode(bytes);
+    const at = lossy.indexOf('\uFFFD');
+    const before = lossy.slice(0, Math.max(0, at));
+    const line = before.split('\n').length;
+    const column = at - before.lastIndexOf('\n');
+    collector.addAt({ line, column }, 'expected UTF-8 text, found bytes that are not UTF-8 (is this a YAML file?)');
+    return undefined;
+  }
+}
+
+const pathKey = (path: Path): string => JSON.stringify(path);
+
+/** Parse YAML text; problems go to `collector` and make the result undefined. */
+export function readYamlSource(text: string, collector: DiagnosticCollector): SourceTree | undefined {
+  const lineCounter = new LineCounter();
+  const doc = parseDocument(text, {
+    lineCounter,
+    prettyErrors: false,
+    uniqueKeys: false, // duplicates are reported by the walk below, with both positions
+    merge: true,
+    strict: true,
+  });
+  const at = (offset: number | undefined): Position | undefined => {
+    if (offset === undefined) return undefined;
+    const p = lineCounter.linePos(offset);
+    return { line: p.line, column: p.col };
+  };
+
+  // 1. Syntax errors and warnings (unknown tags and the like are errors for a layout).
+  let syntaxProblems = 0;
+  let nestingReported = false;
+  for (const problem of [...doc.errors, ...doc.warnings]) {
+    if (problem.code === 'RESOURCE_EXHAUSTION') {
+      if (nestingReported) continue;
+      nestingReported = true;
+      collector.addAt(at(problem.pos[0]), 'expected a layout document, found nesting too deep to read');
+    } else if (problem.code === 'MULTIPLE_DOCS') {
+      collector.addAt(at(problem.pos[0]), 'expected one YAML document, found several (remove the extra `---`)');
+    } else if (problem.code === 'TAG_RESOLVE_FAILED') {
+      collector.addAt(at(problem.pos[0]), `expected plain YAML values, found ${problem.message.replace(/^Unresolved tag/, 'the unknown tag')}`);
+    } else {
+      collector.addAt(at(problem.pos[0]), `YAML syntax: ${problem.message.split('\n')[0]}`);
+    }
+    syntaxProblems++;
+  }
+  if (syntaxProblems > 0) return undefined;
+
+  // 2. Alias bombs: the yaml package's budget, applied before we expand anything.
+  try {
+    doc.toJS({ maxAliasCount: YAML_LIMITS.maxAliasCount, mapAsMap: true });
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    if (/excessive alias count/i.test(message)) {
+      collector.addAt(
+        undefined,
+        `expected at most ${YAML_LIMITS.maxAliasCount} alias expansions, found more (YAML alias bombs are refused)`,
+      );
+      return undefined;
+    }
+    // Anything else (unknown anchors, bad merges, cycles) is reported with a position by the walk.
+  }
+
+  // 3. Walk the tree into plain values, recording positions.
+  const valuePositions = new Map<string, Position>();
+  const keyPositions = new Map<string, Position>();
+  const walker = new Walker(doc, at, collector, valuePositions, keyPositions);
+  const value = doc.contents === null ? null : walker.walk(doc.contents as Node, [], 0);
+  if (walker.failed) return undefined;
+  return {
+    value,
+    locate: (path, anchor) =>
+      (anchor === 'key' ? keyPositions.get(pathKey(path)) : undefined) ?? valuePositions.get(pathKey(path)),
+  };
+}
+
+class Walker {
+  failed = false;
+  private nodes = 0;
+  private readonly expanding = new Set<Node>();
+
+  constructor(
+    private readonly doc: Document,
+    private readonly at: (offset: number | undefined) => Position | undefined,
+    private readonly collector: DiagnosticCollector,
+    private readonly valuePositions: Map<string, Position>,
+    private readonly keyPositions: Map<string, Position>,
+  ) {}
+
+  private fail(path: Path, message: string, position: Position | undefined): undefined {
+    this.failed = true;
+    this.collector.add(path, message, 'value', position);
+    return undefined;
+  }
+
+  walk(node: Node | null, path: Path, depth: number, aliasPosition?: Position): unknown {
+    if (node === null) return null;
+    const position = aliasPosition ?? this.at(node.range?.[0]);
+    if (position && !this.valuePositions.has(pathKey(path))) this.valuePositions.set(pathKey(path), position);
+    if (depth > YAML_LIMITS.maxDepth) {
+      return this.fail(path, `expected at most ${YAML_LIMITS.maxDepth} levels of nesting, found more`, position);
+    }
+    if (++this.nodes > YAML_LIMITS.maxNodes) {
+      if (this.nodes === YAML_LIMITS.maxNodes + 1) {
+        this.fail(path, `expected at most ${YAML_LIMITS.maxNodes} values, found more`, position);
+      }
+      return undefined;
+    }
+    if (isScalar(node)) return node.value;
+    if (isAlias(node)) {
+      const target = node.resolve(this.doc);
+      if (!target) {
+        return this.fail(path, `expected a known anchor, found the alias *${node.source} (define &${node.source} before it)`, position);
+      }
+      if (this.expanding.has(target)) {
+        return this.fail(path, `expected an alias to an earlier value, found *${node.source} inside the value it names (a cycle)`, position);
+      }
+      this.expanding.add(target);
+      try {
+        return this.walk(target, path, depth + 1, position);
+      } finally {
+        this.expanding.delete(target);
+      }
+    }
+    if (isSeq(node)) {
+      this.expanding.add(node);
+      try {
+        return node.items.map((item, i) => this.walk(item as Node | null, [...path, i], depth + 1));
+      } finally {
+        this.expanding.delete(node);
+      }
+    }
+    if (isMap(node)) {
+      this.expanding.add(node);
+      try {
+        return this.walkMap(node.items, path, depth, position);
+      } finally {
+        this.expanding.delete(node);
+      }
+    }
+    return this.fail(path, 'expected a YAML value, found an unreadable node', position);
+  }
+
+  private walkMap(
+    pairs: readonly { key: unknown; value: unknown }[],
+    path: Path,
+    depth: number,
+    position: Position | undefined,
+  ): Record<string, unknown> {
+    const out: Record<string, unknown> = {};
+    const firstSeen = new Map<string, Position | undefined>();
+    const merges: { node: Node; position: Position | undefined }[] = [];
+    for (const pair of pairs) {
+      const keyNode = pair.key as Node | null;
+      const keyPosition = this.at(keyNode?.range?.[0]) ?? position;
+      if (isScalar(keyNode) && typeof keyNode.value === 'symbol') {
+        // `<<: *defaults` or `<<: [*a, *b]` merge key: applied after the explicit keys.
+        const v = pair.value as Node | null;
+        if (v !== null) merges.push({ node: v, position: keyPosition });
+        continue;
+      }
+      const key = keyName(keyNode);
+      if (key === undefined) {
+        const found = keyNode === null || (isScalar(keyNode) && keyNode.value === null)
+          ? 'an empty key'
+          : isScalar(keyNode) ? 'binary data' : 'a list or map used as a key';
+        this.fail(path, `expected a name as map key, found ${found}`, keyPosition);
+        continue;
+      }
+      const childPath = [...path, key];
+      if (firstSeen.has(key)) {
+        const first = firstSeen.get(key);
+        const where = first ? ` (first given at line ${first.line}, column ${first.column})` : '';
+        this.fail(childPath, `expected each key once in a map, found ${JSON.stringify(key)} again${where}`, keyPosition);
+        continue;
+      }
+      firstSeen.set(key, keyPosition);
+      if (keyPosition) this.keyPositions.set(pathKey(childPath), keyPosition);
+      const valueNode = pair.value as Node | null;
+      if (valueNode === null && keyPosition) this.valuePositions.set(pathKey(childPath), keyPosition);
+      setOwn(out, key, this.walk(valueNode, childPath, depth + 1));
+    }
+    for (const merge of merges) {
+      const sources = isSeq(merge.node) ? (merge.node.items as Node[]) : [merge.node];
+      for (const source of sources) {
+        const value = this.walk(source, path, depth + 1, merge.position);
+        if (value === undefined) continue;
+        if (value === null || typeof value !== 'object' || Array.isArray(value)) {
+          this.fail(path, 'expected a map (or an alias of one) after the merge key <<, found something else', merge.position);
+          continue;
+        }
+        for (const [k, v] of Object.entries(value)) {
+          if (!Object.prototype.hasOwnProperty.call(out, k)) setOwn(out, k, v);
+        }
+      }
+    }
+    return out;
+  }
+}
+
+/** A map key as a name: strings as they are, numbers and booleans as written; others undefined. */
+function keyName(node: Node | null): string | undefined {
+  if (!isScalar(node)) return undefined;
+  const v = node.value;
+  if (typeof v === 'string') return v;
+  if (typeof v === 'number' || typeof v === 'boolean' || typeof v === 'bigint') {
+    return typeof node.source === 'string' ? node.source : String(v);
+  }
+  return undefined;
+}
+
+/** Define an own enumerable property (safe for keys such as `__proto__`). */
+function setOwn(target: Record<string, unknown>, key: string, value: unknown): void {
+  Object.defineProperty(target, key, { value, enumerable: true, writable: true, configurable: true });
+}
