@@ -21,10 +21,10 @@ export const QUANTITY_META_KEY = 'x-fluxlane-quantity';
 const phrase = (text: string) => ({ error: () => text });
 
 /** A quantity with a unit, as text ("5.8 GHz"). Numbers pass here and are refused with a clear message later. */
-export function quantity(kind: QuantityKind, description: string) {
+export function quantity(kind: QuantityKind, description: string, example = quantityExample(kind)) {
   return z
     .union([z.string(), z.number()], phrase(`${quantityNoun(kind)} such as "${quantityExample(kind)}"`))
-    .meta({ description, examples: [quantityExample(kind)], [QUANTITY_META_KEY]: kind });
+    .meta({ description, examples: [example], [QUANTITY_META_KEY]: kind });
 }
 
 const finiteNumber = (description: string) => z.number(phrase('a finite number')).meta({ description });
@@ -44,7 +44,7 @@ export const TlsSchema = z
   .strictObject(
     {
       at: quantity('frequency', 'Frequency of the two-level defect.'),
-      width: quantity('frequency', 'Half-width of the band to keep clear around it.'),
+      width: quantity('frequency', 'Half-width of the band to keep clear around it.', '3 MHz'),
     },
     phrase('a defect { at, width }'),
   )
@@ -67,15 +67,15 @@ export const QubitSchema = z
   .strictObject(
     {
       pos: PositionSchema,
-      ec: quantity('frequency', 'Charging energy E_C (as E/h). With ejMax, or with rn.').optional(),
-      ejMax: quantity('frequency', 'Total Josephson energy E_JS of the SQUID at zero flux (as E/h). With ec.').optional(),
+      ec: quantity('frequency', 'Charging energy E_C (as E/h). With ejMax, or with rn.', '220 MHz').optional(),
+      ejMax: quantity('frequency', 'Total Josephson energy E_JS of the SQUID at zero flux (as E/h). With ec.', '22 GHz').optional(),
       asymmetry: z
         .number(phrase('a number d in [0, 1)'))
         .meta({ description: 'SQUID junction asymmetry d = |E_J1 - E_J2| / (E_J1 + E_J2), 0 <= d < 1; default 0.' })
         .optional(),
       fMax: quantity('frequency', 'Maximum 0-1 frequency (upper sweet spot). With anharmonicity.').optional(),
-      anharmonicity: quantity('frequency', 'Anharmonicity f12 - f01 at fMax (negative, e.g. -210 MHz). With fMax.').optional(),
-      fMin: quantity('frequency', 'Minimum 0-1 frequency (lower sweet spot, half a flux quantum). With fMax, instead of asymmetry.').optional(),
+      anharmonicity: quantity('frequency', 'Anharmonicity f12 - f01 at fMax (negative, e.g. -210 MHz). With fMax.', '-210 MHz').optional(),
+      fMin: quantity('frequency', 'Minimum 0-1 frequency (lower sweet spot, half a flux quantum). With fMax, instead of asymmetry.', '4.1 GHz').optional(),
       rn: ResistanceSchema.optional(),
       t1: quantity('time', 'Energy relaxation time T1.'),
       tphi: quantity('time', 'White (flux-independent) pure-dephasing time T_phi.').optional(),
@@ -83,7 +83,7 @@ export const QubitSchema = z
       window: WindowSchema.optional(),
       park: quantity('frequency', 'Fixed parking frequency the plan must keep.').optional(),
       tls: z.array(TlsSchema, phrase('a list of defects [{ at, width }, ...]')).optional(),
-      readout: quantity('frequency', 'Readout resonator frequency.').optional(),
+      readout: quantity('frequency', 'Readout resonator frequency.', '7.2 GHz').optional(),
       note: z.string(phrase('text')).meta({ description: 'Free text kept with the qubit.' }).optional(),
     },
     phrase('a qubit map { pos, t1, ... }'),
@@ -94,7 +94,7 @@ export const QubitRefSchema = z.union([z.string(), z.number()], phrase('a qubit 
 
 export const CouplingListSchema = z
   .tuple(
-    [QubitRefSchema, QubitRefSchema, quantity('frequency', 'Exchange coupling g at maximum frequency.')],
+    [QubitRefSchema, QubitRefSchema, quantity('frequency', 'Exchange coupling g at maximum frequency.', '12 MHz')],
     phrase('a coupling [A, B, g]'),
   )
   .meta({ description: 'A coupling [A, B, g].' });
@@ -103,7 +103,7 @@ export const CouplingMapSchema = z
   .strictObject(
     {
       qubits: z.tuple([QubitRefSchema, QubitRefSchema], phrase('two qubit ids [A, B]')),
-      g: quantity('frequency', '01-10 exchange coupling g with both qubits at their maximum frequency.'),
+      g: quantity('frequency', '01-10 exchange coupling g with both qubits at their maximum frequency.', '12 MHz'),
     },
     phrase('a coupling { qubits: [A, B], g }'),
   )

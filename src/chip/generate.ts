@@ -1,0 +1,137 @@
+/**
+ * Synthetic chips for benchmarks and yield studies: a square or heavy-hex lattice with a seeded
+ * spread of parameters, as a layout document (the YAML text comes from src/layout/write.ts).
+ *
+ * Parameters (all drawn from one seeded stream, in a fixed order, so the same options give the
+ * same bytes):
+ * - maximum frequencies in `groups` frequency groups (frequencyGroups), centres spread evenly over
+ *   fMaxRangeGHz, each qubit scattered uniformly by +-groupJitterGHz and by a normal fabrication
+ *   scatter of fabSigmaGHz (about 1 % of f, common practice for junction ageing and spread);
+ * - anharmonicity -E_C with E_C uniform in ecRangeGHz (alpha ~ -E_C in the transmon regime,
+ *   Koch et al., Phys. Rev. A 76, 042319 (2007)); the transmon stage solves the exact E_C;
+ * - SQUID asymmetry uniform in asymmetryRange (so f_min lies well below f_max);
+ * - T1 log-uniform in t1RangeUs; 1/f flux-noise amplitude uniform in fluxNoiseRangeUPhi0; a
+ *   white T_phi for a fraction of the qubits;
+ * - couplings g uniform in gRangeMHz; readout resonators on a 70 MHz comb above readoutBaseGHz;
+ * - a two-level defect below f_max on a fraction of the qubits.
+ */
+
+import { Random } from '../util/random.js';
+import type { LayoutDocument, QubitDocument } from '../layout/write.js';
+import { adjacencyLists, frequencyGroups } from './colouring.js';
+import { lattice, type LatticeKind } from './lattice.js';
+
+export interface GenerateOptions {
+  kind: LatticeKind;
+  /** square: qubit rows; heavy-hex: rows of hexagonal cells. */
+  rows: number;
+  /** square: qubit columns; heavy-hex: columns of hexagonal cells. */
+  cols: number;
+  seed: number;
+  /** Chip name; default `<kind>-<rows>x<cols>-seed<seed>`. */
+  name?: string;
+  groups: number;
+  fMaxRangeGHz: [number, number];
+  groupJitterGHz: number;
+  fabSigmaGHz: number;
+  ecRangeGHz: [number, number];
+  asymmetryRange: [number, number];
+  t1RangeUs: [number, number];
+  fluxNoiseRangeUPhi0: [number, number];
+  tphiFraction: number;
+  tphiRangeUs: [number, number];
+  gRangeMHz: [number, number];
+  readoutBaseGHz: number;
+  tlsFraction: number;
+  /** Text after `fluxlane generate` for the header comment, e.g. `square --rows 7 --cols 7 --seed 1`. */
+  commandLine?: string;
+}
+
+export const GENERATE_DEFAULTS: Readonly<Omit<GenerateOptions, 'kind' | 'rows' | 'cols'>> = Object.freeze({
+  seed: 1,
+  groups: 3,
+  fMaxRangeGHz: [4.9, 6.6] as [number, number],
+  groupJitterGHz: 0.1,
+  fabSigmaGHz: 0.03,
+  ecRangeGHz: [0.18, 0.26] as [number, number],
+  asymmetryRange: [0.2, 0.5] as [number, number],
+  t1RangeUs: [20, 200] as [number, number],
+  fluxNoiseRangeUPhi0: [1.5, 5] as [number, number],
+  tphiFraction: 0.5,
+  tphiRangeUs: [60, 300] as [number, number],
+  gRangeMHz: [8, 20] as [number, number],
+  readoutBaseGHz: 7.1,
+  tlsFraction: 0.15,
+});
+
+/** Hard bounds on the size of a synthetic chip. */
+export const GENERATE_LIMITS = Object.freeze({ maxSide: 500, maxCells: 20_000 });
+
+/** Frequencies kept inside the range the layout format and the demos use. */
+const F_MAX_CLAMP_GHZ: [number, number] = [4.5, 6.8];
+
+const ghz = (x: number) => `${x.toFixed(3)} GHz`;
+const mhz = (x: number, digits = 0) => `${(x * 1000).toFixed(digits)} MHz`;
+
+export function generateLayout(options: Partial<GenerateOptions> & Pick<GenerateOptions, 'kind' | 'rows' | 'cols'>): LayoutDocument {
+  const o: GenerateOptions = { ...GENERATE_DEFAULTS, ...options };
+  const { sites, edges } = lattice(o.kind, o.rows, o.cols);
+  const adjacency = adjacencyLists(sites.length, edges);
+  const groups = frequencyGroups(adjacency, o.groups);
+  const rng = new Random(o.seed);
+  const [fLo, fHi] = o.fMaxRangeGHz;
+  const centre = (g: number) => (o.groups === 1 ? (fLo + fHi) / 2 : fHi - ((fHi - fLo) * g) / (o.groups - 1));
+
+  const qubits: [string, QubitDocument][] = sites.map((site, i) => {
+    const fMax = clamp(
+      centre(groups[i]) + rng.between(-o.groupJitterGHz, o.groupJitterGHz) + o.fabSigmaGHz * rng.normal(),
+      F_MAX_CLAMP_GHZ,
+    );
+    const ec = rng.between(o.ecRangeGHz[0], o.ecRangeGHz[1]);
+    const asymmetry = rng.between(o.asymmetryRange[0], o.asymmetryRange[1]);
+    const t1 = Math.exp(rng.between(Math.log(o.t1RangeUs[0]), Math.log(o.t1RangeUs[1])));
+    const fluxNoise = rng.between(o.fluxNoiseRangeUPhi0[0], o.fluxNoiseRangeUPhi0[1]);
+    const withTphi = rng.uniform() < o.tphiFraction;
+    const tphi = rng.between(o.tphiRangeUs[0], o.tphiRangeUs[1]);
+    const readout = o.readoutBaseGHz + 0.07 * (i % 8) + rng.between(-0.01, 0.01);
+    const withTls = rng.uniform() < o.tlsFraction;
+    const tlsAt = fMax - rng.between(0.1, 1.5);
+    const tlsWidth = rng.between(0.001, 0.005);
+
+    const q: QubitDocument = {
+      pos: site.pos,
+      fMax: ghz(fMax),
+      anharmonicity: `-${mhz(ec)}`,
+      asymmetry: Number(asymmetry.toFixed(2)),
+      t1: `${Math.round(t1)} us`,
+      fluxNoise: `${fluxNoise.toFixed(1)} uPhi0/sqrt(Hz)`,
+      readout: ghz(readout),
+    };
+    if (withTphi) q.tphi = `${Math.round(tphi)} us`;
+    if (withTls) q.tls = [{ at: ghz(tlsAt), width: mhz(tlsWidth, 1) }];
+    return [site.id, q];
+  });
+
+  const couplings = edges.map(([a, b]): [string, string, string] => [
+    sites[a].id,
+    sites[b].id,
+    mhz(rng.between(o.gRangeMHz[0] / 1000, o.gRangeMHz[1] / 1000), 1),
+  ]);
+
+  const name = o.name ?? `${o.kind}-${o.rows}x${o.cols}-seed${o.seed}`;
+  const header = [
+    `Synthetic ${o.kind} chip made by fluxlane generate${o.commandLine ? ` ${o.commandLine}` : ''}.`,
+    `${sites.length} qubits in ${o.groups} frequency groups, ${edges.length} couplings; parameters drawn from seed ${o.seed}.`,
+  ];
+  return {
+    header,
+    chip: name,
+    description: `Synthetic ${o.kind} lattice, ${o.rows} x ${o.cols}${o.kind === 'heavy-hex' ? ' cells' : ''}, seed ${o.seed}.`,
+    qubits,
+    couplings,
+  };
+}
+
+function clamp(x: number, [lo, hi]: [number, number]): number {
+  return Math.min(hi, Math.max(lo, x));
+}
