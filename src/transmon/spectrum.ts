@@ -1,0 +1,92 @@
+/**
+ * The spectrum of one flux-tunable transmon at one flux: f01, f12, anharmonicity and the flux
+ * slopes of f01 and f12 (../../shared/physics.md sec. 1; Koch et al., Phys. Rev. A 76, 042319
+ * (2007)).
+ *
+ *     f01 = E1 - E0,   f12 = E2 - E1,   alpha = E2 - 2 E1 + E0   (GHz; alpha < 0)
+ *
+ * Slopes by the Hellmann-Feynman theorem: H depends on flux only through E_J(Phi) and
+ * dH/dE_J = -cos(phi), so
+ *
+ *     dE_m/dPhi = -<m|cos phi|m> dE_J/dPhi,
+ *     df01/dPhi = -(<1|cos phi|1> - <0|cos phi|0>) dE_J/dPhi        (GHz per Phi0),
+ *
+ * with the expectation values from the charge-basis eigenvectors (test: against a central
+ * finite difference). Levels at offset charge n_g = 0 (the transmon stage's working point).
+ */
+import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
+import { transmonLevels, type TransmonLevels } from './levels.js';
+
+/** A transmon's circuit parameters (what src/transmon/resolve.ts produces from the layout). */
+export interface TransmonParams {
+  /** Charging energy E_C (GHz). */
+  ecGHz: number;
+  /** Total SQUID Josephson energy E_JS = E_J1 + E_J2 (GHz). */
+  ejsGHz: number;
+  /** Junction asymmetry d = |E_J1 - E_J2| / (E_J1 + E_J2), 0 <= d < 1. */
+  asymmetry: number;
+}
+
+export interface SpectrumPoint {
+  /** External flux (Phi0). */
+  flux: number;
+  /** E_J(Phi) (GHz). */
+  ejGHz: number;
+  f01GHz: number;
+  f12GHz: number;
+  anharmonicityGHz: number;
+  /** df01/dPhi (GHz per Phi0); <= 0 on 0 <= Phi <= 1/2. */
+  df01dFluxGHz: number;
+  /** df12/dPhi (GHz per Phi0). */
+  df12dFluxGHz: number;
+}
+
+export const SPECTRUM_DEFAULTS = Object.freeze({ chargeCutoff: 20 });
+
+/** <m|cos phi|m> = sum_n c_n c_{n+1} for a real charge-basis wave function (row m of `levels.vectors`). */
+export function cosPhiExpectation(levels: TransmonLevels, m: number): number {
+  const dim = 2 * levels.chargeCutoff + 1;
+  const v = levels.vectors;
+  const row = m * dim;
+  let s = 0;
+  for (let j = 0; j < dim - 1; j++) s += v[row + j] * v[row + j + 1];
+  return s;
+}
+
+/** f01, f12, alpha and the slopes at flux `flux` (Phi0). */
+export function spectrumAt(params: TransmonParams, flux: number, options: { chargeCutoff?: number } = {}): SpectrumPoint {
+  const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
+  const ej = josephsonEnergy(params.ejsGHz, params.asymmetry, flux);
+  const dEj = josephsonEnergySlope(params.ejsGHz, params.asymmetry, flux);
+  const lv = transmonLevels(params.ecGHz, ej, { levels: 3, chargeCutoff: nCut, vectors: true });
+  const e = lv.energies;
+  const c0 = cosPhiExpectation(lv, 0);
+  const c1 = cosPhiExpectation(lv, 1);
+  const c2 = cosPhiExpectation(lv, 2);
+  return {
+    flux,
+    ejGHz: ej,
+    f01GHz: e[1] - e[0],
+    f12GHz: e[2] - e[1],
+    anharmonicityGHz: e[2] - 2 * e[1] + e[0],
+    df01dFluxGHz: -(c1 - c0) * dEj,
+    df12dFluxGHz: -(c2 - c1) * dEj,
+  };
+}
+
+/**
+ * f01 for (E_C, E_J) and its slope with respect to E_J, df01/dE_J = <0|cos phi|0> - <1|cos phi|1>
+ * (Hellmann-Feynman). Writes the slope into `slope.value` when given.
+ */
+export function f01ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
+  const lv = transmonLevels(ecGHz, ejGHz, { levels: 2, chargeCutoff, vectors: slope !== undefined });
+  if (slope) slope.value = cosPhiExpectation(lv, 0) - cosPhiExpectation(lv, 1);
+  return lv.energies[1] - lv.energies[0];
+}
+
+/** f12 for (E_C, E_J) and df12/dE_J = <1|cos phi|1> - <2|cos phi|2>. */
+export function f12ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
+  const lv = transmonLevels(ecGHz, ejGHz, { levels: 3, chargeCutoff, vectors: slope !== undefined });
+  if (slope) slope.value = cosPhiExpectation(lv, 1) - cosPhiExpectation(lv, 2);
+  return lv.energies[2] - lv.energies[1];
+}
