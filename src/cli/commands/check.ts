@@ -1,0 +1,138 @@
+/**
+ * `fluxlane check LAYOUT`: validate a layout and summarise the chip (qubits, couplings, degree,
+ * connected components, next-nearest-neighbour pairs), then run the registered check stages.
+ *
+ * Seam for collision rules: CHECK_STAGES. A stage gets the layout and its graph and returns
+ * violations (make the check fail: `ok: false`, exit 1) and flags (reported, exit unchanged).
+ * The planner adds its collision rules as a stage here (issue 6); until then the list is empty
+ * and `check` validates the layout and reports its structure only.
+ */
+
+import { Argument, type Command } from 'commander';
+import type { ChipLayout } from '../../layout/types.js';
+import { loadLayoutFile } from '../../layout/load.js';
+import { buildChipGraph, type ChipGraph } from '../../chip/graph.js';
+import { nextNearestPairs } from '../../chip/neighbourhood.js';
+import { connectedComponents, degreeStats } from '../../chip/stats.js';
+import type { StageProfiler } from '../../util/profile.js';
+import { commandAction, type CommandContext } from '../handler.js';
+import type { CliIo } from '../io.js';
+import type { CommandOutcome } from '../outcome.js';
+import { withCommonOptions } from '../options.js';
+
+/** One finding of a check stage. Numbers in `details` are SI (Hz, s, rad; flux in Phi0). */
+export interface CheckFinding {
+  /** Rule key, e.g. `detuning0101` (shared/rules.json) or a stage's own name. */
+  rule: string;
+  /** Qubits involved, in layout order. */
+  qubits: string[];
+  /** One sentence with units, for the human output. */
+  message: string;
+  details?: Record<string, unknown>;
+}
+
+export interface CheckStageResult {
+  violations: CheckFinding[];
+  flags: CheckFinding[];
+}
+
+export interface CheckInput {
+  layout: ChipLayout;
+  graph: ChipGraph;
+  profiler: StageProfiler;
+}
+
+export interface CheckStage {
+  /** Profile stage name and label in the text output, e.g. `collisions`. */
+  name: string;
+  run(input: CheckInput): CheckStageResult | Promise<CheckStageResult>;
+}
+
+/** The check stages `fluxlane check` runs, in order. Collision rules join here (issue 6). */
+export const CHECK_STAGES: CheckStage[] = [];
+
+/** Run check stages in order, each timed under its name; results are concatenated. */
+export async function runCheckStages(input: CheckInput, stages: readonly CheckStage[]): Promise<CheckStageResult> {
+  const all: CheckStageResult = { violations: [], flags: [] };
+  for (const stage of stages) {
+    const result = await input.profiler.timeAsync(stage.name, async () => stage.run(input));
+    all.violations.push(...result.violations);
+    all.flags.push(...result.flags);
+  }
+  return all;
+}
+
+export interface ChipSummary {
+  qubits: number;
+  couplings: number;
+  degree: { min: number; mean: number; max: number; histogram: number[] };
+  components: number;
+  componentSizes: number[];
+  nextNearestPairs: number;
+  /** How the transmons were given: energies (ec + ejMax), frequencies (fMax + anharmonicity), resistance (ec + rn). */
+  transmonForms: { energies: number; frequencies: number; resistance: number };
+}
+
+export function summariseChip(layout: ChipLayout, graph: ChipGraph): ChipSummary {
+  const components = connectedComponents(graph);
+  const forms = { energies: 0, frequencies: 0, resistance: 0 };
+  for (const q of layout.qubits) forms[q.transmon.kind]++;
+  return {
+    qubits: graph.order,
+    couplings: graph.size,
+    degree: degreeStats(graph),
+    components: components.length,
+    componentSizes: components.map((c) => c.length),
+    nextNearestPairs: nextNearestPairs(graph).length,
+    transmonForms: forms,
+  };
+}
+
+function summaryText(layout: ChipLayout, s: ChipSummary, stages: readonly CheckStage[], result: CheckStageResult): string {
+  const row = (label: string, value: string) => `  ${label.padEnd(20)} ${value}`;
+  const forms = [
+    s.transmonForms.energies ? `ec + ejMax ${s.transmonForms.energies}` : '',
+    s.transmonForms.frequencies ? `fMax + anharmonicity ${s.transmonForms.frequencies}` : '',
+    s.transmonForms.resistance ? `ec + rn ${s.transmonForms.resistance}` : '',
+  ].filter(Boolean).join(', ');
+  const sizes = s.components > 1 ? ` (sizes ${s.componentSizes.join(', ')})` : '';
+  const lines = [
+    `${layout.chip} (${layout.file})`,
+    row('qubits', `${s.qubits}   (${forms})`),
+    row('couplings', String(s.couplings)),
+    row('degree', `min ${s.degree.min}, mean ${s.degree.mean.toFixed(2)}, max ${s.degree.max}`),
+    row('components', `${s.components}${sizes}`),
+    row('next-nearest pairs', String(s.nextNearestPairs)),
+  ];
+  for (const v of result.violations) lines.push(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`);
+  for (const f of result.flags) lines.push(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`);
+  const ran = stages.length > 0 ? `checks run: ${stages.map((st) => st.name).join(', ')}` : 'no collision checks registered yet';
+  lines.push(
+    result.violations.length === 0
+      ? `ok: layout valid; ${ran}; ${result.flags.length} flag(s)`
+      : `FAILED: ${result.violations.length} violation(s), ${result.flags.length} flag(s); ${ran}`,
+  );
+  return lines.join('\n');
+}
+
+export async function checkLayout(ctx: CommandContext, layoutPath: string, stages: readonly CheckStage[] = CHECK_STAGES): Promise<CommandOutcome> {
+  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
+  const summary = ctx.profiler.time('summary', () => summariseChip(layout, graph));
+  const result = await runCheckStages({ layout, graph, profiler: ctx.profiler }, stages);
+  const ok = result.violations.length === 0;
+  return {
+    data: { ok, chip: layout.chip, file: layout.file, summary, violations: result.violations, flags: result.flags },
+    text: summaryText(layout, summary, stages, result),
+    exitCode: ok ? 0 : 1,
+  };
+}
+
+export function registerCheck(program: Command, io: CliIo, stages: readonly CheckStage[] = CHECK_STAGES): void {
+  withCommonOptions(
+    program
+      .command('check')
+      .description('validate a chip layout and summarise it (qubits, couplings, degree, components, next-nearest pairs)')
+      .addArgument(new Argument('<layout>', 'layout YAML file')),
+  ).action(commandAction<[string]>(io, (ctx, layoutPath) => checkLayout(ctx, layoutPath, stages)));
+}

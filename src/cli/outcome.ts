@@ -1,0 +1,22 @@
+/**
+ * What a command returns to the one top-level handler (handler.ts). A command gathers its data,
+ * builds the human text from the same data, and lists the files it wants written; it never
+ * prints, exits or writes files itself. Bad input is thrown as InputError.
+ */
+
+export interface OutputFile {
+  /** As the user gave it (relative paths are resolved against the io's cwd). */
+  path: string;
+  contents: string | Uint8Array;
+}
+
+export interface CommandOutcome {
+  /** The `--json` payload: an object, numbers in SI units (Hz, s, rad; flux in Phi0). */
+  data: Record<string, unknown>;
+  /** The human output (units printed), shown without `--json`. */
+  text: string;
+  /** 0: fine; 1: a check found violations. */
+  exitCode: 0 | 1;
+  /** Written by the handler after the command has finished, each atomically (temp file + rename). */
+  files?: OutputFile[];
+}
