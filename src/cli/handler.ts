@@ -115,7 +115,7 @@ export function writeOutputFiles(files: readonly OutputFile[], cwd: string): voi
         mkdirSync(dirname(target), { recursive: true });
         writeFileSync(tmp, file.contents, { flag: 'wx' });
       } catch (err) {
-        rmSync(tmp, { force: true });
+        removeQuietly(tmp);
         throw new InputError({ file: file.path, message: `expected a writable output path, found ${errnoText(err)}` });
       }
       staged.push({ tmp, target, shown: file.path });
@@ -128,7 +128,16 @@ export function writeOutputFiles(files: readonly OutputFile[], cwd: string): voi
       }
     }
   } finally {
-    for (const s of staged) rmSync(s.tmp, { force: true });
+    for (const s of staged) removeQuietly(s.tmp);
+  }
+}
+
+/** Remove a temporary file if it is there; never throws (the path may not even be a folder's child). */
+function removeQuietly(path: string): void {
+  try {
+    rmSync(path, { force: true });
+  } catch {
+    // nothing was written there
   }
 }
 
@@ -137,7 +146,7 @@ function errnoText(err: unknown): string {
   if (code === 'ENOENT') return 'a folder that does not exist';
   if (code === 'EACCES' || code === 'EPERM') return 'no permission to write there';
   if (code === 'EISDIR') return 'a folder';
-  if (code === 'ENOTDIR') return 'a file where a folder should be';
+  if (code === 'ENOTDIR' || code === 'EEXIST') return 'a file where a folder should be';
   return err instanceof Error ? err.message : String(err);
 }
 
