@@ -73,6 +73,13 @@ export function reportZodIssues(
       value === undefined && rel.length > 0 && typeof rel[rel.length - 1] === 'string' &&
       parent !== null && typeof parent === 'object' && !Array.isArray(parent);
     if (isMissingKey) {
+      // A misspelling of the missing key is already reported as an unknown key with "did you mean".
+      const missing = String(rel[rel.length - 1]);
+      const parentKnown = knownKeys(rel.slice(0, -1));
+      const misspelt = Object.keys(parent as object).some(
+        (k) => !parentKnown.includes(k) && didYouMean(k, parentKnown) === missing,
+      );
+      if (misspelt) continue;
       collector.add(path.slice(0, -1), `missing key ${JSON.stringify(rel[rel.length - 1])}: expected ${issue.message}`, 'key');
     } else {
       collector.add(path, `expected ${issue.message}, found ${describeFound(value)}`);
