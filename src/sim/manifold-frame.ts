@@ -1,0 +1,479 @@
+/**
+ * The dressed-manifold frame of a mover-plus-static-transmons model: precomputed once per model
+ * and range of the mover's Josephson energy, reused by every simulation inside that range
+ * (../shared/physics.md sec. 7: work per pair, not per simulation).
+ *
+ * Model (a Galerkin model on a moving basis, exact as the level cutoffs grow): the mover is kept
+ * through its K_0 lowest instantaneous eigenstates |m(u)>, u = E_J of the mover, so that in the
+ * product basis |p(u)> = |m(u)> (x) |k> (x) ... the Schrodinger equation reads
+ *
+ *     i dc/dt = [ 2 pi H_b(u) - i (du/dt) T(u) (x) 1 ] c,
+ *     H_b = diag(E_m(u) + E_k + ...) + sum G_ij N_i(u) (x) N_j,   T_mm' = <m|d/du m'>,
+ *
+ * where T carries the distortion of the mover's wave function (squeezing; levels and wave-
+ * function derivatives by src/transmon/level-derivatives.ts).
+ *
+ * Frame: H_b conserves the excitation-parity sector, and inside a sector the states of one
+ * excitation manifold (total excitation number k) form a dressed subspace well separated from
+ * the others. For each kept manifold (k <= keepExcitations) the frame basis is the Lowdin
+ * (polar) orthonormalisation of the dressed subspace's projection onto the bare states of the
+ * manifold (des Cloizeaux, Nucl. Phys. 20, 321 (1960); the "canonical" block diagonalisation):
+ *
+ *     Vt_k = V_k X_k (X_k^T X_k)^(-1/2),   X_k = V_k^T B_k,
+ *
+ * V_k the dressed eigenvectors of the manifold, B_k its bare states. Vt is gauge-free and smooth
+ * in u (no eigenvector signs or labels to follow, no trouble at avoided crossings inside a
+ * manifold), each frame state carries the bare label it continues from, and H_b is exactly
+ * block diagonal in it: E(u) = Vt^T H_b Vt. The generator becomes
+ *
+ *     i da/dt = [ 2 pi E(u) - i (du/dt) A(u) ] a,    A = Vt^T dVt/du + Vt^T (T (x) 1) Vt,
+ *
+ * A real antisymmetric. Counter-rotating (inter-manifold) dressing is thus exact, and only du/dt
+ * times the small A couples manifolds. Frame states of manifolds above keepExcitations are
+ * dropped (they are reached only through A at higher order; test/sim shows convergence).
+ *
+ * Interpolation: Vt, E and X = Vt^T (T (x) 1) Vt are sampled at Chebyshev-Lobatto points in u
+ * (doubling until the tail coefficients are below tolerance; they converge geometrically since
+ * everything is analytic in u away from u = 0), dVt/du comes from the Chebyshev series, and E
+ * and A are tabulated with exact derivatives on a fine uniform u grid for cubic Hermite
+ * evaluation inside the time loop.
+ */
+import { transmonLevels } from '../transmon/levels.js';
+import { chargeMatrix } from '../transmon/matrix-elements.js';
+import { transmonLevelDerivatives } from '../transmon/level-derivatives.js';
+import { josephsonEnergy } from '../transmon/josephson.js';
+import { symmetricEigen } from '../linalg/symmetric-eigen.js';
+import { chebyshevCoefficients, chebyshevDerivative, chebyshevEvaluate, chebyshevPoints } from '../linalg/chebyshev-series.js';
+import { paritySectors, productHamiltonian, productLevels, productSpace, subMatrix, type ProductSpace, type TransmonPart } from '../pair/product-basis.js';
+import { DEFAULT_CHARGE_CUTOFF, type SimModel } from './model.js';
+
+export interface ManifoldFrameOptions {
+  /** Range of the mover's E_J (GHz) to cover. */
+  ejLo: number;
+  ejHi: number;
+  /** Keep the frame states of manifolds with total excitation <= this. */
+  keepExcitations?: number;
+  /** Tolerance on the Chebyshev tail of Vt (dimensionless) and of E (GHz). */
+  vectorTol?: number;
+  energyTolGHz?: number;
+  /** First and largest Chebyshev degree. */
+  firstDegree?: number;
+  maxDegree?: number;
+  /** Intervals of the Hermite table. */
+  tableIntervals?: number;
+}
+
+export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
+  keepExcitations: 4,
+  vectorTol: 1e-11,
+  energyTolGHz: 1e-11,
+  firstDegree: 16,
+  maxDegree: 256,
+  tableIntervals: 256,
+});
+
+export interface FrameBlock {
+  /** Total excitation number of the manifold. */
+  excitation: number;
+  /** First frame state of the block and its size. */
+  start: number;
+  size: number;
+}
+
+export interface FrameSector {
+  parity: number;
+  /** Kept frame states (D). */
+  size: number;
+  /** Bare label (levels per transmon) of each frame state. */
+  labels: number[][];
+  /** Product index of each label. */
+  labelIndex: Int32Array;
+  blocks: FrameBlock[];
+  /** block index of each frame state */
+  blockOf: Int32Array;
+  /** Table (tableIntervals + 1 points) of E (D x D, GHz) and dE/du, A (D x D, per GHz) and dA/du. */
+  energy: Float64Array;
+  energySlope: Float64Array;
+  coupling: Float64Array;
+  couplingSlope: Float64Array;
+  /** per table interval: max |A| at its ends */
+  maxCoupling: Float64Array;
+}
+
+export interface ManifoldFrame {
+  model: SimModel;
+  space: ProductSpace;
+  ejLo: number;
+  ejHi: number;
+  /** Chebyshev degree used. */
+  degree: number;
+  /** Table spacing in u (GHz). */
+  tableStep: number;
+  tableIntervals: number;
+  sectors: FrameSector[];
+}
+
+/** Where a labelled frame state lives. */
+export interface FrameState {
+  sector: number;
+  position: number;
+}
+
+interface SectorSetup {
+  indices: Int32Array;
+  /** For each kept frame state: row (position in `indices`) of its bare state. */
+  keptRows: Int32Array;
+  labels: number[][];
+  blocks: FrameBlock[];
+  /** rows (positions in `indices`) of the bare states of each block, in frame order */
+  blockRows: Int32Array[];
+}
+
+interface Sample {
+  /** per sector: Vt (S x D), E (D x D), X (D x D) */
+  vt: Float64Array[];
+  e: Float64Array[];
+  x: Float64Array[];
+}
+
+export class ManifoldFrameBuilder {
+  readonly space: ProductSpace;
+  private readonly nCut: number;
+  private readonly statics: TransmonPart[];
+  private readonly setups: SectorSetup[];
+  private readonly moverCouplings: SimModel['couplings'];
+
+  constructor(readonly model: SimModel, keepExcitations: number = MANIFOLD_FRAME_DEFAULTS.keepExcitations) {
+    if (model.transmons.length < 1) throw new RangeError('manifold frame: no transmons');
+    this.nCut = model.chargeCutoff ?? DEFAULT_CHARGE_CUTOFF;
+    this.space = productSpace(model.transmons.map((t) => t.levels));
+    this.moverCouplings = model.couplings.filter((c) => c.a === 0 || c.b === 0);
+    this.statics = model.transmons.map((t, i) => {
+      if (i === 0) return { energies: new Float64Array(t.levels), charge: new Float64Array(t.levels * t.levels) };
+      const lv = transmonLevels(t.ecGHz, josephsonEnergy(t.ejsGHz, t.asymmetry, t.flux), { levels: t.levels, chargeCutoff: this.nCut, vectors: true });
+      return { energies: lv.energies, charge: chargeMatrix(lv) };
+    });
+    const { even, odd } = paritySectors(this.space);
+    this.setups = [even, odd].map((indices) => {
+      const byExc = new Map<number, number[]>();
+      indices.forEach((p, row) => {
+        const exc = productLevels(this.space, p).reduce((a, b) => a + b, 0);
+        if (exc > keepExcitations) return;
+        if (!byExc.has(exc)) byExc.set(exc, []);
+        (byExc.get(exc) as number[]).push(row);
+      });
+      const blocks: FrameBlock[] = [];
+      const blockRows: Int32Array[] = [];
+      const keptRows: number[] = [];
+      const labels: number[][] = [];
+      for (const exc of [...byExc.keys()].sort((a, b) => a - b)) {
+        const rows = byExc.get(exc) as number[];
+        blocks.push({ excitation: exc, start: keptRows.length, size: rows.length });
+        blockRows.push(Int32Array.from(rows));
+        for (const r of rows) {
+          keptRows.push(r);
+          labels.push(productLevels(this.space, indices[r]));
+        }
+      }
+      return { indices, keptRows: Int32Array.from(keptRows), labels, blocks, blockRows };
+    });
+  }
+
+  /** Frame quantities at one value of the mover's E_J. */
+  sample(u: number): Sample {
+    const t0 = this.model.transmons[0];
+    const k0 = t0.levels;
+    const lv = transmonLevels(t0.ecGHz, u, { levels: k0, chargeCutoff: this.nCut, vectors: true });
+    const der = transmonLevelDerivatives(t0.ecGHz, u, lv);
+    const dim = 2 * this.nCut + 1;
+    const tm = new Float64Array(k0 * k0);
+    for (let m = 0; m < k0; m++)
+      for (let q = 0; q < k0; q++) {
+        let acc = 0;
+        for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
+        tm[m * k0 + q] = acc;
+      }
+    const parts = this.statics.slice();
+    parts[0] = { energies: lv.energies, charge: chargeMatrix(lv) };
+    const n = this.space.size;
+    const h = productHamiltonian(this.space, parts, this.model.couplings);
+    const stride0 = this.space.strides[0];
+    const out: Sample = { vt: [], e: [], x: [] };
+    for (const setup of this.setups) {
+      const idx = setup.indices;
+      const size = idx.length;
+      const d = setup.keptRows.length;
+      const vt = new Float64Array(size * d);
+      const block = subMatrix(h, n, idx);
+      if (size > 0 && d > 0) {
+        const eig = symmetricEigen(block, size);
+        const used = new Uint8Array(size);
+        for (let bIdx = 0; bIdx < setup.blocks.length; bIdx++) {
+          const blk = setup.blocks[bIdx];
+          const rows = setup.blockRows[bIdx];
+          const m = blk.size;
+          // Dressed states of this manifold: the m eigenvectors with the largest weight on its bare states.
+          const weight = new Float64Array(size);
+          for (let c = 0; c < size; c++) {
+            let w = 0;
+            for (const r of rows) w += eig.vectors[r * size + c] * eig.vectors[r * size + c];
+            weight[c] = used[c] ? -1 : w;
+          }
+          const chosen = Array.from({ length: size }, (_, c) => c)
+            .sort((a, b) => weight[b] - weight[a])
+            .slice(0, m)
+            .sort((a, b) => a - b);
+          for (const c of chosen) used[c] = 1;
+          // X = V_k^T B_k (m x m): X[i][j] = component of dressed chosen[i] on bare rows[j]
+          const xk = new Float64Array(m * m);
+          for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) xk[i * m + j] = eig.vectors[rows[j] * size + chosen[i]];
+          // (X^T X)^(-1/2)
+          const xtx = new Float64Array(m * m);
+          for (let i = 0; i < m; i++)
+            for (let j = 0; j < m; j++) {
+              let acc = 0;
+              for (let q = 0; q < m; q++) acc += xk[q * m + i] * xk[q * m + j];
+              xtx[i * m + j] = acc;
+            }
+          const ev = symmetricEigen(xtx, m);
+          const inv = new Float64Array(m * m);
+          for (let i = 0; i < m; i++)
+            for (let j = 0; j < m; j++) {
+              let acc = 0;
+              for (let q = 0; q < m; q++) acc += (ev.vectors[i * m + q] * ev.vectors[j * m + q]) / Math.sqrt(ev.values[q]);
+              inv[i * m + j] = acc;
+            }
+          // Y = X inv (m x m); Vt_k = V_k Y
+          const y = new Float64Array(m * m);
+          for (let i = 0; i < m; i++)
+            for (let j = 0; j < m; j++) {
+              let acc = 0;
+              for (let q = 0; q < m; q++) acc += xk[i * m + q] * inv[q * m + j];
+              y[i * m + j] = acc;
+            }
+          for (let r = 0; r < size; r++)
+            for (let j = 0; j < m; j++) {
+              let acc = 0;
+              for (let i = 0; i < m; i++) acc += eig.vectors[r * size + chosen[i]] * y[i * m + j];
+              vt[r * d + blk.start + j] = acc;
+            }
+        }
+      }
+      // E = Vt^T H Vt (block diagonal), X = Vt^T (T (x) 1) Vt
+      const e = new Float64Array(d * d);
+      const xm = new Float64Array(d * d);
+      const hv = new Float64Array(size);
+      const tv = new Float64Array(size);
+      const full = new Float64Array(n);
+      for (let b = 0; b < d; b++) {
+        full.fill(0);
+        for (let r = 0; r < size; r++) full[idx[r]] = vt[r * d + b];
+        for (let r = 0; r < size; r++) {
+          let acc = 0;
+          for (let q = 0; q < size; q++) acc += block[r * size + q] * vt[q * d + b];
+          hv[r] = acc;
+          const p = idx[r];
+          const m0 = Math.floor(p / stride0) % k0;
+          const rest = p - m0 * stride0;
+          let tacc = 0;
+          for (let m = 0; m < k0; m++) tacc += tm[m0 * k0 + m] * full[rest + m * stride0];
+          tv[r] = tacc;
+        }
+        for (let a = 0; a < d; a++) {
+          let acc = 0;
+          let tacc = 0;
+          for (let r = 0; r < size; r++) {
+            acc += vt[r * d + a] * hv[r];
+            tacc += vt[r * d + a] * tv[r];
+          }
+          e[a * d + b] = acc;
+          xm[a * d + b] = tacc;
+        }
+      }
+      out.vt.push(vt);
+      out.e.push(e);
+      out.x.push(xm);
+    }
+    return out;
+  }
+
+  build(options: ManifoldFrameOptions): ManifoldFrame {
+    const o = { ...MANIFOLD_FRAME_DEFAULTS, ...options };
+    let lo = Math.min(o.ejLo, o.ejHi);
+    let hi = Math.max(o.ejLo, o.ejHi);
+    if (!(lo > 0)) throw new RangeError(`manifold frame: E_J range must be positive (got ${lo})`);
+    if (hi - lo < 1e-9 * hi) {
+      const pad = 1e-6 * hi;
+      lo -= pad;
+      hi += pad;
+    }
+    // Chebyshev sampling with doubling.
+    let degree = o.firstDegree;
+    let points = chebyshevPoints(lo, hi, degree);
+    let samples = Array.from(points, (u) => this.sample(u));
+    for (;;) {
+      if (this.converged(samples, degree, o)) break;
+      if (2 * degree > o.maxDegree) throw new RangeError(`manifold frame: no convergence at Chebyshev degree ${degree} (the dressed manifolds are not smooth over E_J in [${lo}, ${hi}] GHz; fewer levels or a smaller excursion may help)`);
+      const next = chebyshevPoints(lo, hi, 2 * degree);
+      const merged: Sample[] = new Array(2 * degree + 1);
+      for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j]);
+      degree *= 2;
+      points = next;
+      samples = merged;
+    }
+    const nT = o.tableIntervals;
+    const step = (hi - lo) / nT;
+    const sectors = this.setups.map((setup, s) => this.tabulate(setup, s, samples, degree, lo, hi, nT));
+    return { model: this.model, space: this.space, ejLo: lo, ejHi: hi, degree, tableStep: step, tableIntervals: nT, sectors };
+  }
+
+  private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
+    for (let s = 0; s < this.setups.length; s++) {
+      const d = this.setups[s].keptRows.length;
+      const size = this.setups[s].indices.length;
+      if (d === 0) continue;
+      const tail = (field: 'vt' | 'e', width: number): number => {
+        const vals = new Float64Array((degree + 1) * width);
+        samples.forEach((smp, j) => vals.set(smp[field][s], j * width));
+        const c = chebyshevCoefficients(vals, degree, width);
+        let m = 0;
+        for (let k = degree - 1; k <= degree; k++) for (let q = 0; q < width; q++) m = Math.max(m, Math.abs(c[k * width + q]));
+        return m;
+      };
+      if (tail('vt', size * d) > o.vectorTol) return false;
+      if (tail('e', d * d) > o.energyTolGHz) return false;
+    }
+    return true;
+  }
+
+  private tabulate(setup: SectorSetup, s: number, samples: Sample[], degree: number, lo: number, hi: number, nT: number): FrameSector {
+    const d = setup.keptRows.length;
+    const size = setup.indices.length;
+    const nPts = degree + 1;
+    const gather = (field: 'vt' | 'e' | 'x', width: number): Float64Array => {
+      const vals = new Float64Array(nPts * width);
+      samples.forEach((smp, j) => vals.set(smp[field][s], j * width));
+      return vals;
+    };
+    const vtVals = gather('vt', size * d);
+    const vtC = chebyshevCoefficients(vtVals, degree, size * d);
+    const vtD = chebyshevDerivative(vtC, degree, size * d, lo, hi);
+    const dvt = new Float64Array(size * d);
+    // A at the Chebyshev points: Vt^T dVt/du + X, antisymmetrised.
+    const aVals = new Float64Array(nPts * d * d);
+    const points = chebyshevPoints(lo, hi, degree);
+    for (let j = 0; j < nPts; j++) {
+      chebyshevEvaluate(vtD, degree, size * d, lo, hi, points[j], dvt);
+      const vt = samples[j].vt[s];
+      const x = samples[j].x[s];
+      for (let a = 0; a < d; a++)
+        for (let b = 0; b < d; b++) {
+          let acc = 0;
+          for (let r = 0; r < size; r++) acc += vt[r * d + a] * dvt[r * d + b];
+          aVals[(j * d + a) * d + b] = acc + x[a * d + b];
+        }
+      for (let a = 0; a < d; a++) {
+        aVals[(j * d + a) * d + a] = 0;
+        for (let b = a + 1; b < d; b++) {
+          const avg = 0.5 * (aVals[(j * d + a) * d + b] - aVals[(j * d + b) * d + a]);
+          aVals[(j * d + a) * d + b] = avg;
+          aVals[(j * d + b) * d + a] = -avg;
+        }
+      }
+    }
+    const eVals = gather('e', d * d);
+    // Exact block structure and symmetry.
+    const blockOf = new Int32Array(d);
+    setup.blocks.forEach((b, i) => {
+      for (let q = 0; q < b.size; q++) blockOf[b.start + q] = i;
+    });
+    for (let j = 0; j < nPts; j++)
+      for (let a = 0; a < d; a++)
+        for (let b = a; b < d; b++) {
+          const v = blockOf[a] === blockOf[b] ? 0.5 * (eVals[(j * d + a) * d + b] + eVals[(j * d + b) * d + a]) : 0;
+          eVals[(j * d + a) * d + b] = v;
+          eVals[(j * d + b) * d + a] = v;
+        }
+    const eC = chebyshevCoefficients(eVals, degree, d * d);
+    const eD = chebyshevDerivative(eC, degree, d * d, lo, hi);
+    const aC = chebyshevCoefficients(aVals, degree, d * d);
+    const aD = chebyshevDerivative(aC, degree, d * d, lo, hi);
+    const w = d * d;
+    const energy = new Float64Array((nT + 1) * w);
+    const energySlope = new Float64Array((nT + 1) * w);
+    const coupling = new Float64Array((nT + 1) * w);
+    const couplingSlope = new Float64Array((nT + 1) * w);
+    const tmp = new Float64Array(w);
+    for (let i = 0; i <= nT; i++) {
+      const u = i === nT ? hi : lo + ((hi - lo) * i) / nT;
+      energy.set(chebyshevEvaluate(eC, degree, w, lo, hi, u, tmp), i * w);
+      energySlope.set(chebyshevEvaluate(eD, degree, w, lo, hi, u, tmp), i * w);
+      coupling.set(chebyshevEvaluate(aC, degree, w, lo, hi, u, tmp), i * w);
+      couplingSlope.set(chebyshevEvaluate(aD, degree, w, lo, hi, u, tmp), i * w);
+    }
+    const maxCoupling = new Float64Array(nT);
+    for (let i = 0; i < nT; i++) {
+      let m = 0;
+      for (let q = 0; q < w; q++) m = Math.max(m, Math.abs(coupling[i * w + q]), Math.abs(coupling[(i + 1) * w + q]));
+      maxCoupling[i] = m;
+    }
+    const labelIndex = Int32Array.from(setup.keptRows, (r) => setup.indices[r]);
+    return { parity: s, size: d, labels: setup.labels, labelIndex, blocks: setup.blocks, blockOf, energy, energySlope, coupling, couplingSlope, maxCoupling };
+  }
+}
+
+export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {
+  return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations).build(options);
+}
+
+/** Locate the frame state labelled `levels`. */
+export function frameState(frame: ManifoldFrame, levels: readonly number[]): FrameState {
+  const p = levels.reduce((acc, m, i) => acc + m * frame.space.strides[i], 0);
+  for (let s = 0; s < frame.sectors.length; s++) {
+    const pos = frame.sectors[s].labelIndex.indexOf(p);
+    if (pos >= 0) return { sector: s, position: pos };
+  }
+  throw new RangeError(`manifold frame: no kept state labelled ${levels.join('')}`);
+}
+
+/** Table interval of u (clamped). */
+export function tableInterval(frame: ManifoldFrame, u: number): number {
+  const i = Math.floor((u - frame.ejLo) / frame.tableStep);
+  return i < 0 ? 0 : i >= frame.tableIntervals ? frame.tableIntervals - 1 : i;
+}
+
+/**
+ * E (GHz) and A (per GHz of E_J) of a sector at u, by cubic Hermite on the table; `outE` and
+ * `outA` are D x D.
+ */
+export function evaluateFrame(frame: ManifoldFrame, sector: FrameSector, u: number, outE: Float64Array, outA: Float64Array): void {
+  const i = tableInterval(frame, u);
+  const h = frame.tableStep;
+  const t = (u - (frame.ejLo + i * h)) / h;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  const h00 = 2 * t3 - 3 * t2 + 1;
+  const h10 = (t3 - 2 * t2 + t) * h;
+  const h01 = -2 * t3 + 3 * t2;
+  const h11 = (t3 - t2) * h;
+  const w = sector.size * sector.size;
+  const p0 = i * w;
+  const p1 = p0 + w;
+  const e = sector.energy;
+  const es = sector.energySlope;
+  const a = sector.coupling;
+  const as = sector.couplingSlope;
+  for (let q = 0; q < w; q++) {
+    outE[q] = h00 * e[p0 + q] + h10 * es[p0 + q] + h01 * e[p1 + q] + h11 * es[p1 + q];
+    outA[q] = h00 * a[p0 + q] + h10 * as[p0 + q] + h01 * a[p1 + q] + h11 * as[p1 + q];
+  }
+}
+
+/** Largest |A| over table intervals covering [uLo, uHi]. */
+export function maxCouplingBetween(frame: ManifoldFrame, sector: FrameSector, uLo: number, uHi: number): number {
+  const i0 = tableInterval(frame, Math.min(uLo, uHi));
+  const i1 = tableInterval(frame, Math.max(uLo, uHi));
+  let m = 0;
+  for (let i = i0; i <= i1; i++) if (sector.maxCoupling[i] > m) m = sector.maxCoupling[i];
+  return m;
+}

@@ -1,0 +1,258 @@
+/**
+ * Coherent propagation in the dressed-manifold frame (src/sim/manifold-frame.ts):
+ *
+ *     i da/dt = H(t) a,   H(t) = 2 pi E(u(t)) - i B(t),   B = (du/dt) A(u),
+ *
+ * u = E_J of the mover along a piecewise-linear flux trajectory. E is block diagonal (one block
+ * per excitation manifold), A real antisymmetric. A segment at fixed flux is exact: a <- exp(-i 2 pi E dt) a
+ * through the eigen-decomposition of E's blocks. Otherwise each sub-step of length h uses the
+ * fourth-order Magnus integrator with two Gauss-Legendre nodes (Blanes, Casas, Oteo and Ros,
+ * Phys. Rep. 470, 151 (2009), Eq. 253):
+ *
+ *     Omega = -i (h/2)(H1 + H2) - (sqrt3 h^2/12) [H2, H1],    a <- exp(Omega) a,
+ *
+ * with exp taken exactly through the eigen-decomposition of the Hermitian M = i Omega (complex
+ * Jacobi, warm-started from the previous step). With c = sqrt3 h^2 / 12:
+ *
+ *     Re M = pi h (E1 + E2) - 2 pi c ([E2, B1] + [B2, E1])
+ *     Im M = -(h/2)(B1 + B2) - 4 pi^2 c [E2, E1] + c [B2, B1].
+ *
+ * Step size: h <= maxStepNs, |du/dt| h max|A| <= maxAngle (the rotation a step makes between
+ * frame states) and |du/dt| h <= maxEjStep (GHz of E_J per step). Error O(h^4)
+ * (test/sim/propagate-frame.test.ts measures the order).
+ */
+import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
+import { symmetricEigen } from '../linalg/symmetric-eigen.js';
+import { josephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
+import { evaluateFrame, maxCouplingBetween, type FrameSector, type FrameState, type ManifoldFrame } from './manifold-frame.js';
+import type { Trajectory } from './trajectory.js';
+
+export interface FramePropagationOptions {
+  maxStepNs?: number;
+  maxAngle?: number;
+  maxEjStepGHz?: number;
+}
+
+export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.5, maxAngle: 0.1, maxEjStepGHz: 0.25 });
+
+/** Final amplitudes of each initial frame vector (in its sector's frame basis). */
+export interface FrameColumns {
+  re: Float64Array[];
+  im: Float64Array[];
+  steps: number;
+}
+
+export interface FrameInitial {
+  sector: number;
+  /** Initial amplitudes in the sector's frame basis. */
+  re: Float64Array;
+  im: Float64Array;
+}
+
+const TWO_PI = 2 * Math.PI;
+const GL1 = 0.5 - Math.sqrt(3) / 6;
+const GL2 = 0.5 + Math.sqrt(3) / 6;
+
+/** Scratch for one sector. */
+export class SectorStepper {
+  readonly d: number;
+  readonly e1: Float64Array;
+  readonly e2: Float64Array;
+  readonly a1: Float64Array;
+  readonly a2: Float64Array;
+  readonly mr: Float64Array;
+  readonly mi: Float64Array;
+  readonly tr: Float64Array;
+  readonly ti: Float64Array;
+  readonly eig: HermitianEigen;
+  hasStart = false;
+
+  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector) {
+    const d = sector.size;
+    this.d = d;
+    this.e1 = new Float64Array(d * d);
+    this.e2 = new Float64Array(d * d);
+    this.a1 = new Float64Array(d * d);
+    this.a2 = new Float64Array(d * d);
+    this.mr = new Float64Array(d * d);
+    this.mi = new Float64Array(d * d);
+    this.tr = new Float64Array(d);
+    this.ti = new Float64Array(d);
+    this.eig = { values: new Float64Array(d), vectorsRe: new Float64Array(d * d), vectorsIm: new Float64Array(d * d) };
+  }
+
+  /** Unitary of a hold of length dt at E_J = u: U = exp(-i 2 pi E dt), stored as eigen-decomposition in eig (real vectors). */
+  holdPropagator(u: number, dt: number): void {
+    const d = this.d;
+    evaluateFrame(this.frame, this.sector, u, this.e1, this.a1);
+    const vr = this.eig.vectorsRe;
+    const vi = this.eig.vectorsIm;
+    vr.fill(0);
+    vi.fill(0);
+    for (const blk of this.sector.blocks) {
+      const m = blk.size;
+      const sub = new Float64Array(m * m);
+      for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) sub[i * m + j] = this.e1[(blk.start + i) * d + blk.start + j];
+      const ev = symmetricEigen(sub, m);
+      for (let i = 0; i < m; i++) {
+        this.eig.values[blk.start + i] = TWO_PI * ev.values[i] * dt;
+        for (let j = 0; j < m; j++) vr[(blk.start + j) * d + blk.start + i] = ev.vectors[j * m + i];
+      }
+    }
+    this.hasStart = false;
+  }
+
+  /** Build M for one Magnus step from (e1, a1), (e2, a2) already holding E and B at the nodes. */
+  magnusMatrix(h: number): void {
+    const d = this.d;
+    const { e1, e2, a1, a2, mr, mi } = this;
+    const c = (Math.sqrt(3) * h * h) / 12;
+    for (let n = 0; n < d; n++) {
+      for (let m = n; m < d; m++) {
+        // [E2, B1] + [B2, E1] (symmetric), [E2, E1] (antisymmetric), [B2, B1] (antisymmetric)
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        for (let k = 0; k < d; k++) {
+          const e2nk = e2[n * d + k];
+          const e1nk = e1[n * d + k];
+          const b1nk = a1[n * d + k];
+          const b2nk = a2[n * d + k];
+          const e2km = e2[k * d + m];
+          const e1km = e1[k * d + m];
+          const b1km = a1[k * d + m];
+          const b2km = a2[k * d + m];
+          s1 += e2nk * b1km - b1nk * e2km + b2nk * e1km - e1nk * b2km;
+          s2 += e2nk * e1km - e1nk * e2km;
+          s3 += b2nk * b1km - b1nk * b2km;
+        }
+        const re = Math.PI * h * (e1[n * d + m] + e2[n * d + m]) - TWO_PI * c * s1;
+        const im = -0.5 * h * (a1[n * d + m] + a2[n * d + m]) - 4 * Math.PI * Math.PI * c * s2 + c * s3;
+        mr[n * d + m] = re;
+        mr[m * d + n] = re;
+        if (m === n) mi[n * d + n] = 0;
+        else {
+          mi[n * d + m] = im;
+          mi[m * d + n] = -im;
+        }
+      }
+    }
+    hermitianEigen(mr, mi, d, { out: this.eig, start: this.hasStart ? { re: this.eig.vectorsRe, im: this.eig.vectorsIm } : undefined, sort: false });
+    this.hasStart = true;
+  }
+
+  /** x <- V exp(-i w) V^H x with the decomposition in eig. */
+  apply(re: Float64Array, im: Float64Array): void {
+    const d = this.d;
+    const vr = this.eig.vectorsRe;
+    const vi = this.eig.vectorsIm;
+    const w = this.eig.values;
+    const tr = this.tr;
+    const ti = this.ti;
+    for (let k = 0; k < d; k++) {
+      let sr = 0;
+      let si = 0;
+      for (let r = 0; r < d; r++) {
+        const ar = vr[r * d + k];
+        const ai = -vi[r * d + k];
+        sr += ar * re[r] - ai * im[r];
+        si += ar * im[r] + ai * re[r];
+      }
+      const cw = Math.cos(w[k]);
+      const sw = -Math.sin(w[k]);
+      tr[k] = cw * sr - sw * si;
+      ti[k] = sw * sr + cw * si;
+    }
+    for (let r = 0; r < d; r++) {
+      let sr = 0;
+      let si = 0;
+      for (let k = 0; k < d; k++) {
+        const ar = vr[r * d + k];
+        const ai = vi[r * d + k];
+        sr += ar * tr[k] - ai * ti[k];
+        si += ar * ti[k] + ai * tr[k];
+      }
+      re[r] = sr;
+      im[r] = si;
+    }
+  }
+}
+
+/** Propagate the initial vectors through the trajectory (coherent). */
+export function propagateInFrame(frame: ManifoldFrame, traj: Trajectory, initial: FrameInitial[], options: FramePropagationOptions = {}): FrameColumns {
+  const o = { ...FRAME_PROPAGATION_DEFAULTS, ...options };
+  const re = initial.map((x) => Float64Array.from(x.re));
+  const im = initial.map((x) => Float64Array.from(x.im));
+  let steps = 0;
+  for (let s = 0; s < frame.sectors.length; s++) {
+    const cols = initial.map((x, i) => (x.sector === s ? i : -1)).filter((i) => i >= 0);
+    if (cols.length === 0) continue;
+    const stepper = new SectorStepper(frame, frame.sectors[s]);
+    steps += walkTrajectory(stepper, traj, o, () => {
+      for (const c of cols) stepper.apply(re[c], im[c]);
+    });
+  }
+  return { re, im, steps };
+}
+
+/**
+ * Walk a trajectory through one sector's stepper: for every hold and every Magnus step, set up
+ * the step's decomposition in `stepper.eig` and call `onStep(dt)`. Returns the number of steps.
+ */
+export function walkTrajectory(
+  stepper: SectorStepper,
+  traj: Trajectory,
+  o: { maxStepNs: number; maxAngle: number; maxEjStepGHz: number },
+  onStep: (dt: number, tStart: number, uMid: number) => void,
+): number {
+  const frame = stepper.frame;
+  const mover = frame.model.transmons[0];
+  const ej = (x: number): number => josephsonEnergy(mover.ejsGHz, mover.asymmetry, x);
+  const ejSlope = (x: number): number => josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, x);
+  const ts = traj.timeNs;
+  const xs = traj.flux;
+  const d = stepper.d;
+  let steps = 0;
+  for (let k = 0; k + 1 < ts.length; k++) {
+    const dt = ts[k + 1] - ts[k];
+    const x0 = xs[k];
+    const x1 = xs[k + 1];
+    if (x1 === x0) {
+      stepper.holdPropagator(ej(x0), dt);
+      onStep(dt, ts[k], ej(x0));
+      steps++;
+      continue;
+    }
+    const v = (x1 - x0) / dt;
+    const u0 = ej(x0);
+    const u1 = ej(x1);
+    const uMid = ej(0.5 * (x0 + x1));
+    const slopeMax = Math.max(Math.abs(ejSlope(x0)), Math.abs(ejSlope(x1)), Math.abs(ejSlope(0.5 * (x0 + x1)))) * 1.25;
+    const uLo = Math.min(u0, u1, uMid);
+    const uHi = Math.max(u0, u1, uMid);
+    const aMax = maxCouplingBetween(frame, stepper.sector, uLo, uHi);
+    const rate = Math.abs(v) * slopeMax; // |du/dt| bound, GHz/ns
+    let n = Math.ceil(dt / o.maxStepNs);
+    n = Math.max(n, Math.ceil((rate * dt * aMax) / o.maxAngle), Math.ceil((rate * dt) / o.maxEjStepGHz));
+    const h = dt / n;
+    for (let q = 0; q < n; q++) {
+      const xa = x0 + v * (q + GL1) * h;
+      const xb = x0 + v * (q + GL2) * h;
+      const ua = ej(xa);
+      const ub = ej(xb);
+      evaluateFrame(frame, stepper.sector, ua, stepper.e1, stepper.a1);
+      evaluateFrame(frame, stepper.sector, ub, stepper.e2, stepper.a2);
+      const ra = v * ejSlope(xa);
+      const rb = v * ejSlope(xb);
+      for (let q2 = 0; q2 < d * d; q2++) {
+        stepper.a1[q2] *= ra;
+        stepper.a2[q2] *= rb;
+      }
+
+      stepper.magnusMatrix(h);
+      onStep(h, ts[k] + q * h, ej(x0 + v * (q + 0.5) * h));
+      steps++;
+    }
+  }
+  return steps;
+}
