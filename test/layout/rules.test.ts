@@ -1,0 +1,55 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { DEFAULT_RULES, RULE_SPECS, parseRuleValue, ruleSpecByKey, rulesTableMarkdown } from '../../src/layout/rules.js';
+import { readmeWithRulesTable } from '../../scripts/write-generated.js';
+
+describe('shared/rules.json', () => {
+  it('has one entry per Rules field, with unique keys, a doc sentence and a source', () => {
+    const fields = RULE_SPECS.map((s) => s.field).sort();
+    expect(fields).toEqual(Object.keys({ ...DEFAULT_RULES, fluxBandwidthGHz: 0 }).sort());
+    expect(new Set(RULE_SPECS.map((s) => s.key)).size).toBe(RULE_SPECS.length);
+    for (const s of RULE_SPECS) {
+      expect(s.doc).toMatch(/\.$/);
+      expect(s.source.length).toBeGreaterThan(0);
+      expect(s.field.startsWith(s.key)).toBe(true); // layout key = field without its unit suffix
+    }
+  });
+
+  it('defaults in internal units (GHz, ns): the values the foundation issue fixes', () => {
+    expect(DEFAULT_RULES).toEqual({
+      zzLimitGHz: 2e-4, // 200 kHz
+      detuning0101GHz: 0.05,
+      detuning0112GHz: 0.03,
+      detuningNext0101GHz: 0.03,
+      tlsClearanceGHz: 0.005,
+      readoutDetuningGHz: 0.3,
+      spectatorDetuningGHz: 0.03,
+      sweptTransferLimit: 1e-3,
+      maxGateNs: 100,
+      sampleRateGHz: 2.4,
+      resistanceSpread: 0.02,
+      marginFlagSpreads: 3,
+    });
+    expect('fluxBandwidthGHz' in DEFAULT_RULES).toBe(false); // none: an ideal flux line
+    expect(Object.isFrozen(DEFAULT_RULES)).toBe(true);
+  });
+
+  it('parseRuleValue checks kind and range', () => {
+    const spec = (k: string) => ruleSpecByKey(k)!;
+    expect(parseRuleValue(spec('zzLimit'), '150 kHz')).toEqual({ ok: true, value: 1.5e-4 });
+    expect(parseRuleValue(spec('detuning0101'), '0 MHz')).toEqual({ ok: true, value: 0 });
+    expect(parseRuleValue(spec('zzLimit'), '0 kHz')).toEqual({ ok: false, message: 'expected a frequency greater than 0, found 0 kHz' });
+    expect(parseRuleValue(spec('detuning0101'), '-1 MHz')).toEqual({ ok: false, message: 'expected a frequency of at least 0, found -1 MHz' });
+    expect(parseRuleValue(spec('fluxBandwidth'), null)).toEqual({ ok: true, value: undefined });
+    expect(parseRuleValue(spec('maxGate'), null)).toEqual({ ok: false, message: 'expected a time, found an empty value (only optional rules may be null)' });
+    expect(parseRuleValue(spec('resistanceSpread'), Number.NaN)).toEqual({ ok: false, message: 'expected a number, found NaN' });
+    expect(parseRuleValue(spec('marginFlagSpreads'), '3')).toEqual({ ok: false, message: 'expected a number, found the text "3"' });
+  });
+
+  it("the README's rules table is the one generated from rules.json (run npm run generated after a change)", () => {
+    const readme = readFileSync('README.md', 'utf8');
+    expect(readme).toContain(rulesTableMarkdown());
+    expect(readmeWithRulesTable(readme)).toBe(readme);
+    for (const s of RULE_SPECS) expect(readme).toContain(`| \`${s.key}\` |`);
+  });
+});
