@@ -29,9 +29,9 @@ import { InputError } from '../util/errors.js';
 import { bracketedNewton } from '../linalg/bracketed-root.js';
 import { AMBEGAOKAR_BARATOFF_DEFAULTS, josephsonEnergyFromResistance } from './ambegaokar-baratoff.js';
 import { josephsonEnergyForFrequency } from './flux-for-frequency.js';
-import { transmonLevels } from './levels.js';
 import { chargeCutoffFor } from './charge-cutoff.js';
-import { cosPhiExpectation, type TransmonParams } from './spectrum.js';
+import { cosPhiElement, parityEigenbasis } from './parity-eigenbasis.js';
+import type { TransmonParams } from './spectrum.js';
 
 export interface ResolveOptions {
   /** Superconducting gap for Ambegaokar-Baratoff (micro-eV). */
@@ -134,14 +134,14 @@ function solveFromFrequencies(
   const target = alpha / fMax;
   const nCut = chargeCutoffFor(SEARCH_R[1]);
   const ratio = (r: number, slope?: { value: number }): number => {
-    const lv = transmonLevels(1, r, { levels: 3, chargeCutoff: nCut, vectors: slope !== undefined });
+    const lv = parityEigenbasis(1, r, 3, nCut, slope !== undefined);
     const e = lv.energies;
     const f = e[1] - e[0];
     const a = e[2] - 2 * e[1] + e[0];
     if (slope) {
-      const c0 = cosPhiExpectation(lv, 0);
-      const c1 = cosPhiExpectation(lv, 1);
-      const c2 = cosPhiExpectation(lv, 2);
+      const c0 = cosPhiElement(lv, 0, 0);
+      const c1 = cosPhiElement(lv, 1, 1);
+      const c2 = cosPhiElement(lv, 2, 2);
       const df = c0 - c1;
       const da = -(c2 - 2 * c1 + c0);
       slope.value = (da * f - a * df) / (f * f);
@@ -163,7 +163,7 @@ function solveFromFrequencies(
     xTol: 1e-13 * SEARCH_R[1],
     fTol: 1e-15,
   });
-  const lv = transmonLevels(1, r, { levels: 2, chargeCutoff: nCut });
+  const lv = parityEigenbasis(1, r, 2, nCut, false);
   const ec = fMax / (lv.energies[1] - lv.energies[0]);
   return { ecGHz: ec, ejsGHz: r * ec, r };
 }

@@ -12,10 +12,12 @@
  *     df01/dPhi = -(<1|cos phi|1> - <0|cos phi|0>) dE_J/dPhi        (GHz per Phi0),
  *
  * with the expectation values from the charge-basis eigenvectors (test: against a central
- * finite difference). Levels at offset charge n_g = 0 (the transmon stage's working point).
+ * finite difference). Levels at offset charge n_g = 0 (the transmon stage's working point),
+ * computed in the charge-parity blocks (src/transmon/parity-eigenbasis.ts).
  */
 import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
-import { transmonLevels, type TransmonLevels } from './levels.js';
+import type { TransmonLevels } from './levels.js';
+import { cosPhiElement, parityEigenbasis } from './parity-eigenbasis.js';
 
 /** A transmon's circuit parameters (what src/transmon/resolve.ts produces from the layout). */
 export interface TransmonParams {
@@ -58,11 +60,11 @@ export function spectrumAt(params: TransmonParams, flux: number, options: { char
   const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
   const ej = josephsonEnergy(params.ejsGHz, params.asymmetry, flux);
   const dEj = josephsonEnergySlope(params.ejsGHz, params.asymmetry, flux);
-  const lv = transmonLevels(params.ecGHz, ej, { levels: 3, chargeCutoff: nCut, vectors: true });
-  const e = lv.energies;
-  const c0 = cosPhiExpectation(lv, 0);
-  const c1 = cosPhiExpectation(lv, 1);
-  const c2 = cosPhiExpectation(lv, 2);
+  const b = parityEigenbasis(params.ecGHz, ej, 3, nCut, true);
+  const e = b.energies;
+  const c0 = cosPhiElement(b, 0, 0);
+  const c1 = cosPhiElement(b, 1, 1);
+  const c2 = cosPhiElement(b, 2, 2);
   return {
     flux,
     ejGHz: ej,
@@ -79,14 +81,14 @@ export function spectrumAt(params: TransmonParams, flux: number, options: { char
  * (Hellmann-Feynman). Writes the slope into `slope.value` when given.
  */
 export function f01ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
-  const lv = transmonLevels(ecGHz, ejGHz, { levels: 2, chargeCutoff, vectors: slope !== undefined });
-  if (slope) slope.value = cosPhiExpectation(lv, 0) - cosPhiExpectation(lv, 1);
-  return lv.energies[1] - lv.energies[0];
+  const b = parityEigenbasis(ecGHz, ejGHz, 2, chargeCutoff, slope !== undefined);
+  if (slope) slope.value = cosPhiElement(b, 0, 0) - cosPhiElement(b, 1, 1);
+  return b.energies[1] - b.energies[0];
 }
 
 /** f12 for (E_C, E_J) and df12/dE_J = <1|cos phi|1> - <2|cos phi|2>. */
 export function f12ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
-  const lv = transmonLevels(ecGHz, ejGHz, { levels: 3, chargeCutoff, vectors: slope !== undefined });
-  if (slope) slope.value = cosPhiExpectation(lv, 1) - cosPhiExpectation(lv, 2);
-  return lv.energies[2] - lv.energies[1];
+  const b = parityEigenbasis(ecGHz, ejGHz, 3, chargeCutoff, slope !== undefined);
+  if (slope) slope.value = cosPhiElement(b, 1, 1) - cosPhiElement(b, 2, 2);
+  return b.energies[2] - b.energies[1];
 }

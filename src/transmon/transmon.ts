@@ -11,7 +11,8 @@
  *     q.fluxForF01(fGHz)                                   // inverse on 0 <= Phi <= 1/2; InputError outside the range
  *     q.fluxForF01OrNull(fGHz), q.fluxForF12OrNull(fGHz)   // null outside the range
  *     q.levels(flux, k, vectors?)                          // lowest k levels (and charge-basis wave functions)
- *     q.eigenbasis(flux, k)                                // energies + <m|n|m'> (+ <m|cos phi|m'>) for coupled models
+ *     q.eigenbasis(flux, k)                                // energies, <m|n|m'>, <m|cos phi|m'>, wave functions
+ *     q.chargeBasis(flux, k)                               // energies and <m|n|m'> only (pair spectra)
  *     q.chargeElement01(flux)                              // |<0|n|1>|, sets g(Phi) (src/pair/coupling.ts)
  *     q.coherence(flux)                                    // T1, T_phi(Phi), T2(Phi) (src/transmon/coherence.ts)
  *
@@ -28,6 +29,7 @@ import { fluxForFrequency, fluxForFrequencyOrNull } from './flux-for-frequency.j
 import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
 import { transmonLevels, type TransmonLevels } from './levels.js';
 import { chargeMatrix, cosPhiMatrix } from './matrix-elements.js';
+import { chargeMatrixFromParity, parityEigenbasis } from './parity-eigenbasis.js';
 import { resolveTransmon, type ResolveOptions } from './resolve.js';
 import { spectrumAt, type SpectrumPoint, type TransmonParams } from './spectrum.js';
 
@@ -116,7 +118,7 @@ export class Transmon {
 
   /** f01 at `flux` (GHz). */
   f01(flux: number): number {
-    const e = transmonLevels(this.ecGHz, this.ejGHz(flux), { levels: 2, chargeCutoff: this.chargeCutoff }).energies;
+    const e = parityEigenbasis(this.ecGHz, this.ejGHz(flux), 2, this.chargeCutoff, false).energies;
     return e[1] - e[0];
   }
 
@@ -144,14 +146,16 @@ export class Transmon {
     };
   }
 
+  /** Energies and charge matrix only (what a capacitive coupling needs; cheaper than eigenbasis). */
+  chargeBasis(flux: number, k: number): { energies: Float64Array; charge: Float64Array } {
+    const b = parityEigenbasis(this.ecGHz, this.ejGHz(flux), k, this.chargeCutoff, true);
+    return { energies: b.energies, charge: chargeMatrixFromParity(b) };
+  }
+
   /** |<0|n|1>| at `flux`. */
   chargeElement01(flux: number): number {
-    const lv = this.levels(flux, 2, true);
-    const dim = 2 * lv.chargeCutoff + 1;
-    const v = lv.vectors;
-    let s = 0;
-    for (let j = 0; j < dim; j++) s += (j - lv.chargeCutoff) * v[j] * v[dim + j];
-    return Math.abs(s);
+    const b = parityEigenbasis(this.ecGHz, this.ejGHz(flux), 2, this.chargeCutoff, true);
+    return Math.abs(chargeMatrixFromParity(b)[1]);
   }
 
   /** True when f01 = fGHz is reachable (fMin <= f <= fMax, with round-off slack). */

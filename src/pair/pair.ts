@@ -1,0 +1,122 @@
+/**
+ * `CoupledPair`: two transmons with a capacitive coupling, the pair stage's main API
+ * (../../shared/physics.md sec. 2). Built once per edge; answers dressed spectra, static ZZ and
+ * exchange couplings at any pair of fluxes, reusing each transmon's eigenbasis when its flux
+ * repeats (so a sweep of one qubit computes the other's levels once).
+ *
+ *     const pair = new CoupledPair(qa, qb, gGHz);          // g from the layout (both at Phi = 0)
+ *     pair.gChargeGHz                                       // G of G n_A n_B
+ *     pair.exchangeCoupling(fluxA, fluxB)                   // g(Phi_A, Phi_B)
+ *     pair.zz(fluxA, fluxB)                                 // static ZZ (GHz), energies only (fast path)
+ *     pair.spectrum(fluxA, fluxB, { vectors })              // labelled dressed levels (+ states)
+ *
+ * K levels per transmon (default 6, at least 4 for spectra; test/pair shows convergence in K).
+ * Order of labels |ij> = |i>_A |j>_B. Not thread-safe across concurrent callers of one object
+ * (scratch buffers); create one per worker.
+ */
+import type { Transmon } from '../transmon/transmon.js';
+import { chargeCouplingForPair, exchangeFromChargeCoupling } from './coupling.js';
+import {
+  dressedComputationalEnergies,
+  dressedSpectrum,
+  dressedSpectrumScratch,
+  staticZz,
+  type CouplingBasis,
+  type DressedSpectrum,
+  type DressedSpectrumScratch,
+} from './dressed-spectrum.js';
+
+export interface CoupledPairOptions {
+  /** Levels per transmon K (>= 4). */
+  levels?: number;
+}
+
+export const COUPLED_PAIR_DEFAULTS = Object.freeze({ levels: 6 });
+
+export interface PairSpectrum extends DressedSpectrum {
+  fluxA: number;
+  fluxB: number;
+  /** Exchange coupling g at these fluxes (GHz). */
+  gGHz: number;
+  /** Static ZZ (GHz). */
+  zzGHz: number;
+  /** Dressed energy of |ij> (GHz, absolute). */
+  energy(i: number, j: number): number;
+}
+
+interface CachedBasis extends CouplingBasis {
+  flux: number;
+  n01: number;
+}
+
+export class CoupledPair {
+  readonly a: Transmon;
+  readonly b: Transmon;
+  /** The layout's g (both qubits at Phi = 0). */
+  readonly gMaxGHz: number;
+  /** Charge coupling G. */
+  readonly gChargeGHz: number;
+  readonly levels: number;
+  private readonly scratch: DressedSpectrumScratch;
+  private cacheA: CachedBasis | undefined;
+  private cacheB: CachedBasis | undefined;
+  private readonly e4 = new Float64Array(4);
+
+  constructor(a: Transmon, b: Transmon, gGHz: number, options: CoupledPairOptions = {}) {
+    const k = options.levels ?? COUPLED_PAIR_DEFAULTS.levels;
+    if (!Number.isInteger(k) || k < 4) throw new RangeError(`CoupledPair: levels must be an integer >= 4, got ${k}`);
+    if (!(Number.isFinite(gGHz) && gGHz >= 0)) throw new RangeError(`CoupledPair: g must be >= 0, got ${gGHz}`);
+    this.a = a;
+    this.b = b;
+    this.gMaxGHz = gGHz;
+    this.levels = k;
+    this.gChargeGHz = chargeCouplingForPair(a, b, gGHz);
+    this.scratch = dressedSpectrumScratch(k);
+  }
+
+  /** A's eigenbasis (K levels) at `flux` (cached for the last flux). */
+  basisA(flux: number): CachedBasis {
+    if (!this.cacheA || this.cacheA.flux !== flux) this.cacheA = this.computeBasis(this.a, flux);
+    return this.cacheA;
+  }
+
+  basisB(flux: number): CachedBasis {
+    if (!this.cacheB || this.cacheB.flux !== flux) this.cacheB = this.computeBasis(this.b, flux);
+    return this.cacheB;
+  }
+
+  /** g(Phi_A, Phi_B) = G |<0|n|1>_A| |<0|n|1>_B|. */
+  exchangeCoupling(fluxA: number, fluxB: number): number {
+    return exchangeFromChargeCoupling(this.gChargeGHz, this.basisA(fluxA).n01, this.basisB(fluxB).n01);
+  }
+
+  /** Static ZZ zeta = E_11 - E_10 - E_01 + E_00 (GHz). */
+  zz(fluxA: number, fluxB: number): number {
+    const e = dressedComputationalEnergies(this.basisA(fluxA), this.basisB(fluxB), this.gChargeGHz, this.levels, this.scratch, this.e4);
+    return e[3] - e[2] - e[1] + e[0];
+  }
+
+  /** Labelled dressed spectrum at (Phi_A, Phi_B). */
+  spectrum(fluxA: number, fluxB: number, options: { vectors?: boolean } = {}): PairSpectrum {
+    const ba = this.basisA(fluxA);
+    const bb = this.basisB(fluxB);
+    const s = dressedSpectrum(ba, bb, this.gChargeGHz, this.levels, { scratch: this.scratch, vectors: options.vectors === true });
+    const k = this.levels;
+    return {
+      ...s,
+      fluxA,
+      fluxB,
+      gGHz: exchangeFromChargeCoupling(this.gChargeGHz, ba.n01, bb.n01),
+      zzGHz: staticZz(s),
+      energy(i: number, j: number): number {
+        if (!(i >= 0 && i < k && j >= 0 && j < k)) throw new RangeError(`PairSpectrum.energy: |${i}${j}> outside K=${k}`);
+        return s.dressed[i * k + j];
+      },
+    };
+  }
+
+  private computeBasis(q: Transmon, flux: number): CachedBasis {
+    const { energies, charge } = q.chargeBasis(flux, this.levels);
+    return { flux, energies, charge, n01: Math.abs(charge[1]) };
+  }
+}

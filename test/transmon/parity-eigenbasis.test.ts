@@ -1,0 +1,53 @@
+/**
+ * parityEigenbasis (parity blocks, twisted-factorisation vectors, block matrix elements) against
+ * a dense NumPy diagonalisation of the full charge-basis Hamiltonian (numpy.linalg.eigh in the
+ * parity eigenspaces, via
+ * test/reference/transmon_matrix_elements.py): energies, <m|n|m'> and <m|cos phi|m'> with the
+ * documented sign convention; and against transmonLevels + chargeMatrix/cosPhiMatrix.
+ */
+import { describe, expect, it } from 'vitest';
+import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../../src/transmon/parity-eigenbasis.js';
+import { transmonLevels } from '../../src/transmon/levels.js';
+import { chargeMatrix, cosPhiMatrix } from '../../src/transmon/matrix-elements.js';
+import { expectAllClose } from '../support/close.js';
+import { runPython } from '../support/python.js';
+
+const cases = [
+  { ec: 0.21, ej: 18.4, levels: 6, cutoff: 20 },
+  { ec: 0.25, ej: 5, levels: 8, cutoff: 20 },
+  { ec: 0.19, ej: 40, levels: 6, cutoff: 20 },
+  { ec: 0.3, ej: 0.6, levels: 6, cutoff: 15 }, // charge regime, poor Newton guesses
+  { ec: 0.2, ej: 0, levels: 5, cutoff: 10 }, // E_J = 0 (symmetric SQUID at half flux)
+];
+const ref = runPython<{ results: { energies: number[]; charge: number[]; cosPhi: number[] }[] }>('transmon_matrix_elements.py', { cases }).results;
+
+describe('parityEigenbasis(ec, ej, K, N)', () => {
+  it('energies, charge and cos(phi) matrices match numpy.linalg.eigh on the full charge basis to 1e-11', () => {
+    cases.forEach((c, i) => {
+      const b = parityEigenbasis(c.ec, c.ej, c.levels, c.cutoff);
+      const label = `E_C=${c.ec} E_J=${c.ej}`;
+      expectAllClose(b.energies, ref[i].energies, 1e-11, `${label} energies`);
+      if (c.ej === 0) return; // degenerate levels (4 E_C twice): vectors not unique
+      expectAllClose(chargeMatrixFromParity(b), ref[i].charge, 1e-11, `${label} charge`);
+      expectAllClose(cosPhiMatrixFromParity(b), ref[i].cosPhi, 1e-11, `${label} cos phi`);
+    });
+  });
+
+  it('agrees with transmonLevels + chargeMatrix/cosPhiMatrix (same basis and signs) to 1e-13', () => {
+    for (const c of cases.slice(0, 4)) {
+      const b = parityEigenbasis(c.ec, c.ej, c.levels, c.cutoff);
+      const lv = transmonLevels(c.ec, c.ej, { levels: c.levels, chargeCutoff: c.cutoff, vectors: true });
+      expectAllClose(b.energies, lv.energies, 1e-13, 'energies');
+      expectAllClose(chargeMatrixFromParity(b), chargeMatrix(lv), 1e-13, 'charge');
+      expectAllClose(cosPhiMatrixFromParity(b), cosPhiMatrix(lv), 1e-13, 'cos phi');
+    }
+  });
+
+  it('without vectors returns energies only, and rejects bad input', () => {
+    const b = parityEigenbasis(0.2, 15, 3, 20, false);
+    expect(b.blockVectors.length).toBe(0);
+    expect(() => chargeMatrixFromParity(b)).toThrow(RangeError);
+    expect(() => parityEigenbasis(0.2, 15, 50, 20)).toThrow(RangeError);
+    expect(() => parityEigenbasis(-1, 15, 3, 20)).toThrow(RangeError);
+  });
+});
