@@ -46,7 +46,9 @@ export function yamlScalar(value: string | number | null): string {
   if (typeof value === 'number' && !Number.isFinite(value)) {
     throw new RangeError(`yamlScalar: not a finite number: ${value}`);
   }
-  return stringify(value, { lineWidth: 0 }).trimEnd();
+  const text = stringify(value, { lineWidth: 0 }).trimEnd();
+  // Multi-line text would come out as a block scalar; a JSON string is a valid one-line YAML scalar.
+  return text.includes('\n') ? JSON.stringify(value) : text;
 }
 
 function flow(items: (string | number)[]): string {

@@ -1,0 +1,62 @@
+import { describe, expect, it } from 'vitest';
+import { generateLayout } from '../../src/chip/generate.js';
+import { layoutToYaml } from '../../src/layout/write.js';
+import { parseLayoutText } from '../../src/layout/load.js';
+import { buildChipGraph } from '../../src/chip/graph.js';
+import { connectedComponents } from '../../src/chip/stats.js';
+
+describe('generateLayout', () => {
+  it.each([
+    ['square', 1, 1], ['square', 2, 7], ['square', 10, 10], ['heavy-hex', 1, 1], ['heavy-hex', 3, 4], ['heavy-hex', 6, 6],
+  ] as const)('generated %s %i x %i parses, is connected and keeps the parameter ranges', (kind, rows, cols) => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind, rows, cols, seed: 3 })), 'g.yaml');
+    expect(connectedComponents(buildChipGraph(layout))).toHaveLength(1);
+    for (const q of layout.qubits) {
+      const t = q.transmon;
+      expect(t.kind).toBe('frequencies');
+      if (t.kind !== 'frequencies') continue;
+      expect(t.fMaxGHz).toBeGreaterThanOrEqual(4.5);
+      expect(t.fMaxGHz).toBeLessThanOrEqual(7);
+      expect(-t.anharmonicityGHz).toBeGreaterThanOrEqual(0.18);
+      expect(-t.anharmonicityGHz).toBeLessThanOrEqual(0.26);
+      expect(t.asymmetry).toBeGreaterThanOrEqual(0.2);
+      expect(t.asymmetry).toBeLessThanOrEqual(0.5);
+      expect(q.t1Ns).toBeGreaterThanOrEqual(20_000);
+      expect(q.t1Ns).toBeLessThanOrEqual(200_000);
+      expect(q.fluxNoisePhi0).toBeGreaterThanOrEqual(1.5e-6);
+      expect(q.fluxNoisePhi0).toBeLessThanOrEqual(5e-6);
+      expect(q.readoutGHz! - t.fMaxGHz).toBeGreaterThan(0.3);
+    }
+    for (const c of layout.couplings) {
+      expect(c.gGHz).toBeGreaterThanOrEqual(0.008);
+      expect(c.gGHz).toBeLessThanOrEqual(0.02);
+    }
+  });
+
+  it('puts coupled neighbours in different frequency groups, several hundred MHz apart', () => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 12, cols: 12, seed: 5 })), 'g.yaml');
+    const fMax = new Map(layout.qubits.map((q) => [q.id, q.transmon.kind === 'frequencies' ? q.transmon.fMaxGHz : NaN]));
+    const gaps = layout.couplings.map((c) => Math.abs(fMax.get(c.a)! - fMax.get(c.b)!));
+    // group centres 850 MHz apart, jitter +-100 MHz and 30 MHz normal scatter: the smallest gap stays well above 400 MHz
+    expect(Math.min(...gaps)).toBeGreaterThan(0.4);
+  });
+
+  it('same seed -> byte-identical YAML; other seed -> different parameters, same structure', () => {
+    const a = layoutToYaml(generateLayout({ kind: 'heavy-hex', rows: 3, cols: 3, seed: 11 }));
+    const b = layoutToYaml(generateLayout({ kind: 'heavy-hex', rows: 3, cols: 3, seed: 11 }));
+    const c = layoutToYaml(generateLayout({ kind: 'heavy-hex', rows: 3, cols: 3, seed: 12 }));
+    expect(a).toBe(b);
+    expect(a).not.toBe(c);
+    expect(a.match(/^ {2}Q\d+:$/gm)).toEqual(c.match(/^ {2}Q\d+:$/gm));
+  });
+
+  it('makes a 1,000+ qubit chip quickly', () => {
+    const started = performance.now();
+    const doc = generateLayout({ kind: 'square', rows: 40, cols: 40 });
+    const text = layoutToYaml(doc);
+    const ms = performance.now() - started;
+    expect(doc.qubits).toHaveLength(1600);
+    expect(text.length).toBeGreaterThan(100_000);
+    expect(ms).toBeLessThan(3000);
+  });
+});
