@@ -58,8 +58,7 @@ export function squareLattice(rows: number, cols: number): Lattice {
  * Heavy-hexagon lattice of rows x cols hexagonal cells. Cell (r, k) of the brick wall spans
  * columns 2k + (r mod 2) .. 2k + (r mod 2) + 2 of vertex rows r and r + 1. Vertices sit at
  * (2 column, 2 row) and edge qubits at the midpoints, so all positions are integers.
- * Qubit count for R x C cells: vertices (R + 1)(2C + 1) + R (for R >= 1 rows' offsets, roughly)
- * plus one per honeycomb edge; e.g. 1 x 2 -> 21, 1 x 3 -> 30, 2 x 2 -> 35 qubits.
+ * Sizes: 1 x 1 -> 12 qubits (a 12-cycle), 1 x 2 -> 21, 1 x 3 -> 30, 2 x 2 -> 35, 14 x 14 -> 1091.
  */
 export function heavyHexLattice(rows: number, cols: number): Lattice {
   const vertices = new Set<string>();

@@ -1,8 +1,9 @@
 /**
  * Plain YAML values -> ChipLayout: structure checks (zod, schema.ts), unit conversion (units.ts),
  * ranges, the choice of transmon model, cross references between couplings and qubits, and rule
- * overrides. Every problem is collected; nothing stops at the first one. Sections that fail
- * their structure check are skipped by the later checks, so one mistake gives one message.
+ * overrides. Every problem is collected; nothing stops at the first one. Values that fail their
+ * structure check are left out of the later checks (a misspelt key counts as present under its
+ * likely name), so one mistake gives one message.
  */
 
 import type { ChipLayout, CouplingLayout, QubitLayout, Rules, SourceRef, TlsDefect, TransmonSpec } from './types.js';

@@ -87,7 +87,8 @@ export function expectedFound(expected: string, value: unknown): string {
 
 /**
  * Gathers the diagnostics of one file. `add` locates a path through `locate` (the YAML source
- * map); a path the source does not know falls back to its nearest known ancestor.
+ * map) unless its position is given; a path the source does not know falls back to its nearest
+ * known ancestor.
  */
 export class DiagnosticCollector {
   readonly diagnostics: Diagnostic[] = [];

@@ -41,10 +41,19 @@ const KEY_ORDER: readonly (keyof QubitDocument)[] = [
   't1', 'tphi', 'fluxNoise', 'window', 'park', 'tls', 'readout', 'note',
 ];
 
+/** Texts that every YAML reader keeps as plain strings: "5.8 GHz", "-210 MHz", "Q12" (fast path). */
+const PLAIN_QUANTITY = /^-?\d+(\.\d+)? [A-Za-z][A-Za-z0-9]*(\/sqrt\(Hz\))?$/;
+const PLAIN_NAME = /^[A-Za-z_][A-Za-z0-9_]*$/;
+const RESERVED = /^(true|false|null|yes|no|on|off|y|n)$/i;
+
 /** One scalar as YAML text: plain when the yaml package reads it back unchanged, quoted otherwise. */
 export function yamlScalar(value: string | number | null): string {
   if (typeof value === 'number' && !Number.isFinite(value)) {
     throw new RangeError(`yamlScalar: not a finite number: ${value}`);
+  }
+  if (typeof value === 'number') return String(value);
+  if (typeof value === 'string' && (PLAIN_QUANTITY.test(value) || (PLAIN_NAME.test(value) && !RESERVED.test(value)))) {
+    return value;
   }
   const text = stringify(value, { lineWidth: 0 }).trimEnd();
   // Multi-line text would come out as a block scalar; a JSON string is a valid one-line YAML scalar.

@@ -4,7 +4,7 @@ import { layoutToYaml, yamlScalar } from '../../src/layout/write.js';
 import { parseLayoutText } from '../../src/layout/load.js';
 
 describe('yamlScalar', () => {
-  it.each(['5.8 GHz', '-210 MHz', 'Q1', 'yes', 'null', 'true', '1.5', 'a: b', '#x', ' lead', 'x"y', 'multi\nline', '', '3 uPhi0/sqrt(Hz)'])(
+  it.each(['5.8 GHz', '-210 MHz', 'Q1', 'yes', 'No', 'null', 'true', 'y', '1.5', '1e3', '0x1F', '.inf', 'a: b', '#x', ' lead', 'x"y', 'multi\nline', '', '3 uPhi0/sqrt(Hz)', '2.0 MHz'])(
     'yamlScalar(%j) reads back as the same text',
     (text) => {
       expect(parse(`v: ${yamlScalar(text)}`).v).toBe(text);
