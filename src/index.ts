@@ -1,0 +1,12 @@
+/**
+ * The fluxlane library (package entry, dist/index.js): re-exports of each stage's public API.
+ * Stages add their exports here as they land.
+ */
+export { InputError, formatDiagnostic, inputError, type Diagnostic } from './util/errors.js';
+export { Random } from './util/random.js';
+export { StageProfiler, NO_PROFILE } from './util/profile.js';
+export * from './layout/index.js';
+export * from './chip/index.js';
+export { buildProgram, runCli, COMMANDS, type CommandRegistration } from './cli/main.js';
+export { memoryIo, processIo, type CliIo, type MemoryIo } from './cli/io.js';
+export type { CommandOutcome, OutputFile } from './cli/outcome.js';
