@@ -16,12 +16,14 @@ import { processIo, type CliIo } from './io.js';
 import { EXIT, reportError } from './handler.js';
 import { registerCheck } from './commands/check.js';
 import { registerGenerate } from './commands/generate.js';
+import { registerPair } from './commands/pair.js';
+import { registerSpectrum } from './commands/spectrum.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate];
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair];
 
 function packageVersion(): string {
   try {

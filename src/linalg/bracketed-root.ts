@@ -24,6 +24,9 @@ export interface BracketedRootOptions {
   fTol?: number;
   /** First guess inside [lo, hi] (default: the midpoint). */
   guess?: number;
+  /** f(lo) and f(hi) when the caller already knows them (saves two evaluations). */
+  fLo?: number;
+  fHi?: number;
   maxIterations?: number;
 }
 
@@ -34,11 +37,13 @@ export function bracketedNewton(fn: FunctionWithSlope, lo: number, hi: number, o
   const fTol = options.fTol ?? BRACKETED_ROOT_DEFAULTS.fTol;
   const maxIt = options.maxIterations ?? BRACKETED_ROOT_DEFAULTS.maxIterations;
   const slope: Slope = { value: NaN };
-  let a = Math.min(lo, hi);
-  let b = Math.max(lo, hi);
-  const fa = fn(a, slope);
+  const swap = lo > hi;
+  const a = swap ? hi : lo;
+  const b = swap ? lo : hi;
+  const known = (v: number | undefined) => v !== undefined && Number.isFinite(v);
+  const fa = known(swap ? options.fHi : options.fLo) ? (swap ? options.fHi! : options.fLo!) : fn(a, slope);
   if (fa === 0) return a;
-  const fb = fn(b, slope);
+  const fb = known(swap ? options.fLo : options.fHi) ? (swap ? options.fLo! : options.fHi!) : fn(b, slope);
   if (fb === 0) return b;
   if (!(fa * fb < 0)) return NaN;
   // Orient so that f(a) < 0 < f(b).

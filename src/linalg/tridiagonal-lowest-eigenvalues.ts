@@ -6,7 +6,8 @@
  *     q_0 = d_0 - x,  q_i = d_i - x - e_{i-1}^2 / q_{i-1},   q_i' = -1 + e_{i-1}^2 q_{i-1}' / q_{i-1}^2,
  * then a Sturm-count check that the root is the j-th eigenvalue (count(x) = number of negative
  * pivots = number of eigenvalues below x; Barth, Martin and Wilkinson, Numer. Math. 9, 386
- * (1967)). If there is no guess, Newton fails, or the check fails, the eigenvalue is found by
+ * (1967)): count(x - tol) = j. (Newton stops only where d/dx ln|det| is large, i.e. at an
+ * eigenvalue, so this one count identifies which one it is.) If there is no guess, Newton fails, or the check fails, the eigenvalue is found by
  * plain bisection on the Sturm count (as LAPACK dstebz). Either way the result is exact to a
  * few ulp of ||T||.
  *
@@ -28,11 +29,16 @@ export function tridiagonalLowestEigenvalues(
   let lo = Infinity;
   let hi = -Infinity;
   let maxOff2 = 0;
+  const e2 = squaredScratch(n);
   for (let i = 0; i < n; i++) {
     const r = (i > 0 ? Math.abs(e[i - 1]) : 0) + (i < n - 1 ? Math.abs(e[i]) : 0);
     lo = Math.min(lo, d[i] - r);
     hi = Math.max(hi, d[i] + r);
-    if (i < n - 1) maxOff2 = Math.max(maxOff2, e[i] * e[i]);
+    if (i < n - 1) {
+      const x = e[i] * e[i];
+      e2[i] = x;
+      if (x > maxOff2) maxOff2 = x;
+    }
   }
   const norm = Math.max(Math.abs(lo), Math.abs(hi), Number.MIN_VALUE);
   const pivmin = Math.max(Number.MIN_VALUE, 2.3e-308 * Math.max(1, maxOff2));
@@ -43,17 +49,26 @@ export function tridiagonalLowestEigenvalues(
   for (let j = 0; j < k; j++) {
     let x = NaN;
     if (guesses !== undefined && Number.isFinite(guesses[j])) {
-      x = newton(d, e, n, guesses[j], pivmin, tol);
-      if (!(x > left) || sturmCount(d, e, n, x - tol, pivmin) !== j || sturmCount(d, e, n, x + tol, pivmin) !== j + 1) x = NaN;
+      x = newton(d, e2, n, guesses[j], pivmin, tol);
+      if (!(x > left) || sturmCountSquared(d, e2, n, x - tol, pivmin) !== j) x = NaN;
     }
-    if (Number.isNaN(x)) x = bisect(d, e, n, j, left, hi, pivmin, tol);
+    if (Number.isNaN(x)) x = bisect(d, e2, n, j, left, hi, pivmin, tol);
     out[j] = x;
     left = x - tol;
   }
   return out;
 }
 
-function newton(d: ArrayLike<number>, e: ArrayLike<number>, n: number, x0: number, pivmin: number, tol: number): number {
+let squared = new Float64Array(64);
+
+/** Module scratch for the squared off-diagonal (grown on demand; single-threaded use). */
+function squaredScratch(n: number): Float64Array {
+  if (squared.length < n) squared = new Float64Array(2 * n);
+  return squared;
+}
+
+/** Newton on ln|det(T - x I)|; `e2` holds the squared off-diagonal. */
+function newton(d: ArrayLike<number>, e2: Float64Array, n: number, x0: number, pivmin: number, tol: number): number {
   let x = x0;
   for (let it = 0; it < 30; it++) {
     let q = d[0] - x;
@@ -62,9 +77,9 @@ function newton(d: ArrayLike<number>, e: ArrayLike<number>, n: number, x0: numbe
     let inv = 1 / q;
     let s = dq * inv;
     for (let i = 1; i < n; i++) {
-      const e2 = e[i - 1] * e[i - 1];
-      const qn = d[i] - x - e2 * inv;
-      dq = -1 + e2 * dq * inv * inv;
+      const ee = e2[i - 1];
+      const qn = d[i] - x - ee * inv;
+      dq = -1 + ee * dq * inv * inv;
       q = Math.abs(qn) < pivmin ? pivmin : qn;
       inv = 1 / q;
       s += dq * inv;
@@ -77,16 +92,30 @@ function newton(d: ArrayLike<number>, e: ArrayLike<number>, n: number, x0: numbe
   return NaN;
 }
 
-function bisect(d: ArrayLike<number>, e: ArrayLike<number>, n: number, j: number, a0: number, b0: number, pivmin: number, tol: number): number {
+function bisect(d: ArrayLike<number>, e2: Float64Array, n: number, j: number, a0: number, b0: number, pivmin: number, tol: number): number {
   let a = a0;
   let b = b0;
   while (b - a > tol) {
     const mid = 0.5 * (a + b);
     if (mid === a || mid === b) break;
-    if (sturmCount(d, e, n, mid, pivmin) > j) b = mid;
+    if (sturmCountSquared(d, e2, n, mid, pivmin) > j) b = mid;
     else a = mid;
   }
   return 0.5 * (a + b);
+}
+
+/** As sturmCount, with the squared off-diagonal precomputed. */
+function sturmCountSquared(d: ArrayLike<number>, e2: Float64Array, n: number, x: number, pivmin: number): number {
+  let count = 0;
+  let q = d[0] - x;
+  if (Math.abs(q) < pivmin) q = -pivmin;
+  if (q < 0) count++;
+  for (let i = 1; i < n; i++) {
+    q = d[i] - x - e2[i - 1] / q;
+    if (Math.abs(q) < pivmin) q = -pivmin;
+    if (q < 0) count++;
+  }
+  return count;
 }
 
 /** Number of eigenvalues of T below x (negative pivots of T - x I). */

@@ -21,6 +21,8 @@ export interface FluxForFrequencyOptions {
   /** Which transition to match (default f01). */
   transition?: TransitionName;
   chargeCutoff?: number;
+  /** The transition's values at E_J = d E_JS and E_J = E_JS, when known (saves work). */
+  range?: readonly [number, number];
 }
 
 /**
@@ -33,8 +35,8 @@ export function josephsonEnergyForFrequency(params: TransmonParams, targetGHz: n
   const transition = options.transition === 'f12' ? f12ForJosephsonEnergy : f01ForJosephsonEnergy;
   const lo = params.asymmetry * params.ejsGHz;
   const hi = params.ejsGHz;
-  const fLo = transition(ec, lo, nCut);
-  const fHi = transition(ec, hi, nCut);
+  const fLo = options.range ? options.range[0] : transition(ec, lo, nCut);
+  const fHi = options.range ? options.range[1] : transition(ec, hi, nCut);
   // Accept targets a hair outside the ends (round-off in a range the caller computed itself).
   const slack = 1e-12 * Math.max(1, Math.abs(targetGHz));
   if (Math.abs(targetGHz - fHi) <= slack) return hi;
@@ -44,6 +46,8 @@ export function josephsonEnergyForFrequency(params: TransmonParams, targetGHz: n
   const guess = (targetGHz + shift) ** 2 / (8 * ec);
   return bracketedNewton((ej, slope) => transition(ec, ej, nCut, slope) - targetGHz, lo, hi, {
     guess,
+    fLo: fLo - targetGHz,
+    fHi: fHi - targetGHz,
     xTol: 1e-14 * hi,
     fTol: 1e-13 * Math.max(1, Math.abs(targetGHz)),
   });

@@ -8,10 +8,32 @@
  * the branch 0 <= Phi <= 1/2 (E_J falls from E_JS at the upper sweet spot to d E_JS).
  */
 
+/**
+ * cos(pi x) and sin(pi x), exact (0, +-1) at multiples of 1/2, so that slopes vanish exactly at
+ * the sweet spots Phi = 0 and Phi = 1/2 (Math.cos(Math.PI / 2) is 6e-17, not 0).
+ */
+function cosPi(x: number): number {
+  const twice = 2 * x;
+  if (Number.isInteger(twice)) {
+    const k = ((twice % 4) + 4) % 4;
+    return k === 0 ? 1 : k === 2 ? -1 : 0;
+  }
+  return Math.cos(Math.PI * x);
+}
+
+function sinPi(x: number): number {
+  const twice = 2 * x;
+  if (Number.isInteger(twice)) {
+    const k = ((twice % 4) + 4) % 4;
+    return k === 1 ? 1 : k === 3 ? -1 : 0;
+  }
+  return Math.sin(Math.PI * x);
+}
+
 /** E_J(Phi) for SQUID energy `ejsGHz` and asymmetry `d`. */
 export function josephsonEnergy(ejsGHz: number, d: number, flux: number): number {
-  const c = Math.cos(Math.PI * flux);
-  const s = Math.sin(Math.PI * flux);
+  const c = cosPi(flux);
+  const s = sinPi(flux);
   return ejsGHz * Math.sqrt(c * c + d * d * s * s);
 }
 
@@ -21,8 +43,8 @@ export function josephsonEnergy(ejsGHz: number, d: number, flux: number): number
  * limit from below, -pi E_JS, there.
  */
 export function josephsonEnergySlope(ejsGHz: number, d: number, flux: number): number {
-  const c = Math.cos(Math.PI * flux);
-  const s = Math.sin(Math.PI * flux);
+  const c = cosPi(flux);
+  const s = sinPi(flux);
   const root = Math.sqrt(c * c + d * d * s * s);
   if (root === 0) return -Math.PI * ejsGHz * Math.sign(s) * Math.sign(c || 1);
   return (-Math.PI * ejsGHz * (1 - d * d) * s * c) / root;

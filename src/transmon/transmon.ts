@@ -69,6 +69,9 @@ export class Transmon {
   readonly fMinGHz: number;
   /** Anharmonicity at Phi = 0. */
   readonly anharmonicityMaxGHz: number;
+  /** f12 at Phi = 0 and at Phi = 1/2. */
+  readonly f12MaxGHz: number;
+  readonly f12MinGHz: number;
   /** T1, white T_phi and 1/f amplitude, when known. */
   readonly coherenceSpec: CoherenceSpec | undefined;
   /** Where the qubit is defined (for messages), when known. */
@@ -88,9 +91,12 @@ export class Transmon {
     this.source = options.source;
     this.coherenceOptions = { ...options.coherence };
     const top = spectrumAt(params, 0, { chargeCutoff: this.chargeCutoff });
+    const bottom = spectrumAt(params, 0.5, { chargeCutoff: this.chargeCutoff });
     this.fMaxGHz = top.f01GHz;
     this.anharmonicityMaxGHz = top.anharmonicityGHz;
-    this.fMinGHz = this.f01(0.5);
+    this.fMinGHz = bottom.f01GHz;
+    this.f12MaxGHz = top.f12GHz;
+    this.f12MinGHz = bottom.f12GHz;
   }
 
   /** Resolve a layout qubit (InputError naming the qubit and its source on bad physics). */
@@ -166,17 +172,17 @@ export class Transmon {
 
   /** Flux 0 <= Phi <= 1/2 with f01 = fGHz; InputError naming the qubit when out of range. */
   fluxForF01(fGHz: number, where?: Omit<Diagnostic, 'message'>): number {
-    return fluxForFrequency(this.params, fGHz, this.id, { chargeCutoff: this.chargeCutoff, ...(where ? { where } : {}) });
+    return fluxForFrequency(this.params, fGHz, this.id, { chargeCutoff: this.chargeCutoff, range: [this.fMinGHz, this.fMaxGHz], ...(where ? { where } : {}) });
   }
 
   /** Flux 0 <= Phi <= 1/2 with f01 = fGHz, or null when out of range. */
   fluxForF01OrNull(fGHz: number): number | null {
-    return fluxForFrequencyOrNull(this.params, fGHz, { chargeCutoff: this.chargeCutoff });
+    return fluxForFrequencyOrNull(this.params, fGHz, { chargeCutoff: this.chargeCutoff, range: [this.fMinGHz, this.fMaxGHz] });
   }
 
   /** Flux 0 <= Phi <= 1/2 with f12 = fGHz, or null when out of range. */
   fluxForF12OrNull(fGHz: number): number | null {
-    return fluxForFrequencyOrNull(this.params, fGHz, { chargeCutoff: this.chargeCutoff, transition: 'f12' });
+    return fluxForFrequencyOrNull(this.params, fGHz, { chargeCutoff: this.chargeCutoff, transition: 'f12', range: [this.f12MinGHz, this.f12MaxGHz] });
   }
 
   /** T1, T_phi and T2 at `flux`; needs coherence data (fromLayout or constructor option). */

@@ -31,6 +31,14 @@ describe('josephsonEnergy(ejs, d, flux)', () => {
     expect(josephsonEnergySlope(20, 0.3, 0)).toBe(-0);
   });
 
+  it('is exact at the sweet spots: E_J(1/2) = d E_JS and the slope there is exactly 0', () => {
+    for (const flux of [0.5, -0.5, 1.5]) {
+      expect(josephsonEnergy(20, 0.3, flux)).toBe(20 * 0.3);
+      expect(Math.abs(josephsonEnergySlope(20, 0.3, flux))).toBe(0);
+    }
+    expect(josephsonEnergy(20, 0.3, 1)).toBe(20);
+  });
+
   it('fluxForJosephsonEnergy inverts E_J on 0 <= Phi <= 1/2 and returns NaN outside [d E_JS, E_JS]', () => {
     for (const d of [0, 0.25, 0.7]) {
       for (const flux of [0, 0.01, 0.2, 0.37, 0.5]) {

@@ -1,0 +1,120 @@
+/**
+ * Benchmark runner: `npm run bench` (= tsx test/bench/run.ts). Discovers every
+ * test/bench/*.bench.ts, imports it, and runs each exported benchmark:
+ *
+ *     export const myBench: Benchmark = {
+ *       name: 'what one call does',
+ *       target: 20,               // optional: median time per call must stay below this (microseconds)
+ *       setup() { ... },          // optional, once before timing
+ *       run() { ... },            // one call; vary its inputs so nothing is cached between calls
+ *     };
+ *
+ * Method: warm up for ~0.3 s (JIT), then time batches of calls (each batch >= ~10 ms) for
+ * ~1.5 s or at least 7 batches; report the median and the minimum of the per-call times over
+ * batches. Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
+ * `--strict` exits 1 when a median misses its target (timings on a shared machine vary ~2x, so
+ * the default exit code is 0).
+ */
+import { readdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+
+export interface Benchmark {
+  name: string;
+  /** Upper limit for the median time per call (microseconds). */
+  target?: number;
+  setup?: () => void;
+  run: () => unknown;
+}
+
+export interface BenchResult {
+  file: string;
+  name: string;
+  medianUs: number;
+  minUs: number;
+  calls: number;
+  target?: number;
+  underTarget?: boolean;
+}
+
+const WARMUP_S = 0.3;
+const BUDGET_S = 1.5;
+const MIN_BATCHES = 7;
+const BATCH_S = 0.01;
+
+function isBenchmark(x: unknown): x is Benchmark {
+  return typeof x === 'object' && x !== null && typeof (x as Benchmark).name === 'string' && typeof (x as Benchmark).run === 'function';
+}
+
+function now(): number {
+  return Number(process.hrtime.bigint()) * 1e-9;
+}
+
+let sink: unknown;
+
+export function measure(b: Benchmark): { medianUs: number; minUs: number; calls: number } {
+  b.setup?.();
+  // Warm-up, and a first estimate of the time per call.
+  let calls = 0;
+  const t0 = now();
+  while (now() - t0 < WARMUP_S || calls < 3) {
+    sink = b.run();
+    calls++;
+  }
+  const perCall = (now() - t0) / calls;
+  const batch = Math.max(1, Math.ceil(BATCH_S / perCall));
+  const samples: number[] = [];
+  let total = 0;
+  const start = now();
+  while (samples.length < MIN_BATCHES || now() - start < BUDGET_S) {
+    const s = now();
+    for (let i = 0; i < batch; i++) sink = b.run();
+    samples.push((now() - s) / batch);
+    total += batch;
+    if (samples.length >= 200) break;
+  }
+  samples.sort((x, y) => x - y);
+  const mid = samples.length >> 1;
+  const median = samples.length % 2 ? samples[mid] : 0.5 * (samples[mid - 1] + samples[mid]);
+  return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: total };
+}
+
+function formatUs(us: number): string {
+  if (us >= 1e6) return `${(us / 1e6).toFixed(2)} s`;
+  if (us >= 1e3) return `${(us / 1e3).toFixed(2)} ms`;
+  return `${us.toFixed(2)} us`;
+}
+
+async function main(): Promise<void> {
+  const args = process.argv.slice(2);
+  const json = args.includes('--json');
+  const strict = args.includes('--strict');
+  const filters = args.filter((a) => !a.startsWith('--'));
+  const dir = dirname(fileURLToPath(import.meta.url));
+  const files = readdirSync(dir)
+    .filter((f) => f.endsWith('.bench.ts'))
+    .sort();
+  const results: BenchResult[] = [];
+  for (const file of files) {
+    const mod = (await import(pathToFileURL(join(dir, file)).href)) as Record<string, unknown>;
+    for (const b of Object.values(mod).filter(isBenchmark)) {
+      if (filters.length > 0 && !filters.some((f) => b.name.includes(f) || file.includes(f))) continue;
+      const m = measure(b);
+      const r: BenchResult = { file, name: b.name, ...m };
+      if (b.target !== undefined) {
+        r.target = b.target;
+        r.underTarget = m.medianUs < b.target;
+      }
+      results.push(r);
+      if (!json) {
+        const verdict = b.target === undefined ? '' : `  target < ${formatUs(b.target)}: ${r.underTarget ? 'ok' : 'MISSED'}`;
+        process.stdout.write(`${file}  ${b.name}\n    median ${formatUs(m.medianUs)}  min ${formatUs(m.minUs)}  (${m.calls} calls)${verdict}\n`);
+      }
+    }
+  }
+  if (json) process.stdout.write(`${JSON.stringify({ node: process.version, results }, null, 2)}\n`);
+  if (void sink, strict && results.some((r) => r.underTarget === false)) process.exitCode = 1;
+}
+
+const invokedDirectly = process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1];
+if (invokedDirectly) await main();
