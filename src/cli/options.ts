@@ -4,7 +4,7 @@
  * InputError naming the option: `option --rows: expected an integer from 1 to 500, found abc`.
  */
 
-import { Option, type Command } from 'commander';
+import type { Command } from 'commander';
 import { z } from 'zod';
 import { InputError, type Diagnostic } from '../util/errors.js';
 
@@ -44,9 +44,4 @@ export function parseOptions<S extends z.ZodType>(schema: S, options: Record<str
     return { message: `option ${flagName(key)}: expected ${issue.message}, found ${found}` };
   });
   throw new InputError(diagnostics);
-}
-
-/** Helper for choices shown in --help and enforced by commander (usage error, exit 2). */
-export function choiceOption(flags: string, description: string, choices: readonly string[]): Option {
-  return new Option(flags, description).choices(choices);
 }

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { createRequire } from 'node:module';
 import { unit } from 'mathjs';
 import { formatQuantity, normaliseUnitText, parseQuantity, roundSignificant } from '../../src/layout/units.js';
 import { expectClose } from '../support/close.js';
@@ -76,8 +77,11 @@ describe('parseQuantity', () => {
     expect(normaliseUnitText('4 kOhm')).toBe('4 kohm');
   });
 
-  it('defining Phi0 does not touch the global mathjs instance', () => {
+  it('defining Phi0 does not touch the default mathjs instances (ESM build, and the bundle units.ts loads)', () => {
+    expect(value('3 uPhi0', 'fluxNoise')).toBe(3e-6);
     expect(() => unit('3 uPhi0')).toThrow();
+    const bundle = createRequire(import.meta.url)('mathjs/lib/browser/math.js') as typeof import('mathjs');
+    expect(() => bundle.unit('3 uPhi0')).toThrow();
   });
 });
 
