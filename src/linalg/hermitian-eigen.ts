@@ -24,20 +24,34 @@ export function hermitianEigen(
   re: ArrayLike<number>,
   im: ArrayLike<number>,
   n: number,
-  options: { out?: HermitianEigen; start?: { re: ArrayLike<number>; im: ArrayLike<number> }; sort?: boolean } = {},
+  options: {
+    out?: HermitianEigen;
+    start?: { re: ArrayLike<number>; im: ArrayLike<number> };
+    sort?: boolean;
+    /** Scratch of at least 4 n^2 numbers (avoids allocation in hot loops). */
+    work?: Float64Array;
+  } = {},
 ): HermitianEigen {
   if (!(n >= 1) || re.length < n * n || im.length < n * n) throw new RangeError(`hermitianEigen: bad sizes (n=${n})`);
   const out = options.out ?? { values: new Float64Array(n), vectorsRe: new Float64Array(n * n), vectorsIm: new Float64Array(n * n) };
-  const ar = new Float64Array(n * n);
-  const ai = new Float64Array(n * n);
+  if (n === 1) {
+    out.values[0] = re[0];
+    out.vectorsRe[0] = 1;
+    out.vectorsIm[0] = 0;
+    return out;
+  }
+  const nn = n * n;
+  const work = options.work && options.work.length >= 4 * nn ? options.work : new Float64Array(4 * nn);
+  const ar = work.subarray(0, nn);
+  const ai = work.subarray(nn, 2 * nn);
   const vr = out.vectorsRe;
   const vi = out.vectorsIm;
   if (options.start) {
     // ar + i ai = S^H A S
     const sr = options.start.re;
     const si = options.start.im;
-    const tr = new Float64Array(n * n);
-    const ti = new Float64Array(n * n);
+    const tr = work.subarray(2 * nn, 3 * nn);
+    const ti = work.subarray(3 * nn, 4 * nn);
     // T = A S
     for (let i = 0; i < n; i++)
       for (let k = 0; k < n; k++) {

@@ -174,3 +174,37 @@ export function propagateFixedBasis(
   }
   return { re, im };
 }
+
+/** The lab-frame computational block M (order 00, 01, 10, 11) of the fixed-basis propagation. */
+export function fixedBasisBlock(model: SimModel, traj: Trajectory, options: FixedBasisOptions & { spectatorLevels?: number[] } = {}): { re: Float64Array; im: Float64Array } {
+  const fb = fixedBasisModel(model, traj.flux[0]);
+  const spect = options.spectatorLevels ?? new Array(Math.max(0, model.transmons.length - 2)).fill(0);
+  const labels = [
+    [0, 0],
+    [0, 1],
+    [1, 0],
+    [1, 1],
+  ].map((l) => [...l, ...spect]);
+  const fr = propagateFixedBasis(model, fb, traj, labels, options);
+  const n = fb.space.size;
+  const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
+  const col = labels.map((l) => fixedBasisStateColumn(fb, l));
+  const e = col.map((c) => fb.dressedEnergies[c]);
+  const re = new Float64Array(16);
+  const im = new Float64Array(16);
+  labels.forEach((lr, r) => {
+    const ph = 2 * Math.PI * (e[0] + lr[0] * (e[2] - e[0]) + lr[1] * (e[1] - e[0])) * T;
+    for (let c = 0; c < 4; c++) {
+      let sr = 0;
+      let si = 0;
+      for (let q = 0; q < n; q++) {
+        const v = fb.dressedVectors[q * n + col[r]];
+        sr += v * fr.re[c][q];
+        si += v * fr.im[c][q];
+      }
+      re[r * 4 + c] = Math.cos(ph) * sr - Math.sin(ph) * si;
+      im[r * 4 + c] = Math.sin(ph) * sr + Math.cos(ph) * si;
+    }
+  });
+  return { re, im };
+}

@@ -61,6 +61,13 @@ export interface ManifoldFrameOptions {
   maxDegree?: number;
   /** Intervals of the Hermite table. */
   tableIntervals?: number;
+  /** Also tabulate each transmon's ladder b and number b^dag b in the frame (for decoherence). */
+  noiseOperators?: boolean;
+  /**
+   * Drop the mover's wave-function derivative T (a model that ignores the distortion of the
+   * transmon with flux). Physically wrong; it exists to show the size of that error.
+   */
+  dropWavefunctionDerivative?: boolean;
 }
 
 export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
@@ -69,7 +76,9 @@ export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
   energyTolGHz: 1e-11,
   firstDegree: 16,
   maxDegree: 256,
-  tableIntervals: 256,
+  tableIntervals: 128,
+  noiseOperators: false,
+  dropWavefunctionDerivative: false,
 });
 
 export interface FrameBlock {
@@ -100,8 +109,25 @@ export interface FrameSector {
   maxCoupling: Float64Array;
 }
 
+/**
+ * Jump-operator tables over both sectors: frame states ordered [sector 0 kept..., sector 1 kept...]
+ * (Dt = D0 + D1). For transmon i: ladder b_i = sum_m sqrt(m) |m-1><m| and number b_i^dag b_i
+ * in that transmon's instantaneous eigenbasis, expressed in the frame (real Dt x Dt).
+ */
+export interface NoiseTables {
+  size: number;
+  /** offset of each sector in the combined ordering */
+  offsets: number[];
+  /** per transmon: table points x Dt x Dt (values and slopes) */
+  ladder: Float64Array[];
+  ladderSlope: Float64Array[];
+  number: Float64Array[];
+  numberSlope: Float64Array[];
+}
+
 export interface ManifoldFrame {
   model: SimModel;
+  noise?: NoiseTables;
   space: ProductSpace;
   ejLo: number;
   ejHi: number;
@@ -134,6 +160,9 @@ interface Sample {
   vt: Float64Array[];
   e: Float64Array[];
   x: Float64Array[];
+  /** per transmon (when requested): ladder and number operators in the frame, Dt x Dt */
+  ladder?: Float64Array[];
+  number?: Float64Array[];
 }
 
 export class ManifoldFrameBuilder {
@@ -180,7 +209,7 @@ export class ManifoldFrameBuilder {
   }
 
   /** Frame quantities at one value of the mover's E_J. */
-  sample(u: number): Sample {
+  sample(u: number, noise = false): Sample {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
     const lv = transmonLevels(t0.ecGHz, u, { levels: k0, chargeCutoff: this.nCut, vectors: true });
@@ -294,7 +323,62 @@ export class ManifoldFrameBuilder {
       out.e.push(e);
       out.x.push(xm);
     }
+    if (noise) this.noiseSample(out);
     return out;
+  }
+
+  /** Ladder and number operators of every transmon in the frame (both sectors). */
+  private noiseSample(out: Sample): void {
+    const sizes = this.setups.map((st) => st.keptRows.length);
+    const offsets = [0, sizes[0]];
+    const dt = sizes[0] + sizes[1];
+    const t = this.model.transmons.length;
+    out.ladder = [];
+    out.number = [];
+    for (let i = 0; i < t; i++) {
+      const stride = this.space.strides[i];
+      const k = this.space.dims[i];
+      const lad = new Float64Array(dt * dt);
+      const num = new Float64Array(dt * dt);
+      for (let sb = 0; sb < 2; sb++) {
+        const setupB = this.setups[sb];
+        const sa = 1 - sb;
+        const setupA = this.setups[sa];
+        const rowOfA = new Map<number, number>();
+        setupA.indices.forEach((p, r) => rowOfA.set(p, r));
+        const vtA = out.vt[sa];
+        const vtB = out.vt[sb];
+        const dA = sizes[sa];
+        const dB = sizes[sb];
+        // ladder: column b (sector sb) -> rows a (sector sa)
+        for (let r = 0; r < setupB.indices.length; r++) {
+          const q = setupB.indices[r];
+          const m = Math.floor(q / stride) % k;
+          if (m === 0) continue;
+          const rA = rowOfA.get(q - stride);
+          if (rA === undefined) continue;
+          const amp = Math.sqrt(m);
+          for (let a = 0; a < dA; a++) {
+            const va = vtA[rA * dA + a];
+            if (va === 0) continue;
+            for (let b = 0; b < dB; b++) lad[(offsets[sa] + a) * dt + offsets[sb] + b] += va * amp * vtB[r * dB + b];
+          }
+        }
+        // number: within sector sb
+        for (let r = 0; r < setupB.indices.length; r++) {
+          const q = setupB.indices[r];
+          const m = Math.floor(q / stride) % k;
+          if (m === 0) continue;
+          for (let a = 0; a < dB; a++) {
+            const va = vtB[r * dB + a];
+            if (va === 0) continue;
+            for (let b = 0; b < dB; b++) num[(offsets[sb] + a) * dt + offsets[sb] + b] += m * va * vtB[r * dB + b];
+          }
+        }
+      }
+      out.ladder.push(lad);
+      out.number.push(num);
+    }
   }
 
   build(options: ManifoldFrameOptions): ManifoldFrame {
@@ -310,21 +394,58 @@ export class ManifoldFrameBuilder {
     // Chebyshev sampling with doubling.
     let degree = o.firstDegree;
     let points = chebyshevPoints(lo, hi, degree);
-    let samples = Array.from(points, (u) => this.sample(u));
+    const noise = o.noiseOperators;
+    let samples = Array.from(points, (u) => this.sample(u, noise));
     for (;;) {
       if (this.converged(samples, degree, o)) break;
       if (2 * degree > o.maxDegree) throw new RangeError(`manifold frame: no convergence at Chebyshev degree ${degree} (the dressed manifolds are not smooth over E_J in [${lo}, ${hi}] GHz; fewer levels or a smaller excursion may help)`);
       const next = chebyshevPoints(lo, hi, 2 * degree);
       const merged: Sample[] = new Array(2 * degree + 1);
-      for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j]);
+      for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j], noise);
       degree *= 2;
       points = next;
       samples = merged;
     }
     const nT = o.tableIntervals;
     const step = (hi - lo) / nT;
-    const sectors = this.setups.map((setup, s) => this.tabulate(setup, s, samples, degree, lo, hi, nT));
-    return { model: this.model, space: this.space, ejLo: lo, ejHi: hi, degree, tableStep: step, tableIntervals: nT, sectors };
+    const sectors = this.setups.map((setup, s) => this.tabulate(setup, s, samples, degree, lo, hi, nT, o.dropWavefunctionDerivative));
+    const frame: ManifoldFrame = { model: this.model, space: this.space, ejLo: lo, ejHi: hi, degree, tableStep: step, tableIntervals: nT, sectors };
+    if (noise) frame.noise = this.tabulateNoise(samples, degree, lo, hi, nT);
+    return frame;
+  }
+
+  private tabulateNoise(samples: Sample[], degree: number, lo: number, hi: number, nT: number): NoiseTables {
+    const sizes = this.setups.map((st) => st.keptRows.length);
+    const dt = sizes[0] + sizes[1];
+    const w = dt * dt;
+    const table = (field: 'ladder' | 'number', i: number): [Float64Array, Float64Array] => {
+      const vals = new Float64Array((degree + 1) * w);
+      samples.forEach((smp, j) => vals.set((smp[field] as Float64Array[])[i], j * w));
+      const c = chebyshevCoefficients(vals, degree, w);
+      const dc = chebyshevDerivative(c, degree, w, lo, hi);
+      const v = new Float64Array((nT + 1) * w);
+      const sl = new Float64Array((nT + 1) * w);
+      const tmp = new Float64Array(w);
+      for (let k = 0; k <= nT; k++) {
+        const u = k === nT ? hi : lo + ((hi - lo) * k) / nT;
+        v.set(chebyshevEvaluate(c, degree, w, lo, hi, u, tmp), k * w);
+        sl.set(chebyshevEvaluate(dc, degree, w, lo, hi, u, tmp), k * w);
+      }
+      return [v, sl];
+    };
+    const ladder: Float64Array[] = [];
+    const ladderSlope: Float64Array[] = [];
+    const number: Float64Array[] = [];
+    const numberSlope: Float64Array[] = [];
+    for (let i = 0; i < this.model.transmons.length; i++) {
+      const [l, ls] = table('ladder', i);
+      const [n, ns] = table('number', i);
+      ladder.push(l);
+      ladderSlope.push(ls);
+      number.push(n);
+      numberSlope.push(ns);
+    }
+    return { size: dt, offsets: [0, sizes[0]], ladder, ladderSlope, number, numberSlope };
   }
 
   private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
@@ -346,7 +467,7 @@ export class ManifoldFrameBuilder {
     return true;
   }
 
-  private tabulate(setup: SectorSetup, s: number, samples: Sample[], degree: number, lo: number, hi: number, nT: number): FrameSector {
+  private tabulate(setup: SectorSetup, s: number, samples: Sample[], degree: number, lo: number, hi: number, nT: number, dropT: boolean): FrameSector {
     const d = setup.keptRows.length;
     const size = setup.indices.length;
     const nPts = degree + 1;
@@ -370,7 +491,7 @@ export class ManifoldFrameBuilder {
         for (let b = 0; b < d; b++) {
           let acc = 0;
           for (let r = 0; r < size; r++) acc += vt[r * d + a] * dvt[r * d + b];
-          aVals[(j * d + a) * d + b] = acc + x[a * d + b];
+          aVals[(j * d + a) * d + b] = acc + (dropT ? 0 : x[a * d + b]);
         }
       for (let a = 0; a < d; a++) {
         aVals[(j * d + a) * d + a] = 0;
@@ -423,6 +544,7 @@ export class ManifoldFrameBuilder {
 }
 
 export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {
+  // (The builder's keepExcitations fixes the frame's state set; the rest are build options.)
   return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations).build(options);
 }
 
@@ -467,6 +589,24 @@ export function evaluateFrame(frame: ManifoldFrame, sector: FrameSector, u: numb
     outE[q] = h00 * e[p0 + q] + h10 * es[p0 + q] + h01 * e[p1 + q] + h11 * es[p1 + q];
     outA[q] = h00 * a[p0 + q] + h10 * as[p0 + q] + h01 * a[p1 + q] + h11 * as[p1 + q];
   }
+}
+
+/** Interpolate a noise table (values, slopes; Dt x Dt per point) at u into out. */
+export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, out: Float64Array): Float64Array {
+  const i = tableInterval(frame, u);
+  const h = frame.tableStep;
+  const t = (u - (frame.ejLo + i * h)) / h;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  const h00 = 2 * t3 - 3 * t2 + 1;
+  const h10 = (t3 - 2 * t2 + t) * h;
+  const h01 = -2 * t3 + 3 * t2;
+  const h11 = (t3 - t2) * h;
+  const w = out.length;
+  const p0 = i * w;
+  const p1 = p0 + w;
+  for (let q = 0; q < w; q++) out[q] = h00 * values[p0 + q] + h10 * slopes[p0 + q] + h01 * values[p1 + q] + h11 * slopes[p1 + q];
+  return out;
 }
 
 /** Largest |A| over table intervals covering [uLo, uHi]. */

@@ -18,22 +18,30 @@
  *     Im M = -(h/2)(B1 + B2) - 4 pi^2 c [E2, E1] + c [B2, B1].
  *
  * Step size: h <= maxStepNs, |du/dt| h max|A| <= maxAngle (the rotation a step makes between
- * frame states) and |du/dt| h <= maxEjStep (GHz of E_J per step). Error O(h^4)
- * (test/sim/propagate-frame.test.ts measures the order).
+ * frame states) and |du/dt| h <= maxEjStepGHz (E_J change per step). Error O(h^4)
+ * (test/sim/propagate-frame.test.ts measures the order). The default scheme handles each
+ * manifold block this way and the inter-manifold coupling by src/sim/block-stepper.ts.
  */
 import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { josephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
-import { evaluateFrame, maxCouplingBetween, type FrameSector, type FrameState, type ManifoldFrame } from './manifold-frame.js';
+import { BlockStepper } from './block-stepper.js';
+import { evaluateFrame, maxCouplingBetween, type FrameSector, type ManifoldFrame } from './manifold-frame.js';
 import type { Trajectory } from './trajectory.js';
 
 export interface FramePropagationOptions {
   maxStepNs?: number;
   maxAngle?: number;
   maxEjStepGHz?: number;
+  /**
+   * 'blocks' (default): Magnus per manifold block plus the exact-oscillation treatment of the
+   * inter-manifold coupling (src/sim/block-stepper.ts); 'full': one Magnus exponential of the
+   * whole generator (simple, needs steps short against the inter-manifold periods; a reference).
+   */
+  scheme?: 'blocks' | 'full';
 }
 
-export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.5, maxAngle: 0.1, maxEjStepGHz: 0.25 });
+export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.2, maxAngle: 0.1, maxEjStepGHz: 0.5, scheme: 'blocks' as 'blocks' | 'full' });
 
 /** Final amplitudes of each initial frame vector (in its sector's frame basis). */
 export interface FrameColumns {
@@ -66,9 +74,11 @@ export class SectorStepper {
   readonly ti: Float64Array;
   readonly eig: HermitianEigen;
   hasStart = false;
+  private readonly blocks: BlockStepper | undefined;
 
-  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector) {
+  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, scheme: 'blocks' | 'full' = 'blocks') {
     const d = sector.size;
+    this.blocks = scheme === 'blocks' ? new BlockStepper(sector.blocks, d) : undefined;
     this.d = d;
     this.e1 = new Float64Array(d * d);
     this.e2 = new Float64Array(d * d);
@@ -81,10 +91,36 @@ export class SectorStepper {
     this.eig = { values: new Float64Array(d), vectorsRe: new Float64Array(d * d), vectorsIm: new Float64Array(d * d) };
   }
 
+  /** Set up the step's propagator (hold or Magnus step). */
+  prepare(step: FrameStep): void {
+    const mover = this.frame.model.transmons[0];
+    if (step.hold) {
+      this.holdPropagator(josephsonEnergy(mover.ejsGHz, mover.asymmetry, step.x0), step.h);
+      return;
+    }
+    const { h, v, x0 } = step;
+    const d = this.d;
+    const xa = x0 + v * GL1 * h;
+    const xb = x0 + v * GL2 * h;
+    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xa), this.e1, this.a1);
+    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xb), this.e2, this.a2);
+    const ra = v * josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, xa);
+    const rb = v * josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, xb);
+    for (let q = 0; q < d * d; q++) {
+      this.a1[q] *= ra;
+      this.a2[q] *= rb;
+    }
+    this.magnusMatrix(h);
+  }
+
   /** Unitary of a hold of length dt at E_J = u: U = exp(-i 2 pi E dt), stored as eigen-decomposition in eig (real vectors). */
   holdPropagator(u: number, dt: number): void {
     const d = this.d;
     evaluateFrame(this.frame, this.sector, u, this.e1, this.a1);
+    if (this.blocks) {
+      this.blocks.setHold(this.e1, dt);
+      return;
+    }
     const vr = this.eig.vectorsRe;
     const vi = this.eig.vectorsIm;
     vr.fill(0);
@@ -104,6 +140,10 @@ export class SectorStepper {
 
   /** Build M for one Magnus step from (e1, a1), (e2, a2) already holding E and B at the nodes. */
   magnusMatrix(h: number): void {
+    if (this.blocks) {
+      this.blocks.setStep(this.e1, this.e2, this.a1, this.a2, h);
+      return;
+    }
     const d = this.d;
     const { e1, e2, a1, a2, mr, mi } = this;
     const c = (Math.sqrt(3) * h * h) / 12;
@@ -143,6 +183,10 @@ export class SectorStepper {
 
   /** x <- V exp(-i w) V^H x with the decomposition in eig. */
   apply(re: Float64Array, im: Float64Array): void {
+    if (this.blocks) {
+      this.blocks.apply(re, im);
+      return;
+    }
     const d = this.d;
     const vr = this.eig.vectorsRe;
     const vi = this.eig.vectorsIm;
@@ -178,81 +222,81 @@ export class SectorStepper {
   }
 }
 
-/** Propagate the initial vectors through the trajectory (coherent). */
-export function propagateInFrame(frame: ManifoldFrame, traj: Trajectory, initial: FrameInitial[], options: FramePropagationOptions = {}): FrameColumns {
-  const o = { ...FRAME_PROPAGATION_DEFAULTS, ...options };
-  const re = initial.map((x) => Float64Array.from(x.re));
-  const im = initial.map((x) => Float64Array.from(x.im));
-  let steps = 0;
-  for (let s = 0; s < frame.sectors.length; s++) {
-    const cols = initial.map((x, i) => (x.sector === s ? i : -1)).filter((i) => i >= 0);
-    if (cols.length === 0) continue;
-    const stepper = new SectorStepper(frame, frame.sectors[s]);
-    steps += walkTrajectory(stepper, traj, o, () => {
-      for (const c of cols) stepper.apply(re[c], im[c]);
-    });
-  }
-  return { re, im, steps };
+/** One step of a schedule: a hold (exact) or a Magnus step on a ramp segment. */
+export interface FrameStep {
+  hold: boolean;
+  /** Start time and length (ns). */
+  t0: number;
+  h: number;
+  /** Mover flux at the start of the step and its rate dPhi/dt (0 for a hold). */
+  x0: number;
+  v: number;
 }
 
 /**
- * Walk a trajectory through one sector's stepper: for every hold and every Magnus step, set up
- * the step's decomposition in `stepper.eig` and call `onStep(dt)`. Returns the number of steps.
+ * The step schedule of a trajectory, shared by all sectors (so per-step observers see the same
+ * times): holds are split into pieces of at most maxHoldStepNs; ramp segments into equal steps
+ * obeying maxStepNs, maxAngle (largest |A| of any sector) and maxEjStepGHz.
  */
-export function walkTrajectory(
-  stepper: SectorStepper,
-  traj: Trajectory,
-  o: { maxStepNs: number; maxAngle: number; maxEjStepGHz: number },
-  onStep: (dt: number, tStart: number, uMid: number) => void,
-): number {
-  const frame = stepper.frame;
+export function stepSchedule(frame: ManifoldFrame, traj: Trajectory, options: FramePropagationOptions & { maxHoldStepNs?: number } = {}): FrameStep[] {
+  const o = { ...FRAME_PROPAGATION_DEFAULTS, maxHoldStepNs: Infinity, ...options };
   const mover = frame.model.transmons[0];
   const ej = (x: number): number => josephsonEnergy(mover.ejsGHz, mover.asymmetry, x);
   const ejSlope = (x: number): number => josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, x);
   const ts = traj.timeNs;
   const xs = traj.flux;
-  const d = stepper.d;
-  let steps = 0;
+  const out: FrameStep[] = [];
   for (let k = 0; k + 1 < ts.length; k++) {
     const dt = ts[k + 1] - ts[k];
     const x0 = xs[k];
     const x1 = xs[k + 1];
     if (x1 === x0) {
-      stepper.holdPropagator(ej(x0), dt);
-      onStep(dt, ts[k], ej(x0));
-      steps++;
+      const n = Number.isFinite(o.maxHoldStepNs) ? Math.max(1, Math.ceil(dt / o.maxHoldStepNs - 1e-9)) : 1;
+      for (let q = 0; q < n; q++) out.push({ hold: true, t0: ts[k] + (q * dt) / n, h: dt / n, x0, v: 0 });
       continue;
     }
     const v = (x1 - x0) / dt;
+    const xm = 0.5 * (x0 + x1);
+    const slopeMax = Math.max(Math.abs(ejSlope(x0)), Math.abs(ejSlope(x1)), Math.abs(ejSlope(xm))) * 1.25;
     const u0 = ej(x0);
     const u1 = ej(x1);
-    const uMid = ej(0.5 * (x0 + x1));
-    const slopeMax = Math.max(Math.abs(ejSlope(x0)), Math.abs(ejSlope(x1)), Math.abs(ejSlope(0.5 * (x0 + x1)))) * 1.25;
-    const uLo = Math.min(u0, u1, uMid);
-    const uHi = Math.max(u0, u1, uMid);
-    const aMax = maxCouplingBetween(frame, stepper.sector, uLo, uHi);
-    const rate = Math.abs(v) * slopeMax; // |du/dt| bound, GHz/ns
-    let n = Math.ceil(dt / o.maxStepNs);
-    n = Math.max(n, Math.ceil((rate * dt * aMax) / o.maxAngle), Math.ceil((rate * dt) / o.maxEjStepGHz));
+    const um = ej(xm);
+    let aMax = 0;
+    for (const sector of frame.sectors) aMax = Math.max(aMax, maxCouplingBetween(frame, sector, Math.min(u0, u1, um), Math.max(u0, u1, um)));
+    const rate = Math.abs(v) * slopeMax;
+    let n = Math.ceil(dt / o.maxStepNs - 1e-9);
+    n = Math.max(n, 1, Math.ceil((rate * dt * aMax) / o.maxAngle - 1e-9), Math.ceil((rate * dt) / o.maxEjStepGHz - 1e-9));
     const h = dt / n;
-    for (let q = 0; q < n; q++) {
-      const xa = x0 + v * (q + GL1) * h;
-      const xb = x0 + v * (q + GL2) * h;
-      const ua = ej(xa);
-      const ub = ej(xb);
-      evaluateFrame(frame, stepper.sector, ua, stepper.e1, stepper.a1);
-      evaluateFrame(frame, stepper.sector, ub, stepper.e2, stepper.a2);
-      const ra = v * ejSlope(xa);
-      const rb = v * ejSlope(xb);
-      for (let q2 = 0; q2 < d * d; q2++) {
-        stepper.a1[q2] *= ra;
-        stepper.a2[q2] *= rb;
-      }
-
-      stepper.magnusMatrix(h);
-      onStep(h, ts[k] + q * h, ej(x0 + v * (q + 0.5) * h));
-      steps++;
-    }
+    for (let q = 0; q < n; q++) out.push({ hold: false, t0: ts[k] + q * h, h, x0: x0 + v * q * h, v });
   }
-  return steps;
+  return out;
+}
+
+/** Called before the first step (index -1) and after every step with the sector's columns. */
+export type FrameObserver = (stepIndex: number, sector: number, re: Float64Array[], im: Float64Array[], columns: number[]) => void;
+
+/** Propagate the initial vectors through the trajectory (coherent). */
+export function propagateInFrame(
+  frame: ManifoldFrame,
+  traj: Trajectory,
+  initial: FrameInitial[],
+  options: FramePropagationOptions & { maxHoldStepNs?: number } = {},
+  observer?: FrameObserver,
+): FrameColumns {
+  const o = { ...FRAME_PROPAGATION_DEFAULTS, ...options };
+  const schedule = stepSchedule(frame, traj, options);
+  const re = initial.map((x) => Float64Array.from(x.re));
+  const im = initial.map((x) => Float64Array.from(x.im));
+  for (let s = 0; s < frame.sectors.length; s++) {
+    const cols = initial.map((x, i) => (x.sector === s ? i : -1)).filter((i) => i >= 0);
+    if (cols.length === 0) continue;
+    const stepper = new SectorStepper(frame, frame.sectors[s], o.scheme);
+    observer?.(-1, s, re, im, cols);
+    schedule.forEach((step, i) => {
+      stepper.prepare(step);
+      for (const c of cols) stepper.apply(re[c], im[c]);
+      observer?.(i, s, re, im, cols);
+    });
+  }
+  return { re, im, steps: schedule.length };
 }

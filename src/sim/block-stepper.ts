@@ -1,0 +1,447 @@
+/**
+ * One time step in the dressed-manifold frame (src/sim/manifold-frame.ts), splitting the
+ * generator H(t) = 2 pi E(t) - i B(t) into its manifold blocks H_in (E is block diagonal; the
+ * in-block part of B) and the weak inter-manifold coupling H_x = -i B_x:
+ *
+ *     U(h) = U_in(h) U_I(h).
+ *
+ * U_in: fourth-order Magnus with two Gauss-Legendre nodes, restricted to each block (Blanes,
+ * Casas, Oteo and Ros, Phys. Rep. 470, 151 (2009), Eq. 253), exponentiated exactly through the
+ * eigen-decomposition of each small Hermitian block.
+ *
+ * U_I: the interaction picture of H_x relative to the in-block motion, taken about the middle
+ * of the step with the block Hamiltonian H_m = (H(t1) + H(t2))/2 = Q Lambda Q^dag, so that in
+ * Q's basis H_x(t) = X_m + (t - h/2) X_d oscillates as e^{i w_pq tau} (w_pq = lambda_p - lambda_q,
+ * GHz-scale for states of different manifolds). Its Magnus series to second order is integrated
+ * exactly in the oscillation (Filon-type quadrature; Iserles, BIT 42, 561 (2002)):
+ *
+ *     Omega1_pq = -i [ Xm_pq S0(w_pq) + Xd_pq S1(w_pq) ],
+ *     Omega2_pq = -(1/2) sum_r Xm_pr Xm_rq [ I(w_pr, w_rq) - I(w_rq, w_pr) ]   (p, q in one block),
+ *     S0(w) = int e^{i w tau} = 2 sin(w h/2)/w,   S1(w) = int tau e^{i w tau} = i [2 sin(w h/2)/w^2 - h cos(w h/2)/w],
+ *     I(a, b) = int_{tau1 > tau2} e^{i a tau1 + i b tau2} = [S0(a + b) - e^{-i b h/2} S0(a)] / (i b),
+ * over tau in [-h/2, h/2], and U_I = Q exp(Omega~) Q^dag with Omega~_pq = e^{i w_pq h/2} Omega_pq
+ * (exp by a third-order Taylor series: |Omega| ~ 1e-3). This keeps the GHz-fast counter-rotating
+ * (squeezing and dressing) transitions between manifolds accurate at steps much longer than
+ * their period; the neglected terms are third order in B_x and the chirp of the in-block phases
+ * over the step.
+ */
+import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
+import type { FrameBlock } from './manifold-frame.js';
+
+const TWO_PI = 2 * Math.PI;
+
+class BlockScratch {
+  readonly mr: Float64Array;
+  readonly mi: Float64Array;
+  readonly hr: Float64Array;
+  readonly hi: Float64Array;
+  readonly u: HermitianEigen;
+  readonly q: HermitianEigen;
+  readonly work: Float64Array;
+  hasStart = false;
+  constructor(readonly start: number, readonly size: number) {
+    const m = size;
+    this.mr = new Float64Array(m * m);
+    this.mi = new Float64Array(m * m);
+    this.hr = new Float64Array(m * m);
+    this.hi = new Float64Array(m * m);
+    this.u = { values: new Float64Array(m), vectorsRe: new Float64Array(m * m), vectorsIm: new Float64Array(m * m) };
+    this.q = { values: new Float64Array(m), vectorsRe: new Float64Array(m * m), vectorsIm: new Float64Array(m * m) };
+    this.work = new Float64Array(4 * m * m);
+  }
+}
+
+/** Blocks up to this size are diagonalised from scratch (a warm start costs more than it saves). */
+const WARM_START_MIN = 5;
+
+export class BlockStepper {
+  readonly d: number;
+  private readonly blocks: BlockScratch[];
+  private readonly blockOf: Int32Array;
+  /** Full-space Q (block diagonal) and eigenvalues lambda of H_m. */
+  private readonly lam: Float64Array;
+  /** Omega~ (D x D complex). */
+  private readonly or: Float64Array;
+  private readonly oi: Float64Array;
+  /** Xm, Xd in Q's basis (D x D complex). */
+  private readonly xmr: Float64Array;
+  private readonly xmi: Float64Array;
+  private readonly xdr: Float64Array;
+  private readonly xdi: Float64Array;
+  /** Tables per pair: S0(w_pq), cos/sin(w_pq h/2). */
+  private readonly s0: Float64Array;
+  private readonly ch: Float64Array;
+  private readonly sh: Float64Array;
+  private readonly w: Float64Array;
+  private readonly tr: Float64Array;
+  private readonly ti: Float64Array;
+  private readonly ur: Float64Array;
+  private readonly ui: Float64Array;
+  private readonly cr: Float64Array;
+  private readonly ci: Float64Array;
+  private readonly nr: Float64Array;
+  private readonly ni: Float64Array;
+  /** Whether the current step has an inter-manifold part. */
+  private coupled = false;
+
+  constructor(blocks: readonly FrameBlock[], d: number) {
+    this.d = d;
+    this.blocks = blocks.map((b) => new BlockScratch(b.start, b.size));
+    this.blockOf = new Int32Array(d);
+    blocks.forEach((b, i) => {
+      for (let q = 0; q < b.size; q++) this.blockOf[b.start + q] = i;
+    });
+    const dd = d * d;
+    this.lam = new Float64Array(d);
+    this.or = new Float64Array(dd);
+    this.oi = new Float64Array(dd);
+    this.xmr = new Float64Array(dd);
+    this.xmi = new Float64Array(dd);
+    this.xdr = new Float64Array(dd);
+    this.xdi = new Float64Array(dd);
+    this.s0 = new Float64Array(dd);
+    this.ch = new Float64Array(dd);
+    this.sh = new Float64Array(dd);
+    this.w = new Float64Array(dd);
+    this.tr = new Float64Array(d);
+    this.ti = new Float64Array(d);
+    this.ur = new Float64Array(d);
+    this.ui = new Float64Array(d);
+    this.cr = new Float64Array(d);
+    this.ci = new Float64Array(d);
+    this.nr = new Float64Array(d);
+    this.ni = new Float64Array(d);
+  }
+
+  /** A hold of length dt with E (D x D, block diagonal): U = exp(-i 2 pi E dt), no coupling. */
+  setHold(e: Float64Array, dt: number): void {
+    const d = this.d;
+    for (const b of this.blocks) {
+      const m = b.size;
+      for (let i = 0; i < m; i++)
+        for (let j = 0; j < m; j++) {
+          b.mr[i * m + j] = TWO_PI * dt * e[(b.start + i) * d + b.start + j];
+          b.mi[i * m + j] = 0;
+        }
+      hermitianEigen(b.mr, b.mi, m, { out: b.u, sort: false, work: b.work });
+      b.hasStart = false;
+    }
+    this.coupled = false;
+  }
+
+  /**
+   * A Magnus step of length h from E and B (= (du/dt) A) at the two Gauss-Legendre nodes.
+   * Arrays are D x D row-major; E block diagonal, B antisymmetric.
+   */
+  setStep(e1: Float64Array, e2: Float64Array, b1: Float64Array, b2: Float64Array, h: number): void {
+    const d = this.d;
+    const c = (Math.sqrt(3) * h * h) / 12;
+    const bo = this.blockOf;
+    for (const b of this.blocks) {
+      const m = b.size;
+      const o = b.start;
+      for (let i = 0; i < m; i++) {
+        const n = o + i;
+        for (let j = i; j < m; j++) {
+          const k = o + j;
+          let s1 = 0;
+          let s2 = 0;
+          let s3 = 0;
+          for (let l = 0; l < m; l++) {
+            const q = o + l;
+            const e2nq = e2[n * d + q];
+            const e1nq = e1[n * d + q];
+            const b1nq = b1[n * d + q];
+            const b2nq = b2[n * d + q];
+            const e2qk = e2[q * d + k];
+            const e1qk = e1[q * d + k];
+            const b1qk = b1[q * d + k];
+            const b2qk = b2[q * d + k];
+            s1 += e2nq * b1qk - b1nq * e2qk + b2nq * e1qk - e1nq * b2qk;
+            s2 += e2nq * e1qk - e1nq * e2qk;
+            s3 += b2nq * b1qk - b1nq * b2qk;
+          }
+          const re = Math.PI * h * (e1[n * d + k] + e2[n * d + k]) - TWO_PI * c * s1;
+          const im = -0.5 * h * (b1[n * d + k] + b2[n * d + k]) - 4 * Math.PI * Math.PI * c * s2 + c * s3;
+          b.mr[i * m + j] = re;
+          b.mr[j * m + i] = re;
+          b.mi[i * m + j] = i === j ? 0 : im;
+          b.mi[j * m + i] = i === j ? 0 : -im;
+          // Mid-step block Hamiltonian (rad/ns).
+          const hre = Math.PI * (e1[n * d + k] + e2[n * d + k]);
+          const him = -0.5 * (b1[n * d + k] + b2[n * d + k]);
+          b.hr[i * m + j] = hre;
+          b.hr[j * m + i] = hre;
+          b.hi[i * m + j] = i === j ? 0 : him;
+          b.hi[j * m + i] = i === j ? 0 : -him;
+        }
+      }
+      const warm = b.hasStart && m >= WARM_START_MIN;
+      hermitianEigen(b.mr, b.mi, m, { out: b.u, start: warm ? { re: b.u.vectorsRe, im: b.u.vectorsIm } : undefined, sort: false, work: b.work });
+      hermitianEigen(b.hr, b.hi, m, { out: b.q, start: warm ? { re: b.q.vectorsRe, im: b.q.vectorsIm } : undefined, sort: false, work: b.work });
+      b.hasStart = true;
+      for (let i = 0; i < m; i++) this.lam[o + i] = b.q.values[i];
+    }
+    // Inter-manifold coupling in Q's basis: X = Q^dag (-i B_x) Q for off-block pairs.
+    let any = false;
+    for (let p = 0; p < d && !any; p++) for (let q = 0; q < d; q++) if (bo[p] !== bo[q] && (b1[p * d + q] !== 0 || b2[p * d + q] !== 0)) any = true;
+    this.coupled = any;
+    if (!any) return;
+    const kd = Math.sqrt(3) / h; // 1 / (h (c2 - c1))
+    const { xmr, xmi, xdr, xdi } = this;
+    for (const ba of this.blocks) {
+      for (const bb of this.blocks) {
+        if (ba === bb) continue;
+        const ma = ba.size;
+        const mb = bb.size;
+        for (let i = 0; i < ma; i++) {
+          for (let j = 0; j < mb; j++) {
+            // sum_{r in a, s in b} conj(Qa[r][i]) (-i Bx[r][s]) Qb[s][j]
+            let mr = 0;
+            let mi = 0;
+            let dr = 0;
+            let di = 0;
+            for (let r = 0; r < ma; r++) {
+              const qar = ba.q.vectorsRe[r * ma + i];
+              const qai = -ba.q.vectorsIm[r * ma + i];
+              // t = sum_s Bx[r][s] Qb[s][j] for mean and difference
+              let tmr = 0;
+              let tmi = 0;
+              let tdr = 0;
+              let tdi = 0;
+              const row = (ba.start + r) * d + bb.start;
+              for (let s = 0; s < mb; s++) {
+                const bm = 0.5 * (b1[row + s] + b2[row + s]);
+                const bd = (b2[row + s] - b1[row + s]) * kd;
+                const qbr = bb.q.vectorsRe[s * mb + j];
+                const qbi = bb.q.vectorsIm[s * mb + j];
+                tmr += bm * qbr;
+                tmi += bm * qbi;
+                tdr += bd * qbr;
+                tdi += bd * qbi;
+              }
+              // (-i) * t
+              const ar = tmi;
+              const ai = -tmr;
+              const cr = tdi;
+              const ci = -tdr;
+              mr += qar * ar - qai * ai;
+              mi += qar * ai + qai * ar;
+              dr += qar * cr - qai * ci;
+              di += qar * ci + qai * cr;
+            }
+            const p = (ba.start + i) * d + bb.start + j;
+            xmr[p] = mr;
+            xmi[p] = mi;
+            xdr[p] = dr;
+            xdi[p] = di;
+          }
+        }
+      }
+    }
+    // Phase tables from one cos/sin per state (angle addition): w_pq = lambda_p - lambda_q.
+    const lam = this.lam;
+    const cl = this.cr;
+    const sl = this.ci;
+    for (let p = 0; p < d; p++) {
+      cl[p] = Math.cos(0.5 * lam[p] * h);
+      sl[p] = Math.sin(0.5 * lam[p] * h);
+    }
+    for (let p = 0; p < d; p++)
+      for (let q = 0; q < d; q++) {
+        const idx = p * d + q;
+        const w = lam[p] - lam[q];
+        const x = 0.5 * w * h;
+        const cx = cl[p] * cl[q] + sl[p] * sl[q];
+        const sx = sl[p] * cl[q] - cl[p] * sl[q];
+        this.w[idx] = w;
+        this.ch[idx] = cx;
+        this.sh[idx] = sx;
+        this.s0[idx] = Math.abs(x) < 1e-4 ? h * (1 - (x * x) / 6) : (2 * sx) / w;
+      }
+    const { or, oi } = this;
+    for (let p = 0; p < d; p++) {
+      for (let q = 0; q < d; q++) {
+        const pq = p * d + q;
+        let wr = 0;
+        let wi = 0;
+        if (bo[p] !== bo[q]) {
+          // Omega1 = -i (Xm S0 + Xd S1), S1 = i s1 (s1 real)
+          const w = this.w[pq];
+          const x = 0.5 * w * h;
+          const s1 = Math.abs(x) < 1e-3 ? ((w * h * h * h) / 12) * (1 - (w * h) ** 2 / 40) : (2 * this.sh[pq]) / (w * w) - (h * this.ch[pq]) / w;
+          const s0 = this.s0[pq];
+          const tr = xmr[pq] * s0 - xdi[pq] * s1;
+          const ti = xmi[pq] * s0 + xdr[pq] * s1;
+          wr = ti;
+          wi = -tr;
+        } else {
+          // Omega2 (same block: the secular second-order part; across blocks it is third order in effect).
+          let sr = 0;
+          let si = 0;
+          for (let r = 0; r < d; r++) {
+            if (bo[r] === bo[p]) continue;
+            const pr = p * d + r;
+            const rq = r * d + q;
+            const ar = xmr[pr] * xmr[rq] - xmi[pr] * xmi[rq];
+            const ai = xmr[pr] * xmi[rq] + xmi[pr] * xmr[rq];
+            if (ar === 0 && ai === 0) continue;
+            this.ordered(pq, pr, rq, h);
+            const i1r = this.ir;
+            const i1i = this.ii;
+            this.ordered(pq, rq, pr, h);
+            const dr = i1r - this.ir;
+            const di = i1i - this.ii;
+            sr += ar * dr - ai * di;
+            si += ar * di + ai * dr;
+          }
+          wr = -0.5 * sr;
+          wi = -0.5 * si;
+        }
+        // Omega~ = e^{i w_pq h/2} Omega
+        const cc = this.ch[pq];
+        const ss = this.sh[pq];
+        or[pq] = cc * wr - ss * wi;
+        oi[pq] = ss * wr + cc * wi;
+      }
+    }
+  }
+
+  private ir = 0;
+  private ii = 0;
+
+  /**
+   * I(a, b) = int_{-h/2}^{h/2} dt1 int_{-h/2}^{t1} dt2 e^{i a t1 + i b t2} with a = w[ia], b = w[ib]
+   * and a + b = w[isum]: [S0(a+b) - e^{-i b h/2} S0(a)] / (i b); result in (ir, ii).
+   */
+  private ordered(isum: number, ia: number, ib: number, h: number): void {
+    const b = this.w[ib];
+    const s0sum = this.s0[isum];
+    const s0a = this.s0[ia];
+    if (Math.abs(b * h) < 1e-4) {
+      // b -> 0: int e^{i a t1} (t1 + h/2) dt1 = S1(a) + (h/2) S0(a)
+      const a = this.w[ia];
+      const x = 0.5 * a * h;
+      this.ir = 0.5 * h * s0a;
+      this.ii = Math.abs(x) < 1e-3 ? (a * h * h * h) / 12 : (2 * this.sh[ia]) / (a * a) - (h * this.ch[ia]) / a;
+      return;
+    }
+    // e^{-i b h/2} = cos - i sin;  (nr + i ni) / (i b) = (ni - i nr) / b
+    const nr = s0sum - this.ch[ib] * s0a;
+    const ni = this.sh[ib] * s0a;
+    this.ir = ni / b;
+    this.ii = -nr / b;
+  }
+
+  /** x <- U(h) x for one column (re, im of length D). */
+  apply(re: Float64Array, im: Float64Array): void {
+    const d = this.d;
+    const { tr, ti, ur, ui } = this;
+    if (this.coupled) {
+      // y = Q^dag x
+      for (const b of this.blocks) {
+        const m = b.size;
+        for (let i = 0; i < m; i++) {
+          let sr = 0;
+          let si = 0;
+          for (let r = 0; r < m; r++) {
+            const qr = b.q.vectorsRe[r * m + i];
+            const qi = -b.q.vectorsIm[r * m + i];
+            const xr = re[b.start + r];
+            const xi = im[b.start + r];
+            sr += qr * xr - qi * xi;
+            si += qr * xi + qi * xr;
+          }
+          tr[b.start + i] = sr;
+          ti[b.start + i] = si;
+        }
+      }
+      // y <- exp(Omega~) y  (Taylor: y + O y + O^2 y / 2 + O^3 y / 6)
+      const or = this.or;
+      const oi = this.oi;
+      let cr = this.cr;
+      let ci = this.ci;
+      let nr = this.nr;
+      let ni = this.ni;
+      cr.set(tr);
+      ci.set(ti);
+      for (let k = 1; k <= 3; k++) {
+        for (let p = 0; p < d; p++) {
+          let sr = 0;
+          let si = 0;
+          for (let q = 0; q < d; q++) {
+            const a = or[p * d + q];
+            const bq = oi[p * d + q];
+            sr += a * cr[q] - bq * ci[q];
+            si += a * ci[q] + bq * cr[q];
+          }
+          nr[p] = sr / k;
+          ni[p] = si / k;
+        }
+        for (let p = 0; p < d; p++) {
+          tr[p] += nr[p];
+          ti[p] += ni[p];
+        }
+        const xr = cr;
+        const xi = ci;
+        cr = nr;
+        ci = ni;
+        nr = xr;
+        ni = xi;
+      }
+      // x = Q y
+      for (const b of this.blocks) {
+        const m = b.size;
+        for (let r = 0; r < m; r++) {
+          let sr = 0;
+          let si = 0;
+          for (let i = 0; i < m; i++) {
+            const qr = b.q.vectorsRe[r * m + i];
+            const qi = b.q.vectorsIm[r * m + i];
+            const yr = tr[b.start + i];
+            const yi = ti[b.start + i];
+            sr += qr * yr - qi * yi;
+            si += qr * yi + qi * yr;
+          }
+          re[b.start + r] = sr;
+          im[b.start + r] = si;
+        }
+      }
+    }
+    // x <- U_in x per block: V e^{-i w} V^dag x
+    for (const b of this.blocks) {
+      const m = b.size;
+      const vr = b.u.vectorsRe;
+      const vi = b.u.vectorsIm;
+      const w = b.u.values;
+      for (let k = 0; k < m; k++) {
+        let sr = 0;
+        let si = 0;
+        for (let r = 0; r < m; r++) {
+          const ar = vr[r * m + k];
+          const ai = -vi[r * m + k];
+          const xr = re[b.start + r];
+          const xi = im[b.start + r];
+          sr += ar * xr - ai * xi;
+          si += ar * xi + ai * xr;
+        }
+        const cw = Math.cos(w[k]);
+        const sw = -Math.sin(w[k]);
+        ur[k] = cw * sr - sw * si;
+        ui[k] = sw * sr + cw * si;
+      }
+      for (let r = 0; r < m; r++) {
+        let sr = 0;
+        let si = 0;
+        for (let k = 0; k < m; k++) {
+          const ar = vr[r * m + k];
+          const ai = vi[r * m + k];
+          sr += ar * ur[k] - ai * ui[k];
+          si += ar * ui[k] + ai * ur[k];
+        }
+        re[b.start + r] = sr;
+        im[b.start + r] = si;
+      }
+    }
+  }
+}

@@ -1,0 +1,578 @@
+/**
+ * Simulate one two-qubit gate trajectory: the coherent propagator's computational block and its
+ * metrics (../shared/physics.md sec. 3), and with noise the Lindblad channel's average gate
+ * fidelity and the first-order (weak-noise) estimate (src/sim/decoherence.ts).
+ *
+ * The trajectory starts and ends at the parking point (its first sample). Computational states
+ * are the dressed |00>, |01>, |10>, |11> at parking (order |AB>, A the mover), with spectators
+ * (transmons 2, 3, ...) in `spectatorLevels` (default ground).
+ */
+import { josephsonEnergy } from '../transmon/josephson.js';
+import { averageFromProcessInfidelity, jumpRates } from './decoherence.js';
+import { dressedStatesAt, type DressedState } from './computational-block.js';
+import { conditionalPhase, gateMetrics, wrapAngle, type Block4 } from './gate-metrics.js';
+import { evaluateNoiseTable, frameState, type ManifoldFrame } from './manifold-frame.js';
+import { propagateInFrame, SectorStepper, stepSchedule, type FrameInitial, type FramePropagationOptions } from './propagate-frame.js';
+import type { Trajectory } from './trajectory.js';
+
+export interface GateSimulationOptions extends FramePropagationOptions {
+  /** Target conditional phase theta (CPhase(theta)); pi is CZ. */
+  targetPhase?: number;
+  /** Levels of the spectators (transmons 2, 3, ...) in the computational block. */
+  spectatorLevels?: number[];
+  /** Also integrate the Lindblad equation (needs a frame built with noiseOperators). */
+  lindblad?: boolean;
+  /** Step of the Lindblad integration (ns). */
+  noiseStepNs?: number;
+  /** Frame states with at most this many excitations carry the Lindblad dynamics. */
+  noiseExcitations?: number;
+  /** Hold sub-step for the first-order estimate (ns). */
+  estimateStepNs?: number;
+}
+
+export const GATE_SIMULATION_DEFAULTS = Object.freeze({
+  targetPhase: Math.PI,
+  lindblad: false,
+  noiseStepNs: 0.05,
+  noiseExcitations: 2,
+  estimateStepNs: 0.25,
+});
+
+export interface NoisyMetrics {
+  /** Average gate fidelity of the Lindblad channel (after its own optimal virtual-Z phases). */
+  fidelity: number;
+  virtualZ: { a: number; b: number };
+  /** Population outside the computational states after the channel, averaged over the 4 inputs. */
+  leakage: number;
+}
+
+export interface GateSimulation {
+  /** 4 x 4 lab-frame block (order 00, 01, 10, 11). */
+  m: Block4;
+  conditionalPhase: number;
+  leakage: number;
+  fidelity: number;
+  virtualZ: { a: number; b: number };
+  /** Final populations of the dressed 20 and 02 from 11. */
+  populations: { '20': number; '02': number };
+  /** Dressed energies at parking (GHz). */
+  energies: Record<'00' | '01' | '10' | '11' | '20' | '02', number>;
+  /** First-order decoherence estimate of the average infidelity (0 without noise data). */
+  decoherenceEstimate: number;
+  /** Lindblad result (with lindblad: true). */
+  noisy?: NoisyMetrics;
+  steps: number;
+}
+
+const PAIR_LABELS = [
+  [0, 0],
+  [0, 1],
+  [1, 0],
+  [1, 1],
+];
+
+/** The dressed states 00, 01, 10, 11, 20, 02 at parking. */
+export function computationalStates(frame: ManifoldFrame, parkFlux: number, spectatorLevels?: number[]): { comp: DressedState[]; leak20: DressedState; leak02: DressedState } {
+  const model = frame.model;
+  const mover = model.transmons[0];
+  const spect = spectatorLevels ?? new Array(Math.max(0, model.transmons.length - 2)).fill(0);
+  const dressed = dressedStatesAt(frame, josephsonEnergy(mover.ejsGHz, mover.asymmetry, parkFlux));
+  const find = (ab: number[]): DressedState => {
+    const label = [...ab, ...spect];
+    frameState(frame, label);
+    const st = dressed.find((x) => x.label.every((m, i) => m === label[i]));
+    if (!st) throw new RangeError(`simulate: no dressed state ${label.join('')}`);
+    return st;
+  };
+  return { comp: PAIR_LABELS.map(find), leak20: find([2, 0]), leak02: find([0, 2]) };
+}
+
+function hasNoise(frame: ManifoldFrame): boolean {
+  return frame.noise !== undefined && frame.model.transmons.some((t) => t.noise !== undefined);
+}
+
+export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: GateSimulationOptions = {}): GateSimulation {
+  const o = { ...GATE_SIMULATION_DEFAULTS, ...options };
+  const { comp, leak20, leak02 } = computationalStates(frame, traj.flux[0], o.spectatorLevels);
+  const initial: FrameInitial[] = comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) }));
+  const noise = hasNoise(frame);
+  const estimate = noise ? new FirstOrderEstimate(frame, traj, comp) : undefined;
+  const propOptions = { ...o, maxHoldStepNs: noise ? o.estimateStepNs : Infinity };
+  const res = propagateInFrame(frame, traj, initial, propOptions, estimate?.observer);
+  const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
+  const m = labFrameBlock(comp, res.re, res.im, T);
+  const metrics = gateMetrics(m, o.targetPhase);
+  const pop = (st: DressedState): number => {
+    if (st.sector !== comp[3].sector) return 0;
+    let xr = 0;
+    let xi = 0;
+    for (let k = 0; k < st.vector.length; k++) {
+      xr += st.vector[k] * res.re[3][k];
+      xi += st.vector[k] * res.im[3][k];
+    }
+    return xr * xr + xi * xi;
+  };
+  const out: GateSimulation = {
+    m,
+    conditionalPhase: metrics.conditionalPhase,
+    leakage: metrics.leakage,
+    fidelity: metrics.fidelity,
+    virtualZ: metrics.virtualZ,
+    populations: { '20': pop(leak20), '02': pop(leak02) },
+    energies: { '00': comp[0].energy, '01': comp[1].energy, '10': comp[2].energy, '11': comp[3].energy, '20': leak20.energy, '02': leak02.energy },
+    decoherenceEstimate: estimate ? estimate.result() : 0,
+    steps: res.steps,
+  };
+  if (o.lindblad) {
+    if (!frame.noise) throw new RangeError('simulate: the frame has no noise operators (build it with noiseOperators: true)');
+    out.noisy = lindbladChannel(frame, traj, comp, o, metrics.virtualZ);
+  }
+  return out;
+}
+
+/** M = R(T) P^dag U P from the final frame columns of the four computational states. */
+export function labFrameBlock(comp: DressedState[], re: Float64Array[], im: Float64Array[], T: number): Block4 {
+  const e00 = comp[0].energy;
+  const e01 = comp[1].energy;
+  const e10 = comp[2].energy;
+  const mre = new Float64Array(16);
+  const mim = new Float64Array(16);
+  for (let r = 0; r < 4; r++) {
+    const [i, j] = PAIR_LABELS[r];
+    const ph = 2 * Math.PI * (e00 + i * (e10 - e00) + j * (e01 - e00)) * T;
+    const c = Math.cos(ph);
+    const s = Math.sin(ph);
+    for (let col = 0; col < 4; col++) {
+      if (comp[r].sector !== comp[col].sector) continue;
+      let xr = 0;
+      let xi = 0;
+      const v = comp[r].vector;
+      for (let k = 0; k < v.length; k++) {
+        xr += v[k] * re[col][k];
+        xi += v[k] * im[col][k];
+      }
+      mre[r * 4 + col] = c * xr - s * xi;
+      mim[r * 4 + col] = s * xr + c * xi;
+    }
+  }
+  return { re: mre, im: mim };
+}
+
+/**
+ * Accumulates the first-order infidelity along the coherent propagation (trapezoid rule over the
+ * schedule's step boundaries).
+ */
+class FirstOrderEstimate {
+  private readonly times: number[] = [];
+  private readonly fluxes: number[] = [];
+  /** per boundary, per jump operator j: P_j = rate sum_k ||O psi_k||^2, Q_j = sqrt(rate) sum_k <psi_k|O|psi_k> */
+  private readonly p: Float64Array[] = [];
+  private readonly q: Float64Array[] = [];
+  private readonly nOps: number;
+  readonly observer: (stepIndex: number, sector: number, re: Float64Array[], im: Float64Array[], columns: number[]) => void;
+
+  constructor(private readonly frame: ManifoldFrame, traj: Trajectory, comp: DressedState[]) {
+    const model = frame.model;
+    const noise = frame.noise!;
+    const schedule = stepSchedule(frame, traj, { maxHoldStepNs: GATE_SIMULATION_DEFAULTS.estimateStepNs });
+    void schedule;
+    this.nOps = 2 * model.transmons.length;
+    const dt = noise.size;
+    const opBuf = new Float64Array(dt * dt);
+    const mover = model.transmons[0];
+    this.observer = (stepIndex, sector, re, im, columns) => {
+      // Boundary time and flux: recompute from the same schedule as the propagation.
+      void comp;
+      const b = stepIndex + 1;
+      if (this.times.length <= b) {
+        this.times.length = b + 1;
+        this.fluxes.length = b + 1;
+        this.p.length = b + 1;
+        this.q.length = b + 1;
+      }
+      if (this.p[b] === undefined) {
+        this.p[b] = new Float64Array(this.nOps);
+        this.q[b] = new Float64Array(this.nOps);
+      }
+      const t = this.boundaryTime(b);
+      const x = this.boundaryFlux(b);
+      this.times[b] = t;
+      this.fluxes[b] = x;
+      const u = josephsonEnergy(mover.ejsGHz, mover.asymmetry, x);
+      const off = noise.offsets[sector];
+      const ds = frame.sectors[sector].size;
+      for (let i = 0; i < model.transmons.length; i++) {
+        const rates = jumpRates(model, i, x);
+        for (let kind = 0; kind < 2; kind++) {
+          const rate = kind === 0 ? rates.relax : rates.dephase * 2;
+          if (rate === 0) continue;
+          const values = kind === 0 ? noise.ladder[i] : noise.number[i];
+          const slopes = kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i];
+          evaluateNoiseTable(frame, values, slopes, u, opBuf);
+          let pSum = 0;
+          let qSum = 0;
+          for (const c of columns) {
+            const xr = re[c];
+            const xi = im[c];
+            // y = O psi over all rows; psi lives in this sector's columns.
+            for (let r = 0; r < dt; r++) {
+              let yr = 0;
+              let yi = 0;
+              for (let k = 0; k < ds; k++) {
+                const ok = opBuf[r * dt + off + k];
+                yr += ok * xr[k];
+                yi += ok * xi[k];
+              }
+              pSum += yr * yr + yi * yi;
+              if (kind === 1 && r >= off && r < off + ds) {
+                const k = r - off;
+                qSum += xr[k] * yr + xi[k] * yi;
+              }
+            }
+          }
+          const j = 2 * i + kind;
+          this.p[b][j] += rate * pSum;
+          this.q[b][j] += Math.sqrt(rate) * qSum;
+        }
+      }
+    };
+    this.schedule = stepSchedule(frame, traj, { maxHoldStepNs: GATE_SIMULATION_DEFAULTS.estimateStepNs });
+    this.traj = traj;
+  }
+
+  private schedule: ReturnType<typeof stepSchedule>;
+  private traj: Trajectory;
+
+  private boundaryTime(b: number): number {
+    if (b === 0) return this.traj.timeNs[0];
+    const s = this.schedule[b - 1];
+    return s.t0 + s.h;
+  }
+
+  private boundaryFlux(b: number): number {
+    if (b === 0) return this.traj.flux[0];
+    const s = this.schedule[b - 1];
+    return s.x0 + s.v * s.h;
+  }
+
+  /** Average gate infidelity estimate (d = 4). */
+  result(): number {
+    const n = this.times.length;
+    let integral = 0;
+    let prev = 0;
+    for (let b = 0; b < n; b++) {
+      if (this.p[b] === undefined) continue;
+      let g = 0;
+      for (let j = 0; j < this.nOps; j++) g += 4 * this.p[b][j] - this.q[b][j] * this.q[b][j];
+      g /= 16;
+      if (b > 0) integral += 0.5 * (g + prev) * (this.times[b] - this.times[b - 1]);
+      prev = g;
+    }
+    return averageFromProcessInfidelity(integral);
+  }
+}
+
+/**
+ * The Lindblad channel on the computational inputs and its average gate fidelity
+ * (physics.md sec. 3: F = [sum_c Tr_P E(|c><c|) + sum_kl <k|V^dag E(|k><l|) V|l>] / 20).
+ */
+export function lindbladChannel(
+  frame: ManifoldFrame,
+  traj: Trajectory,
+  comp: DressedState[],
+  o: Required<Pick<GateSimulationOptions, 'noiseStepNs' | 'noiseExcitations' | 'targetPhase'>> & FramePropagationOptions,
+  startVz: { a: number; b: number },
+): NoisyMetrics {
+  const noise = frame.noise!;
+  const model = frame.model;
+  const mover = model.transmons[0];
+  // Reduced state set R (combined ordering indices), per sector positions.
+  const rIdx: number[] = [];
+  const rSector: number[] = [];
+  const rPos: number[] = [];
+  frame.sectors.forEach((sec, s) => {
+    sec.labels.forEach((lv, pos) => {
+      if (lv.reduce((a, b) => a + b, 0) <= o.noiseExcitations) {
+        rIdx.push(noise.offsets[s] + pos);
+        rSector.push(s);
+        rPos.push(pos);
+      }
+    });
+  });
+  const n = rIdx.length;
+  // Computational vectors in R coordinates.
+  const compR = comp.map((st) => {
+    const v = new Float64Array(n);
+    for (let r = 0; r < n; r++) if (rSector[r] === st.sector) v[r] = st.vector[rPos[r]];
+    return v;
+  });
+  // Inputs |k><l| for k <= l (others by Hermitian conjugation).
+  const pairs: [number, number][] = [];
+  for (let k = 0; k < 4; k++) for (let l = k; l < 4; l++) pairs.push([k, l]);
+  const rhoR = pairs.map(([k, l]) => {
+    const m = new Float64Array(n * n);
+    for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) m[a * n + b] = compR[k][a] * compR[l][b];
+    return m;
+  });
+  const rhoI = pairs.map(() => new Float64Array(n * n));
+  const schedule = stepSchedule(frame, traj, { ...o, maxStepNs: Math.min(o.maxStepNs ?? Infinity, o.noiseStepNs), maxHoldStepNs: o.noiseStepNs });
+  const steppers = frame.sectors.map((sec) => new SectorStepper(frame, sec, o.scheme ?? 'blocks'));
+  const ur = new Float64Array(n * n);
+  const ui = new Float64Array(n * n);
+  const dt = noise.size;
+  const opBuf = new Float64Array(dt * dt);
+  const nOps = 2 * model.transmons.length;
+  const ops = Array.from({ length: nOps }, () => new Float64Array(n * n));
+  const rates = new Float64Array(nOps);
+  const kOp = new Float64Array(n * n);
+  const work = { ar: new Float64Array(n * n), ai: new Float64Array(n * n), br: new Float64Array(n * n), bi: new Float64Array(n * n) };
+  const colR = frame.sectors.map((sec) => new Float64Array(sec.size));
+  const colI = frame.sectors.map((sec) => new Float64Array(sec.size));
+  let lastHoldKey = '';
+  for (const step of schedule) {
+    // Coherent step restricted to R.
+    const holdKey = step.hold ? `${step.x0}:${step.h}` : '';
+    if (!step.hold || holdKey !== lastHoldKey) {
+      ur.fill(0);
+      ui.fill(0);
+      frame.sectors.forEach((_, s) => {
+        steppers[s].prepare(step);
+        for (let c = 0; c < n; c++) {
+          if (rSector[c] !== s) continue;
+          colR[s].fill(0);
+          colI[s].fill(0);
+          colR[s][rPos[c]] = 1;
+          steppers[s].apply(colR[s], colI[s]);
+          for (let r = 0; r < n; r++) {
+            if (rSector[r] !== s) continue;
+            ur[r * n + c] = colR[s][rPos[r]];
+            ui[r * n + c] = colI[s][rPos[r]];
+          }
+        }
+      });
+      lastHoldKey = holdKey;
+    }
+    // Jump operators at the step midpoint.
+    const xm = step.x0 + 0.5 * step.v * step.h;
+    const um = josephsonEnergy(mover.ejsGHz, mover.asymmetry, xm);
+    kOp.fill(0);
+    for (let i = 0; i < model.transmons.length; i++) {
+      const rt = jumpRates(model, i, xm);
+      for (let kind = 0; kind < 2; kind++) {
+        const j = 2 * i + kind;
+        rates[j] = kind === 0 ? rt.relax : 2 * rt.dephase;
+        if (rates[j] === 0) continue;
+        evaluateNoiseTable(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], um, opBuf);
+        const op = ops[j];
+        for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) op[a * n + b] = opBuf[rIdx[a] * dt + rIdx[b]];
+        // K += rate O^T O
+        for (let a = 0; a < n; a++)
+          for (let b = 0; b < n; b++) {
+            let acc = 0;
+            for (let c = 0; c < n; c++) acc += op[c * n + a] * op[c * n + b];
+            kOp[a * n + b] += rates[j] * acc;
+          }
+      }
+    }
+    for (let p = 0; p < pairs.length; p++) {
+      dissipate(rhoR[p], rhoI[p], ops, rates, kOp, n, 0.5 * step.h, work);
+      unitaryConjugate(rhoR[p], rhoI[p], ur, ui, n, work);
+      dissipate(rhoR[p], rhoI[p], ops, rates, kOp, n, 0.5 * step.h, work);
+    }
+  }
+  // Project onto computational states with lab-frame phases.
+  const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
+  const e00 = comp[0].energy;
+  const eLoc = PAIR_LABELS.map(([i, j]) => e00 + i * (comp[2].energy - e00) + j * (comp[1].energy - e00));
+  const proj = (p: number, a: number, b: number): [number, number] => {
+    // <a| rho_p |b> with a, b computational vectors (real)
+    let sr = 0;
+    let si = 0;
+    const va = compR[a];
+    const vb = compR[b];
+    for (let x = 0; x < n; x++) {
+      if (va[x] === 0) continue;
+      for (let y = 0; y < n; y++) {
+        sr += va[x] * rhoR[p][x * n + y] * vb[y];
+        si += va[x] * rhoI[p][x * n + y] * vb[y];
+      }
+    }
+    return [sr, si];
+  };
+  const pairIndex = (k: number, l: number): { p: number; conj: boolean } => {
+    const p = pairs.findIndex(([a, b]) => (a === k && b === l) || (a === l && b === k));
+    return { p, conj: k > l };
+  };
+  // C_kl = <k|E_lab(|k><l|)|l>, trace term.
+  const cr = new Float64Array(16);
+  const ci = new Float64Array(16);
+  let trace = 0;
+  let leak = 0;
+  for (let k = 0; k < 4; k++) {
+    for (let l = 0; l < 4; l++) {
+      const { p, conj } = pairIndex(k, l);
+      // E(|k><l|) = E(|l><k|)^dag when k > l: <k|E(|k><l|)|l> = conj(<l|E(|l><k|)|k>)
+      const [xr, xi0] = conj ? proj(p, l, k) : proj(p, k, l);
+      const xi = conj ? -xi0 : xi0;
+      const ph = 2 * Math.PI * (eLoc[k] - eLoc[l]) * T;
+      cr[k * 4 + l] = Math.cos(ph) * xr - Math.sin(ph) * xi;
+      ci[k * 4 + l] = Math.sin(ph) * xr + Math.cos(ph) * xi;
+    }
+    const { p } = pairIndex(k, k);
+    let tp = 0;
+    for (let c = 0; c < 4; c++) tp += proj(p, c, c)[0];
+    trace += tp;
+    leak += 1 - tp;
+  }
+  const vz = maximiseChannelOverlap(cr, ci, o.targetPhase, startVz);
+  return { fidelity: (trace + vz.value) / 20, virtualZ: { a: vz.a, b: vz.b }, leakage: leak / 4 };
+}
+
+/** rho += tau (sum_j r_j O_j rho O_j^T - (K rho + rho K)/2), O_j and K real. */
+function dissipate(
+  rr: Float64Array,
+  ri: Float64Array,
+  ops: Float64Array[],
+  rates: Float64Array,
+  k: Float64Array,
+  n: number,
+  tau: number,
+  w: { ar: Float64Array; ai: Float64Array; br: Float64Array; bi: Float64Array },
+): void {
+  const { ar, ai, br, bi } = w;
+  // ar + i ai = accumulated D[rho]
+  for (let a = 0; a < n; a++)
+    for (let b = 0; b < n; b++) {
+      let sr = 0;
+      let si = 0;
+      for (let c = 0; c < n; c++) {
+        const kac = k[a * n + c];
+        const kcb = k[c * n + b];
+        sr -= 0.5 * (kac * rr[c * n + b] + rr[a * n + c] * kcb);
+        si -= 0.5 * (kac * ri[c * n + b] + ri[a * n + c] * kcb);
+      }
+      ar[a * n + b] = sr;
+      ai[a * n + b] = si;
+    }
+  for (let j = 0; j < ops.length; j++) {
+    const r = rates[j];
+    if (r === 0) continue;
+    const o = ops[j];
+    // B = O rho
+    for (let a = 0; a < n; a++)
+      for (let b = 0; b < n; b++) {
+        let sr = 0;
+        let si = 0;
+        for (let c = 0; c < n; c++) {
+          const oac = o[a * n + c];
+          if (oac === 0) continue;
+          sr += oac * rr[c * n + b];
+          si += oac * ri[c * n + b];
+        }
+        br[a * n + b] = sr;
+        bi[a * n + b] = si;
+      }
+    // += r B O^T
+    for (let a = 0; a < n; a++)
+      for (let b = 0; b < n; b++) {
+        let sr = 0;
+        let si = 0;
+        for (let c = 0; c < n; c++) {
+          const obc = o[b * n + c];
+          if (obc === 0) continue;
+          sr += br[a * n + c] * obc;
+          si += bi[a * n + c] * obc;
+        }
+        ar[a * n + b] += r * sr;
+        ai[a * n + b] += r * si;
+      }
+  }
+  for (let q = 0; q < n * n; q++) {
+    rr[q] += tau * ar[q];
+    ri[q] += tau * ai[q];
+  }
+}
+
+/** rho <- U rho U^dag */
+function unitaryConjugate(rr: Float64Array, ri: Float64Array, ur: Float64Array, ui: Float64Array, n: number, w: { ar: Float64Array; ai: Float64Array }): void {
+  const { ar, ai } = w;
+  // A = U rho
+  for (let a = 0; a < n; a++)
+    for (let b = 0; b < n; b++) {
+      let sr = 0;
+      let si = 0;
+      for (let c = 0; c < n; c++) {
+        const xr = ur[a * n + c];
+        const xi = ui[a * n + c];
+        if (xr === 0 && xi === 0) continue;
+        sr += xr * rr[c * n + b] - xi * ri[c * n + b];
+        si += xr * ri[c * n + b] + xi * rr[c * n + b];
+      }
+      ar[a * n + b] = sr;
+      ai[a * n + b] = si;
+    }
+  // rho = A U^dag : (A U^dag)_ab = sum_c A_ac conj(U_bc)
+  for (let a = 0; a < n; a++)
+    for (let b = 0; b < n; b++) {
+      let sr = 0;
+      let si = 0;
+      for (let c = 0; c < n; c++) {
+        const xr = ur[b * n + c];
+        const xi = -ui[b * n + c];
+        if (xr === 0 && xi === 0) continue;
+        sr += ar[a * n + c] * xr - ai[a * n + c] * xi;
+        si += ar[a * n + c] * xi + ai[a * n + c] * xr;
+      }
+      rr[a * n + b] = sr;
+      ri[a * n + b] = si;
+    }
+}
+
+/** max over (a, b) of v^dag C v, v = (1, e^{ib}, e^{ia}, e^{i(theta + a + b)}), by exact coordinate ascent. */
+export function maximiseChannelOverlap(cr: Float64Array, ci: Float64Array, theta: number, start: { a: number; b: number }): { a: number; b: number; value: number } {
+  let a = start.a;
+  let b = start.b;
+  const value = (aa: number, bb: number): number => {
+    const ph = [0, bb, aa, theta + aa + bb];
+    let s = 0;
+    for (let k = 0; k < 4; k++)
+      for (let l = 0; l < 4; l++) {
+        const d = ph[l] - ph[k];
+        s += cr[k * 4 + l] * Math.cos(d) - ci[k * 4 + l] * Math.sin(d);
+      }
+    return s;
+  };
+  // v^dag C v = const + 2 Re(e^{i x} w) for the phase x multiplying one group of entries.
+  const best = (groupWith: number[], phases: (x: number) => number[]): number => {
+    const ph0 = phases(0);
+    let wr = 0;
+    let wi = 0;
+    for (let k = 0; k < 4; k++)
+      for (let l = 0; l < 4; l++) {
+        const inK = groupWith.includes(k);
+        const inL = groupWith.includes(l);
+        if (inK || !inL) continue;
+        // term conj(v_k) C_kl v_l with v_l carrying e^{ix}: e^{ix} e^{i(ph0_l - ph0_k)} C_kl
+        const d = ph0[l] - ph0[k];
+        const zr = cr[k * 4 + l] * Math.cos(d) - ci[k * 4 + l] * Math.sin(d);
+        const zi = cr[k * 4 + l] * Math.sin(d) + ci[k * 4 + l] * Math.cos(d);
+        wr += zr;
+        wi += zi;
+      }
+    return -Math.atan2(wi, wr);
+  };
+  let v = value(a, b);
+  for (let it = 0; it < 100; it++) {
+    a = best([2, 3], (x) => [0, b, x, theta + x + b]);
+    b = best([1, 3], (x) => [0, x, a, theta + a + x]);
+    const nv = value(a, b);
+    if (nv - v <= 1e-15) {
+      v = Math.max(v, nv);
+      break;
+    }
+    v = nv;
+  }
+  return { a: wrapAngle(a), b: wrapAngle(b), value: v };
+}
+
+export { conditionalPhase };
