@@ -11,15 +11,18 @@
  *
  * U_I: the interaction picture of H_x relative to the in-block motion, taken about the middle
  * of the step with the block Hamiltonian H_m = (H(t1) + H(t2))/2 = Q Lambda Q^dag, so that in
- * Q's basis H_x(t) = X_m + (t - h/2) X_d oscillates as e^{i w_pq tau} (w_pq = lambda_p - lambda_q,
- * GHz-scale for states of different manifolds). Its Magnus series to second order is integrated
- * exactly in the oscillation (Filon-type quadrature; Iserles, BIT 42, 561 (2002)):
+ * Q's basis H_x(t) = X_m + tau X_d + (tau^2/2) X_c (a parabola through the two nodes and the
+ * midpoint) oscillates as e^{i (w_pq tau + w'_pq tau^2 / 2)} (w_pq = lambda_p - lambda_q, GHz-scale
+ * for states of different manifolds, w' its rate from dE/dt; the chirp enters to first order).
+ * Its Magnus series to second order is integrated exactly in the oscillation (Filon-type
+ * quadrature; Iserles, BIT 42, 561 (2002)):
  *
- *     Omega1_pq = -i [ Xm_pq S0(w_pq) + Xd_pq S1(w_pq) ],
+ *     Omega1_pq = -i [ Xm_pq S0 + Xd_pq S1 + (Xc_pq / 2 + i w'_pq Xm_pq / 2) S2 ](w_pq),
+ *     S2(w) = int tau^2 e^{i w tau},
  *     Omega2_pq = -(1/2) sum_r Xm_pr Xm_rq [ I(w_pr, w_rq) - I(w_rq, w_pr) ]   (p, q in one block),
  *     S0(w) = int e^{i w tau} = 2 sin(w h/2)/w,   S1(w) = int tau e^{i w tau} = i [2 sin(w h/2)/w^2 - h cos(w h/2)/w],
  *     I(a, b) = int_{tau1 > tau2} e^{i a tau1 + i b tau2} = [S0(a + b) - e^{-i b h/2} S0(a)] / (i b),
- * over tau in [-h/2, h/2], and U_I = Q exp(Omega~) Q^dag with Omega~_pq = e^{i w_pq h/2} Omega_pq
+ * over tau in [-h/2, h/2], and U_I = Q exp(Omega~) Q^dag with Omega~_pq = e^{i (w_pq h/2 - w'_pq h^2/8)} Omega_pq
  * (exp by a third-order Taylor series: |Omega| ~ 1e-3). This keeps the GHz-fast counter-rotating
  * (squeezing and dressing) transitions between manifolds accurate at steps much longer than
  * their period; the neglected terms are third order in B_x and the chirp of the in-block phases
@@ -58,8 +61,9 @@ export class BlockStepper {
   readonly d: number;
   private readonly blocks: BlockScratch[];
   private readonly blockOf: Int32Array;
-  /** Full-space Q (block diagonal) and eigenvalues lambda of H_m. */
+  /** Full-space Q (block diagonal) and eigenvalues lambda of H_m, and their rates d lambda/dt. */
   private readonly lam: Float64Array;
+  private readonly lamDot: Float64Array;
   /** Omega~ (D x D complex). */
   private readonly or: Float64Array;
   private readonly oi: Float64Array;
@@ -68,6 +72,9 @@ export class BlockStepper {
   private readonly xmi: Float64Array;
   private readonly xdr: Float64Array;
   private readonly xdi: Float64Array;
+  /** second time derivative of X (from the midpoint value), half of it enters as tau^2 / 2 */
+  private readonly xcr: Float64Array;
+  private readonly xci: Float64Array;
   /** Tables per pair: S0(w_pq), cos/sin(w_pq h/2). */
   private readonly s0: Float64Array;
   private readonly ch: Float64Array;
@@ -93,12 +100,15 @@ export class BlockStepper {
     });
     const dd = d * d;
     this.lam = new Float64Array(d);
+    this.lamDot = new Float64Array(d);
     this.or = new Float64Array(dd);
     this.oi = new Float64Array(dd);
     this.xmr = new Float64Array(dd);
     this.xmi = new Float64Array(dd);
     this.xdr = new Float64Array(dd);
     this.xdi = new Float64Array(dd);
+    this.xcr = new Float64Array(dd);
+    this.xci = new Float64Array(dd);
     this.s0 = new Float64Array(dd);
     this.ch = new Float64Array(dd);
     this.sh = new Float64Array(dd);
@@ -133,7 +143,7 @@ export class BlockStepper {
    * A Magnus step of length h from E and B (= (du/dt) A) at the two Gauss-Legendre nodes.
    * Arrays are D x D row-major; E block diagonal, B antisymmetric.
    */
-  setStep(e1: Float64Array, e2: Float64Array, b1: Float64Array, b2: Float64Array, h: number): void {
+  setStep(e1: Float64Array, e2: Float64Array, b1: Float64Array, b2: Float64Array, h: number, bMid?: Float64Array): void {
     const d = this.d;
     const c = (Math.sqrt(3) * h * h) / 12;
     const bo = this.blockOf;
@@ -181,13 +191,30 @@ export class BlockStepper {
       hermitianEigen(b.hr, b.hi, m, { out: b.q, start: warm ? { re: b.q.vectorsRe, im: b.q.vectorsIm } : undefined, sort: false, work: b.work });
       b.hasStart = true;
       for (let i = 0; i < m; i++) this.lam[o + i] = b.q.values[i];
+      // d lambda_i/dt ~ 2 pi (Q^dag dE/dt Q)_ii, dE/dt = (E2 - E1) sqrt3 / h
+      const kd = Math.sqrt(3) / h;
+      for (let i = 0; i < m; i++) {
+        let acc = 0;
+        for (let r = 0; r < m; r++)
+          for (let c2 = 0; c2 < m; c2++) {
+            const de = (e2[(o + r) * d + o + c2] - e1[(o + r) * d + o + c2]) * kd;
+            if (de === 0) continue;
+            const qr1 = b.q.vectorsRe[r * m + i];
+            const qi1 = b.q.vectorsIm[r * m + i];
+            const qr2 = b.q.vectorsRe[c2 * m + i];
+            const qi2 = b.q.vectorsIm[c2 * m + i];
+            acc += de * (qr1 * qr2 + qi1 * qi2);
+          }
+        this.lamDot[o + i] = TWO_PI * acc;
+      }
     }
     // Inter-manifold coupling in Q's basis: X = Q^dag (-i B_x) Q for off-block pairs.
     let any = false;
     for (let p = 0; p < d && !any; p++) for (let q = 0; q < d; q++) if (bo[p] !== bo[q] && (b1[p * d + q] !== 0 || b2[p * d + q] !== 0)) any = true;
     this.coupled = any;
-    if (!any) return;
-    const kd = Math.sqrt(3) / h; // 1 / (h (c2 - c1))
+    if (!this.coupled) return;
+    const kd = Math.sqrt(3) / h; // 1 / (h (c2 - c1)) = 1 / (2 delta)
+    const kc = 12 / (h * h); // 1 / delta^2, delta = h sqrt3 / 6 (second difference, halved below)
     const { xmr, xmi, xdr, xdi } = this;
     for (const ba of this.blocks) {
       for (const bb of this.blocks) {
@@ -201,6 +228,8 @@ export class BlockStepper {
             let mi = 0;
             let dr = 0;
             let di = 0;
+            let qr2 = 0;
+            let qi2 = 0;
             for (let r = 0; r < ma; r++) {
               const qar = ba.q.vectorsRe[r * ma + i];
               const qai = -ba.q.vectorsIm[r * ma + i];
@@ -209,32 +238,43 @@ export class BlockStepper {
               let tmi = 0;
               let tdr = 0;
               let tdi = 0;
+              let tcr = 0;
+              let tci = 0;
               const row = (ba.start + r) * d + bb.start;
               for (let s = 0; s < mb; s++) {
-                const bm = 0.5 * (b1[row + s] + b2[row + s]);
+                const bm = bMid ? bMid[row + s] : 0.5 * (b1[row + s] + b2[row + s]);
                 const bd = (b2[row + s] - b1[row + s]) * kd;
+                const bc = bMid ? (b1[row + s] - 2 * bm + b2[row + s]) * kc : 0;
                 const qbr = bb.q.vectorsRe[s * mb + j];
                 const qbi = bb.q.vectorsIm[s * mb + j];
                 tmr += bm * qbr;
                 tmi += bm * qbi;
                 tdr += bd * qbr;
                 tdi += bd * qbi;
+                tcr += bc * qbr;
+                tci += bc * qbi;
               }
               // (-i) * t
               const ar = tmi;
               const ai = -tmr;
               const cr = tdi;
               const ci = -tdr;
+              const er = tci;
+              const ei = -tcr;
               mr += qar * ar - qai * ai;
               mi += qar * ai + qai * ar;
               dr += qar * cr - qai * ci;
               di += qar * ci + qai * cr;
+              qr2 += qar * er - qai * ei;
+              qi2 += qar * ei + qai * er;
             }
             const p = (ba.start + i) * d + bb.start + j;
             xmr[p] = mr;
             xmi[p] = mi;
             xdr[p] = dr;
             xdi[p] = di;
+            this.xcr[p] = qr2;
+            this.xci[p] = qi2;
           }
         }
       }
@@ -271,16 +311,22 @@ export class BlockStepper {
           const x = 0.5 * w * h;
           const s1 = Math.abs(x) < 1e-3 ? ((w * h * h * h) / 12) * (1 - (w * h) ** 2 / 40) : (2 * this.sh[pq]) / (w * w) - (h * this.ch[pq]) / w;
           const s0 = this.s0[pq];
-          const tr = xmr[pq] * s0 - xdi[pq] * s1;
-          const ti = xmi[pq] * s0 + xdr[pq] * s1;
+          // chirp of the phase over the step to first order: e^{i w' tau^2 / 2} ~ 1 + i w' tau^2 / 2
+          const wd = this.lamDot[p] - this.lamDot[q];
+          const s2 = Math.abs(x) < 1e-2 ? ((h * h * h) / 12) * (1 - (3 * x * x) / 10) : (2 * ((x * x - 2) * this.sh[pq] + 2 * x * this.ch[pq])) / (w * w * w);
+          const c2 = 0.5 * wd * s2;
+          // + (1/2) X'' S2 (curvature of the coupling over the step)
+          const tr = xmr[pq] * s0 - xdi[pq] * s1 - xmi[pq] * c2 + 0.5 * this.xcr[pq] * s2;
+          const ti = xmi[pq] * s0 + xdr[pq] * s1 + xmr[pq] * c2 + 0.5 * this.xci[pq] * s2;
           wr = ti;
           wi = -tr;
-        } else {
+        }
+        if (bo[p] === bo[q]) {
           // Omega2 (same block: the secular second-order part; across blocks it is third order in effect).
           let sr = 0;
           let si = 0;
           for (let r = 0; r < d; r++) {
-            if (bo[r] === bo[p]) continue;
+            if (bo[r] === bo[p] || bo[r] === bo[q]) continue;
             const pr = p * d + r;
             const rq = r * d + q;
             const ar = xmr[pr] * xmr[rq] - xmi[pr] * xmi[rq];
@@ -295,12 +341,18 @@ export class BlockStepper {
             sr += ar * dr - ai * di;
             si += ar * di + ai * dr;
           }
-          wr = -0.5 * sr;
-          wi = -0.5 * si;
+          wr += -0.5 * sr;
+          wi += -0.5 * si;
         }
-        // Omega~ = e^{i w_pq h/2} Omega
-        const cc = this.ch[pq];
-        const ss = this.sh[pq];
+        // Omega~ = e^{i theta_pq} Omega with theta_pq = (phase of W = U_in(h/2))_pq:
+        // w_pq h/2 - w'_pq h^2/8 (the in-block phases advance with their chirp over the first half).
+        const chirp = ((this.lamDot[p] - this.lamDot[q]) * h * h) / 8;
+        const cc0 = this.ch[pq];
+        const ss0 = this.sh[pq];
+        const cch = Math.cos(chirp);
+        const sch = Math.sin(chirp);
+        const cc = cc0 * cch + ss0 * sch;
+        const ss = ss0 * cch - cc0 * sch;
         or[pq] = cc * wr - ss * wi;
         oi[pq] = ss * wr + cc * wi;
       }

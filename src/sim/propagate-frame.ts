@@ -41,7 +41,7 @@ export interface FramePropagationOptions {
   scheme?: 'blocks' | 'full';
 }
 
-export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.2, maxAngle: 0.1, maxEjStepGHz: 0.5, scheme: 'blocks' as 'blocks' | 'full' });
+export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.1, maxAngle: 0.1, maxEjStepGHz: 0.5, scheme: 'blocks' as 'blocks' | 'full' });
 
 /** Final amplitudes of each initial frame vector (in its sector's frame basis). */
 export interface FrameColumns {
@@ -68,6 +68,8 @@ export class SectorStepper {
   readonly e2: Float64Array;
   readonly a1: Float64Array;
   readonly a2: Float64Array;
+  readonly em: Float64Array;
+  readonly am: Float64Array;
   readonly mr: Float64Array;
   readonly mi: Float64Array;
   readonly tr: Float64Array;
@@ -84,6 +86,8 @@ export class SectorStepper {
     this.e2 = new Float64Array(d * d);
     this.a1 = new Float64Array(d * d);
     this.a2 = new Float64Array(d * d);
+    this.em = new Float64Array(d * d);
+    this.am = new Float64Array(d * d);
     this.mr = new Float64Array(d * d);
     this.mi = new Float64Array(d * d);
     this.tr = new Float64Array(d);
@@ -109,6 +113,14 @@ export class SectorStepper {
     for (let q = 0; q < d * d; q++) {
       this.a1[q] *= ra;
       this.a2[q] *= rb;
+    }
+    if (this.blocks) {
+      const xm = x0 + 0.5 * v * h;
+      evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xm), this.em, this.am);
+      const rm = v * josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, xm);
+      for (let q = 0; q < d * d; q++) this.am[q] *= rm;
+      this.blocks.setStep(this.e1, this.e2, this.a1, this.a2, h, this.am);
+      return;
     }
     this.magnusMatrix(h);
   }
