@@ -5,8 +5,10 @@
 export { InputError, formatDiagnostic, inputError, type Diagnostic } from './util/errors.js';
 export { Random } from './util/random.js';
 export { StageProfiler, NO_PROFILE } from './util/profile.js';
+export * from './transmon/index.js';
 export * from './layout/index.js';
 export * from './chip/index.js';
+export * from './pair/index.js';
 export { buildProgram, runCli, COMMANDS, type CommandRegistration } from './cli/main.js';
 export { memoryIo, processIo, type CliIo, type MemoryIo } from './cli/io.js';
 export type { CommandOutcome, OutputFile } from './cli/outcome.js';
