@@ -1,0 +1,151 @@
+/**
+ * Everything the planner's stages share about one chip, built once: the resolved transmons, their
+ * tabulated spectra (src/plan/qubit-table.ts), neighbour lists by index, next-nearest pairs with
+ * their shared neighbours, each coupling's charge coupling G, each qubit's parking domain
+ * (window intersected with the planning range) and fixed `park` values, and the exact coupled
+ * pairs (CoupledPair, built on first use). Indices follow the layout's qubit order.
+ */
+import type { ChipLayout, QubitLayout, Rules } from '../layout/types.js';
+import { buildChipGraph, type ChipGraph } from '../chip/graph.js';
+import { nextNearestPairs } from '../chip/neighbourhood.js';
+import { Transmon } from '../transmon/transmon.js';
+import { chargeCouplingForPair } from '../pair/coupling.js';
+import { CoupledPair } from '../pair/pair.js';
+import { QubitTable, type QubitTableOptions } from './qubit-table.js';
+import type { Interval } from './intervals.js';
+
+export interface PlanEdge {
+  index: number;
+  /** Qubit indices in the layout's order of the coupling. */
+  a: number;
+  b: number;
+  /** `A-B` as written in the layout. */
+  key: string;
+  /** Layout g (both qubits at maximum frequency). */
+  gGHz: number;
+  /** Charge coupling G of G n_A n_B. */
+  gChargeGHz: number;
+}
+
+export interface NextNearest {
+  a: number;
+  b: number;
+  /** Shared neighbours (indices). */
+  via: number[];
+}
+
+export interface PlanContext {
+  layout: ChipLayout;
+  graph: ChipGraph;
+  rules: Rules;
+  n: number;
+  ids: string[];
+  qubits: QubitLayout[];
+  index: Map<string, number>;
+  transmons: Transmon[];
+  tables: QubitTable[];
+  /** Neighbours of each qubit (indices, ascending). */
+  neighbours: number[][];
+  edges: PlanEdge[];
+  /** Edge indices touching each qubit. */
+  edgesOf: number[][];
+  nextNearest: NextNearest[];
+  /** Next-nearest pair indices of each qubit. */
+  nextNearestOf: number[][];
+  /** Window intersected with the planning range; null when they do not overlap. */
+  domains: (Interval | null)[];
+  /** Planning range [fLow, fMax] of each qubit (src/plan/qubit-table.ts). */
+  ranges: Interval[];
+  /** Fixed parking frequency (`park:`), when given. */
+  fixed: (number | undefined)[];
+  /** Edge index between two qubits, or -1. */
+  edgeBetween(i: number, j: number): number;
+  /** The exact coupled pair of an edge (A = the edge's `a`), built on first use. */
+  pair(edge: number): CoupledPair;
+}
+
+export interface ContextOptions {
+  table?: Partial<QubitTableOptions>;
+  /** Called once per qubit while the spectra are tabulated (progress bars). */
+  onQubit?: () => void;
+}
+
+export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {}, graph: ChipGraph = buildChipGraph(layout)): PlanContext {
+  const n = layout.qubits.length;
+  const ids = layout.qubits.map((q) => q.id);
+  const index = new Map(ids.map((id, i) => [id, i]));
+  const transmons = layout.qubits.map((q) => Transmon.fromLayout(q));
+  const tables = transmons.map((t) => {
+    const table = new QubitTable(t, options.table);
+    options.onQubit?.();
+    return table;
+  });
+  const neighbours: number[][] = Array.from({ length: n }, () => []);
+  const edgesOf: number[][] = Array.from({ length: n }, () => []);
+  const edgeMap = new Map<number, number>();
+  const edges: PlanEdge[] = layout.couplings.map((c, k) => {
+    const a = index.get(c.a)!;
+    const b = index.get(c.b)!;
+    neighbours[a].push(b);
+    neighbours[b].push(a);
+    edgesOf[a].push(k);
+    edgesOf[b].push(k);
+    edgeMap.set(a * n + b, k);
+    edgeMap.set(b * n + a, k);
+    return { index: k, a, b, key: `${c.a}-${c.b}`, gGHz: c.gGHz, gChargeGHz: chargeCouplingForPair(transmons[a], transmons[b], c.gGHz) };
+  });
+  for (const list of neighbours) list.sort((x, y) => x - y);
+  const nextNearest: NextNearest[] = nextNearestPairs(graph).map((p) => ({
+    a: index.get(p.a)!,
+    b: index.get(p.b)!,
+    via: p.via.map((v) => index.get(v)!),
+  }));
+  const nextNearestOf: number[][] = Array.from({ length: n }, () => []);
+  nextNearest.forEach((p, k) => {
+    nextNearestOf[p.a].push(k);
+    nextNearestOf[p.b].push(k);
+  });
+  const ranges = tables.map((t) => ({ lo: t.fLowGHz, hi: t.fMaxGHz }));
+  const domains = layout.qubits.map((q, i) => {
+    const r = ranges[i];
+    const lo = Math.max(r.lo, q.windowGHz ? q.windowGHz[0] : -Infinity);
+    const hi = Math.min(r.hi, q.windowGHz ? q.windowGHz[1] : Infinity);
+    return lo <= hi ? { lo, hi } : null;
+  });
+  const fixed = layout.qubits.map((q) => q.parkGHz);
+  const pairs = new Map<number, CoupledPair>();
+  return {
+    layout,
+    graph,
+    rules: layout.rules,
+    n,
+    ids,
+    qubits: layout.qubits,
+    index,
+    transmons,
+    tables,
+    neighbours,
+    edges,
+    edgesOf,
+    nextNearest,
+    nextNearestOf,
+    domains,
+    ranges,
+    fixed,
+    edgeBetween: (i, j) => edgeMap.get(i * n + j) ?? -1,
+    pair(edge: number): CoupledPair {
+      let p = pairs.get(edge);
+      if (!p) {
+        const e = edges[edge];
+        p = new CoupledPair(transmons[e.a], transmons[e.b], e.gGHz);
+        pairs.set(edge, p);
+      }
+      return p;
+    },
+  };
+}
+
+/** The other end of an edge. */
+export function otherEnd(edge: PlanEdge, i: number): number {
+  return edge.a === i ? edge.b : edge.a;
+}

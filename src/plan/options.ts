@@ -1,0 +1,76 @@
+/**
+ * Options of the planner, merged with frozen DEFAULTS. Every weight of the parking cost is an
+ * estimated error over one reference cycle (see src/plan/parking/cost.ts for the formulas).
+ */
+import { QUBIT_TABLE_DEFAULTS, type QubitTableOptions } from './qubit-table.js';
+
+export interface CostWeights {
+  /** Flux-noise dephasing away from the sweet spot: (t_cycle / 3) / T_phi,1/f. */
+  dephasing: number;
+  /** Static ZZ phase over the cycle: 0.05 (2 pi zeta t_cycle)^2. */
+  zz: number;
+  /** Dephasing of the mover at its interaction point during one CZ: (t_CZ / 3) / T_phi,1/f(f_int). */
+  gate: number;
+  /** Hybridisation with each listed defect: (g_TLS / (f - f_TLS))^2, g_TLS = width / 2. */
+  tls: number;
+  /** Preference for the designed band: ((f_max - f) / 1 GHz)^2. */
+  band: number;
+  /** Robustness: sum over blocked intervals of exp(-distance / sigma_fab). */
+  margin: number;
+}
+
+export interface ParkingSearchOptions {
+  /** Full sweeps of the local search per calibration round. */
+  sweeps: number;
+  /** Random kicks allowed when a sweep is stuck with violations. */
+  kicks: number;
+  /** Rounds of (search, exact ZZ, recalibration). */
+  calibrationRounds: number;
+  /** The search aims at zzLimit * (1 - zzSafety), so the exact check has headroom. */
+  zzSafety: number;
+  /** Candidates are nudged this far inside an allowed interval (GHz). */
+  nudgeGHz: number;
+  /** Cost of being inside one blocked interval (dominates every soft term). */
+  violationPenalty: number;
+}
+
+export interface PlanOptions {
+  /** Seed of the local search (src/util/random.ts). */
+  seed: number;
+  /** Reference cycle t_cycle of the parking cost (ns): a typical error-correction cycle, common practice. */
+  cycleNs: number;
+  /**
+   * Ramp time assumed for each sweep from parking to the interaction point when no pulse is
+   * designed (ns): sets the Landau-Zener sweep rate v = |f_int - f_park| / rampNs. Designed gates
+   * use their own waveforms.
+   */
+  rampNs: number;
+  weights: CostWeights;
+  search: ParkingSearchOptions;
+  table: QubitTableOptions;
+}
+
+export const PLAN_DEFAULTS: Readonly<PlanOptions> = Object.freeze({
+  seed: 1,
+  cycleNs: 1000,
+  rampNs: 15,
+  weights: Object.freeze({ dephasing: 1, zz: 1, gate: 1, tls: 1, band: 0.05, margin: 0.01 }),
+  search: Object.freeze({ sweeps: 40, kicks: 200, calibrationRounds: 4, zzSafety: 0.05, nudgeGHz: 5e-4, violationPenalty: 1000 }),
+  table: QUBIT_TABLE_DEFAULTS,
+});
+
+export type PlanOptionsInput = Partial<Omit<PlanOptions, 'weights' | 'search' | 'table'>> & {
+  weights?: Partial<CostWeights>;
+  search?: Partial<ParkingSearchOptions>;
+  table?: Partial<QubitTableOptions>;
+};
+
+export function planOptions(input: PlanOptionsInput = {}): PlanOptions {
+  return {
+    ...PLAN_DEFAULTS,
+    ...input,
+    weights: { ...PLAN_DEFAULTS.weights, ...input.weights },
+    search: { ...PLAN_DEFAULTS.search, ...input.search },
+    table: { ...PLAN_DEFAULTS.table, ...input.table },
+  };
+}

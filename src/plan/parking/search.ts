@@ -1,0 +1,260 @@
+/**
+ * The parking search: a greedy construction in frequency-group order followed by a seeded local
+ * search (min-conflicts with random kicks: Minton et al., Artif. Intell. 58, 161 (1992)).
+ *
+ * Construction: fixed qubits first; then the groups of ./colouring.ts in order of their mean
+ * domain top (highest first), inside a group by domain top; each qubit takes its cheapest
+ * candidate (./state.ts) against the qubits already placed.
+ *
+ * Local search: sweeps over the movable qubits in a seeded random order; each moves to its cheapest candidate when that lowers its cost. When a sweep moves
+ * nothing but rules are still broken, a kick moves one qubit that blocks a violating qubit to a
+ * random candidate of its own; kicks are bounded. Everything depends only on the layout and the
+ * seed (src/util/random.ts), so the same seed gives the same assignment.
+ */
+import { Random } from '../../util/random.js';
+import type { ParkingState } from './state.js';
+
+export interface SearchStats {
+  sweeps: number;
+  moves: number;
+  kicks: number;
+}
+
+/** Smallest cost decrease (estimated error per cycle) that counts as an improvement. */
+const IMPROVEMENT = 1e-7;
+
+/** Candidates tried per qubit in a joint move. */
+const JOINT_CANDIDATES = 3;
+
+/** Total cost of qubit i where it stands (violation * penalty + soft). */
+function currentCost(state: ParkingState, i: number): number {
+  const b = state.blockersOf(i);
+  const c = state.costAt(i, state.freq[i], b);
+  return c.violation + c.soft;
+}
+
+/** Move qubit i to its cheapest candidate; returns true when it moved. */
+export function improveQubit(state: ParkingState, i: number): boolean {
+  const blockers = state.blockersOf(i);
+  const cands = state.candidates(i, blockers);
+  let bestF = state.freq[i];
+  const here = state.costAt(i, bestF, blockers);
+  let best = here.violation + here.soft;
+  const start = best;
+  for (const f of cands) {
+    const c = state.costAt(i, f, blockers);
+    const total = c.violation + c.soft;
+    if (total < best - IMPROVEMENT) {
+      best = total;
+      bestF = f;
+    }
+  }
+  if (bestF !== state.freq[i] && best < start) {
+    state.set(i, bestF);
+    return true;
+  }
+  return false;
+}
+
+/** Place the qubits of `members` (indices) one by one in `order`, each against those already active. */
+export function construct(state: ParkingState, order: readonly number[]): void {
+  for (const i of order) {
+    state.active[i] = 1;
+    state.touch();
+    if (state.movable(i)) {
+      state.set(i, state.startOf(i));
+      improveQubit(state, i);
+    }
+  }
+}
+
+/** The construction order: fixed first, then groups by mean domain top (highest first). */
+export function constructionOrder(state: ParkingState, members: readonly number[], groups: readonly number[]): number[] {
+  const ctx = state.ctx;
+  const top = (i: number) => ctx.domains[i]?.hi ?? ctx.ranges[i].hi;
+  const mean = new Map<number, { sum: number; count: number }>();
+  for (const i of members) {
+    const m = mean.get(groups[i]) ?? { sum: 0, count: 0 };
+    m.sum += top(i);
+    m.count++;
+    mean.set(groups[i], m);
+  }
+  const groupRank = (g: number) => {
+    const m = mean.get(g)!;
+    return m.sum / m.count;
+  };
+  return [...members].sort((a, b) => {
+    const fa = ctx.fixed[a] !== undefined ? 0 : 1;
+    const fb = ctx.fixed[b] !== undefined ? 0 : 1;
+    return fa - fb || groupRank(groups[b]) - groupRank(groups[a]) || groups[a] - groups[b] || top(b) - top(a) || a - b;
+  });
+}
+
+/**
+ * Seeded local search over the active movable qubits. A worklist keeps the sweeps cheap on big
+ * chips: after the first full sweep, only qubits next to one that moved (neighbours and
+ * next-nearest neighbours) are visited again.
+ */
+export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: number; kicks: number }): SearchStats {
+  const n = state.ctx.n;
+  const free: number[] = [];
+  for (let i = 0; i < n; i++) if (state.movable(i)) free.push(i);
+  const stats: SearchStats = { sweeps: 0, moves: 0, kicks: 0 };
+  if (free.length === 0) return stats;
+  let work: number[] = free;
+  for (let sweep = 0; sweep < limits.sweeps; sweep++) {
+    stats.sweeps++;
+    const order = shuffled(work, rng);
+    const next = new Set<number>();
+    let moved = 0;
+    for (const i of order) {
+      if (!improveQubit(state, i)) continue;
+      moved++;
+      for (const j of neighbourhood(state, [i])) if (state.movable(j)) next.add(j);
+    }
+    stats.moves += moved;
+    if (moved > 0) {
+      work = [...next].sort((a, b) => a - b);
+      continue;
+    }
+    const stuck = allViolating(state);
+    if (stuck.length === 0) break;
+    const before = stats.kicks;
+    kickPhase(state, rng, stuck, limits.kicks, stats);
+    if (stats.kicks === before) break;
+    work = free;
+  }
+  return stats;
+}
+
+/**
+ * Kicks: move a qubit that blocks a violating one (or the violating qubit itself) to a random
+ * candidate, let the neighbourhood settle, and keep the result unless the neighbourhood breaks
+ * more rules than before. Stops when nothing is broken or the kick budget is spent.
+ */
+function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: number, stats: SearchStats): void {
+  const ctx = state.ctx;
+  let pending = stuck;
+  while (pending.length > 0 && stats.kicks < budget) {
+    stats.kicks++;
+    const v = pending[rng.int(pending.length)];
+    const f = state.freq[v];
+    const owners = state
+      .blockersOf(v)
+      .filter((b) => f > b.lo && f < b.hi && b.other >= 0 && state.movable(b.other))
+      .map((b) => b.other);
+    const pool = state.movable(v) ? [...owners, v] : owners;
+    if (pool.length === 0) {
+      pending = pending.filter((x) => x !== v);
+      continue;
+    }
+    const u = pool[rng.int(pool.length)];
+    const region = neighbourhood(state, [u, v]);
+    const saved = region.map((i) => state.freq[i]);
+    const violationBefore = region.reduce((s, i) => s + state.violationOf(i), 0);
+    const cands = state.candidates(u, state.blockersOf(u)).filter((x) => x !== state.freq[u]);
+    if (cands.length === 0) continue;
+    state.set(u, cands[rng.int(cands.length)]);
+    for (let pass = 0; pass < 6; pass++) {
+      let moved = 0;
+      for (const i of shuffled(region, rng)) if (i !== u && state.movable(i) && improveQubit(state, i)) moved++;
+      if (improveQubit(state, u)) moved++;
+      stats.moves += moved;
+      if (moved === 0) break;
+    }
+    const violationAfter = region.reduce((s, i) => s + state.violationOf(i), 0);
+    if (violationAfter > violationBefore) region.forEach((i, k) => state.set(i, saved[k]));
+    pending = region.filter((i) => state.active[i] && state.violationOf(i) > 0);
+    if (pending.length === 0) pending = allViolating(state);
+  }
+  void ctx;
+}
+
+/** The qubits, their neighbours and next-nearest neighbours (active only), in index order. */
+function neighbourhood(state: ParkingState, seeds: readonly number[]): number[] {
+  const ctx = state.ctx;
+  const set = new Set<number>();
+  for (const s of seeds) {
+    set.add(s);
+    for (const j of ctx.neighbours[s]) set.add(j);
+    for (const p of ctx.nextNearestOf[s]) {
+      const pair = ctx.nextNearest[p];
+      set.add(pair.a === s ? pair.b : pair.a);
+    }
+  }
+  return [...set].filter((i) => state.active[i]).sort((a, b) => a - b);
+}
+
+/** Active qubits that break a rule where they stand. */
+export function allViolating(state: ParkingState): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < state.ctx.n; i++) if (state.active[i] && state.violationOf(i) > 0) out.push(i);
+  return out;
+}
+
+function shuffled(list: readonly number[], rng: Random): number[] {
+  const a = [...list];
+  for (let k = a.length - 1; k > 0; k--) {
+    const j = rng.int(k + 1);
+    [a[k], a[j]] = [a[j], a[k]];
+  }
+  return a;
+}
+
+export { currentCost };
+
+/**
+ * Joint moves (escape from single-qubit local minima such as "the qubit would rather sit higher
+ * but its neighbour blocks it"): for each movable qubit below its domain top, in a seeded order,
+ * try its three cheapest candidates above it computed without its coupled neighbours (by its own
+ * cost terms), let those neighbours re-optimise, and keep
+ * the best result when the cost of the qubit and its neighbours (violations included) falls.
+ * Returns the number of accepted joint moves.
+ */
+export function jointMoves(state: ParkingState, rng: Random): number {
+  const ctx = state.ctx;
+  let accepted = 0;
+  const free: number[] = [];
+  for (let i = 0; i < ctx.n; i++) if (state.movable(i)) free.push(i);
+  for (const i of shuffled(free, rng)) {
+    const region = [i, ...ctx.neighbours[i].filter((j) => state.active[j])];
+    const regionCost = () => region.reduce((s, q) => s + currentCost(state, q), 0);
+    const saved = region.map((q) => state.freq[q]);
+    const base = regionCost();
+    // Candidates of i above where it stands (towards its sweet spot), computed with its coupled
+    // neighbours out of the way; the few cheapest by the qubit's own terms.
+    const off = region.slice(1);
+    const top = ctx.domains[i]!.hi;
+    if (saved[0] >= top - state.options.search.nudgeGHz) continue;
+    for (const j of off) state.active[j] = 0;
+    state.touch();
+    const own = state.blockersOf(i);
+    const cands = state
+      .candidates(i, own)
+      .filter((f) => f > saved[0] + 1e-6)
+      .map((f) => ({ f, c: state.costAt(i, f, own) }))
+      .sort((a, b) => a.c.violation + a.c.soft - (b.c.violation + b.c.soft) || a.f - b.f)
+      .slice(0, JOINT_CANDIDATES)
+      .map((x) => x.f);
+    for (const j of off) state.active[j] = 1;
+    state.touch();
+    let best = base;
+    let bestFreqs: number[] | null = null;
+    for (const f of cands) {
+      state.set(i, f);
+      for (const j of off) if (state.movable(j)) improveQubit(state, j);
+      improveQubit(state, i);
+      const c = regionCost();
+      if (c < best - IMPROVEMENT) {
+        best = c;
+        bestFreqs = region.map((q) => state.freq[q]);
+      }
+      region.forEach((q, k) => state.set(q, saved[k]));
+    }
+    if (bestFreqs) {
+      region.forEach((q, k) => state.set(q, bestFreqs![k]));
+      accepted++;
+    }
+  }
+  return accepted;
+}

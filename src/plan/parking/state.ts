@@ -1,0 +1,135 @@
+/**
+ * The parking search's working state: current frequencies and tabulated states of every qubit,
+ * which qubits take part, the per-edge ZZ calibration, and the helpers that turn the idle rules
+ * into blocked intervals (src/plan/rules/idle-blockers.ts), candidate points and costs
+ * (./cost.ts) for one qubit at a time.
+ */
+import type { PlanContext } from '../context.js';
+import { subtract, type Interval } from '../intervals.js';
+import type { PlanOptions } from '../options.js';
+import { emptyTableState, type TableState } from '../qubit-table.js';
+import { IdleBlockers, type Blocker, type FrequencyView } from '../rules/idle-blockers.js';
+import { ParkingCost, type CostParts } from './cost.js';
+
+export class ParkingState implements FrequencyView {
+  readonly freq: Float64Array;
+  readonly states: TableState[];
+  readonly active: Uint8Array;
+  readonly zzScale: Float64Array;
+  zzLimitGHz: number;
+  readonly blockers: IdleBlockers;
+  readonly cost: ParkingCost;
+  private readonly scratch: Blocker[] = [];
+
+  constructor(
+    readonly ctx: PlanContext,
+    readonly options: PlanOptions,
+  ) {
+    const n = ctx.n;
+    this.freq = new Float64Array(n);
+    this.states = Array.from({ length: n }, () => emptyTableState());
+    this.active = new Uint8Array(n);
+    this.zzScale = new Float64Array(ctx.edges.length).fill(1);
+    this.zzLimitGHz = ctx.rules.zzLimitGHz * (1 - options.search.zzSafety);
+    this.blockers = new IdleBlockers(ctx);
+    this.cost = new ParkingCost(ctx, options);
+    for (let i = 0; i < n; i++) this.set(i, this.startOf(i));
+  }
+
+  /** Where a qubit starts: its fixed park, else the top of its domain (the sweet spot when allowed). */
+  startOf(i: number): number {
+    const fixed = this.ctx.fixed[i];
+    if (fixed !== undefined) return fixed;
+    const d = this.ctx.domains[i];
+    if (d) return d.hi;
+    return this.fallbackOf(i);
+  }
+
+  /** For a qubit whose window misses its range: the range point nearest the window. */
+  fallbackOf(i: number): number {
+    const r = this.ctx.ranges[i];
+    const w = this.ctx.qubits[i].windowGHz;
+    if (!w) return r.hi;
+    return w[0] > r.hi ? r.hi : r.lo;
+  }
+
+  /** True when the qubit may move (active, not fixed, with a domain). */
+  movable(i: number): boolean {
+    return this.active[i] === 1 && this.ctx.fixed[i] === undefined && this.ctx.domains[i] !== null;
+  }
+
+  /** Changes whenever a frequency or the set of active qubits changes (cost caches key on it). */
+  stamp = 0;
+
+  set(i: number, f: number): void {
+    this.stamp++;
+    this.freq[i] = f;
+    this.ctx.tables[i].at(f, this.states[i]);
+  }
+
+  /** Blocked intervals of qubit i with the others where they are (into a shared scratch array). */
+  blockersOf(i: number): Blocker[] {
+    this.cost.beginVisit(i, this.stamp);
+    return this.blockers.of(i, this, this.scratch);
+  }
+
+  costAt(i: number, f: number, blockers: readonly Blocker[]): CostParts {
+    return this.cost.at(i, f, blockers, this, this.stamp);
+  }
+
+  /** Mark a change of the active set (invalidates cost caches). */
+  touch(): void {
+    this.stamp++;
+  }
+
+  /** The allowed parking set of qubit i: its domain minus the blocked intervals. */
+  allowed(i: number, blockers: readonly Blocker[]): Interval[] {
+    const d = this.ctx.domains[i];
+    if (!d) return [];
+    return subtract(d, blockers);
+  }
+
+  /**
+   * Candidate frequencies for qubit i: in each allowed interval its nudged ends, its middle and
+   * points one and two fabrication spreads inside each end, plus the domain top (sweet spot);
+   * when nothing is allowed, the points just outside each blocked interval and the domain ends.
+   */
+  candidates(i: number, blockers: readonly Blocker[]): number[] {
+    const d = this.ctx.domains[i];
+    if (!d) return [this.freq[i]];
+    const out: number[] = [this.freq[i]];
+    const allowed = this.allowed(i, blockers);
+    const nudge = this.options.search.nudgeGHz;
+    const sigma = this.sigmaAt(i, this.freq[i]);
+    if (allowed.length > 0) {
+      for (const a of allowed) {
+        const width = a.hi - a.lo;
+        const dn = Math.min(nudge, width / 2);
+        out.push(a.lo + dn, a.hi - dn, 0.5 * (a.lo + a.hi));
+        for (const k of [1, 2]) {
+          if (k * sigma < width / 2) out.push(a.lo + k * sigma, a.hi - k * sigma);
+        }
+        if (d.hi >= a.lo && d.hi <= a.hi) out.push(d.hi);
+      }
+    } else {
+      out.push(d.lo, d.hi);
+      for (const b of blockers) {
+        if (b.lo - nudge >= d.lo && b.lo - nudge <= d.hi) out.push(b.lo - nudge);
+        if (b.hi + nudge >= d.lo && b.hi + nudge <= d.hi) out.push(b.hi + nudge);
+      }
+    }
+    return out;
+  }
+
+  /** Expected fabrication spread of f01 at f (tabulated), GHz. */
+  sigmaAt(i: number, f: number): number {
+    const st = this.ctx.tables[i].at(f);
+    return Math.abs(st.df01dEj * st.ejRatio * this.ctx.transmons[i].ejsGHz) * this.ctx.rules.resistanceSpread;
+  }
+
+  /** Violation measure of qubit i where it is now. */
+  violationOf(i: number): number {
+    if (!this.active[i]) return 0;
+    return this.costAt(i, this.freq[i], this.blockersOf(i)).violation;
+  }
+}

@@ -1,0 +1,343 @@
+/**
+ * A transmon's spectrum tabulated once over its planning range, so the parking search can ask
+ * "what are f12, the charge matrix elements and the flux-noise dephasing rate at f01 = f?" in a
+ * fraction of a microsecond instead of solving the charge-basis problem each time.
+ *
+ * Grid: M points uniform in u = sqrt(E_J / E_JS) from u_min to 1 (f01 ~ sqrt(8 E_J E_C) - E_C,
+ * Koch et al., Phys. Rev. A 76, 042319 (2007), so the points are nearly uniform in frequency).
+ * At each point the exact levels E_1 - E_0 ... E_5 - E_0 and |<i|n|k>| for
+ * (i, k) = (0,1), (0,3), (1,2), (2,3), (0,5), (1,4) come from the transmon stage's parity-block eigenbasis
+ * (src/transmon/parity-eigenbasis.ts). Between points: cubic Hermite interpolation in u, with
+ * the level slopes exact from the Hellmann-Feynman theorem (dE_m/dE_J = -<m|cos phi|m>) and the
+ * matrix-element slopes from fourth-order finite differences on the grid. f01 is monotone in u,
+ * so f01 -> u is a bracketed Newton solve inside one cell. Accuracy (test/plan/qubit-table.test.ts,
+ * against the exact Transmon): better than 1e-7 GHz in f12 with the default 32 points.
+ *
+ * Planning range: from u_min = sqrt(max(d, minEjOverEc E_C / E_JS)) to u = 1 (the upper sweet
+ * spot). Below E_J / E_C = 20 the charge dispersion of the first excited level grows beyond a few
+ * MHz (Koch 2007, Eq. 2.18) and the n_g = 0 spectrum the model uses stops being representative,
+ * so the planner does not park or tune a qubit there (documented in the README).
+ *
+ * Search-only: every number the planner reports and every rule it checks in the end comes from
+ * the exact Transmon (src/plan/exact-state.ts); this table only steers the search.
+ */
+import { fluxNoiseDephasingRate } from '../transmon/coherence.js';
+import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
+import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
+import type { Transmon } from '../transmon/transmon.js';
+
+export interface QubitTableOptions {
+  /** Grid points (>= 8). */
+  points: number;
+  /** Lowest E_J / E_C the planner tunes to. */
+  minEjOverEc: number;
+}
+
+export const QUBIT_TABLE_DEFAULTS: Readonly<QubitTableOptions> = Object.freeze({ points: 32, minEjOverEc: 20 });
+
+/** Interpolated state of a transmon at one f01 (GHz; matrix elements are |<i|n|k>|). */
+export interface TableState {
+  f01: number;
+  f12: number;
+  /** E_2 - E_0 ... E_5 - E_0. */
+  e2: number;
+  e3: number;
+  e4: number;
+  e5: number;
+  n01: number;
+  n03: number;
+  n12: number;
+  n23: number;
+  n05: number;
+  n14: number;
+  /** E_J / E_JS. */
+  ejRatio: number;
+  /** df01 / dE_J (dimensionless, GHz per GHz). */
+  df01dEj: number;
+}
+
+export function emptyTableState(): TableState {
+  return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };
+}
+
+/** Channels: 0-4 E_1..E_5 - E_0, 5 n01, 6 n03, 7 n12, 8 n23, 9 n05, 10 n14. */
+const CHANNELS = 11;
+const LEVEL_CHANNELS = 5;
+
+export class QubitTable {
+  readonly transmon: Transmon;
+  /** Lowest f01 the planner uses (GHz). */
+  readonly fLowGHz: number;
+  /** f01 at the upper sweet spot (GHz). */
+  readonly fMaxGHz: number;
+  readonly uMin: number;
+  private readonly m: number;
+  private readonly h: number;
+  /** Values: CHANNELS x m, row-major by channel. */
+  private readonly v: Float64Array;
+  /** d(value)/du. */
+  private readonly dv: Float64Array;
+  private readonly scratch = emptyTableState();
+  /** Gamma_1/f = noiseFactor |df01/dPhi| (src/transmon/coherence.ts), 0 without flux noise. */
+  private readonly noiseFactor: number;
+  private cell = 0;
+  private t = 0;
+  /** f12 samples and slopes (for the inverse f12 -> f01). */
+  private readonly w12: Float64Array;
+  /** E_level - E_0 (and minus f01) samples and slopes, level 2..5, for f01ForLevel. */
+  private readonly levelValues: Float64Array[] = [];
+  private readonly levelSlopes: Float64Array[] = [];
+  private readonly dw12: Float64Array;
+
+  constructor(transmon: Transmon, options: Partial<QubitTableOptions> = {}) {
+    const o = { ...QUBIT_TABLE_DEFAULTS, ...options };
+    if (!(Number.isInteger(o.points) && o.points >= 8)) throw new RangeError(`QubitTable: points must be an integer >= 8, got ${o.points}`);
+    this.transmon = transmon;
+    const ejs = transmon.ejsGHz;
+    const sMin = Math.min(1, Math.max(transmon.asymmetry, (o.minEjOverEc * transmon.ecGHz) / ejs));
+    this.uMin = Math.sqrt(sMin);
+    this.m = o.points;
+    this.h = (1 - this.uMin) / (this.m - 1);
+    this.v = new Float64Array(CHANNELS * this.m);
+    this.dv = new Float64Array(CHANNELS * this.m);
+    const m = this.m;
+    const ch = new Float64Array(36);
+    const cs = new Float64Array(36);
+    for (let k = 0; k < m; k++) {
+      const u = this.h > 0 ? this.uMin + k * this.h : 1;
+      const ej = u * u * ejs;
+      const b = parityEigenbasis(transmon.ecGHz, ej, 6, transmon.chargeCutoff, true);
+      chargeMatrixFromParity(b, ch);
+      cosPhiMatrixFromParity(b, cs);
+      const e = b.energies;
+      const dEjdu = 2 * u * ejs;
+      // Hellmann-Feynman: dE_m/dE_J = -<m|cos phi|m>
+      for (let p = 1; p <= LEVEL_CHANNELS; p++) {
+        this.v[(p - 1) * m + k] = e[p] - e[0];
+        this.dv[(p - 1) * m + k] = -(cs[p * 6 + p] - cs[0]) * dEjdu;
+      }
+      const n = (i: number, j: number) => Math.abs(ch[i * 6 + j]);
+      this.v[5 * m + k] = n(0, 1);
+      this.v[6 * m + k] = n(0, 3);
+      this.v[7 * m + k] = n(1, 2);
+      this.v[8 * m + k] = n(2, 3);
+      this.v[9 * m + k] = n(0, 5);
+      this.v[10 * m + k] = n(1, 4);
+    }
+    for (let c = LEVEL_CHANNELS; c < CHANNELS; c++) finiteDifferenceSlopes(this.v, this.dv, c * m, m, this.h);
+    const spec = transmon.coherenceSpec;
+    this.noiseFactor = spec && spec.fluxNoisePhi0 !== undefined ? fluxNoiseDephasingRate(1, spec.fluxNoisePhi0) : 0;
+    this.w12 = new Float64Array(m);
+    this.dw12 = new Float64Array(m);
+    for (let k = 0; k < m; k++) {
+      this.w12[k] = this.v[m + k] - this.v[k];
+      this.dw12[k] = this.dv[m + k] - this.dv[k];
+    }
+    for (let level = 2; level <= 5; level++) {
+      const c = level - 1;
+      for (const minus of [0, 1]) {
+        const y = new Float64Array(m);
+        const dy = new Float64Array(m);
+        for (let k = 0; k < m; k++) {
+          y[k] = this.v[c * m + k] - minus * this.v[k];
+          dy[k] = this.dv[c * m + k] - minus * this.dv[k];
+        }
+        this.levelValues.push(y);
+        this.levelSlopes.push(dy);
+      }
+    }
+    this.fLowGHz = this.v[0];
+    this.fMaxGHz = this.v[m - 1];
+  }
+
+  /** True when f lies in the planning range [fLow, fMax]. */
+  covers(fGHz: number): boolean {
+    return fGHz >= this.fLowGHz - 1e-12 && fGHz <= this.fMaxGHz + 1e-12;
+  }
+
+  /**
+   * State at f01 = fGHz (clamped to the planning range). Writes into `out` (default: an internal
+   * scratch object, overwritten by the next call) and returns it.
+   */
+  at(fGHz: number, out: TableState = this.scratch): TableState {
+    this.locate(fGHz);
+    const cell = this.cell;
+    const t = this.t;
+    const m = this.m;
+    const h = this.h;
+    const v = this.v;
+    const dv = this.dv;
+    // Hermite basis at t
+    const t2 = t * t;
+    const t3 = t2 * t;
+    const b00 = 2 * t3 - 3 * t2 + 1;
+    const b10 = (t3 - 2 * t2 + t) * h;
+    const b01 = -2 * t3 + 3 * t2;
+    const b11 = (t3 - t2) * h;
+    const v0 = v;
+    let k = cell;
+    out.f01 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e2 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e3 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e4 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e5 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n01 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n03 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n12 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n23 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n05 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n14 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
+    out.f12 = out.e2 - out.f01;
+    const u = this.uMin + (cell + t) * h;
+    out.ejRatio = u * u;
+    const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
+    out.df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
+    return out;
+  }
+
+  /** f12 at f01 = fGHz. */
+  f12At(fGHz: number): number {
+    return this.at(fGHz).f12;
+  }
+
+  /** Flux (0 <= Phi <= 1/2) at f01 = fGHz. */
+  fluxAt(fGHz: number): number {
+    const s = this.at(fGHz).ejRatio;
+    return fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, s)));
+  }
+
+  /** df01/dPhi (GHz per Phi0) at f01 = fGHz. */
+  slopeAt(fGHz: number): number {
+    const st = this.at(fGHz);
+    const flux = fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, st.ejRatio)));
+    return st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, this.transmon.asymmetry, flux);
+  }
+
+  /** 1/T_phi from 1/f flux noise at f01 = fGHz (1/ns; 0 without flux-noise data). */
+  fluxNoiseRate(fGHz: number): number {
+    return this.fluxNoiseRateOf(this.at(fGHz));
+  }
+
+  /** 1/T_phi from 1/f flux noise in a state this table returned (1/ns). */
+  fluxNoiseRateOf(st: TableState): number {
+    if (this.noiseFactor === 0) return 0;
+    const d = this.transmon.asymmetry;
+    const flux = fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, st.ejRatio)));
+    return this.noiseFactor * Math.abs(st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux));
+  }
+
+  /**
+   * The f01 at which this transmon's f12 equals `f12GHz`, or null when that lies outside the
+   * planning range (f12 grows monotonically with E_J, like f01).
+   */
+  f01ForF12(f12GHz: number): number | null {
+    const m = this.m;
+    const w = this.w12;
+    if (f12GHz < w[0] - 1e-12 || f12GHz > w[m - 1] + 1e-12) return null;
+    const { cell, t } = invertCell(w, this.dw12, this.h, f12GHz);
+    const v = this.v;
+    const dv = this.dv;
+    return hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, t);
+  }
+
+  /**
+   * The f01 at which E_level - E_0 - (minusF01 ? f01 : 0) equals `targetGHz` (level 2..5), or null
+   * outside the planning range. Every such combination grows with E_J.
+   */
+  f01ForLevel(level: number, targetGHz: number, minusF01 = false): number | null {
+    if (!(level >= 2 && level <= 5)) throw new RangeError(`f01ForLevel: level must be 2..5, got ${level}`);
+    const k = (level - 2) * 2 + (minusF01 ? 1 : 0);
+    const y = this.levelValues[k];
+    const dy = this.levelSlopes[k];
+    const m = this.m;
+    if (targetGHz < y[0] - 1e-12 || targetGHz > y[m - 1] + 1e-12) return null;
+    const { cell, t } = invertCell(y, dy, this.h, targetGHz);
+    return hermite(this.v[cell], this.v[cell + 1], this.dv[cell] * this.h, this.dv[cell + 1] * this.h, t);
+  }
+
+  /** Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). */
+  private locate(fGHz: number): void {
+    const r = invertCell(this.v, this.dv, this.h, fGHz, this.m);
+    this.cell = r.cell;
+    this.t = r.t;
+  }
+}
+
+/**
+ * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples
+ * y[0..m-1] (slopes dy per unit u, spacing h) equals `target` (clamped to the ends):
+ * binary search for the cell, then safeguarded Newton on the cubic.
+ */
+function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number, m: number = y.length): { cell: number; t: number } {
+  if (m < 2 || h === 0 || target <= y[0]) return { cell: 0, t: 0 };
+  if (target >= y[m - 1]) return { cell: m - 2, t: 1 };
+  let lo = 0;
+  let hi = m - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (y[mid] <= target) lo = mid;
+    else hi = mid;
+  }
+  const y0 = y[lo];
+  const y1 = y[lo + 1];
+  const d0 = dy[lo] * h;
+  const d1 = dy[lo + 1] * h;
+  let a = 0;
+  let b = 1;
+  let t = (target - y0) / (y1 - y0);
+  for (let it = 0; it < 30; it++) {
+    const r = hermite(y0, y1, d0, d1, t) - target;
+    if (r > 0) b = t;
+    else a = t;
+    const s = hermiteSlope(y0, y1, d0, d1, t);
+    let next = s > 0 ? t - r / s : 0.5 * (a + b);
+    if (!(next > a && next < b)) next = 0.5 * (a + b);
+    const done = Math.abs(next - t) < 1e-14;
+    t = next;
+    if (done) break;
+  }
+  return { cell: lo, t };
+}
+
+/** Cubic Hermite on [0, 1] with end values y0, y1 and end slopes (already scaled by the cell width). */
+function hermite(y0: number, y1: number, d0: number, d1: number, t: number): number {
+  const t2 = t * t;
+  const t3 = t2 * t;
+  return (2 * t3 - 3 * t2 + 1) * y0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * y1 + (t3 - t2) * d1;
+}
+
+function hermiteSlope(y0: number, y1: number, d0: number, d1: number, t: number): number {
+  const t2 = t * t;
+  return (6 * t2 - 6 * t) * y0 + (3 * t2 - 4 * t + 1) * d0 + (-6 * t2 + 6 * t) * y1 + (3 * t2 - 2 * t) * d1;
+}
+
+/**
+ * Slopes of samples on a uniform grid (spacing h): fourth-order central differences inside,
+ * fourth-order one-sided stencils at the two points next to each end (Fornberg, Math. Comp. 51,
+ * 699 (1988) weights).
+ */
+function finiteDifferenceSlopes(v: Float64Array, out: Float64Array, offset: number, m: number, h: number): void {
+  if (h === 0 || m < 5) {
+    for (let k = 0; k < m; k++) out[offset + k] = 0;
+    if (h > 0 && m >= 2) for (let k = 0; k < m; k++) out[offset + k] = (v[offset + Math.min(k + 1, m - 1)] - v[offset + Math.max(k - 1, 0)]) / (h * (Math.min(k + 1, m - 1) - Math.max(k - 1, 0)));
+    return;
+  }
+  const y = (k: number) => v[offset + k];
+  for (let k = 0; k < m; k++) {
+    let d: number;
+    if (k >= 2 && k <= m - 3) d = (y(k - 2) - 8 * y(k - 1) + 8 * y(k + 1) - y(k + 2)) / (12 * h);
+    else if (k < 2) d = (-25 * y(k) + 48 * y(k + 1) - 36 * y(k + 2) + 16 * y(k + 3) - 3 * y(k + 4)) / (12 * h);
+    else d = (25 * y(k) - 48 * y(k - 1) + 36 * y(k - 2) - 16 * y(k - 3) + 3 * y(k - 4)) / (12 * h);
+    out[offset + k] = d;
+  }
+}
