@@ -45,6 +45,12 @@ export interface PlanOptions {
    * use their own waveforms.
    */
   rampNs: number;
+  /**
+   * Shortest ramp the planner may fall back to (ns) when no option of an edge clears the rules with
+   * rampNs: it then tries 10, 7.5 and 5 ns (those between this and rampNs). A faster sweep passes
+   * weak crossings (defects, next-nearest neighbours) more diabatically and shortens the gate.
+   */
+  minRampNs: number;
   weights: CostWeights;
   search: ParkingSearchOptions;
   table: QubitTableOptions;
@@ -54,6 +60,7 @@ export const PLAN_DEFAULTS: Readonly<PlanOptions> = Object.freeze({
   seed: 1,
   cycleNs: 1000,
   rampNs: 15,
+  minRampNs: 5,
   weights: Object.freeze({ dephasing: 1, zz: 1, gate: 1, tls: 1, band: 0.05, margin: 0.01 }),
   search: Object.freeze({ sweeps: 40, kicks: 200, calibrationRounds: 4, zzSafety: 0.05, nudgeGHz: 5e-4, violationPenalty: 1000 }),
   table: QUBIT_TABLE_DEFAULTS,

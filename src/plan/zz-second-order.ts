@@ -40,3 +40,21 @@ export function secondOrderZz(a: TableState, b: TableState, gChargeGHz: number):
   const d11 = a01 * b01 / e11 + a01 * b12 / (e11 - eb2) + a12 * b01 / (e11 - ea2) + a12 * b12 / (e11 - ea2 - eb2);
   return g2 * (d11 - d10 - d01 + d00);
 }
+
+/**
+ * The second-order terms left out of `secondOrderZz`: the narrow resonances of |11>, |10>, |01>
+ * with a third, fourth or fifth level of one transmon and the ground state of the other
+ * (|11> <-> |40>, |04>; |10> <-> |03>, |05>; |01> <-> |30>, |50>). Their sum with
+ * `secondOrderZz` is the full second-order ZZ within 6 levels; the planner uses the sum to
+ * calibrate against the exact ZZ, and blocks each resonance separately in the search.
+ */
+export function narrowResonanceZz(a: TableState, b: TableState, gChargeGHz: number): number {
+  const g2 = gChargeGHz * gChargeGHz;
+  const e11 = a.f01 + b.f01;
+  const a01 = a.n01 * a.n01, a03 = a.n03 * a.n03, a05 = a.n05 * a.n05, a14 = a.n14 * a.n14;
+  const b01 = b.n01 * b.n01, b03 = b.n03 * b.n03, b05 = b.n05 * b.n05, b14 = b.n14 * b.n14;
+  const d11 = a14 * b01 / (e11 - a.e4) + a01 * b14 / (e11 - b.e4);
+  const d10 = a01 * b03 / (a.f01 - b.e3) + a01 * b05 / (a.f01 - b.e5);
+  const d01 = a03 * b01 / (b.f01 - a.e3) + a05 * b01 / (b.f01 - a.e5);
+  return g2 * (d11 - d10 - d01);
+}

@@ -3,9 +3,10 @@
  * connected components, next-nearest-neighbour pairs), then run the registered check stages.
  *
  * Seam for collision rules: CHECK_STAGES. A stage gets the layout and its graph and returns
- * violations (make the check fail: `ok: false`, exit 1) and flags (reported, exit unchanged).
- * The planner adds its collision rules as a stage here (issue 6); until then the list is empty
- * and `check` validates the layout and reports its structure only.
+ * violations (make the check fail: `ok: false`, exit 1), flags (reported, exit unchanged), and
+ * optionally extra JSON fields (`data`) and summary lines (`lines`). The planner's stage
+ * (./check-planner.ts) evaluates every collision rule at the best parking assignment, the
+ * interaction feasibility of every edge and the crowding margins.
  */
 
 import { Argument, type Command } from 'commander';
@@ -19,6 +20,7 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { withCommonOptions } from '../options.js';
+import { PLANNER_CHECK_STAGE } from './check-planner.js';
 
 /** One finding of a check stage. Numbers in `details` are SI (Hz, s, rad; flux in Phi0). */
 export interface CheckFinding {
@@ -34,12 +36,18 @@ export interface CheckFinding {
 export interface CheckStageResult {
   violations: CheckFinding[];
   flags: CheckFinding[];
+  /** Extra fields of the `--json` output (SI units), merged in stage order. */
+  data?: Record<string, unknown>;
+  /** Extra lines of the human summary. */
+  lines?: string[];
 }
 
 export interface CheckInput {
   layout: ChipLayout;
   graph: ChipGraph;
   profiler: StageProfiler;
+  /** A progress bar on stderr (drawn only on a terminal). */
+  progress?: CommandContext['progress'];
 }
 
 export interface CheckStage {
@@ -48,16 +56,18 @@ export interface CheckStage {
   run(input: CheckInput): CheckStageResult | Promise<CheckStageResult>;
 }
 
-/** The check stages `fluxlane check` runs, in order. Collision rules join here (issue 6). */
-export const CHECK_STAGES: CheckStage[] = [];
+/** The check stages `fluxlane check` runs, in order. */
+export const CHECK_STAGES: CheckStage[] = [PLANNER_CHECK_STAGE];
 
 /** Run check stages in order, each timed under its name; results are concatenated. */
 export async function runCheckStages(input: CheckInput, stages: readonly CheckStage[]): Promise<CheckStageResult> {
-  const all: CheckStageResult = { violations: [], flags: [] };
+  const all: CheckStageResult = { violations: [], flags: [], data: {}, lines: [] };
   for (const stage of stages) {
     const result = await input.profiler.timeAsync(stage.name, async () => stage.run(input));
     all.violations.push(...result.violations);
     all.flags.push(...result.flags);
+    Object.assign(all.data!, result.data ?? {});
+    all.lines!.push(...(result.lines ?? []));
   }
   return all;
 }
@@ -103,6 +113,7 @@ function summaryText(layout: ChipLayout, s: ChipSummary, stages: readonly CheckS
     row('degree', `min ${s.degree.min}, mean ${s.degree.mean.toFixed(2)}, max ${s.degree.max}`),
     row('components', `${s.components}${sizes}`),
     row('next-nearest pairs', String(s.nextNearestPairs)),
+    ...(result.lines ?? []),
   ];
   for (const v of result.violations) lines.push(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`);
   for (const f of result.flags) lines.push(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`);
@@ -119,10 +130,10 @@ export async function checkLayout(ctx: CommandContext, layoutPath: string, stage
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const summary = ctx.profiler.time('summary', () => summariseChip(layout, graph));
-  const result = await runCheckStages({ layout, graph, profiler: ctx.profiler }, stages);
+  const result = await runCheckStages({ layout, graph, profiler: ctx.profiler, progress: ctx.progress }, stages);
   const ok = result.violations.length === 0;
   return {
-    data: { ok, chip: layout.chip, file: layout.file, summary, violations: result.violations, flags: result.flags },
+    data: { ok, chip: layout.chip, file: layout.file, summary, ...result.data, violations: result.violations, flags: result.flags },
     text: summaryText(layout, summary, stages, result),
     exitCode: ok ? 0 : 1,
   };
@@ -132,7 +143,7 @@ export function registerCheck(program: Command, io: CliIo, stages: readonly Chec
   withCommonOptions(
     program
       .command('check')
-      .description('validate a chip layout and summarise it (qubits, couplings, degree, components, next-nearest pairs)')
+      .description('validate a chip layout, summarise it, and check every collision rule at the best parking assignment, the CZ feasibility of every edge and the crowding margins (no pulse design; exit 1 on any violation)')
       .addArgument(new Argument('<layout>', 'layout YAML file')),
   ).action(commandAction<[string]>(io, (ctx, layoutPath) => checkLayout(ctx, layoutPath, stages)));
 }

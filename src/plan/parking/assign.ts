@@ -17,7 +17,7 @@ import { Random } from '../../util/random.js';
 import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
 import { evaluateIdle, type IdleEvaluation } from '../rules/idle-evaluate.js';
-import { secondOrderZz } from '../zz-second-order.js';
+import { narrowResonanceZz, secondOrderZz } from '../zz-second-order.js';
 import { frequencyGroupsOf } from './colouring.js';
 import { explainInfeasible, type Explanation } from './explain.js';
 import { construct, constructionOrder, jointMoves, localSearch, type SearchStats } from './search.js';
@@ -29,7 +29,7 @@ export interface ParkingResult {
   groups: number[];
   idle: IdleEvaluation;
   explanations: Explanation[];
-  stats: SearchStats & { rounds: number };
+  stats: SearchStats & { rounds: number; repairTrials?: number; repairMoves?: number };
   /** The search state at the end (blocked intervals for margins). */
   state: ParkingState;
 }
@@ -75,7 +75,7 @@ export function recalibrate(ctx: PlanContext, state: ParkingState): boolean {
   for (const e of ctx.edges) {
     if (Number.isNaN(flux[e.a]) || Number.isNaN(flux[e.b])) continue;
     const exact = ctx.pair(e.index).zz(flux[e.a], flux[e.b]);
-    const estimate = secondOrderZz(state.states[e.a], state.states[e.b], e.gChargeGHz);
+    const estimate = secondOrderZz(state.states[e.a], state.states[e.b], e.gChargeGHz) + narrowResonanceZz(state.states[e.a], state.states[e.b], e.gChargeGHz);
     if (Math.abs(estimate) > 1e-9 && Number.isFinite(exact)) {
       const ratio = exact / estimate;
       if (ratio > 0.2 && ratio < 5) state.zzScale[e.index] = ratio;

@@ -43,6 +43,7 @@ export type RuleName =
   | 'cz-parked-next-01-01'
   | 'cz-parked-tls'
   | 'cz-parked-readout'
+  | 'cz-design'
   | 'cz-crossing'
   | 'layer-conflict'
   | 'margin';
@@ -120,6 +121,8 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
     doc: 'A spectator moved out of the way keeps width + tlsClearance from its defects.', source: 'common practice' }),
   rule({ name: 'cz-parked-readout', scope: 'cz', transitions: 'a parked spectator\'s f01 vs its readout resonator', threshold: 'readoutDetuningGHz', compare: 'min', quantity: 'frequency',
     doc: 'A spectator moved out of the way keeps readoutDetuning from its readout resonator.', source: 'common practice' }),
+  rule({ name: 'cz-design', scope: 'cz', transitions: 'the designed CZ pulse of an edge', threshold: 'maxGateNs', compare: 'none', quantity: 'none',
+    doc: 'The gate stage found a CZ for the edge within maxGate (its reason is reported when it did not).', source: 'src/gate (designCzGate)' }),
   rule({ name: 'cz-crossing', scope: 'plan', transitions: 'the plan\'s interaction frequency vs the crossing recomputed from the parking frequencies', threshold: null, compare: 'none', quantity: 'frequency',
     doc: 'In a plan read back by `fluxlane verify`, each edge\'s interaction frequency minus its crossing offset matches the crossing at the plan\'s parking frequencies within 10 kHz (otherwise the gate was designed for another parking point).', source: 'fluxlane plan contract' }),
   rule({ name: 'layer-conflict', scope: 'plan', transitions: 'two gates in one layer', threshold: null, compare: 'none', quantity: 'none',

@@ -115,7 +115,7 @@ export class IdleBlockers {
   narrowZz(i: number, j: number, view: FrequencyView, out: Blocker[]): void {
     const ctx = this.ctx;
     const e = ctx.edgeBetween(i, j);
-    const g = ctx.edges[e].gChargeGHz * view.zzScale[e];
+    const g = ctx.edges[e].gChargeGHz;
     const lim = view.zzLimitGHz;
     const ti = ctx.tables[i];
     const sj = view.states[j];

@@ -1,0 +1,69 @@
+/**
+ * `checkChip`: the fast evaluation behind `fluxlane check`: the best parking assignment with every
+ * idle rule, the interaction feasibility of every edge (mover, crossing, spectators, sweeps; no
+ * pulse design), the layer count and the crowding margins. Findings use the JSON contract of
+ * src/plan/rules/findings.ts; `data` is the SI summary the check command adds to its output.
+ */
+import type { ChipLayout } from '../layout/types.js';
+import type { ChipGraph } from '../chip/graph.js';
+import type { StageProfiler } from '../util/profile.js';
+import { bandText } from './crowding.js';
+import { ghz, mhz, plain, toHz } from './format.js';
+import { planChip, type ChipPlan } from './plan.js';
+import type { PlanOptionsInput } from './options.js';
+import { toFindingJson, type FindingJson } from './rules/findings.js';
+
+export interface ChipCheck {
+  plan: ChipPlan;
+  violations: FindingJson[];
+  flags: FindingJson[];
+  data: Record<string, unknown>;
+  lines: string[];
+}
+
+export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOptionsInput = {}, hooks: { profiler?: StageProfiler; progress?: (stage: string, done: number, total: number) => void } = {}): ChipCheck {
+  const plan = planChip(layout, options, hooks, graph);
+  const { ctx } = plan;
+  const id = ctx.ids;
+  const parking: Record<string, unknown> = {};
+  ctx.ids.forEach((q, i) => {
+    const c = plan.crowding.qubits[i];
+    parking[q] = {
+      parkingFrequency: toHz(plan.parking.parkingGHz[i]),
+      parkingFlux: plain(plan.states[i].flux),
+      f12: toHz(plan.states[i].f12GHz),
+      margin: Number.isFinite(c.marginGHz) ? toHz(c.marginGHz) : null,
+      marginSpreads: Number.isFinite(c.marginSpreads) ? plain(c.marginSpreads) : null,
+      usableFraction: plain(c.usableFraction),
+    };
+  });
+  const edges = plan.edges.map((e, k) => ({
+    qubits: [id[ctx.edges[e.edge].a], id[ctx.edges[e.edge].b]],
+    mover: id[e.mover],
+    crossing: e.crossing,
+    interactionFrequency: Number.isFinite(e.interactionGHz) ? toHz(e.interactionGHz) : null,
+    spectatorParking: Object.fromEntries(e.parked.map((p) => [id[p.qubit], toHz(p.fGHz)])),
+    layer: plan.layers.layerOf[k],
+    zz: toHz(plan.parking.idle.zzGHz[e.edge]),
+    feasible: e.findings.length === 0,
+  }));
+  const data = {
+    parking,
+    edges,
+    layers: { count: plan.layers.layers.length, lowerBound: plan.layers.lowerBound },
+    crowding: { bands: plan.crowding.bands.map((b) => ({ from: toHz(b.loGHz), to: toHz(b.hiGHz), qubits: b.qubits, flagged: b.flagged })) },
+    explanations: plan.explanations,
+  };
+  const feasible = edges.filter((e) => e.feasible).length;
+  const parkedCount = plan.edges.reduce((s, e) => s + e.parked.length, 0);
+  const worst = plan.crowding.qubits.reduce((m, c, i) => (c.marginGHz < m.margin ? { margin: c.marginGHz, i } : m), { margin: Infinity, i: -1 });
+  const lines = [
+    `  ${'parking'.padEnd(20)} ${plan.parking.idle.violations.length === 0 ? 'every idle rule holds' : `${plan.parking.idle.violations.length} idle rule(s) broken`} (${ghz(Math.min(...plan.parking.parkingGHz))} to ${ghz(Math.max(...plan.parking.parkingGHz))})`,
+    `  ${'interactions'.padEnd(20)} ${feasible} of ${edges.length} edges clear every CZ rule; ${parkedCount} spectator move(s)`,
+    `  ${'layers'.padEnd(20)} ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound})`,
+    `  ${'smallest margin'.padEnd(20)} ${worst.i >= 0 ? `${id[worst.i]} ${mhz(worst.margin)} (${plan.crowding.qubits[worst.i].marginSpreads.toFixed(1)} spreads)` : '-'}`,
+    ...plan.crowding.bands.map((b) => `  crowded band ${bandText(b)}`),
+    ...plan.explanations.map((x) => `  cannot park: ${x.message}`),
+  ];
+  return { plan, violations: plan.violations.map(toFindingJson), flags: plan.flags.map(toFindingJson), data, lines };
+}

@@ -1,0 +1,83 @@
+/**
+ * The seam between the planner and the per-edge CZ pulse designer (the gate stage, src/gate/):
+ *
+ *     designCzGate(request: GateDesignRequest): GateDesign        (src/gate/design.ts)
+ *
+ * The planner calls it through `loadGateDesigner()`, which imports the gate stage lazily, so that
+ * `fluxlane plan --no-pulses` and `fluxlane check` work without it and the planner's tests do not
+ * pay for loading the simulator. Units inside: GHz, ns, Phi0, rad.
+ */
+import type { Rules } from '../layout/types.js';
+import type { Transmon } from '../transmon/transmon.js';
+
+export interface GateSpectatorRequest {
+  transmon: Transmon;
+  coupledTo: 'mover' | 'partner';
+  /** Layout g of its coupling (both at Phi = 0). */
+  gGHz: number;
+  /** Its flux during the gate. */
+  flux: number;
+}
+
+export interface GateDesignRequest {
+  mover: Transmon;
+  partner: Transmon;
+  /** Layout g (both at Phi = 0). */
+  gGHz: number;
+  moverParkFlux: number;
+  partnerFlux: number;
+  crossing: '11-20' | '11-02';
+  family?: string;
+  rampNs?: number;
+  /** Default pi. */
+  targetPhase?: number;
+  rules: Rules;
+  noise?: boolean;
+  spectators?: GateSpectatorRequest[];
+}
+
+export interface GateDesign {
+  mover: string;
+  family: string;
+  rampNs: number;
+  holdNs: number;
+  durationNs: number;
+  interactionFrequencyGHz: number;
+  crossingOffsetGHz: number;
+  conditionalPhase: number;
+  leakage: number;
+  fidelity: number;
+  fidelityNoisy?: number;
+  virtualZ: { a: number; b: number };
+  speedLimitNs: number;
+  untuned: { conditionalPhase: number; leakage: number; fidelity: number };
+  waveform: { timeNs: Float64Array; flux: Float64Array };
+  feasible: boolean;
+  reason?: string;
+}
+
+export type GateDesigner = (request: GateDesignRequest) => GateDesign;
+
+/** Where the gate stage lives, relative to this module (src/ under tsx and vitest, dist/ when built). */
+export const GATE_DESIGN_MODULE = '../gate/design.js';
+
+/**
+ * The gate stage's designer, or null when this build has no gate stage. Any other failure to
+ * load it (a syntax error, a missing export) is thrown: that is a bug, not a missing feature.
+ */
+export async function loadGateDesigner(specifier: string = GATE_DESIGN_MODULE): Promise<GateDesigner | null> {
+  let mod: Record<string, unknown>;
+  try {
+    mod = (await import(new URL(specifier, import.meta.url).href)) as Record<string, unknown>;
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const message = err instanceof Error ? err.message : String(err);
+    if (code === 'ERR_MODULE_NOT_FOUND' || /Cannot find module|Failed to load url|Does the file exist/i.test(message)) {
+      if (message.includes('design')) return null;
+    }
+    throw err;
+  }
+  const fn = mod.designCzGate;
+  if (typeof fn !== 'function') throw new Error(`${specifier} does not export designCzGate`);
+  return fn as GateDesigner;
+}

@@ -1,0 +1,25 @@
+/** The planner stage: collision rules, parking, interaction plans, layers, crowding, check and verify (re-exports only). */
+export { COLLISION_RULES, ruleByName, thresholdOf, type CollisionRule, type RuleName } from './rules/catalogue.js';
+export { toFindingJson, type Finding, type FindingJson } from './rules/findings.js';
+export { evaluateIdle, exactStates, exactZz, type IdleEvaluation } from './rules/idle-evaluate.js';
+export { evaluateGate, type Crossing, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
+export { IdleBlockers, type Blocker } from './rules/idle-blockers.js';
+export { buildPlanContext, type PlanContext, type PlanEdge } from './context.js';
+export { PLAN_DEFAULTS, planOptions, type PlanOptions, type PlanOptionsInput } from './options.js';
+export { QubitTable, QUBIT_TABLE_DEFAULTS } from './qubit-table.js';
+export { landauZenerTransfer, landauZenerMinimumRate } from './landau-zener.js';
+export { mediatedExchange } from './mediated-coupling.js';
+export { secondOrderZz } from './zz-second-order.js';
+export { exactQubitState, type ExactQubitState } from './exact-state.js';
+export { assignParking, type ParkingResult } from './parking/assign.js';
+export { type Explanation } from './parking/explain.js';
+export { planEdge, type EdgePlan } from './interaction/plan-edge.js';
+export { planLayers, type LayerPlan } from './layers.js';
+export { crowding, type Crowding } from './crowding.js';
+export { planChip, type ChipPlan } from './plan.js';
+export { designPulses, type PulseOptions } from './pulses.js';
+export { loadGateDesigner, type GateDesign, type GateDesignRequest, type GateDesigner } from './gate-seam.js';
+export { planJson, gateTableCsv, gateTableText, planText, PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
+export { readPlan, type PlanInput } from './plan-read.js';
+export { verifyPlan, type VerifyResult } from './verify.js';
+export { checkChip, type ChipCheck } from './check.js';

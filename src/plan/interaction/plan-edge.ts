@@ -1,0 +1,313 @@
+/**
+ * The interaction plan of one coupled pair: which qubit moves (the mover), to which crossing
+ * (11-20: the mover's f12 meets the partner's f01, mover above by |alpha_A|; or 11-02: the
+ * mover's f01 meets the partner's f12, mover below by |alpha_B|; ../../../shared/physics.md
+ * sec. 2), the interaction (destination) frequency = the mover's f01 at that crossing against the
+ * partner at its parking frequency (exact: src/pair/resonances.ts), the path (a monotone sweep
+ * from parking to there and back), and the spectators moved out of the way.
+ *
+ * All four options (each qubit as mover, each crossing) are evaluated with every rule of
+ * src/plan/rules/cz-evaluate.ts. Problems a spectator causes are resolved by spectator parking
+ * (./spectator-parking.ts), up to three rounds. Among the options that then break no rule the
+ * one with the smallest estimated error wins:
+ *
+ *     err = (2/5) t_CZ sum_{q = A, B} (1/T1_q + 1/T_phi,q)     (idle-like decoherence, physics.md sec. 4;
+ *                                                              T_phi of the mover at the interaction point)
+ *         + (1/4) t_hold / T1 of the qubit lifted to |2>     (|2> decays about twice as fast)
+ *         + (2/5) t_CZ sum_{parked S} 1/T_phi,S(x_S) + 1e-4 per parked spectator
+ *
+ * with t_hold = 1 / (2 g_c) and t_CZ = t_hold + 2 rampNs (+ 2 rampNs when spectators move). The
+ * 1e-4 per moved spectator is our choice: each move costs calibration and couples more gates.
+ * When no option is clean, the one with the fewest problems is kept and its findings are
+ * reported; the reason says what each option ran into.
+ */
+import { pairResonances } from '../../pair/resonances.js';
+import type { PlanContext } from '../context.js';
+import { exactTransitions } from '../exact-state.js';
+import { band, ghz, prob } from '../format.js';
+import type { PlanOptions } from '../options.js';
+import type { IdleBlockers } from '../rules/idle-blockers.js';
+import { evaluateGate, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
+import type { ExactQubitState } from '../exact-state.js';
+import { spectatorParkingCandidates } from './spectator-parking.js';
+
+export interface ParkedSpectator {
+  qubit: number;
+  fGHz: number;
+  flux: number;
+  f12GHz: number;
+  /** Why it was moved (the rules it broke where it was). */
+  reason: string;
+}
+
+export interface OptionReport {
+  mover: number;
+  crossing: Crossing;
+  feasible: boolean;
+  /** Estimated error of the gate (see the banner); Infinity when out of range. */
+  score: number;
+  interactionGHz: number | null;
+  /** Mover flux at the interaction point (null when out of range). */
+  moverFlux: number | null;
+  parked: ParkedSpectator[];
+  problems: CzFinding[];
+  note: string;
+}
+
+export interface EdgePlan {
+  edge: number;
+  mover: number;
+  partner: number;
+  crossing: Crossing;
+  feasible: boolean;
+  /** Interaction frequency (mover f01 at the crossing), or NaN when no crossing is reachable. */
+  interactionGHz: number;
+  moverInteractionFlux: number;
+  moverF12AtInteractionGHz: number;
+  /** Bare coupling of the crossing and the speed limit 1/(2 g_c). */
+  crossingCouplingGHz: number;
+  speedLimitNs: number;
+  /** Exchange coupling g at the interaction point (physics.md sec. 6). */
+  gAtInteractionGHz: number;
+  durationNs: number;
+  rampNs: number;
+  parked: ParkedSpectator[];
+  swept: SweptCrossing[];
+  findings: CzFinding[];
+  score: number;
+  reason: string;
+  options: OptionReport[];
+}
+
+export interface EdgeContext {
+  ctx: PlanContext;
+  options: PlanOptions;
+  blockers: IdleBlockers;
+  /** Exact states at parking (every qubit). */
+  states: readonly ExactQubitState[];
+}
+
+const MAX_PARKING_ROUNDS = 3;
+const PARKED_PENALTY = 1e-4;
+
+/** Ramp times tried in order (ns): the planning ramp, then faster ones down to minRampNs. */
+export function rampLadder(options: PlanOptions): number[] {
+  return [options.rampNs, ...[10, 7.5, 5].filter((r) => r < options.rampNs && r >= options.minRampNs)];
+}
+
+/** Plan an edge, falling back to faster ramps when no option is clean at the planning ramp. */
+export function planEdge(ec: EdgeContext, edge: number): EdgePlan {
+  let best: EdgePlan | undefined;
+  for (const ramp of rampLadder(ec.options)) {
+    if (best && !fasterRampMayHelp(ec, best, ramp)) break;
+    const plan = planEdgeAtRamp(ec, edge, ramp);
+    if (!best || (plan.feasible && !best.feasible)) best = plan;
+    if (plan.feasible) break;
+  }
+  return best!;
+}
+
+/**
+ * A faster ramp can only clear an option whose problems are all swept crossings that the faster
+ * sweep passes below the limit (transfer ~ 4 pi^2 g^2 / v grows with the ramp time) or a duration
+ * that the shorter ramps fit; any other problem stays.
+ */
+function fasterRampMayHelp(ec: EdgeContext, plan: EdgePlan, ramp: number): boolean {
+  const limit = ec.ctx.rules.sweptTransferLimit;
+  const exponent = -Math.log1p(-limit);
+  return plan.options.some((o) =>
+    o.problems.length > 0 &&
+    o.problems.every((f) => {
+      if (f.rule === 'cz-duration') return true;
+      if (!f.rule.startsWith('cz-swept-') || f.value === null) return false;
+      // transfer = 1 - exp(-x), x proportional to the ramp time: x at the new ramp must be below -ln(1 - limit)
+      const x = -Math.log1p(-Math.min(f.value, 1 - 1e-16));
+      return (x * ramp) / plan.rampNs < exponent;
+    }),
+  );
+}
+
+export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): EdgePlan {
+  const { ctx } = ec;
+  const e = ctx.edges[edge];
+  const reports: OptionReport[] = [];
+  const built: { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number }[] = [];
+  for (const mover of [e.a, e.b]) {
+    const partner = mover === e.a ? e.b : e.a;
+    const res = pairResonances(ctx.transmons[mover], ctx.transmons[partner], ec.states[partner].flux, e.gChargeGHz);
+    for (const crossing of ['11-20', '11-02'] as const) {
+      const built1 = evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs);
+      reports.push(built1.report);
+      built.push(built1);
+    }
+  }
+  // Choose: feasible by score; else fewest problems, then score.
+  const order = built
+    .map((b, k) => ({ b, k }))
+    .sort((x, y) => {
+      const fx = x.b.report.feasible ? 0 : 1;
+      const fy = y.b.report.feasible ? 0 : 1;
+      const px = x.b.scenario ? x.b.report.problems.length : 1e9;
+      const py = y.b.scenario ? y.b.report.problems.length : 1e9;
+      return fx - fy || px - py || x.b.report.score - y.b.report.score || x.k - y.k;
+    });
+  const chosen = order[0].b;
+  const partner = chosen.report.mover === e.a ? e.b : e.a;
+  const reason = reasonText(ctx, chosen.report, reports, partner);
+  if (!chosen.scenario || !chosen.eval) {
+    const partner0 = e.b;
+    return {
+      edge, mover: e.a, partner: partner0, crossing: '11-20', feasible: false, interactionGHz: NaN, moverInteractionFlux: NaN,
+      moverF12AtInteractionGHz: NaN, crossingCouplingGHz: NaN, speedLimitNs: NaN, gAtInteractionGHz: NaN, durationNs: NaN, rampNs,
+      parked: [], swept: [], findings: chosen.report.problems, score: Infinity, reason, options: reports,
+    };
+  }
+  const s = chosen.scenario;
+  const pair = ctx.pair(edge);
+  const atFlux = chosen.report.moverFlux!;
+  const fluxA = s.mover === e.a ? atFlux : ec.states[e.a].flux;
+  const fluxB = s.mover === e.b ? atFlux : ec.states[e.b].flux;
+  return {
+    edge,
+    mover: s.mover,
+    partner: s.partner,
+    crossing: s.crossing,
+    feasible: chosen.report.feasible,
+    interactionGHz: s.toGHz,
+    moverInteractionFlux: atFlux,
+    moverF12AtInteractionGHz: s.moverF12AtToGHz,
+    crossingCouplingGHz: s.crossingCouplingGHz,
+    speedLimitNs: 1 / (2 * s.crossingCouplingGHz),
+    gAtInteractionGHz: pair.exchangeCoupling(fluxA, fluxB),
+    durationNs: chosen.eval.durationNs,
+    rampNs,
+    parked: chosen.report.parked,
+    swept: chosen.eval.swept,
+    findings: chosen.report.problems,
+    score: chosen.report.score,
+    reason,
+    options: reports,
+  };
+}
+
+function evaluateOption(
+  ec: EdgeContext,
+  edge: number,
+  mover: number,
+  partner: number,
+  crossing: Crossing,
+  res: { moverFlux: number; moverF01GHz: number; couplingGHz: number } | null,
+  rampNs: number,
+): { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number } {
+  const { ctx } = ec;
+  const id = ctx.ids;
+  const range = ctx.ranges[mover];
+  if (!res || res.moverF01GHz < range.lo - 1e-9) {
+    const where = res ? `${ghz(res.moverF01GHz)}, below its planning range ${ghz(range.lo)}` : `outside its tunable range`;
+    const problem: CzFinding = {
+      rule: 'cz-range', qubits: [id[mover], id[partner]], value: res ? res.moverF01GHz : null, threshold: null, edge: ctx.edges[edge].key, blame: -1,
+      message: `${id[mover]} cannot reach the ${crossing} crossing with ${id[partner]} (${where})`,
+    };
+    return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
+  }
+  const parking: DuringGate[] = ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz }));
+  const moverAt = ctx.transmons[mover].spectrum(res.moverFlux);
+  const parked = new Map<number, DuringGate>();
+  const parkedInfo: ParkedSpectator[] = [];
+  const scenario: GateScenario = {
+    edge, mover, partner, crossing,
+    fromGHz: ec.states[mover].f01GHz,
+    toGHz: res.moverF01GHz,
+    moverF12AtToGHz: moverAt.f12GHz,
+    crossingCouplingGHz: res.couplingGHz,
+    rampNs,
+    parking,
+    parked,
+  };
+  let ev = evaluateGate(ctx, scenario);
+  const tried = new Set<number>();
+  const unmovable: string[] = [];
+  for (let round = 0; round < MAX_PARKING_ROUNDS; round++) {
+    const blamed = [...new Set(ev.findings.map((f) => f.blame).filter((q) => q >= 0 && q !== mover && q !== partner && !tried.has(q)))].sort((a, b) => a - b);
+    if (blamed.length === 0) break;
+    for (const P of blamed) {
+      tried.add(P);
+      const rules = [...new Set(ev.findings.filter((f) => f.blame === P).map((f) => f.rule))];
+      const search = spectatorParkingCandidates(ctx, ec.blockers, scenario, P);
+      let placed = false;
+      for (const x of search.points.slice(0, 6)) {
+        // Screen with the tabulated f12, then confirm with the exact one.
+        parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
+        const clears = (t: ReturnType<typeof evaluateGate>) => !t.findings.some((f) => f.blame === P || f.qubits[0] === id[P]);
+        if (!clears(evaluateGate(ctx, scenario))) {
+          parked.delete(P);
+          continue;
+        }
+        const st = exactTransitions(ctx.transmons[P], x);
+        parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
+        const trial = evaluateGate(ctx, scenario);
+        if (clears(trial)) {
+          parkedInfo.push({ qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: rules.join(', ') });
+          ev = trial;
+          placed = true;
+          break;
+        }
+        parked.delete(P);
+      }
+      if (!placed) {
+        ev = evaluateGate(ctx, scenario);
+        unmovable.push(
+          search.points.length === 0
+            ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
+            : `${id[P]} found no temporary frequency that clears the gate`,
+        );
+      }
+    }
+  }
+  parkedInfo.sort((a, b) => a.qubit - b.qubit);
+  const feasible = ev.findings.length === 0;
+  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs);
+  const report: OptionReport = {
+    mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
+    note: feasible
+      ? `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`
+      : `${ev.findings.length} problem(s): ${[...new Set(ev.findings.map((f) => `${f.rule} ${f.qubits.filter((q) => q !== id[mover]).join('/')}`.trim()))].slice(0, 4).join('; ')}` +
+        (unmovable.length > 0 ? ` (${unmovable.join('; ')})` : ''),
+  };
+  return { report, scenario, eval: ev, g: res.couplingGHz };
+}
+
+function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], durationNs: number): number {
+  const { ctx } = ec;
+  const tA = ctx.transmons[s.mover];
+  const tB = ctx.transmons[s.partner];
+  const rate = (t: typeof tA, flux: number) => {
+    if (!t.coherenceSpec) return { g1: 0, gphi: 0 };
+    const c = t.coherence(flux);
+    return { g1: 1 / c.t1Ns, gphi: Number.isFinite(c.tphiNs) ? 1 / c.tphiNs : 0 };
+  };
+  const a = rate(tA, fluxA);
+  const b = rate(tB, ec.states[s.partner].flux);
+  const hold = 1 / (2 * s.crossingCouplingGHz);
+  let err = 0.4 * durationNs * (a.g1 + a.gphi + b.g1 + b.gphi);
+  err += 0.25 * hold * (s.crossing === '11-20' ? a.g1 : b.g1);
+  for (const p of parked) {
+    const r = rate(ctx.transmons[p.qubit], p.flux);
+    err += 0.4 * durationNs * r.gphi + PARKED_PENALTY;
+  }
+  return err;
+}
+
+function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly OptionReport[], partner: number): string {
+  const id = ctx.ids;
+  const name = (o: OptionReport) => `${id[o.mover]} ${o.crossing}`;
+  const head = chosen.feasible
+    ? `${id[chosen.mover]} moves to the ${chosen.crossing} crossing with ${id[partner]} at ${ghz(chosen.interactionGHz!)}` +
+      (chosen.parked.length > 0
+        ? `, with ${chosen.parked.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)} (where it stood it broke ${p.reason})`).join(', ')}`
+        : '') +
+      `; estimated error ${prob(chosen.score)}`
+    : `no option clears every rule; kept ${name(chosen)} with the fewest problems (${chosen.note})`;
+  const others = all.filter((o) => o !== chosen).map((o) => `${name(o)}: ${o.note}`);
+  return `${head}. Other options: ${others.join('; ')}.`;
+}

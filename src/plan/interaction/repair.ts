@@ -1,0 +1,112 @@
+/**
+ * Gate-aware repair of the parking: after the interaction plan, an edge that no option can clear
+ * (typically: a spectator of the mover sits in the swept band and cannot get out of the way, or
+ * the partner parks so low that the mover's excursion crosses half the chip) is retried with one
+ * of its qubits parked elsewhere. For each such edge, in order, the qubits tried are its partner,
+ * the other qubits its findings name, then its mover; for each, up to `candidates` parking points
+ * that keep every idle rule (its allowed set, cheapest first by the parking cost). A move is kept
+ * when it clears the edge, keeps the exact ZZ of the moved qubit's pairs within the limit, and
+ * does not leave more edges infeasible nearby (edges with a qubit within two couplings of the
+ * moved one are re-planned); otherwise it is undone. The number of trials is bounded
+ * (trialsPerEdge times the number of edges), so the result stays deterministic and the time
+ * bounded.
+ */
+import type { PlanContext } from '../context.js';
+import { exactQubitState, type ExactQubitState } from '../exact-state.js';
+import type { ParkingState } from '../parking/state.js';
+import { planEdge, type EdgeContext, type EdgePlan } from './plan-edge.js';
+
+export const REPAIR_DEFAULTS = Object.freeze({ candidates: 4, trialsPerEdge: 1 });
+
+export interface RepairStats {
+  trials: number;
+  moves: number;
+  fixed: number;
+}
+
+export function repairInfeasibleEdges(ec: EdgeContext, state: ParkingState, states: ExactQubitState[], plans: EdgePlan[], limits = REPAIR_DEFAULTS): RepairStats {
+  const { ctx } = ec;
+  const stats: RepairStats = { trials: 0, moves: 0, fixed: 0 };
+  const budget = limits.trialsPerEdge * ctx.edges.length;
+  const near = nearbyEdges(ctx);
+  for (const e of ctx.edges) {
+    if (plans[e.index].feasible) continue;
+    if (stats.trials >= budget) break;
+    const plan = plans[e.index];
+    const named = plan.findings.flatMap((f) => f.qubits.map((q) => ctx.index.get(q)!)).filter((q) => q !== plan.mover && q !== plan.partner);
+    const tryQubits = [...new Set([plan.partner, ...named.sort((a, b) => a - b), plan.mover])].filter((q) => state.movable(q));
+    let fixed = false;
+    for (const q of tryQubits) {
+      if (fixed || stats.trials >= budget) break;
+      const blockers = state.blockersOf(q);
+      const scored = state
+        .candidates(q, blockers)
+        .filter((f) => Math.abs(f - state.freq[q]) > 1e-6)
+        .map((f) => ({ f, c: state.costAt(q, f, blockers) }))
+        .filter((x) => x.c.violation === 0)
+        .sort((a, b) => a.c.soft - b.c.soft || a.f - b.f);
+      const seen = new Set<number>();
+      const cands = scored.filter((x) => (seen.has(x.f) ? false : (seen.add(x.f), true))).slice(0, limits.candidates).map((x) => x.f);
+      for (const f of cands) {
+        if (stats.trials >= budget) break;
+        stats.trials++;
+        if (tryMove(ec, state, states, plans, near, e.index, q, f)) {
+          stats.moves++;
+          stats.fixed++;
+          fixed = true;
+          break;
+        }
+      }
+    }
+  }
+  return stats;
+}
+
+function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[], plans: EdgePlan[], near: number[][], edge: number, q: number, f: number): boolean {
+  const { ctx } = ec;
+  const oldF = state.freq[q];
+  const oldState = states[q];
+  state.set(q, f);
+  const undo = () => {
+    state.set(q, oldF);
+    states[q] = oldState;
+  };
+  states[q] = exactQubitState(ctx.transmons[q], f, ctx.rules.resistanceSpread);
+  for (const k of ctx.edgesOf[q]) {
+    const e = ctx.edges[k];
+    if (Math.abs(ctx.pair(k).zz(states[e.a].flux, states[e.b].flux)) > ctx.rules.zzLimitGHz) {
+      undo();
+      return false;
+    }
+  }
+  const first = planEdge(ec, edge);
+  if (!first.feasible) {
+    undo();
+    return false;
+  }
+  const affected = near[q].filter((k) => k !== edge);
+  const before = affected.filter((k) => !plans[k].feasible).length;
+  const replanned = affected.map((k) => planEdge(ec, k));
+  const after = replanned.filter((p) => !p.feasible).length;
+  if (after > before) {
+    undo();
+    return false;
+  }
+  plans[edge] = first;
+  affected.forEach((k, j) => (plans[k] = replanned[j]));
+  return true;
+}
+
+/** Edges with an endpoint within two couplings of each qubit (their plans may depend on its frequency). */
+function nearbyEdges(ctx: PlanContext): number[][] {
+  return ctx.ids.map((_, q) => {
+    const within = new Set<number>([q]);
+    for (const j of ctx.neighbours[q]) {
+      within.add(j);
+      for (const k of ctx.neighbours[j]) within.add(k);
+    }
+    const edges = new Set<number>();
+    for (const x of within) for (const k of ctx.edgesOf[x]) edges.add(k);
+    return [...edges].sort((a, b) => a - b);
+  });
+}

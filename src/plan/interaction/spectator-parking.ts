@@ -1,0 +1,107 @@
+/**
+ * Spectator parking: a temporary frequency for a qubit that gets in the way of a CZ (a neighbour
+ * or next-nearest neighbour of the mover), inside its planning range (not its window: the window
+ * bounds idle parking only), reached before the mover ramps and left after it returns.
+ *
+ * The qubit's f01 = x must avoid, as blocked intervals (src/plan/intervals.ts):
+ *   the mover's interaction point:  [to - sd, to + sd], [f12_A(to) - sd, f12_A(to) + sd] and
+ *                                   {x : f12(x) in [to - sd, to + sd]} (sd = spectatorDetuning;
+ *                                   for a next-nearest neighbour only [to - t, to + t], t = detuningNext0101);
+ *   the mover's sweep (neighbours): the swept band itself, its image under f12_A, and
+ *                                   {x : f12(x) in the band} (a direct crossing is never fast enough);
+ *   its own idle rules at x:        01-01, 01-12, next-01-01, tls, readout against the others
+ *                                   where they are during the gate (the mover excepted);
+ * and its own path from parking to x must not cross a coupled neighbour's 01-01, 11-20 or 11-02
+ * point or one of its defects (the nearest such points below and above bound the reachable band).
+ * The allowed point nearest the parking frequency wins, placed spectatorDetuning inside its allowed
+ * interval when the interval is wide enough (else in its middle), so the moved spectator keeps a
+ * margin of its own.
+ * The caller re-checks the whole gate exactly (src/plan/rules/cz-evaluate.ts).
+ */
+import type { PlanContext } from '../context.js';
+import { subtract, type Interval } from '../intervals.js';
+import type { IdleBlockers } from '../rules/idle-blockers.js';
+import type { DuringGate, GateScenario } from '../rules/cz-evaluate.js';
+
+
+export interface SpectatorParkingSearch {
+  /** Candidate temporary frequencies, nearest to parking first (empty when none is allowed). */
+  points: number[];
+  /** The band the qubit can reach from parking without crossing a direct resonance. */
+  reachable: Interval;
+}
+
+/** Candidate temporary frequencies for qubit P during the gate of `s`. */
+export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlockers, s: GateScenario, P: number): SpectatorParkingSearch {
+  const r = ctx.rules;
+  const A = s.mover;
+  const tp = ctx.tables[P];
+  const f0 = s.parking[P].f01GHz;
+  const during = (q: number): DuringGate => (q === P ? s.parking[P] : s.parked.get(q) ?? s.parking[q]);
+  const coupledToMover = ctx.edgeBetween(A, P) >= 0;
+  const blocked: Interval[] = [];
+  const push = (iv: Interval | null) => {
+    if (iv && iv.hi > iv.lo) blocked.push(iv);
+  };
+  const to = s.toGHz;
+  if (coupledToMover) {
+    const sd = r.spectatorDetuningGHz;
+    push({ lo: to - sd, hi: to + sd });
+    push({ lo: s.moverF12AtToGHz - sd, hi: s.moverF12AtToGHz + sd });
+    push(blockers.f12Preimage(P, to - sd, to + sd));
+    const lo = Math.min(s.fromGHz, to);
+    const hi = Math.max(s.fromGHz, to);
+    push({ lo, hi });
+    const ta = ctx.tables[A];
+    push({ lo: ta.at(lo).f12, hi: ta.at(hi).f12 });
+    push(blockers.f12Preimage(P, lo, hi));
+  } else {
+    push({ lo: to - r.detuningNext0101GHz, hi: to + r.detuningNext0101GHz });
+  }
+  // Its own idle rules at the temporary point.
+  const barriers: number[] = [];
+  for (const X of ctx.neighbours[P]) {
+    const x = X === A ? s.parking[A] : during(X);
+    barriers.push(x.f01GHz, x.f12GHz);
+    const pre = tp.f01ForF12(x.f01GHz);
+    if (pre !== null) barriers.push(pre);
+    if (X === A) continue;
+    push({ lo: x.f01GHz - r.detuning0101GHz, hi: x.f01GHz + r.detuning0101GHz });
+    push({ lo: x.f12GHz - r.detuning0112GHz, hi: x.f12GHz + r.detuning0112GHz });
+    push(blockers.f12Preimage(P, x.f01GHz - r.detuning0112GHz, x.f01GHz + r.detuning0112GHz));
+  }
+  for (const p of ctx.nextNearestOf[P]) {
+    const pair = ctx.nextNearest[p];
+    const K = pair.a === P ? pair.b : pair.a;
+    if (K === A) continue;
+    const fk = during(K).f01GHz;
+    push({ lo: fk - r.detuningNext0101GHz, hi: fk + r.detuningNext0101GHz });
+  }
+  for (const d of ctx.qubits[P].tls) {
+    const w = d.widthGHz + r.tlsClearanceGHz;
+    push({ lo: d.atGHz - w, hi: d.atGHz + w });
+    barriers.push(d.atGHz);
+  }
+  const rd = ctx.qubits[P].readoutGHz;
+  if (rd !== undefined) push({ lo: rd - r.readoutDetuningGHz, hi: rd + r.readoutDetuningGHz });
+  // The band reachable without crossing a direct resonance.
+  let below = tp.fLowGHz;
+  let above = tp.fMaxGHz;
+  for (const b of barriers) {
+    if (b < f0 - 1e-9 && b > below) below = b;
+    if (b > f0 + 1e-9 && b < above) above = b;
+  }
+  const allowed = subtract({ lo: below, hi: above }, blocked);
+  const inside = Math.max(r.spectatorDetuningGHz, 1e-3);
+  const points: number[] = [];
+  for (const a of allowed) {
+    if (a.hi - a.lo < 1e-6) continue;
+    const dn = Math.min(inside, (a.hi - a.lo) / 2);
+    const x = f0 < a.lo ? a.lo + dn : f0 > a.hi ? a.hi - dn : f0;
+    points.push(x);
+  }
+  return {
+    points: points.filter((x) => Math.abs(x - f0) > 1e-9).sort((x, y) => Math.abs(x - f0) - Math.abs(y - f0) || x - y),
+    reachable: { lo: below, hi: above },
+  };
+}

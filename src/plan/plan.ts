@@ -1,0 +1,119 @@
+/**
+ * `planChip`: the whole planner on one chip, stage by stage (internal units):
+ *
+ *   1. context      transmons, tabulated spectra, neighbourhoods (./context.ts)
+ *   2. parking      frequency groups, seeded search, exact check, explanations (./parking/assign.ts)
+ *   3. interaction  mover, crossing, destination, path, spectator parking per edge (./interaction/plan-edge.ts)
+ *   4. layers       conflict graph of the gates, coloured (./layers.ts)
+ *   5. crowding     margins in MHz and fabrication spreads, usable windows, crowded bands (./crowding.ts)
+ *
+ * and, with a gate designer (./gate-seam.ts), `designPulses` (./pulses.ts) adds a CZ design per edge.
+ * Findings: `violations` (rules broken: `fluxlane check` and `plan` exit 1) and `flags` (margins).
+ * Same layout and options (seed) -> same plan, bit for bit.
+ */
+import type { ChipLayout } from '../layout/types.js';
+import type { ChipGraph } from '../chip/graph.js';
+import { NO_PROFILE, type StageProfiler } from '../util/profile.js';
+import { buildPlanContext, type PlanContext } from './context.js';
+import { calibratedZzScale, crowding, type Crowding } from './crowding.js';
+import { exactQubitState, type ExactQubitState } from './exact-state.js';
+import { planEdge, type EdgePlan } from './interaction/plan-edge.js';
+import { planLayers, type LayerPlan } from './layers.js';
+import { planOptions, type PlanOptions, type PlanOptionsInput } from './options.js';
+import { assignParking, type ParkingResult } from './parking/assign.js';
+import { repairInfeasibleEdges } from './interaction/repair.js';
+import { evaluateIdle } from './rules/idle-evaluate.js';
+import type { Explanation } from './parking/explain.js';
+import { COLLISION_RULES } from './rules/catalogue.js';
+import { sortFindings, type Finding } from './rules/findings.js';
+import type { GateDesign } from './gate-seam.js';
+
+export interface PlannedGate {
+  design: GateDesign;
+  /** Findings on the designed gate (destination and waveform sweep), replacing the plan's estimate. */
+  findings: Finding[];
+}
+
+export interface ChipPlan {
+  ctx: PlanContext;
+  options: PlanOptions;
+  parking: ParkingResult;
+  /** Exact state of every qubit at its parking frequency. */
+  states: ExactQubitState[];
+  edges: EdgePlan[];
+  layers: LayerPlan;
+  crowding: Crowding;
+  /** Per edge (by edge index), when pulses were designed. */
+  gates: (PlannedGate | null)[] | null;
+  violations: Finding[];
+  flags: Finding[];
+  explanations: Explanation[];
+}
+
+export interface PlanHooks {
+  profiler?: StageProfiler;
+  /** Progress of a stage: called with (stage, done, total). */
+  progress?: (stage: string, done: number, total: number) => void;
+}
+
+export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks: PlanHooks = {}, graph?: ChipGraph): ChipPlan {
+  const options = planOptions(input);
+  const profiler = hooks.profiler ?? NO_PROFILE;
+  const n = layout.qubits.length;
+  let tabulated = 0;
+  const ctx = profiler.time('spectra', () =>
+    buildPlanContext(layout, { table: options.table, onQubit: () => hooks.progress?.('spectra', ++tabulated, n) }, graph),
+  );
+  const parking = profiler.time('parking', () => assignParking(ctx, options));
+  hooks.progress?.('parking', 1, 1);
+  const states = parking.idle.states.map((s, i) => s ?? fallbackState(ctx, i, parking.parkingGHz[i]));
+  const blockersView = parking.state.blockers;
+  let done = 0;
+  const edges = profiler.time('interaction', () =>
+    ctx.edges.map((e) => {
+      const plan = planEdge({ ctx, options, blockers: blockersView, states }, e.index);
+      hooks.progress?.('interaction', ++done, ctx.edges.length);
+      return plan;
+    }),
+  );
+  const repair = profiler.time('repair', () => repairInfeasibleEdges({ ctx, options, blockers: blockersView, states }, parking.state, states, edges));
+  if (repair.moves > 0) {
+    // The parking changed: evaluate the idle rules again, exactly.
+    parking.parkingGHz = Float64Array.from(parking.state.freq);
+    parking.idle = evaluateIdle(ctx, parking.parkingGHz);
+    parking.explanations = parking.idle.violations.length > 0 ? parking.explanations : [];
+  }
+  parking.stats.repairTrials = repair.trials;
+  parking.stats.repairMoves = repair.moves;
+  const parkingF12 = states.map((s) => s.f12GHz);
+  const layers = profiler.time('layers', () => planLayers(ctx, edges, parkingF12, parking.parkingGHz));
+  const crowd = profiler.time('crowding', () => crowding(ctx, parking.parkingGHz, states, calibratedZzScale(ctx, parking.parkingGHz, parking.idle.zzGHz), edges));
+  const plan: ChipPlan = {
+    ctx, options, parking, states, edges, layers, crowding: crowd, gates: null, violations: [], flags: [], explanations: parking.explanations,
+  };
+  collectFindings(plan);
+  return plan;
+}
+
+/** Recompute `violations` and `flags` from the stages (after pulses replace an edge's findings). */
+export function collectFindings(plan: ChipPlan): void {
+  const order = COLLISION_RULES.map((r) => r.name);
+  const violations: Finding[] = [...plan.parking.idle.violations];
+  plan.edges.forEach((e, k) => {
+    const gate = plan.gates?.[k];
+    for (const f of gate ? gate.findings : e.findings) violations.push(stripBlame(f));
+  });
+  plan.violations = sortFindings(violations, order);
+  plan.flags = sortFindings([...plan.crowding.flags], order);
+}
+
+function stripBlame(f: Finding & { blame?: number }): Finding {
+  const { blame: _blame, ...rest } = f;
+  return rest;
+}
+
+/** A state for a qubit whose parking lies outside its tunable range (clamped; it carries a window violation). */
+function fallbackState(ctx: PlanContext, i: number, f: number): ExactQubitState {
+  const t = ctx.transmons[i];
+  return exactQubitState(t, Math.min(t.fMaxGHz, Math.max(t.fMinGHz, f)), ctx.rules.resistanceSpread);
+}

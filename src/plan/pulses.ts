@@ -1,0 +1,172 @@
+/**
+ * Per-edge CZ design through the gate stage (./gate-seam.ts), on the interaction plan: mover,
+ * partner, crossing and parking fluxes from the plan, the family and ramp the user asked for (else
+ * the gate stage's best family and the ramp the plan chose), decoherence on by default, and with
+ * `spectators` the worst spectator of the gate simulated as a third transmon so its error shows
+ * in the fidelity. The worst spectator is the neighbour of the mover or of the partner (at its
+ * frequency during the gate) with the largest g / Delta, Delta its smallest distance to a
+ * crossing with the mover at the interaction point (or with the static partner).
+ *
+ * The designed gate is then checked again where it really goes: the cz rules at its destination
+ * (the crossing plus the designer's offset) and, for every crossing the mover passes, the
+ * Landau-Zener transfer at the rate the exported waveform actually sweeps there
+ * (|df01/dt| between the two samples around the crossing, each passage; the worst counts).
+ * These findings replace the plan's linear-ramp estimate for the edge.
+ */
+import type { ChipPlan, PlannedGate } from './plan.js';
+import { collectFindings } from './plan.js';
+import type { GateDesign, GateDesigner, GateDesignRequest, GateSpectatorRequest } from './gate-seam.js';
+import { evaluateGate, type DuringGate, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
+import type { Finding } from './rules/findings.js';
+import type { EdgePlan } from './interaction/plan-edge.js';
+import { landauZenerTransfer } from './landau-zener.js';
+import { band, ghz, mhz, prob, ns } from './format.js';
+
+export interface PulseOptions {
+  family?: string;
+  /** Ramp time for every edge (ns); default the plan's per-edge ramp. */
+  rampNs?: number;
+  targetPhase?: number;
+  /** Decoherence in the design (default true). */
+  noise?: boolean;
+  /** Simulate the worst spectator as a third transmon. */
+  spectators?: boolean;
+}
+
+export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void): void {
+  const { ctx } = plan;
+  let done = 0;
+  plan.gates = plan.edges.map((e) => {
+    const result = Number.isFinite(e.interactionGHz) ? designEdge(plan, designer, e, options) : null;
+    progress?.(++done, plan.edges.length);
+    return result;
+  });
+  void ctx;
+  collectFindings(plan);
+}
+
+export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions): GateDesignRequest {
+  const { ctx } = plan;
+  const edge = ctx.edges[e.edge];
+  const request: GateDesignRequest = {
+    mover: ctx.transmons[e.mover],
+    partner: ctx.transmons[e.partner],
+    gGHz: edge.gGHz,
+    moverParkFlux: plan.states[e.mover].flux,
+    partnerFlux: plan.states[e.partner].flux,
+    crossing: e.crossing,
+    rampNs: options.rampNs ?? e.rampNs,
+    rules: ctx.rules,
+    noise: options.noise ?? true,
+  };
+  if (options.family !== undefined) request.family = options.family;
+  if (options.targetPhase !== undefined) request.targetPhase = options.targetPhase;
+  if (options.spectators) {
+    const worst = worstSpectator(plan, e);
+    if (worst) request.spectators = [worst];
+  }
+  return request;
+}
+
+function designEdge(plan: ChipPlan, designer: GateDesigner, e: EdgePlan, options: PulseOptions): PlannedGate {
+  const design = designer(gateRequest(plan, e, options));
+  return { design, findings: checkDesign(plan, e, design) };
+}
+
+/** The neighbour of mover or partner with the largest g / Delta during the gate. */
+export function worstSpectator(plan: ChipPlan, e: EdgePlan): GateSpectatorRequest | null {
+  const { ctx } = plan;
+  const parked = new Map(e.parked.map((p) => [p.qubit, p]));
+  let best: { score: number; req: GateSpectatorRequest } | null = null;
+  const consider = (S: number, side: 'mover' | 'partner') => {
+    const edge = ctx.edges[ctx.edgeBetween(side === 'mover' ? e.mover : e.partner, S)];
+    const p = parked.get(S);
+    const f01 = p?.fGHz ?? plan.states[S].f01GHz;
+    const f12 = p?.f12GHz ?? plan.states[S].f12GHz;
+    const flux = p?.flux ?? plan.states[S].flux;
+    const distances =
+      side === 'mover'
+        ? [Math.abs(e.interactionGHz - f01), Math.abs(e.moverF12AtInteractionGHz - f01), Math.abs(e.interactionGHz - f12)]
+        : [Math.abs(plan.states[e.partner].f01GHz - f01), Math.abs(plan.states[e.partner].f12GHz - f01), Math.abs(plan.states[e.partner].f01GHz - f12)];
+    const score = edge.gGHz / Math.max(1e-6, Math.min(...distances));
+    if (!best || score > best.score) best = { score, req: { transmon: ctx.transmons[S], coupledTo: side, gGHz: edge.gGHz, flux } };
+  };
+  for (const S of ctx.neighbours[e.mover]) if (S !== e.partner) consider(S, 'mover');
+  for (const S of ctx.neighbours[e.partner]) if (S !== e.mover && !ctx.neighbours[e.mover].includes(S)) consider(S, 'partner');
+  return best ? (best as { req: GateSpectatorRequest }).req : null;
+}
+
+/** The cz rules on the designed gate: destination as designed, mover sweeps at the waveform's rates. */
+export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): Finding[] {
+  const { ctx } = plan;
+  const id = ctx.ids;
+  const key = ctx.edges[e.edge].key;
+  const out: Finding[] = [];
+  if (!design.feasible) {
+    out.push({ rule: 'cz-design', qubits: [id[e.mover], id[e.partner]], value: null, threshold: null, edge: key,
+      message: `no CZ design for ${key} within ${ns(ctx.rules.maxGateNs)}: ${design.reason ?? 'the gate stage gave no reason'}` });
+  }
+  const mover = ctx.transmons[e.mover];
+  const to = design.interactionFrequencyGHz;
+  const toFlux = mover.fluxForF01OrNull(to);
+  if (toFlux === null) return out;
+  const parking: DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
+  const parked = new Map<number, DuringGate>(e.parked.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }]));
+  const scenario: GateScenario = {
+    edge: e.edge, mover: e.mover, partner: e.partner, crossing: e.crossing,
+    fromGHz: plan.states[e.mover].f01GHz, toGHz: to, moverF12AtToGHz: mover.spectrum(toFlux).f12GHz,
+    crossingCouplingGHz: e.crossingCouplingGHz, rampNs: design.rampNs, parking, parked,
+  };
+  const ev = evaluateGate(ctx, scenario);
+  for (const f of ev.findings) {
+    if (f.rule === 'cz-duration') continue;
+    if (f.rule.startsWith('cz-swept-') && f.qubits[0] === id[e.mover]) continue;
+    const { blame: _b, ...rest } = f;
+    out.push(rest);
+  }
+  const total = design.durationNs + (e.parked.length > 0 ? 2 * design.rampNs : 0);
+  if (total > ctx.rules.maxGateNs + 1e-9) {
+    out.push({ rule: 'cz-duration', qubits: [id[e.mover], id[e.partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
+      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${e.parked.length > 0 ? ` plus ${ns(2 * design.rampNs)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
+  }
+  out.push(...waveformSweepFindings(plan.ctx, e.mover, key, ev.swept, design.waveform));
+  return out;
+}
+
+/**
+ * Landau-Zener findings for the crossings the mover passes, at the rate the waveform sweeps each
+ * one (|df01/dt| between the samples around it, every passage; the worst counts).
+ */
+export function waveformSweepFindings(
+  ctx: ChipPlan['ctx'],
+  moverIndex: number,
+  key: string,
+  swept: readonly SweptCrossing[],
+  wf: { timeNs: ArrayLike<number>; flux: ArrayLike<number> },
+): Finding[] {
+  const id = ctx.ids;
+  const mover = ctx.transmons[moverIndex];
+  const out: Finding[] = [];
+  const f = Array.from(wf.flux, (x) => mover.f01(x));
+  for (const c of swept) {
+    if (c.moving !== moverIndex) continue;
+    let worst = 0;
+    let rateAt = NaN;
+    for (let k = 0; k + 1 < f.length; k++) {
+      if ((f[k] - c.atGHz) * (f[k + 1] - c.atGHz) > 0 || f[k] === f[k + 1]) continue;
+      const rate = Math.abs(f[k + 1] - f[k]) / (wf.timeNs[k + 1] - wf.timeNs[k]);
+      const p = landauZenerTransfer(c.couplingGHz, rate);
+      if (p > worst) {
+        worst = p;
+        rateAt = rate;
+      }
+    }
+    if (worst > ctx.rules.sweptTransferLimit) {
+      const with_ = c.other >= 0 ? id[c.other] : 'its defect';
+      out.push({ rule: c.rule, qubits: c.other >= 0 ? [id[moverIndex], id[c.other]] : [id[moverIndex]], value: worst, threshold: ctx.rules.sweptTransferLimit, edge: key,
+        message: `the designed waveform of ${key} sweeps ${id[moverIndex]} through a crossing with ${with_} at ${ghz(c.atGHz)} at ${(rateAt * 1e3).toFixed(0)} MHz/ns (g = ${mhz(c.couplingGHz, 2)}): transfer ${prob(worst)} > ${prob(ctx.rules.sweptTransferLimit)} (band ${band(Math.min(...f), Math.max(...f))})`,
+        details: { atGHz: c.atGHz, couplingGHz: c.couplingGHz, rateHzPerS: rateAt * 1e18, waveform: true } });
+    }
+  }
+  return out;
+}

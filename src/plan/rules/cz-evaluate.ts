@@ -1,0 +1,270 @@
+/**
+ * The CZ rules of ./catalogue.ts (scope `cz`) evaluated for one gate scenario: mover A moving from
+ * its parking frequency to the interaction frequency (and back) against partner B at parking, the
+ * other qubits at their parking frequencies except the spectators parked out of the way for this
+ * gate (each moved before the mover ramps and back after it).
+ *
+ *   at the interaction point (to = f_int, mover f12 there exact):
+ *     cz-spectator-01-01  |to - f01_S|          cz-spectator-11-20  |f12_A(to) - f01_S|
+ *     cz-spectator-11-02  |to - f12_S|          (S = every other neighbour of A)
+ *     cz-next-01-01       |to - f01_K|          (K = qubits sharing a neighbour with A)
+ *     cz-tls              |to - f_TLS| - width  cz-readout  distance of the swept band to f_r
+ *   along the sweep (every crossing strictly between parking and the interaction point):
+ *     cz-swept-01-01 / -11-20 / -11-02 with every coupled qubit (the partner included, except the
+ *     crossing that is the gate itself), cz-swept-next-01-01 with next-nearest neighbours
+ *     (mediated coupling, src/plan/mediated-coupling.ts), cz-swept-tls (g = width / 2); each
+ *     with the Landau-Zener transfer 1 - exp(-4 pi^2 g^2 / v), v = |to - from| / rampNs, g at the
+ *     crossing from the tabulated charge matrix elements (g = G |n_ik| |n_jl|).
+ *   for each parked spectator P at its temporary frequency: cz-parked-01-01, -01-12,
+ *     -next-01-01, -tls, -readout against the others (the mover excepted), and its own sweep from
+ *     parking with the same cz-swept rules (the mover still at parking then).
+ *   cz-duration: 1 / (2 g_c) + 2 rampNs (+ 2 rampNs when spectators move) <= maxGate.
+ *
+ * Each finding names, in `blame`, the qubit whose temporary move could clear it (a spectator or
+ * next-nearest neighbour), or none (the partner, a defect, the resonator: only another mover or
+ * crossing helps). Frequencies at the interaction point and of parked spectators are exact
+ * (transmon stage); crossing positions along a sweep come from the tabulated spectra (error below
+ * 1 kHz, src/plan/qubit-table.ts).
+ */
+import type { PlanContext } from '../context.js';
+import { ghz, mhz, prob, band, ns } from '../format.js';
+import { landauZenerTransfer } from '../landau-zener.js';
+import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
+import { emptyTableState } from '../qubit-table.js';
+import type { RuleName } from './catalogue.js';
+import type { Finding } from './findings.js';
+
+export type Crossing = '11-20' | '11-02';
+
+/** f01 and f12 of a qubit during the gate (exact). */
+export interface DuringGate {
+  f01GHz: number;
+  f12GHz: number;
+}
+
+export interface GateScenario {
+  edge: number;
+  mover: number;
+  partner: number;
+  crossing: Crossing;
+  /** Mover parking frequency. */
+  fromGHz: number;
+  /** Interaction frequency (the mover's f01 at the crossing). */
+  toGHz: number;
+  /** Mover f12 at the interaction frequency (exact). */
+  moverF12AtToGHz: number;
+  /** Bare coupling of the crossing (GHz). */
+  crossingCouplingGHz: number;
+  rampNs: number;
+  /** Every qubit at parking (exact f01, f12). */
+  parking: readonly DuringGate[];
+  /** Spectators moved for this gate: qubit -> temporary f01/f12 (exact). */
+  parked: ReadonlyMap<number, DuringGate>;
+}
+
+export interface SweptCrossing {
+  rule: RuleName;
+  /** The qubit sweeping and the one it meets (-1 for a defect). */
+  moving: number;
+  other: number;
+  /** The moving qubit's f01 at the crossing (GHz). */
+  atGHz: number;
+  couplingGHz: number;
+  rateGHzPerNs: number;
+  transfer: number;
+}
+
+export interface CzFinding extends Finding {
+  /** The qubit whose temporary move could clear this finding, or -1. */
+  blame: number;
+}
+
+export interface GateEvaluation {
+  findings: CzFinding[];
+  swept: SweptCrossing[];
+  durationNs: number;
+}
+
+const scratchA = emptyTableState();
+const scratchB = emptyTableState();
+
+/** During-gate f01/f12 of qubit q. */
+function during(s: GateScenario, q: number): DuringGate {
+  return s.parked.get(q) ?? s.parking[q];
+}
+
+export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation {
+  const r = ctx.rules;
+  const id = ctx.ids;
+  const A = s.mover;
+  const findings: CzFinding[] = [];
+  const swept: SweptCrossing[] = [];
+  const edgeKey = ctx.edges[s.edge].key;
+  const add = (f: Omit<CzFinding, 'edge'>) => findings.push({ ...f, edge: edgeKey });
+  const to = s.toGHz;
+  const sd = r.spectatorDetuningGHz;
+  // Destination conditions against each spectator.
+  for (const S of ctx.neighbours[A]) {
+    if (S === s.partner) continue;
+    const d = during(s, S);
+    const checks: [RuleName, number, string][] = [
+      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
+    ];
+    for (const [rule, value, text] of checks) {
+      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
+    }
+  }
+  for (const p of ctx.nextNearestOf[A]) {
+    const pair = ctx.nextNearest[p];
+    const K = pair.a === A ? pair.b : pair.a;
+    const fk = during(s, K).f01GHz;
+    const v = Math.abs(to - fk);
+    if (v < r.detuningNext0101GHz) {
+      add({ rule: 'cz-next-01-01', qubits: [id[A], id[K]], value: v, threshold: r.detuningNext0101GHz,
+        message: `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}`, blame: K });
+    }
+  }
+  for (const d of ctx.qubits[A].tls) {
+    const v = Math.abs(to - d.atGHz) - d.widthGHz;
+    if (v < r.tlsClearanceGHz) {
+      add({ rule: 'cz-tls', qubits: [id[A]], value: v, threshold: r.tlsClearanceGHz,
+        message: `${id[A]} at the interaction point ${ghz(to)} is ${mhz(v)} beyond the edge of its defect at ${ghz(d.atGHz)}; needs ${mhz(r.tlsClearanceGHz)}`, blame: -1 });
+    }
+  }
+  const lo = Math.min(s.fromGHz, to);
+  const hi = Math.max(s.fromGHz, to);
+  const readout = ctx.qubits[A].readoutGHz;
+  if (readout !== undefined) {
+    const v = readout >= lo && readout <= hi ? 0 : Math.min(Math.abs(readout - lo), Math.abs(readout - hi));
+    if (v < r.readoutDetuningGHz) {
+      add({ rule: 'cz-readout', qubits: [id[A]], value: v, threshold: r.readoutDetuningGHz,
+        message: `${id[A]} sweeps ${band(lo, hi)}, ${mhz(v)} from its readout resonator at ${ghz(readout)}; needs ${mhz(r.readoutDetuningGHz)}`, blame: -1 });
+    }
+  }
+  // The mover's sweep (spectators already in place).
+  const moverRate = (hi - lo) / s.rampNs;
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add);
+  // Parked spectators: their temporary point and their own sweep (the mover at parking then).
+  for (const [P, d] of [...s.parked.entries()].sort((x, y) => x[0] - y[0])) {
+    const f = d.f01GHz;
+    for (const X of ctx.neighbours[P]) {
+      if (X === A) continue;
+      const x = during(s, X);
+      const d01 = Math.abs(f - x.f01GHz);
+      if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}`, blame: P });
+      const d1 = Math.abs(f - x.f12GHz);
+      const d2 = Math.abs(d.f12GHz - x.f01GHz);
+      const d12 = Math.min(d1, d2);
+      if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}`, blame: P });
+    }
+    for (const p of ctx.nextNearestOf[P]) {
+      const pair = ctx.nextNearest[p];
+      const K = pair.a === P ? pair.b : pair.a;
+      if (K === A) continue;
+      const fk = during(s, K).f01GHz;
+      const v = Math.abs(f - fk);
+      if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}`, blame: P });
+    }
+    for (const t of ctx.qubits[P].tls) {
+      const v = Math.abs(f - t.atGHz) - t.widthGHz;
+      if (v < r.tlsClearanceGHz) add({ rule: 'cz-parked-tls', qubits: [id[P]], value: v, threshold: r.tlsClearanceGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(v)} beyond the edge of its defect at ${ghz(t.atGHz)}`, blame: P });
+    }
+    const rd = ctx.qubits[P].readoutGHz;
+    if (rd !== undefined && Math.abs(f - rd) < r.readoutDetuningGHz) {
+      add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator`, blame: P });
+    }
+    const from = s.parking[P].f01GHz;
+    const rate = Math.abs(f - from) / s.rampNs;
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add);
+  }
+  const durationNs = 1 / (2 * s.crossingCouplingGHz) + 2 * s.rampNs + (s.parked.size > 0 ? 2 * s.rampNs : 0);
+  if (!(durationNs <= r.maxGateNs)) {
+    add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
+      message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus ramps${s.parked.size > 0 ? ' and spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
+  }
+  return { findings, swept, durationNs };
+}
+
+/**
+ * Every crossing qubit Q passes sweeping from `from` to `to` (open interval), with its transfer.
+ * `isMover`: Q is the gate's mover (its crossing with the partner at `to` is the gate itself).
+ */
+function sweep(
+  ctx: PlanContext,
+  s: GateScenario,
+  Q: number,
+  from: number,
+  to: number,
+  rate: number,
+  freqOf: (q: number) => DuringGate,
+  isMover: boolean,
+  swept: SweptCrossing[],
+  add: (f: Omit<CzFinding, 'edge'>) => void,
+): void {
+  const lo = Math.min(from, to);
+  const hi = Math.max(from, to);
+  if (!(hi - lo > 1e-9)) return;
+  const r = ctx.rules;
+  const id = ctx.ids;
+  const tq = ctx.tables[Q];
+  const limit = r.sweptTransferLimit;
+  const inside = (f: number | null): f is number => f !== null && f > lo + 1e-9 && f < hi - 1e-9;
+  const record = (rule: RuleName, other: number, at: number, g: number, blame: number, what: string) => {
+    const transfer = landauZenerTransfer(g, rate);
+    swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
+    if (transfer > limit) {
+      add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
+        message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
+        details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
+        blame });
+    }
+  };
+  for (const X of ctx.neighbours[Q]) {
+    const x = freqOf(X);
+    const e = ctx.edgeBetween(Q, X);
+    const G = ctx.edges[e].gChargeGHz;
+    const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
+    const tx = ctx.tables[X];
+    const sx = tx.at(x.f01GHz, scratchB);
+    const n01x = sx.n01;
+    const n12x = sx.n12;
+    if (inside(x.f01GHz)) {
+      const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
+      record('cz-swept-01-01', X, x.f01GHz, g, blame, `${id[X]} f01 (01-10 crossing)`);
+    }
+    const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
+    const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
+    const f1120 = tq.f01ForF12(x.f01GHz);
+    if (!skip1120 && inside(f1120)) {
+      const g = G * tq.at(f1120, scratchA).n12 * n01x;
+      record('cz-swept-11-20', X, f1120, g, blame, `the 11-20 crossing with ${id[X]}`);
+    }
+    if (!skip1102 && inside(x.f12GHz)) {
+      const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
+      record('cz-swept-11-02', X, x.f12GHz, g, blame, `the 11-02 crossing with ${id[X]}`);
+    }
+  }
+  for (const p of ctx.nextNearestOf[Q]) {
+    const pair = ctx.nextNearest[p];
+    const K = pair.a === Q ? pair.b : pair.a;
+    const fk = freqOf(K).f01GHz;
+    if (!inside(fk)) continue;
+    const nq = tq.at(fk, scratchA).n01;
+    const nk = ctx.tables[K].at(fk, scratchB).n01;
+    const mediators: Mediator[] = pair.via.map((S) => {
+      const fs = freqOf(S).f01GHz;
+      const ns = ctx.tables[S].at(fs, scratchB).n01;
+      const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
+      const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
+      return { giGHz: gq, gkGHz: gk, fGHz: fs };
+    });
+    const g = Math.abs(mediatedExchange(fk, fk, mediators));
+    record('cz-swept-next-01-01', K, fk, g, isMover ? K : Q, `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+  }
+  for (const t of ctx.qubits[Q].tls) {
+    if (!inside(t.atGHz)) continue;
+    record('cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, `its defect`);
+  }
+}
