@@ -18,12 +18,14 @@ import { registerCheck } from './commands/check.js';
 import { registerGenerate } from './commands/generate.js';
 import { registerPair } from './commands/pair.js';
 import { registerSpectrum } from './commands/spectrum.js';
+import { registerPlan } from './commands/plan.js';
+import { registerVerify } from './commands/verify.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair];
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerPlan, registerVerify];
 
 function packageVersion(): string {
   try {

@@ -105,7 +105,7 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     nextNearestOf[p.a].push(k);
     nextNearestOf[p.b].push(k);
   });
-  const ranges = tables.map((t) => ({ lo: t.fLowGHz, hi: t.fMaxGHz }));
+  const ranges = tables.map((t, i) => ({ lo: t.fLowGHz, hi: Math.min(t.fMaxGHz, transmons[i].fMaxGHz) }));
   const domains = layout.qubits.map((q, i) => {
     const r = ranges[i];
     const lo = Math.max(r.lo, q.windowGHz ? q.windowGHz[0] : -Infinity);

@@ -6,8 +6,10 @@
  * the other qubits its findings name, then its mover; for each, up to `candidates` parking points
  * that keep every idle rule (its allowed set, cheapest first by the parking cost). A move is kept
  * when it clears the edge, keeps the exact ZZ of the moved qubit's pairs within the limit, and
- * does not leave more edges infeasible nearby (edges with a qubit within two couplings of the
- * moved one are re-planned); otherwise it is undone. The number of trials is bounded
+ * does not leave more edges infeasible nearby (edges with a qubit within three couplings of the
+ * moved one are re-planned: a plan depends on its qubits' neighbours, the mover's next-nearest
+ * neighbours and its parked spectators' neighbours); otherwise it is undone. The caller re-plans
+ * every edge once more after any move, so the final plans all see the final parking. The number of trials is bounded
  * (trialsPerEdge times the number of edges), so the result stays deterministic and the time
  * bounded.
  */
@@ -97,13 +99,14 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
   return true;
 }
 
-/** Edges with an endpoint within two couplings of each qubit (their plans may depend on its frequency). */
+/** Edges with an endpoint within three couplings of each qubit (their plans may depend on its frequency). */
 function nearbyEdges(ctx: PlanContext): number[][] {
   return ctx.ids.map((_, q) => {
-    const within = new Set<number>([q]);
-    for (const j of ctx.neighbours[q]) {
-      within.add(j);
-      for (const k of ctx.neighbours[j]) within.add(k);
+    let within = new Set<number>([q]);
+    for (let step = 0; step < 3; step++) {
+      const next = new Set(within);
+      for (const x of within) for (const j of ctx.neighbours[x]) next.add(j);
+      within = next;
     }
     const edges = new Set<number>();
     for (const x of within) for (const k of ctx.edgesOf[x]) edges.add(k);

@@ -23,7 +23,8 @@ export interface IdleEvaluation {
 export function exactStates(ctx: PlanContext, parkingGHz: ArrayLike<number>): (ExactQubitState | null)[] {
   return ctx.transmons.map((t, i) => {
     const f = parkingGHz[i];
-    if (!(f >= t.fMinGHz - 1e-12 && f <= t.fMaxGHz + 1e-12)) return null;
+    // 1 Hz of slack: plan files carry 12 significant digits.
+    if (!(f >= t.fMinGHz - 1e-9 && f <= t.fMaxGHz + 1e-9)) return null;
     return exactQubitState(t, Math.min(t.fMaxGHz, Math.max(t.fMinGHz, f)), ctx.rules.resistanceSpread);
   });
 }
@@ -52,18 +53,18 @@ export function evaluateIdle(ctx: PlanContext, parkingGHz: ArrayLike<number>, gi
     const win = q.windowGHz;
     if (!states[i]) {
       out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: null,
-        message: `${id[i]}: parking ${ghz(f)} is outside its tunable range ${band(ctx.transmons[i].fMinGHz, ctx.transmons[i].fMaxGHz)}` });
+        message: `${id[i]} parking ${ghz(f)} is outside its tunable range ${band(ctx.transmons[i].fMinGHz, ctx.transmons[i].fMaxGHz)}` });
       continue;
     }
     if (f < range.lo - 1e-9) {
       out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: range.lo,
-        message: `${id[i]}: parking ${ghz(f)} is below its planning range ${band(range.lo, range.hi)} (E_J/E_C < 20 there)` });
+        message: `${id[i]} parking ${ghz(f)} is below its planning range ${band(range.lo, range.hi)} (E_J/E_C < 20 there)` });
     }
     if (win && (f < win[0] - 1e-9 || f > win[1] + 1e-9)) {
-      out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: null, message: `${id[i]}: parking ${ghz(f)} is outside its window ${band(win[0], win[1])}` });
+      out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: null, message: `${id[i]} parking ${ghz(f)} is outside its window ${band(win[0], win[1])}` });
     }
     if (q.parkGHz !== undefined && Math.abs(f - q.parkGHz) > 1e-9) {
-      out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: q.parkGHz, message: `${id[i]}: parking ${ghz(f)} differs from its fixed park ${ghz(q.parkGHz)}` });
+      out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: q.parkGHz, message: `${id[i]} parking ${ghz(f)} differs from its fixed park ${ghz(q.parkGHz)}` });
     }
     for (const d of q.tls) {
       const dist = Math.abs(f - d.atGHz) - d.widthGHz;

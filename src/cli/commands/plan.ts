@@ -1,0 +1,120 @@
+/**
+ * `fluxlane plan LAYOUT [-o DIR] [--json]`: the whole planner (src/plan/plan.ts): parking,
+ * interaction plan per edge with spectator handling, parallel layers, crowding, and (unless
+ * --no-pulses) a CZ design per edge from the gate stage (src/plan/pulses.ts). With -o it writes
+ * DIR/plan.json (schema: shared/plan.schema.json), DIR/gates.csv (one row per edge),
+ * DIR/gates.txt (the same table for people) and DIR/waveforms/A-B.csv (time_ns,flux of each
+ * designed gate). Exit 1 when a rule is broken (the files are still complete and say so).
+ */
+import { Argument, type Command } from 'commander';
+import { z } from 'zod';
+import { loadLayoutFile } from '../../layout/load.js';
+import { buildChipGraph } from '../../chip/graph.js';
+import { parseQuantity } from '../../layout/units.js';
+import { InputError } from '../../util/errors.js';
+import { planChip } from '../../plan/plan.js';
+import { designPulses, type PulseOptions } from '../../plan/pulses.js';
+import { loadGateDesigner } from '../../plan/gate-seam.js';
+import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
+import { commandAction, type CommandContext } from '../handler.js';
+import type { CliIo } from '../io.js';
+import type { CommandOutcome, OutputFile } from '../outcome.js';
+import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import type { Progress } from '../progress.js';
+
+const PlanOptionsSchema = z.object({
+  seed: integerOption(0, 0xffffffff),
+  outputDir: z.string().min(1, { error: () => 'a folder name' }).optional(),
+  pulses: z.boolean().default(true),
+  noise: z.boolean().default(true),
+  spectators: z.boolean().optional(),
+  family: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, { error: () => 'a ramp family name' }).optional(),
+  ramp: z.string().optional(),
+  phase: z
+    .string({ error: () => 'a phase in rad' })
+    .regex(/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/, { error: () => 'a phase in rad (a number)' })
+    .transform(Number)
+    .optional(),
+});
+
+/** Draws one progress bar per stage of a long computation (terminal only). */
+export function stageProgress(ctx: CommandContext): { update: (stage: string, done: number, total: number) => void; finish: () => void } {
+  let bar: Progress | undefined;
+  let current = '';
+  return {
+    update(stage, done, total) {
+      if (stage !== current) {
+        bar?.done();
+        current = stage;
+        bar = total > 1 ? ctx.progress(stage, total) : undefined;
+      }
+      bar?.tick();
+      if (done >= total) {
+        bar?.done();
+        bar = undefined;
+      }
+    },
+    finish() {
+      bar?.done();
+    },
+  };
+}
+
+export async function planCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): Promise<CommandOutcome> {
+  const o = parseOptions(PlanOptionsSchema, raw);
+  let rampNs: number | undefined;
+  if (o.ramp !== undefined) {
+    const q = parseQuantity(o.ramp, 'time');
+    if (!q.ok || !(q.value > 0)) throw new InputError({ message: `option --ramp: expected a ramp time such as "12 ns", found ${JSON.stringify(o.ramp)}` });
+    rampNs = q.value;
+  }
+  const designer = o.pulses ? await ctx.profiler.timeAsync('gate stage', () => loadGateDesigner()) : null;
+  if (o.pulses && !designer) {
+    throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
+  }
+  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
+  const progress = stageProgress(ctx);
+  const plan = planChip(layout, { seed: o.seed }, { profiler: ctx.profiler, progress: progress.update }, graph);
+  if (designer) {
+    const pulses: PulseOptions = { noise: o.noise, spectators: o.spectators ?? false };
+    if (o.family !== undefined) pulses.family = o.family;
+    if (rampNs !== undefined) pulses.rampNs = rampNs;
+    if (o.phase !== undefined) pulses.targetPhase = o.phase;
+    ctx.profiler.time('pulses', () => designPulses(plan, designer, pulses, (done, total) => progress.update('designing CZ pulses', done, total)));
+  }
+  progress.finish();
+  const json = ctx.profiler.time('output', () => planJson(plan, { file: layout.file, seed: o.seed, pulses: designer !== null }));
+  const files: OutputFile[] = [];
+  if (o.outputDir !== undefined) {
+    const dir = o.outputDir.replace(/\/+$/, '') || '.';
+    files.push({ path: `${dir}/plan.json`, contents: `${JSON.stringify(json, null, 2)}\n` });
+    files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(plan, json) });
+    files.push({ path: `${dir}/gates.txt`, contents: gateTableText(plan) });
+    files.push(...waveformFiles(plan, dir));
+  }
+  const written = files.length > 0 ? `\nwrote ${files.map((f) => f.path).join(', ')}` : '';
+  return {
+    data: json,
+    text: `${planText(plan, layout.file)}${written}`,
+    exitCode: plan.violations.length === 0 ? 0 : 1,
+    files: files.length > 0 ? files : undefined,
+  };
+}
+
+export function registerPlan(program: Command, io: CliIo): void {
+  withCommonOptions(
+    program
+      .command('plan')
+      .description('plan parking and interaction frequencies, spectator moves, CZ pulses and parallel layers for a chip (model estimates: verify on hardware)')
+      .addArgument(new Argument('<layout>', 'layout YAML file'))
+      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder')
+      .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
+      .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
+      .option('--family <name>', 'CZ ramp family for every edge (default: the gate stage\'s best-performing one)')
+      .option('--ramp <time>', 'ramp time for every CZ, e.g. "12 ns" (default: the ramp the plan chose per edge)')
+      .option('--phase <rad>', 'target conditional phase in rad (default pi)')
+      .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
+      .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)'),
+  ).action(commandAction<[string]>(io, (ctx, layoutPath, options) => planCommand(ctx, layoutPath, options)));
+}
