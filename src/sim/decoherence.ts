@@ -11,10 +11,15 @@
  *
  * Two results:
  *  - lindbladChannel: the Lindblad equation drho/dt = -i[H, rho] + sum_j D[L_j] rho integrated
- *    by Strang splitting (half a dissipator step, the coherent step of the frame propagator,
- *    half a dissipator step; dissipator steps by explicit Euler, whose error is (gamma h)^2 per
- *    step) on the frame states with at most `noiseExcitations` excitations (the computational
- *    and leakage manifolds), for the 16 operator inputs |k><l| of the computational states.
+ *    by Strang splitting (half a dissipator step, the exact coherent step of the frame
+ *    propagator, half a dissipator step, the halves of consecutive steps merged; dissipator
+ *    steps by explicit Euler, whose error is (gamma h)^2 per step) on all kept frame states, for
+ *    the 10 operator inputs |k><l|, k <= l, of the computational states (the others are their
+ *    adjoints). Restricting it to fewer states (noiseExcitations) is possible but biased: amplitude
+ *    that leaves the restricted set during a step and would come back is lost every step.
+ *    The sector structure (the Lindblad equation keeps sector(bra) xor sector(ket)) is used to skip
+ *    zero blocks. Step 0.2 ns agrees with 0.02 ns to 1e-8 in the fidelity (test/sim/qutip.test.ts
+ *    compares with QuTiP's mesolve to 1e-5; measured 3e-7).
  *  - firstOrderInfidelity: the weak-noise estimate from the coherent trajectory alone,
  *        1 - F_pro = (1/d^2) int dt sum_j [ d sum_k ||L_j psi_k||^2 - |sum_k <psi_k|L_j|psi_k>|^2 ],
  *        1 - F_avg = d/(d+1) (1 - F_pro),   d = 4,

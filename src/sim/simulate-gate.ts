@@ -33,8 +33,8 @@ export interface GateSimulationOptions extends FramePropagationOptions {
 export const GATE_SIMULATION_DEFAULTS = Object.freeze({
   targetPhase: Math.PI,
   lindblad: false,
-  noiseStepNs: 0.05,
-  noiseExcitations: 2,
+  noiseStepNs: 0.2,
+  noiseExcitations: Infinity,
   estimateStepNs: 0.25,
 });
 
@@ -96,8 +96,8 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
   const { comp, leak20, leak02 } = computationalStates(frame, traj.flux[0], o.spectatorLevels);
   const initial: FrameInitial[] = comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) }));
   const noise = hasNoise(frame);
-  const estimate = noise ? new FirstOrderEstimate(frame, traj, comp) : undefined;
   const propOptions = { ...o, maxHoldStepNs: noise ? o.estimateStepNs : Infinity };
+  const estimate = noise ? new FirstOrderEstimate(frame, traj, stepSchedule(frame, traj, propOptions)) : undefined;
   const res = propagateInFrame(frame, traj, initial, propOptions, estimate?.observer);
   const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
   const m = labFrameBlock(comp, res.re, res.im, T);
@@ -164,40 +164,31 @@ export function labFrameBlock(comp: DressedState[], re: Float64Array[], im: Floa
  */
 class FirstOrderEstimate {
   private readonly times: number[] = [];
-  private readonly fluxes: number[] = [];
-  /** per boundary, per jump operator j: P_j = rate sum_k ||O psi_k||^2, Q_j = sqrt(rate) sum_k <psi_k|O|psi_k> */
+  /** per boundary b, per jump operator j: P = rate sum_k ||O psi_k||^2, Q = sqrt(rate) sum_k <psi_k|O|psi_k> */
   private readonly p: Float64Array[] = [];
   private readonly q: Float64Array[] = [];
   private readonly nOps: number;
+  private readonly schedule: ReturnType<typeof stepSchedule>;
   readonly observer: (stepIndex: number, sector: number, re: Float64Array[], im: Float64Array[], columns: number[]) => void;
 
-  constructor(private readonly frame: ManifoldFrame, traj: Trajectory, comp: DressedState[]) {
+  /** `schedule` must be the one the propagation uses (same options). */
+  constructor(frame: ManifoldFrame, traj: Trajectory, schedule: ReturnType<typeof stepSchedule>) {
     const model = frame.model;
     const noise = frame.noise!;
-    const schedule = stepSchedule(frame, traj, { maxHoldStepNs: GATE_SIMULATION_DEFAULTS.estimateStepNs });
-    void schedule;
+    this.schedule = schedule;
     this.nOps = 2 * model.transmons.length;
     const dt = noise.size;
     const opBuf = new Float64Array(dt * dt);
     const mover = model.transmons[0];
     this.observer = (stepIndex, sector, re, im, columns) => {
-      // Boundary time and flux: recompute from the same schedule as the propagation.
-      void comp;
       const b = stepIndex + 1;
-      if (this.times.length <= b) {
-        this.times.length = b + 1;
-        this.fluxes.length = b + 1;
-        this.p.length = b + 1;
-        this.q.length = b + 1;
-      }
       if (this.p[b] === undefined) {
         this.p[b] = new Float64Array(this.nOps);
         this.q[b] = new Float64Array(this.nOps);
       }
-      const t = this.boundaryTime(b);
-      const x = this.boundaryFlux(b);
-      this.times[b] = t;
-      this.fluxes[b] = x;
+      const prev = b === 0 ? undefined : this.schedule[b - 1];
+      const x = prev ? prev.x0 + prev.v * prev.h : traj.flux[0];
+      this.times[b] = prev ? prev.t0 + prev.h : traj.timeNs[0];
       const u = josephsonEnergy(mover.ejsGHz, mover.asymmetry, x);
       const off = noise.offsets[sector];
       const ds = frame.sectors[sector].size;
@@ -206,15 +197,13 @@ class FirstOrderEstimate {
         for (let kind = 0; kind < 2; kind++) {
           const rate = kind === 0 ? rates.relax : rates.dephase * 2;
           if (rate === 0) continue;
-          const values = kind === 0 ? noise.ladder[i] : noise.number[i];
-          const slopes = kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i];
-          evaluateNoiseTable(frame, values, slopes, u, opBuf);
+          evaluateNoiseTable(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], u, opBuf);
           let pSum = 0;
           let qSum = 0;
           for (const c of columns) {
             const xr = re[c];
             const xi = im[c];
-            // y = O psi over all rows; psi lives in this sector's columns.
+            // y = O psi over all rows (psi lives in this sector's columns)
             for (let r = 0; r < dt; r++) {
               let yr = 0;
               let yi = 0;
@@ -224,10 +213,7 @@ class FirstOrderEstimate {
                 yi += ok * xi[k];
               }
               pSum += yr * yr + yi * yi;
-              if (kind === 1 && r >= off && r < off + ds) {
-                const k = r - off;
-                qSum += xr[k] * yr + xi[k] * yi;
-              }
+              if (kind === 1 && r >= off && r < off + ds) qSum += xr[r - off] * yr + xi[r - off] * yi;
             }
           }
           const j = 2 * i + kind;
@@ -236,32 +222,13 @@ class FirstOrderEstimate {
         }
       }
     };
-    this.schedule = stepSchedule(frame, traj, { maxHoldStepNs: GATE_SIMULATION_DEFAULTS.estimateStepNs });
-    this.traj = traj;
   }
 
-  private schedule: ReturnType<typeof stepSchedule>;
-  private traj: Trajectory;
-
-  private boundaryTime(b: number): number {
-    if (b === 0) return this.traj.timeNs[0];
-    const s = this.schedule[b - 1];
-    return s.t0 + s.h;
-  }
-
-  private boundaryFlux(b: number): number {
-    if (b === 0) return this.traj.flux[0];
-    const s = this.schedule[b - 1];
-    return s.x0 + s.v * s.h;
-  }
-
-  /** Average gate infidelity estimate (d = 4). */
+  /** Average gate infidelity estimate (d = 4), trapezoid rule over the step boundaries. */
   result(): number {
-    const n = this.times.length;
     let integral = 0;
     let prev = 0;
-    for (let b = 0; b < n; b++) {
-      if (this.p[b] === undefined) continue;
+    for (let b = 0; b < this.p.length; b++) {
       let g = 0;
       for (let j = 0; j < this.nOps; j++) g += 4 * this.p[b][j] - this.q[b][j] * this.q[b][j];
       g /= 16;
@@ -329,6 +296,13 @@ export function lindbladChannel(
   const colR = frame.sectors.map((sec) => new Float64Array(sec.size));
   const colI = frame.sectors.map((sec) => new Float64Array(sec.size));
   let lastHoldKey = '';
+  let pending = 0;
+  // States of R are ordered by sector: sector 0 is [0, n0), sector 1 is [n0, n).
+  const n0 = rSector.filter((x) => x === 0).length;
+  // Parity class of each input |k><l| (the Lindblad equation keeps sector(bra) xor sector(ket)).
+  const classes = pairs.map(([k, l]) => comp[k].sector ^ comp[l].sector);
+  // Jump operators alternate ladder (flips the sector) and number (keeps it).
+  const flips = Array.from({ length: nOps }, (_, j) => (j % 2 === 0 ? 1 : 0));
   for (const step of schedule) {
     // Coherent step restricted to R.
     const holdKey = step.hold ? `${step.x0}:${step.h}` : '';
@@ -374,12 +348,16 @@ export function lindbladChannel(
           }
       }
     }
+    // Strang splitting with the half dissipator steps of consecutive steps merged:
+    // D((h_prev + h)/2) U D(h/2) ... (the dissipator varies slowly along the trajectory).
+    const tau = pending + 0.5 * step.h;
     for (let p = 0; p < pairs.length; p++) {
-      dissipate(rhoR[p], rhoI[p], ops, rates, kOp, n, 0.5 * step.h, work);
-      unitaryConjugate(rhoR[p], rhoI[p], ur, ui, n, work);
-      dissipate(rhoR[p], rhoI[p], ops, rates, kOp, n, 0.5 * step.h, work);
+      dissipateBlocks(rhoR[p], rhoI[p], ops, flips, rates, kOp, n, n0, classes[p], tau, work);
+      unitaryConjugateBlocks(rhoR[p], rhoI[p], ur, ui, n, n0, classes[p], work);
     }
+    pending = 0.5 * step.h;
   }
+  for (let p = 0; p < pairs.length; p++) dissipateBlocks(rhoR[p], rhoI[p], ops, flips, rates, kOp, n, n0, classes[p], pending, work);
   // Project onto computational states with lab-frame phases.
   const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
   const e00 = comp[0].energy;
@@ -428,104 +406,134 @@ export function lindbladChannel(
   return { fidelity: (trace + vz.value) / 20, virtualZ: { a: vz.a, b: vz.b }, leakage: leak / 4 };
 }
 
-/** rho += tau (sum_j r_j O_j rho O_j^T - (K rho + rho K)/2), O_j and K real. */
-function dissipate(
+/**
+ * rho += tau (sum_j r_j O_j rho O_j^T - (K rho + rho K)/2), O_j and K real, with the sector
+ * structure used to skip zeros: rho is non-zero only where sector(a) xor sector(b) = cls, K keeps
+ * sectors, O_j flips them when flips[j] = 1.
+ */
+function dissipateBlocks(
   rr: Float64Array,
   ri: Float64Array,
   ops: Float64Array[],
+  flips: number[],
   rates: Float64Array,
   k: Float64Array,
   n: number,
+  n0: number,
+  cls: number,
   tau: number,
   w: { ar: Float64Array; ai: Float64Array; br: Float64Array; bi: Float64Array },
 ): void {
+  if (tau === 0) return;
   const { ar, ai, br, bi } = w;
-  // ar + i ai = accumulated D[rho]
-  for (let a = 0; a < n; a++)
-    for (let b = 0; b < n; b++) {
+  const lo = (sec: number): number => (sec === 0 ? 0 : n0);
+  const hi = (sec: number): number => (sec === 0 ? n0 : n);
+  for (let a = 0; a < n; a++) {
+    const sa = a < n0 ? 0 : 1;
+    const sb = sa ^ cls;
+    for (let b = lo(sb); b < hi(sb); b++) {
       let sr = 0;
       let si = 0;
-      for (let c = 0; c < n; c++) {
+      for (let c = lo(sa); c < hi(sa); c++) {
         const kac = k[a * n + c];
+        sr -= 0.5 * kac * rr[c * n + b];
+        si -= 0.5 * kac * ri[c * n + b];
+      }
+      for (let c = lo(sb); c < hi(sb); c++) {
         const kcb = k[c * n + b];
-        sr -= 0.5 * (kac * rr[c * n + b] + rr[a * n + c] * kcb);
-        si -= 0.5 * (kac * ri[c * n + b] + ri[a * n + c] * kcb);
+        sr -= 0.5 * rr[a * n + c] * kcb;
+        si -= 0.5 * ri[a * n + c] * kcb;
       }
       ar[a * n + b] = sr;
       ai[a * n + b] = si;
     }
+  }
   for (let j = 0; j < ops.length; j++) {
     const r = rates[j];
     if (r === 0) continue;
     const o = ops[j];
-    // B = O rho
-    for (let a = 0; a < n; a++)
-      for (let b = 0; b < n; b++) {
+    const f = flips[j];
+    // B = O rho: non-zero where sector(a) xor sector(b) = cls xor f
+    for (let a = 0; a < n; a++) {
+      const sa = a < n0 ? 0 : 1;
+      const sc = sa ^ f;
+      const sb = sc ^ cls;
+      for (let b = lo(sb); b < hi(sb); b++) {
         let sr = 0;
         let si = 0;
-        for (let c = 0; c < n; c++) {
+        for (let c = lo(sc); c < hi(sc); c++) {
           const oac = o[a * n + c];
-          if (oac === 0) continue;
           sr += oac * rr[c * n + b];
           si += oac * ri[c * n + b];
         }
         br[a * n + b] = sr;
         bi[a * n + b] = si;
       }
+    }
     // += r B O^T
-    for (let a = 0; a < n; a++)
-      for (let b = 0; b < n; b++) {
+    for (let a = 0; a < n; a++) {
+      const sa = a < n0 ? 0 : 1;
+      const sb = sa ^ cls;
+      const sc = sb ^ f;
+      for (let b = lo(sb); b < hi(sb); b++) {
         let sr = 0;
         let si = 0;
-        for (let c = 0; c < n; c++) {
+        for (let c = lo(sc); c < hi(sc); c++) {
           const obc = o[b * n + c];
-          if (obc === 0) continue;
           sr += br[a * n + c] * obc;
           si += bi[a * n + c] * obc;
         }
         ar[a * n + b] += r * sr;
         ai[a * n + b] += r * si;
       }
+    }
   }
-  for (let q = 0; q < n * n; q++) {
-    rr[q] += tau * ar[q];
-    ri[q] += tau * ai[q];
+  for (let a = 0; a < n; a++) {
+    const sb = (a < n0 ? 0 : 1) ^ cls;
+    for (let b = lo(sb); b < hi(sb); b++) {
+      rr[a * n + b] += tau * ar[a * n + b];
+      ri[a * n + b] += tau * ai[a * n + b];
+    }
   }
 }
 
-/** rho <- U rho U^dag */
-function unitaryConjugate(rr: Float64Array, ri: Float64Array, ur: Float64Array, ui: Float64Array, n: number, w: { ar: Float64Array; ai: Float64Array }): void {
+/** rho <- U rho U^dag for a U that keeps sectors (same zero structure as dissipateBlocks). */
+function unitaryConjugateBlocks(rr: Float64Array, ri: Float64Array, ur: Float64Array, ui: Float64Array, n: number, n0: number, cls: number, w: { ar: Float64Array; ai: Float64Array }): void {
   const { ar, ai } = w;
-  // A = U rho
-  for (let a = 0; a < n; a++)
-    for (let b = 0; b < n; b++) {
+  const lo = (sec: number): number => (sec === 0 ? 0 : n0);
+  const hi = (sec: number): number => (sec === 0 ? n0 : n);
+  for (let a = 0; a < n; a++) {
+    const sa = a < n0 ? 0 : 1;
+    const sb = sa ^ cls;
+    for (let b = lo(sb); b < hi(sb); b++) {
       let sr = 0;
       let si = 0;
-      for (let c = 0; c < n; c++) {
+      for (let c = lo(sa); c < hi(sa); c++) {
         const xr = ur[a * n + c];
         const xi = ui[a * n + c];
-        if (xr === 0 && xi === 0) continue;
         sr += xr * rr[c * n + b] - xi * ri[c * n + b];
         si += xr * ri[c * n + b] + xi * rr[c * n + b];
       }
       ar[a * n + b] = sr;
       ai[a * n + b] = si;
     }
-  // rho = A U^dag : (A U^dag)_ab = sum_c A_ac conj(U_bc)
-  for (let a = 0; a < n; a++)
-    for (let b = 0; b < n; b++) {
+  }
+  for (let a = 0; a < n; a++) {
+    const sa = a < n0 ? 0 : 1;
+    const sb = sa ^ cls;
+    for (let b = lo(sb); b < hi(sb); b++) {
       let sr = 0;
       let si = 0;
-      for (let c = 0; c < n; c++) {
+      for (let c = lo(sb); c < hi(sb); c++) {
         const xr = ur[b * n + c];
         const xi = -ui[b * n + c];
-        if (xr === 0 && xi === 0) continue;
         sr += ar[a * n + c] * xr - ai[a * n + c] * xi;
         si += ar[a * n + c] * xi + ai[a * n + c] * xr;
       }
       rr[a * n + b] = sr;
       ri[a * n + b] = si;
     }
+  }
 }
 
 /** max over (a, b) of v^dag C v, v = (1, e^{ib}, e^{ia}, e^{i(theta + a + b)}), by exact coordinate ascent. */

@@ -1,0 +1,71 @@
+/**
+ * Decoherence of simulated gates (physics.md sec. 4): the weak-noise idle formula
+ * 1 - F ~ (2/5) t sum_q (1/T1_q + 1/T_phi_q) (derived from the process fidelity of amplitude
+ * damping and dephasing and F_avg = (d F_pro + 1)/(d + 1), d = 4), and the first-order estimate
+ * against the Lindblad channel.
+ */
+import { describe, expect, it } from 'vitest';
+import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
+import { simulateGate } from '../../src/sim/simulate-gate.js';
+import { josephsonEnergy } from '../../src/transmon/josephson.js';
+import { fluxAt } from '../../src/sim/trajectory.js';
+import { MOVER, cosineRamps, crossingFlux, ejRange, pairModel } from './support.js';
+
+const T1A = 30000;
+const T1B = 50000;
+const TPA = 40000;
+const TPB = 60000;
+const noise = {
+  a: { t1Ns: T1A, dephasingRate: () => 1 / TPA },
+  b: { t1Ns: T1B, dephasingRate: () => 1 / TPB },
+};
+
+describe('decoherence', () => {
+  it('an idle follows (2/5) t sum (1/T1 + 1/T_phi): first-order estimate exactly, Lindblad to second order', () => {
+    const t = 60;
+    const traj = { timeNs: Float64Array.from([0, t]), flux: Float64Array.from([0, 0]) };
+    const u = josephsonEnergy(MOVER.ejsGHz, MOVER.asymmetry, 0);
+    const frame = buildManifoldFrame(pairModel(6, 4, noise), { ejLo: u, ejHi: u, noiseOperators: true });
+    // target CPhase(theta) with theta = the idle's own ZZ phase, so the coherent part is ideal
+    const phi = simulateGate(frame, traj, { targetPhase: 0 }).conditionalPhase;
+    const sim = simulateGate(frame, traj, { lindblad: true, targetPhase: phi });
+    const formula = 0.4 * t * (1 / T1A + 1 / T1B + 1 / TPA + 1 / TPB);
+    expect(1 - sim.fidelity).toBeLessThan(1e-12);
+    expect(Math.abs(sim.decoherenceEstimate - formula) / formula).toBeLessThan(2e-3);
+    // the Lindblad result differs only at second order in t / T (~ (2.3e-3)^2)
+    expect(Math.abs(1 - sim.noisy!.fidelity - formula)).toBeLessThan(1e-5);
+  });
+
+  it('on a gate excursion the first-order estimate agrees with the Lindblad infidelity within 2 %', () => {
+    const traj = cosineRamps(0.9 * crossingFlux(), 10, 20, 0.5);
+    const frame = buildManifoldFrame(pairModel(6, 4, noise), { ...ejRange(traj), noiseOperators: true });
+    const phi = simulateGate(frame, traj).conditionalPhase;
+    const sim = simulateGate(frame, traj, { lindblad: true, targetPhase: phi });
+    const lindblad = sim.fidelity - sim.noisy!.fidelity;
+    expect(lindblad).toBeGreaterThan(1e-3);
+    expect(Math.abs(sim.decoherenceEstimate - lindblad) / lindblad).toBeLessThan(0.02);
+  });
+
+  it('a flux-dependent T_phi enters through the mover flux along the trajectory', () => {
+    // an excursion far from the 11-20 crossing, so the states stay computational
+    const traj = cosineRamps(0.6 * crossingFlux(), 10, 20, 0.5);
+    const flat = { a: { t1Ns: Infinity, dephasingRate: () => 1e-5 }, b: { t1Ns: Infinity, dephasingRate: () => 0 } };
+    const slope = { a: { t1Ns: Infinity, dephasingRate: (x: number) => 1e-5 * (1 + 100 * x * x) }, b: { t1Ns: Infinity, dephasingRate: () => 0 } };
+    const est = (n: typeof flat): number => simulateGate(buildManifoldFrame(pairModel(6, 4, n), { ...ejRange(traj), noiseOperators: true }), traj).decoherenceEstimate;
+    const e0 = est(flat);
+    const e1 = est(slope);
+    // Away from leakage the estimate is the idle formula with the time-averaged rate:
+    // (2/5) int dt / T_phi(Phi(t)) (integral by a fine trapezoid rule over the samples).
+    const T = traj.timeNs[traj.timeNs.length - 1];
+    let integral = 0;
+    const m = 20000;
+    for (let k = 0; k < m; k++) {
+      const t0 = (T * k) / m;
+      const t1 = (T * (k + 1)) / m;
+      integral += 0.5 * (slope.a.dephasingRate(fluxAt(traj, t0)) + slope.a.dephasingRate(fluxAt(traj, t1))) * (t1 - t0);
+    }
+    expect(Math.abs(e0 - 0.4 * 1e-5 * T) / e0).toBeLessThan(0.01);
+    expect(Math.abs(e1 - 0.4 * integral) / e1).toBeLessThan(0.01);
+    expect(e1 / e0).toBeGreaterThan(1.5);
+  });
+});
