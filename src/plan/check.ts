@@ -63,7 +63,7 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
     `  ${'layers'.padEnd(20)} ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound})`,
     `  ${'smallest margin'.padEnd(20)} ${worst.i >= 0 ? `${id[worst.i]} ${mhz(worst.margin)} (${plan.crowding.qubits[worst.i].marginSpreads.toFixed(1)} spreads)` : '-'}`,
     ...plan.crowding.bands.map((b) => `  crowded band ${bandText(b)}`),
-    ...plan.explanations.map((x) => `  cannot park: ${x.message}`),
+    ...plan.explanations.map((x) => `  ${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`),
   ];
   return { plan, violations: plan.violations.map(toFindingJson), flags: plan.flags.map(toFindingJson), data, lines };
 }

@@ -2,10 +2,11 @@
  * Crowding: how much room each qubit has. A qubit's margin is its smallest distance to any
  * collision condition minus that condition's threshold (../../shared/physics.md sec. 5):
  *
- *   idle margin   distance from its parking frequency to the nearest blocked interval of the idle
- *                 rules with the other qubits where they park (src/plan/rules/idle-blockers.ts;
- *                 for 01-01, 01-12, next-01-01, tls and readout exactly |f - f_c| - threshold,
- *                 for ZZ the distance to where |zeta| reaches the limit)
+ *   idle margin   the smallest |f - f_c| - threshold over the idle detuning conditions (01-01,
+ *                 01-12 both ways, next-01-01, tls beyond its width, readout) with the exact
+ *                 spectra at parking, and for ZZ the distance to where |zeta| reaches the limit
+ *                 with the neighbour where it parks (src/plan/rules/idle-blockers.ts, inside the
+ *                 tunable range)
  *   CZ margin     for each gate the qubit moves in or watches as a spectator, the smallest
  *                 cz-spectator / cz-next / cz-tls distance at the interaction point minus its threshold
  *
@@ -73,8 +74,10 @@ export function crowding(
   const czMargin = new Float64Array(n).fill(Infinity);
   const czNearest: { rule: RuleName; other: string | null }[] = Array.from({ length: n }, () => ({ rule: 'cz-spectator-01-01' as RuleName, other: null }));
   const r = ctx.rules;
+  // Ties (within 1 kHz: plans read back carry 12 digits) keep the condition found first.
+  const TIE = 1e-6;
   const noteCz = (q: number, m: number, rule: RuleName, other: number) => {
-    if (m < czMargin[q]) {
+    if (m < czMargin[q] - TIE) {
       czMargin[q] = m;
       czNearest[q] = { rule, other: other >= 0 ? ctx.ids[other] : null };
     }
@@ -110,15 +113,36 @@ export function crowding(
     const list = blockers.of(i, view, []);
     let idle = Infinity;
     let nearest: { rule: RuleName; other: string | null } = { rule: '01-01', other: null };
-    for (const b of list) {
-      const d = signedDistance(f, b);
-      if (d < idle) {
-        idle = d;
-        nearest = { rule: b.rule, other: b.other >= 0 ? ctx.ids[b.other] : null };
+    const note = (m: number, rule: RuleName, other: number) => {
+      if (m < idle - TIE) {
+        idle = m;
+        nearest = { rule, other: other >= 0 ? ctx.ids[other] : null };
       }
+    };
+    // Detuning conditions, exact (they count even where tuning cannot reach them: fabrication can).
+    const si = states[i];
+    if (si) {
+      for (const j of ctx.neighbours[i]) {
+        const sj = states[j];
+        if (!sj) continue;
+        note(Math.abs(si.f01GHz - sj.f01GHz) - r.detuning0101GHz, '01-01', j);
+        note(Math.abs(si.f01GHz - sj.f12GHz) - r.detuning0112GHz, '01-12', j);
+        note(Math.abs(si.f12GHz - sj.f01GHz) - r.detuning0112GHz, '01-12', j);
+      }
+      for (const p of ctx.nextNearestOf[i]) {
+        const pair = ctx.nextNearest[p];
+        const k = pair.a === i ? pair.b : pair.a;
+        const sk = states[k];
+        if (sk) note(Math.abs(si.f01GHz - sk.f01GHz) - r.detuningNext0101GHz, 'next-01-01', k);
+      }
+      for (const d of ctx.qubits[i].tls) note(Math.abs(si.f01GHz - d.atGHz) - d.widthGHz - r.tlsClearanceGHz, 'tls', -1);
+      const rd = ctx.qubits[i].readoutGHz;
+      if (rd !== undefined) note(Math.abs(si.f01GHz - rd) - r.readoutDetuningGHz, 'readout', -1);
     }
+    // ZZ: distance to where |zeta| reaches the limit (within the tunable range).
+    for (const b of list) if (b.rule === 'zz') note(signedDistance(f, b), 'zz', b.other);
     const margin = Math.min(idle, czMargin[i]);
-    if (czMargin[i] < idle) nearest = czNearest[i];
+    if (czMargin[i] < idle - TIE) nearest = czNearest[i];
     const sigma = states[i]?.sigmaGHz ?? NaN;
     const spreads = margin / sigma;
     const d = ctx.domains[i] ?? ctx.ranges[i];

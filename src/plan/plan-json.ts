@@ -225,7 +225,7 @@ export function planText(plan: ChipPlan, file: string): string {
   lines.push(`layers: ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound}, the largest degree)`);
   plan.layers.layers.forEach((list, k) => lines.push(`  ${k}: ${list.map((e) => ctx.edges[e].key).join(' ')}`));
   for (const b of plan.crowding.bands) lines.push(`crowded band ${bandText(b)}`);
-  for (const x of plan.explanations) lines.push(`cannot park: ${x.message}`);
+  for (const x of plan.explanations) lines.push(`${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`);
   for (const v of plan.violations) lines.push(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`);
   for (const f of plan.flags) lines.push(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`);
   lines.push(

@@ -93,7 +93,21 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
     ctx, options, parking, states, edges, layers, crowding: crowd, gates: null, violations: [], flags: [], explanations: parking.explanations,
   };
   collectFindings(plan);
+  plan.explanations = [...parking.explanations, ...edgeExplanations(plan)];
   return plan;
+}
+
+/** One explanation per edge that no option clears (its reason names what each option ran into). */
+function edgeExplanations(plan: ChipPlan): Explanation[] {
+  const { ctx } = plan;
+  return plan.edges
+    .filter((e) => !e.feasible)
+    .map((e) => {
+      const key = ctx.edges[e.edge].key;
+      const qubits = [...new Set([ctx.ids[e.mover], ctx.ids[e.partner], ...e.findings.flatMap((f) => f.qubits)])];
+      const rules = [...new Set(e.findings.map((f) => f.rule))];
+      return { kind: 'edge' as const, qubits, rules, message: `${key}: ${e.reason}`, lines: e.findings.map((f) => f.message) };
+    });
 }
 
 /** Recompute `violations` and `flags` from the stages (after pulses replace an edge's findings). */

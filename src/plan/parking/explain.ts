@@ -29,6 +29,8 @@ import { allViolating, construct, constructionOrder, localSearch } from './searc
 import { ParkingState } from './state.js';
 
 export interface Explanation {
+  /** What cannot be planned: the parking of some qubits, or the CZ of an edge. */
+  kind: 'parking' | 'edge';
   /** The qubits of the minimal conflicting set, in layout order. */
   qubits: string[];
   /** The rules in conflict. */
@@ -54,7 +56,7 @@ export function explainInfeasible(ctx: PlanContext, options: PlanOptions, main: 
     const line = ctx.domains[i] === null
       ? `${id}: window ${band(w![0], w![1])} lies outside its planning range ${band(r.lo, r.hi)} (tunable range up to the sweet spot, E_J/E_C >= 20)`
       : `${id}: fixed park ${ghz(ctx.fixed[i]!)} lies outside its window or planning range ${band(ctx.domains[i]!.lo, ctx.domains[i]!.hi)}`;
-    out.push({ qubits: [id], rules: ['window'], message: `${line}. Move the window or the park value, or change the transmon parameters.`, lines: [line] });
+    out.push({ kind: 'parking', qubits: [id], rules: ['window'], message: `${line}. Move the window or the park value, or change the transmon parameters.`, lines: [line] });
   }
   // Clusters of qubits in broken rules.
   const parent = ctx.ids.map((_, i) => i);
@@ -98,7 +100,7 @@ function explainCluster(ctx: PlanContext, options: PlanOptions, main: ParkingSta
       `The search found no parking that satisfies every idle rule around ${ids(cluster).join(', ')} (${rules.join(', ')}), ` +
       `although these qubits and their neighbours alone can be parked; the conflict reaches further across the chip. ` +
       `Try another --seed, widen windows nearby, or relax the rules listed.`;
-    return { qubits: ids(cluster), rules, message, lines: [] };
+    return { kind: 'parking', qubits: ids(cluster), rules, message, lines: [] };
   }
   // Deletion filter: qubits outside the cluster first, then the cluster's own.
   let core = members;
@@ -143,7 +145,7 @@ function explainCluster(ctx: PlanContext, options: PlanOptions, main: ParkingSta
     `No parking satisfies every idle rule for ${ids(core).join(', ')}: ${lines.join('; ')}. ` +
     `Removing any one of these qubits (or its rules) makes the rest plannable. ` +
     `Widen a window, move a fixed park${relax.length > 0 ? `, or relax ${[...new Set(relax)].join(', ')}` : ''}.`;
-  return { qubits: ids(core), rules: ruleList, message, lines };
+  return { kind: 'parking', qubits: ids(core), rules: ruleList, message, lines };
 }
 
 function describeBlocker(ctx: PlanContext, b: Blocker): string {

@@ -49,6 +49,60 @@ export function improveQubit(state: ParkingState, i: number): boolean {
       bestF = f;
     }
   }
+  // Refine inside the allowed interval of the best point (the cost has interior minima where
+  // dephasing, ZZ and the other terms balance): 8 samples, then golden-section around the best.
+  if (best < state.options.search.violationPenalty) {
+    const a = state.allowed(i, blockers).find((x) => bestF >= x.lo - 1e-12 && bestF <= x.hi + 1e-12);
+    if (a && a.hi - a.lo > 2e-3) {
+      const nudge = Math.min(state.options.search.nudgeGHz, (a.hi - a.lo) / 4);
+      const lo = a.lo + nudge;
+      const hi = a.hi - nudge;
+      const total = (f: number) => {
+        const c = state.costAt(i, f, blockers);
+        return c.violation + c.soft;
+      };
+      const samples = 8;
+      const step = (hi - lo) / samples;
+      let x0 = bestF;
+      let c0 = best;
+      for (let k = 0; k <= samples; k++) {
+        const f = lo + k * step;
+        const c = total(f);
+        if (c < c0) {
+          c0 = c;
+          x0 = f;
+        }
+      }
+      let l = Math.max(lo, x0 - step);
+      let r = Math.min(hi, x0 + step);
+      const phi = (Math.sqrt(5) - 1) / 2;
+      let m1 = r - phi * (r - l);
+      let m2 = l + phi * (r - l);
+      let c1 = total(m1);
+      let c2 = total(m2);
+      for (let it = 0; it < 14; it++) {
+        if (c1 < c2) {
+          r = m2;
+          m2 = m1;
+          c2 = c1;
+          m1 = r - phi * (r - l);
+          c1 = total(m1);
+        } else {
+          l = m1;
+          m1 = m2;
+          c1 = c2;
+          m2 = l + phi * (r - l);
+          c2 = total(m2);
+        }
+      }
+      for (const [f, c] of [[x0, c0], [m1, c1], [m2, c2]] as const) {
+        if (c < best - IMPROVEMENT) {
+          best = c;
+          bestF = f;
+        }
+      }
+    }
+  }
   if (bestF !== state.freq[i] && best < start) {
     state.set(i, bestF);
     return true;

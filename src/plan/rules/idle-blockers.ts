@@ -105,8 +105,8 @@ export class IdleBlockers {
     const t = this.ctx.tables[i];
     const bottom = t.at(t.fLowGHz).f12;
     const top = t.at(t.fMaxGHz).f12;
-    if (hi < bottom || lo > top) return null;
-    const a = lo <= bottom ? t.fLowGHz - 1e-9 : t.f01ForF12(lo)!;
+    if (hi < bottom - 1e-9 || lo > top + 1e-9) return null;
+    const a = lo <= bottom ? t.fLowGHz - 1e-9 : lo >= top ? t.fMaxGHz : t.f01ForF12(lo)!;
     const b = hi >= top ? t.fMaxGHz + 1e-9 : t.f01ForF12(hi)!;
     return { lo: a, hi: b };
   }

@@ -1,0 +1,87 @@
+/**
+ * Interaction plans (src/plan/interaction/*) on hand-built chips: a spectator parked exactly on
+ * the interaction frequency is detected and moved out of the way (spectator parking) or, when it
+ * cannot move, reported naming it; the interaction frequency is the exact 11-20 crossing of the
+ * pair stage (src/pair/resonances.ts: f12 of the mover = f01 of the partner, physics.md sec. 2);
+ * swept crossings use the Landau-Zener formula (src/plan/landau-zener.ts, tested against SciPy).
+ */
+import { describe, expect, it } from 'vitest';
+import { planChip } from '../../src/plan/plan.js';
+import { buildPlanContext } from '../../src/plan/context.js';
+import { pairResonances } from '../../src/pair/resonances.js';
+import { landauZenerTransfer } from '../../src/plan/landau-zener.js';
+import { expectClose } from '../support/close.js';
+import { handChip } from '../support/plan-chips.js';
+
+const couplings: [string, string, string][] = [['A', 'B', '12 MHz'], ['A', 'S', '10 MHz']];
+const probe = handChip('probe', { A: { fMax: '6.3 GHz', alpha: '-220 MHz' }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: '6.0 GHz' } }, couplings, { zzLimit: '3 MHz' });
+const pctx = buildPlanContext(probe);
+// The 11-20 crossing of A against B at 5.5 GHz, from the pair stage.
+const crossing = pairResonances(pctx.transmons[0], pctx.transmons[1], pctx.transmons[1].fluxForF01(5.5), pctx.edges[0].gChargeGHz)['11-20']!;
+const fInt = crossing.moverF01GHz.toFixed(6);
+
+describe('a spectator exactly on the interaction frequency', () => {
+  it('is detected and moved out of the way for the gate (spectator parking), within its range', () => {
+    const chip = handChip('spectator', { A: { fMax: '6.3 GHz', alpha: '-220 MHz' }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: '6.0 GHz', park: `${fInt} GHz` } }, couplings, { zzLimit: '3 MHz' });
+    const plan = planChip(chip);
+    expect(plan.violations).toEqual([]);
+    const ab = plan.edges[0];
+    expect(plan.ctx.ids[ab.mover]).toBe('A');
+    expect(ab.crossing).toBe('11-20');
+    expectClose(ab.interactionGHz, Number(fInt), 1e-6, 'interaction frequency = the 11-20 crossing');
+    expect(ab.parked.map((p) => plan.ctx.ids[p.qubit])).toEqual(['S']);
+    const s = ab.parked[0];
+    // The broken rules where it stood, and the temporary point clear of all three spectator conditions.
+    expect(s.reason).toContain('cz-spectator-01-01');
+    const sd = chip.rules.spectatorDetuningGHz;
+    expect(Math.abs(s.fGHz - ab.interactionGHz)).toBeGreaterThanOrEqual(sd);
+    expect(Math.abs(s.fGHz - ab.moverF12AtInteractionGHz)).toBeGreaterThanOrEqual(sd);
+    expect(Math.abs(s.f12GHz - ab.interactionGHz)).toBeGreaterThanOrEqual(sd);
+    expect(s.fGHz).toBeGreaterThanOrEqual(plan.ctx.ranges[2].lo);
+    expect(s.fGHz).toBeLessThanOrEqual(plan.ctx.ranges[2].hi);
+    // It must also be off the mover's sweep 5.72 -> 6.30 GHz (a direct crossing is never fast enough).
+    expect(s.fGHz < ab.interactionGHz || s.fGHz > 6.3).toBe(true);
+    expect(ab.reason).toMatch(/S parked at \d\.\d{3} GHz \(where it stood it broke cz-spectator-01-01/);
+  });
+
+  it('is reported, naming the spectator and the rule, when it cannot move', () => {
+    const lo = (Number(fInt) - 0.004).toFixed(6);
+    const hi = (Number(fInt) + 0.004).toFixed(6);
+    const chip = handChip('stuck', { A: { fMax: '6.3 GHz', alpha: '-220 MHz' }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: `${hi} GHz`, fMin: `${lo} GHz`, park: `${fInt} GHz` } }, couplings, { zzLimit: '3 MHz' });
+    const plan = planChip(chip);
+    const broken = plan.violations.filter((v) => v.edge === 'A-B');
+    expect(broken.map((v) => v.rule)).toContain('cz-spectator-01-01');
+    const v = broken.find((x) => x.rule === 'cz-spectator-01-01')!;
+    expect(v.qubits).toEqual(['A', 'S']);
+    expect(v.value).toBeLessThan(1e-6);
+    expect(v.message).toMatch(/A at 5\.722 GHz is 0\.0 MHz from spectator S f01 5\.722 GHz; needs 30\.0 MHz during the CZ on A-B/);
+    expect(plan.edges[0].reason).toMatch(/S cannot be moved out of the way/);
+  });
+});
+
+describe('the choice of mover and crossing', () => {
+  it('picks the higher qubit at its 11-20 crossing when the lower one cannot reach a crossing, and says why', () => {
+    const plan = planChip(probe);
+    const ab = plan.edges[0];
+    expect(plan.ctx.ids[ab.mover]).toBe('A');
+    expect(ab.reason).toMatch(/B 11-20: 11-20 crossing outside its tunable range/);
+    expect(ab.options).toHaveLength(4);
+    expect(ab.speedLimitNs).toBeCloseTo(1 / (2 * ab.crossingCouplingGHz), 12);
+  });
+
+  it('every crossing a mover passes is listed with its Landau-Zener transfer at the planning sweep rate', () => {
+    // A weak defect of A at 6.0 GHz lies on its way down to the 5.72 GHz crossing (g = width / 2).
+    const chip = handChip('sweep', { A: { fMax: '6.3 GHz', alpha: '-220 MHz', tls: [{ at: '6.0 GHz', width: '0.4 MHz' }] }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: '6.0 GHz', park: '5.35 GHz' } }, couplings, { zzLimit: '3 MHz' });
+    const plan = planChip(chip);
+    const ab = plan.edges[0];
+    expect(ab.swept.map((c) => c.rule)).toContain('cz-swept-tls');
+    expect(ab.swept.find((c) => c.rule === 'cz-swept-tls')!.couplingGHz).toBeCloseTo(0.0002, 15);
+    const rate = (plan.states[ab.mover].f01GHz - ab.interactionGHz) / ab.rampNs;
+    for (const c of ab.swept) {
+      expect(c.atGHz).toBeGreaterThan(ab.interactionGHz);
+      expect(c.atGHz).toBeLessThan(plan.states[ab.mover].f01GHz);
+      expectClose(c.rateGHzPerNs, rate, 1e-12, 'linear sweep rate');
+      expectClose(c.transfer, landauZenerTransfer(c.couplingGHz, rate), 1e-12, 'transfer');
+    }
+  });
+});
