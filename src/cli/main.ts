@@ -17,6 +17,7 @@ import { EXIT, reportError } from './handler.js';
 import { registerCheck } from './commands/check.js';
 import { registerGenerate } from './commands/generate.js';
 import { registerPair } from './commands/pair.js';
+import { registerSimulate } from './commands/simulate.js';
 import { registerSpectrum } from './commands/spectrum.js';
 import { registerPlan } from './commands/plan.js';
 import { registerVerify } from './commands/verify.js';
@@ -25,7 +26,7 @@ import { registerVerify } from './commands/verify.js';
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerPlan, registerVerify];
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerPlan, registerVerify];
 
 function packageVersion(): string {
   try {

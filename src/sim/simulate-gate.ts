@@ -9,7 +9,7 @@
  */
 import { josephsonEnergy } from '../transmon/josephson.js';
 import { averageFromProcessInfidelity, jumpRates } from './decoherence.js';
-import { dressedStatesAt, type DressedState } from './computational-block.js';
+import { dressedStatesAt, type DressedState } from './dressed-states.js';
 import { conditionalPhase, gateMetrics, wrapAngle, type Block4 } from './gate-metrics.js';
 import { evaluateNoiseTable, frameState, type ManifoldFrame } from './manifold-frame.js';
 import { propagateInFrame, SectorStepper, stepSchedule, type FrameInitial, type FramePropagationOptions } from './propagate-frame.js';

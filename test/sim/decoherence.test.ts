@@ -49,8 +49,8 @@ describe('decoherence', () => {
   it('a flux-dependent T_phi enters through the mover flux along the trajectory', () => {
     // an excursion far from the 11-20 crossing, so the states stay computational
     const traj = cosineRamps(0.6 * crossingFlux(), 10, 20, 0.5);
-    const flat = { a: { t1Ns: Infinity, dephasingRate: () => 1e-5 }, b: { t1Ns: Infinity, dephasingRate: () => 0 } };
-    const slope = { a: { t1Ns: Infinity, dephasingRate: (x: number) => 1e-5 * (1 + 100 * x * x) }, b: { t1Ns: Infinity, dephasingRate: () => 0 } };
+    const flat = { a: { t1Ns: Infinity, dephasingRate: (_x: number) => 1e-5 }, b: { t1Ns: Infinity, dephasingRate: (_x: number) => 0 } };
+    const slope = { a: { t1Ns: Infinity, dephasingRate: (x: number) => 1e-5 * (1 + 100 * x * x) }, b: { t1Ns: Infinity, dephasingRate: (_x: number) => 0 } };
     const est = (n: typeof flat): number => simulateGate(buildManifoldFrame(pairModel(6, 4, n), { ...ejRange(traj), noiseOperators: true }), traj).decoherenceEstimate;
     const e0 = est(flat);
     const e1 = est(slope);
