@@ -82,7 +82,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
     parking.parkingGHz = Float64Array.from(parking.state.freq);
     parking.idle = evaluateIdle(ctx, parking.parkingGHz);
     parking.explanations = parking.idle.violations.length > 0 ? parking.explanations : [];
-    profiler.time('interaction', () => ctx.edges.forEach((e) => (edges[e.index] = planEdge({ ctx, options, blockers: blockersView, states }, e.index))));
+    profiler.time('interaction', () => repair.touched.forEach((k) => (edges[k] = planEdge({ ctx, options, blockers: blockersView, states }, k))));
   }
   parking.stats.repairTrials = repair.trials;
   parking.stats.repairMoves = repair.moves;

@@ -11,7 +11,8 @@
  *
  * Method: warm up for ~0.3 s (JIT), then time batches of calls (each batch >= ~10 ms) for
  * ~1.5 s or at least 7 batches; report the median and the minimum of the per-call times over
- * batches. Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
+ * batches. Long benchmarks (whole-chip plans, seconds per call) set `runs` instead: `warmup`
+ * untimed calls (default 1), then exactly `runs` timed calls, median and minimum over those. Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
  * `--strict` exits 1 when a median misses its target (timings on a shared machine vary ~2x, so
  * the default exit code is 0).
  */
@@ -25,6 +26,10 @@ export interface Benchmark {
   target?: number;
   setup?: () => void;
   run: () => unknown;
+  /** Fixed number of timed calls (for calls that take seconds); default: adaptive batches. */
+  runs?: number;
+  /** Untimed calls before the timed ones when `runs` is set (default 1). */
+  warmup?: number;
 }
 
 export interface BenchResult {
@@ -54,6 +59,7 @@ let sink: unknown;
 
 export function measure(b: Benchmark): { medianUs: number; minUs: number; calls: number } {
   b.setup?.();
+  if (b.runs !== undefined) return measureFixed(b, b.runs, b.warmup ?? 1);
   // Warm-up, and a first estimate of the time per call.
   let calls = 0;
   const t0 = now();
@@ -77,6 +83,21 @@ export function measure(b: Benchmark): { medianUs: number; minUs: number; calls:
   const mid = samples.length >> 1;
   const median = samples.length % 2 ? samples[mid] : 0.5 * (samples[mid - 1] + samples[mid]);
   return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: total };
+}
+
+/** `warmup` untimed calls, then `runs` timed calls one by one. */
+function measureFixed(b: Benchmark, runs: number, warmup: number): { medianUs: number; minUs: number; calls: number } {
+  for (let i = 0; i < warmup; i++) sink = b.run();
+  const samples: number[] = [];
+  for (let i = 0; i < Math.max(1, runs); i++) {
+    const s = now();
+    sink = b.run();
+    samples.push(now() - s);
+  }
+  samples.sort((x, y) => x - y);
+  const mid = samples.length >> 1;
+  const median = samples.length % 2 ? samples[mid] : 0.5 * (samples[mid - 1] + samples[mid]);
+  return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: samples.length };
 }
 
 function formatUs(us: number): string {

@@ -9,7 +9,7 @@
  * does not leave more edges infeasible nearby (edges with a qubit within three couplings of the
  * moved one are re-planned: a plan depends on its qubits' neighbours, the mover's next-nearest
  * neighbours and its parked spectators' neighbours); otherwise it is undone. The caller re-plans
- * every edge once more after any move, so the final plans all see the final parking. The number of trials is bounded
+ * those edges once more after all moves, so every final plan sees the final parking. The number of trials is bounded
  * (trialsPerEdge times the number of edges), so the result stays deterministic and the time
  * bounded.
  */
@@ -18,17 +18,20 @@ import { exactQubitState, type ExactQubitState } from '../exact-state.js';
 import type { ParkingState } from '../parking/state.js';
 import { planEdge, type EdgeContext, type EdgePlan } from './plan-edge.js';
 
-export const REPAIR_DEFAULTS = Object.freeze({ candidates: 4, trialsPerEdge: 1 });
+export const REPAIR_DEFAULTS = Object.freeze({ candidates: 3, trialsPerEdge: 0.5 });
 
 export interface RepairStats {
   trials: number;
   moves: number;
   fixed: number;
+  /** Edges whose plans may depend on a moved qubit (to re-plan against the final parking). */
+  touched: number[];
 }
 
 export function repairInfeasibleEdges(ec: EdgeContext, state: ParkingState, states: ExactQubitState[], plans: EdgePlan[], limits = REPAIR_DEFAULTS): RepairStats {
   const { ctx } = ec;
-  const stats: RepairStats = { trials: 0, moves: 0, fixed: 0 };
+  const stats: RepairStats = { trials: 0, moves: 0, fixed: 0, touched: [] };
+  const touched = new Set<number>();
   const budget = limits.trialsPerEdge * ctx.edges.length;
   const near = nearbyEdges(ctx);
   for (const e of ctx.edges) {
@@ -53,6 +56,7 @@ export function repairInfeasibleEdges(ec: EdgeContext, state: ParkingState, stat
         if (stats.trials >= budget) break;
         stats.trials++;
         if (tryMove(ec, state, states, plans, near, e.index, q, f)) {
+          for (const k of near[q]) touched.add(k);
           stats.moves++;
           stats.fixed++;
           fixed = true;
@@ -61,6 +65,7 @@ export function repairInfeasibleEdges(ec: EdgeContext, state: ParkingState, stat
       }
     }
   }
+  stats.touched = [...touched].sort((a, b) => a - b);
   return stats;
 }
 

@@ -26,6 +26,9 @@ const IMPROVEMENT = 1e-7;
 /** Candidates tried per qubit in a joint move. */
 const JOINT_CANDIDATES = 3;
 
+/** A joint move is tried only when the qubit alone would gain this much (estimated error per cycle). */
+const JOINT_MIN_GAIN = 1e-3;
+
 /** Total cost of qubit i where it stands (violation * penalty + soft). */
 function currentCost(state: ParkingState, i: number): number {
   const b = state.blockersOf(i);
@@ -33,8 +36,11 @@ function currentCost(state: ParkingState, i: number): number {
   return c.violation + c.soft;
 }
 
-/** Move qubit i to its cheapest candidate; returns true when it moved. */
-export function improveQubit(state: ParkingState, i: number): boolean {
+/**
+ * Move qubit i to its cheapest candidate, refined by a golden-section search inside its allowed
+ * interval when `refine`; returns true when it moved.
+ */
+export function improveQubit(state: ParkingState, i: number, refine = true): boolean {
   const blockers = state.blockersOf(i);
   const cands = state.candidates(i, blockers);
   let bestF = state.freq[i];
@@ -51,7 +57,7 @@ export function improveQubit(state: ParkingState, i: number): boolean {
   }
   // Refine inside the allowed interval of the best point (the cost has interior minima where
   // dephasing, ZZ and the other terms balance): 8 samples, then golden-section around the best.
-  if (best < state.options.search.violationPenalty) {
+  if (refine && best < state.options.search.violationPenalty) {
     const a = state.allowed(i, blockers).find((x) => bestF >= x.lo - 1e-12 && bestF <= x.hi + 1e-12);
     if (a && a.hi - a.lo > 2e-3) {
       const nudge = Math.min(state.options.search.nudgeGHz, (a.hi - a.lo) / 4);
@@ -80,7 +86,7 @@ export function improveQubit(state: ParkingState, i: number): boolean {
       let m2 = l + phi * (r - l);
       let c1 = total(m1);
       let c2 = total(m2);
-      for (let it = 0; it < 14; it++) {
+      for (let it = 0; it < 10; it++) {
         if (c1 < c2) {
           r = m2;
           m2 = m1;
@@ -211,8 +217,8 @@ function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: nu
     state.set(u, cands[rng.int(cands.length)]);
     for (let pass = 0; pass < 6; pass++) {
       let moved = 0;
-      for (const i of shuffled(region, rng)) if (i !== u && state.movable(i) && improveQubit(state, i)) moved++;
-      if (improveQubit(state, u)) moved++;
+      for (const i of shuffled(region, rng)) if (i !== u && state.movable(i) && improveQubit(state, i, false)) moved++;
+      if (improveQubit(state, u, false)) moved++;
       stats.moves += moved;
       if (moved === 0) break;
     }
@@ -261,7 +267,8 @@ export { currentCost };
  * Joint moves (escape from single-qubit local minima such as "the qubit would rather sit higher
  * but its neighbour blocks it"): for each movable qubit below its domain top, in a seeded order,
  * try its three cheapest candidates above it computed without its coupled neighbours (by its own
- * cost terms), let those neighbours re-optimise, and keep
+ * cost terms; only those that would lower its own cost by at least 1e-3), let those neighbours
+ * re-optimise, and keep
  * the best result when the cost of the qubit and its neighbours (violations included) falls.
  * Returns the number of accepted joint moves.
  */
@@ -283,21 +290,26 @@ export function jointMoves(state: ParkingState, rng: Random): number {
     for (const j of off) state.active[j] = 0;
     state.touch();
     const own = state.blockersOf(i);
+    const here = state.costAt(i, saved[0], own);
+    const hereTotal = here.violation + here.soft;
     const cands = state
       .candidates(i, own)
       .filter((f) => f > saved[0] + 1e-6)
       .map((f) => ({ f, c: state.costAt(i, f, own) }))
+      // only points that would pay for themselves without the neighbours' terms
+      .filter((x) => x.c.violation + x.c.soft < hereTotal - JOINT_MIN_GAIN)
       .sort((a, b) => a.c.violation + a.c.soft - (b.c.violation + b.c.soft) || a.f - b.f)
       .slice(0, JOINT_CANDIDATES)
       .map((x) => x.f);
     for (const j of off) state.active[j] = 1;
     state.touch();
+    if (cands.length === 0) continue;
     let best = base;
     let bestFreqs: number[] | null = null;
     for (const f of cands) {
       state.set(i, f);
-      for (const j of off) if (state.movable(j)) improveQubit(state, j);
-      improveQubit(state, i);
+      for (const j of off) if (state.movable(j)) improveQubit(state, j, false);
+      improveQubit(state, i, false);
       const c = regionCost();
       if (c < best - IMPROVEMENT) {
         best = c;
