@@ -1,7 +1,8 @@
 /**
  * Per-edge CZ design through the gate stage (./gate-seam.ts), on the interaction plan: mover,
  * partner, crossing and parking fluxes from the plan, the family and ramp the user asked for (else
- * the gate stage's best family and the ramp the plan chose), decoherence on by default, and with
+ * the gate stage's best family, and its default ramp unless the plan had to fall back to a faster
+ * one for the edge), decoherence on by default, and with
  * `spectators` the worst spectator of the gate simulated as a third transmon so its error shows
  * in the fidelity. The worst spectator is the neighbour of the mover or of the partner (at its
  * frequency during the gate) with the largest g / Delta, Delta its smallest distance to a
@@ -55,10 +56,13 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     moverParkFlux: plan.states[e.mover].flux,
     partnerFlux: plan.states[e.partner].flux,
     crossing: e.crossing,
-    rampNs: options.rampNs ?? e.rampNs,
     rules: ctx.rules,
     noise: options.noise ?? true,
   };
+  // The ramp: the user's, else the faster one the plan fell back to for this edge, else the gate
+  // stage's default for the family.
+  const ramp = options.rampNs ?? (e.rampNs < plan.options.rampNs ? e.rampNs : undefined);
+  if (ramp !== undefined) request.rampNs = ramp;
   if (options.family !== undefined) request.family = options.family;
   if (options.targetPhase !== undefined) request.targetPhase = options.targetPhase;
   if (options.spectators) {

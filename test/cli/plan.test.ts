@@ -104,6 +104,12 @@ describe('fluxlane plan with pulse design', () => {
     for (const e of plan.edges) {
       expect(Object.keys(e.gate)).toEqual(expect.arrayContaining(['edge', 'mover', 'family', 'rampTime', 'holdTime', 'duration', 'interactionFrequency', 'crossingOffset', 'conditionalPhase', 'leakage', 'fidelity', 'fidelityNoisy', 'virtualZ', 'speedLimit', 'untuned']));
       expect(existsSync(join(dir, 'out', e.gate.waveform))).toBe(true);
+      expect(e.gate.fidelityNoisy).toBeLessThan(e.gate.fidelity); // decoherence is on by default
     }
+    expect(readFileSync(join(dir, 'out/gates.csv'), 'utf8').split('\n')[1]).toMatch(/,faquad,|,[a-z-]+,/);
+    // The plan with its waveforms passes verify, which re-reads every waveform file.
+    const v = await runFluxlane(['verify', resolve('layouts/bowline-5.yaml'), 'out/plan.json', '--json'], { cwd: dir });
+    expect(v.code).toBe(r.code);
+    expect(v.json().checked.waveforms).toBe(4);
   });
 });
