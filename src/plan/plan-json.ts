@@ -80,7 +80,6 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     const edge = ctx.edges[e.edge];
     const gate = plan.gates?.[k] ?? null;
     const designed = gate?.design;
-    const interaction = designed && Number.isFinite(designed.interactionFrequencyGHz) ? designed.interactionFrequencyGHz : e.interactionGHz;
     const spectatorParking: Record<string, number> = {};
     const spectatorParkingFlux: Record<string, number> = {};
     for (const p of e.parked) {
@@ -92,14 +91,14 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
       mover: id[e.mover],
       partner: id[e.partner],
       crossing: e.crossing,
-      interactionFrequency: nullable(interaction, toHz),
-      crossingFrequency: nullable(e.interactionGHz, toHz),
+      interactionFrequency: nullable(e.interactionGHz, toHz),
+      crossingFrequency: nullable(e.crossingGHz, toHz),
       moverInteractionFlux: nullable(e.moverInteractionFlux, plain),
       crossingCoupling: nullable(e.crossingCouplingGHz, toHz),
       g: nullable(e.gAtInteractionGHz, toHz),
       speedLimit: nullable(e.speedLimitNs, toSeconds),
-      duration: nullable(designed ? designed.durationNs + (e.parked.length > 0 ? 2 * designed.rampNs : 0) : e.durationNs, toSeconds),
-      rampTime: toSeconds(designed ? designed.rampNs : e.rampNs),
+      duration: nullable(designed ? designed.durationNs + (e.parked.length > 0 ? 2 * e.rampNs : 0) : e.durationNs, toSeconds),
+      rampTime: toSeconds(e.rampNs),
       spectatorParking,
       spectatorParkingFlux,
       layer: plan.layers.layerOf[k],
@@ -185,7 +184,7 @@ export function gateTableText(plan: ChipPlan): string {
   const rows: string[][] = plan.edges.map((e, k) => {
     const gate = plan.gates?.[k] ?? null;
     const d = gate?.design;
-    const dest = d ? d.interactionFrequencyGHz : e.interactionGHz;
+    const dest = e.interactionGHz;
     const ok = (gate ? gate.findings : e.findings).length === 0;
     return [
       ctx.edges[e.edge].key,

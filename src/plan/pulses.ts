@@ -19,7 +19,9 @@ import { collectFindings } from './plan.js';
 import type { GateDesign, GateDesigner, GateDesignRequest, GateSpectatorRequest } from './gate-seam.js';
 import { evaluateGate, type DuringGate, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
-import type { EdgePlan } from './interaction/plan-edge.js';
+import { parkSpectators, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
+import { planLayers } from './layers.js';
+import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
 import { band, ghz, mhz, prob, ns } from './format.js';
 
@@ -37,12 +39,20 @@ export interface PulseOptions {
 export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void): void {
   const { ctx } = plan;
   let done = 0;
-  plan.gates = plan.edges.map((e) => {
-    const result = Number.isFinite(e.interactionGHz) ? designEdge(plan, designer, e, options) : null;
+  plan.gates = plan.edges.map((e, k) => {
+    if (!Number.isFinite(e.interactionGHz)) {
+      progress?.(++done, plan.edges.length);
+      return null;
+    }
+    const { gate, edge } = designEdge(plan, designer, e, options);
+    plan.edges[k] = edge;
     progress?.(++done, plan.edges.length);
-    return result;
+    return gate;
   });
-  void ctx;
+  // Destinations and spectator moves may have changed: layers and crowding again.
+  const f12 = plan.states.map((s) => s.f12GHz);
+  plan.layers = planLayers(ctx, plan.edges, f12, plan.parking.parkingGHz);
+  plan.crowding = crowding(ctx, plan.parking.parkingGHz, plan.states, calibratedZzScale(ctx, plan.parking.parkingGHz, plan.parking.idle.zzGHz), plan.edges);
   collectFindings(plan);
 }
 
@@ -56,7 +66,8 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     moverParkFlux: plan.states[e.mover].flux,
     partnerFlux: plan.states[e.partner].flux,
     crossing: e.crossing,
-    rules: ctx.rules,
+    // Spectators moved for the gate take two of the plan's ramps out of the time budget.
+    rules: e.parked.length > 0 ? { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - 2 * e.rampNs } : ctx.rules,
     noise: options.noise ?? true,
   };
   // The ramp: the user's, else the faster one the plan fell back to for this edge, else the gate
@@ -72,9 +83,10 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
   return request;
 }
 
-function designEdge(plan: ChipPlan, designer: GateDesigner, e: EdgePlan, options: PulseOptions): PlannedGate {
+function designEdge(plan: ChipPlan, designer: GateDesigner, e: EdgePlan, options: PulseOptions): { gate: PlannedGate; edge: EdgePlan } {
   const design = designer(gateRequest(plan, e, options));
-  return { design, findings: checkDesign(plan, e, design) };
+  const { findings, edge } = checkDesign(plan, e, design);
+  return { gate: { design, findings }, edge };
 }
 
 /** The neighbour of mover or partner with the largest g / Delta during the gate. */
@@ -100,8 +112,13 @@ export function worstSpectator(plan: ChipPlan, e: EdgePlan): GateSpectatorReques
   return best ? (best as { req: GateSpectatorRequest }).req : null;
 }
 
-/** The cz rules on the designed gate: destination as designed, mover sweeps at the waveform's rates. */
-export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): Finding[] {
+/**
+ * The cz rules on the designed gate: at its destination as designed (spectators moved again
+ * where the designed point needs it), the mover's sweeps at the waveform's rates, the duration
+ * with the spectator moves. Returns the findings and the edge plan updated to the designed
+ * destination and spectator moves.
+ */
+export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { findings: Finding[]; edge: EdgePlan } {
   const { ctx } = plan;
   const id = ctx.ids;
   const key = ctx.edges[e.edge].key;
@@ -112,29 +129,39 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): Fi
   }
   const mover = ctx.transmons[e.mover];
   const to = design.interactionFrequencyGHz;
-  const toFlux = mover.fluxForF01OrNull(to);
-  if (toFlux === null) return out;
+  const toFlux = Number.isFinite(to) ? mover.fluxForF01OrNull(to) : null;
+  if (toFlux === null) return { findings: out, edge: e };
   const parking: DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const parked = new Map<number, DuringGate>(e.parked.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }]));
   const scenario: GateScenario = {
     edge: e.edge, mover: e.mover, partner: e.partner, crossing: e.crossing,
     fromGHz: plan.states[e.mover].f01GHz, toGHz: to, moverF12AtToGHz: mover.spectrum(toFlux).f12GHz,
-    crossingCouplingGHz: e.crossingCouplingGHz, rampNs: design.rampNs, parking, parked,
+    crossingCouplingGHz: e.crossingCouplingGHz, rampNs: design.rampNs, spectatorRampNs: e.rampNs, parking, parked,
   };
-  const ev = evaluateGate(ctx, scenario);
+  const parkedInfo: ParkedSpectator[] = e.parked.map((p) => ({ ...p }));
+  const { evaluation: ev } = parkSpectators({ ctx, options: plan.options, blockers: plan.parking.state.blockers, states: plan.states }, scenario, parkedInfo);
   for (const f of ev.findings) {
     if (f.rule === 'cz-duration') continue;
     if (f.rule.startsWith('cz-swept-') && f.qubits[0] === id[e.mover]) continue;
     const { blame: _b, ...rest } = f;
     out.push(rest);
   }
-  const total = design.durationNs + (e.parked.length > 0 ? 2 * design.rampNs : 0);
+  const total = design.durationNs + (parkedInfo.length > 0 ? 2 * e.rampNs : 0);
   if (total > ctx.rules.maxGateNs + 1e-9) {
     out.push({ rule: 'cz-duration', qubits: [id[e.mover], id[e.partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
-      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${e.parked.length > 0 ? ` plus ${ns(2 * design.rampNs)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
+      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${parkedInfo.length > 0 ? ` plus ${ns(2 * e.rampNs)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
   }
   out.push(...waveformSweepFindings(plan.ctx, e.mover, key, ev.swept, design.waveform));
-  return out;
+  const edge: EdgePlan = {
+    ...e,
+    interactionGHz: to,
+    moverInteractionFlux: toFlux,
+    moverF12AtInteractionGHz: scenario.moverF12AtToGHz,
+    parked: parkedInfo,
+    swept: ev.swept,
+    durationNs: total,
+  };
+  return { findings: out, edge };
 }
 
 /**

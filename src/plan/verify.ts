@@ -97,11 +97,13 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
       parked.set(q, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
       parkedInfo.push({ qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' });
     }
+    // The mover sweeps with the gate's ramp; spectators move with the plan's.
     const rampNs = (pe.gate?.rampTime ?? pe.rampTime) * 1e9;
+    const spectatorRampNs = pe.rampTime * 1e9;
     const scenario: GateScenario = {
       edge: edge.index, mover, partner, crossing: pe.crossing,
       fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: ctx.transmons[mover].spectrum(toFlux).f12GHz,
-      crossingCouplingGHz: res.couplingGHz, rampNs, parking: states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })), parked,
+      crossingCouplingGHz: res.couplingGHz, rampNs, spectatorRampNs, parking: states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })), parked,
     };
     const ev = evaluateGate(ctx, scenario);
     const wfPath = pe.gate?.waveform;
@@ -121,17 +123,18 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     }
     if (waveform) violations.push(...waveformSweepFindings(ctx, mover, key, ev.swept, waveform));
     if (pe.gate?.duration !== undefined) {
-      const total = pe.gate.duration * 1e9 + (parked.size > 0 ? 2 * rampNs : 0);
-      if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the CZ on ${key} takes ${total.toFixed(1)} ns with spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
+      const total = pe.gate.duration * 1e9 + (parked.size > 0 ? 2 * spectatorRampNs : 0);
+      if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns with its spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
     }
     edgePlans[edge.index] = {
       ...stubPlan(edge.index, mover, partner, pe.crossing),
       feasible: ev.findings.length === 0,
+      crossingGHz: crossing,
       interactionGHz: to,
       moverInteractionFlux: toFlux,
       moverF12AtInteractionGHz: scenario.moverF12AtToGHz,
       crossingCouplingGHz: res.couplingGHz,
-      rampNs,
+      rampNs: spectatorRampNs,
       parked: parkedInfo,
       swept: ev.swept,
     };
@@ -170,7 +173,7 @@ function pairKey(a: string, b: string): string {
 
 function stubPlan(edge: number, mover: number, partner: number, crossing: '11-20' | '11-02'): EdgePlan {
   return {
-    edge, mover, partner, crossing, feasible: false, interactionGHz: NaN, moverInteractionFlux: NaN, moverF12AtInteractionGHz: NaN,
+    edge, mover, partner, crossing, feasible: false, crossingGHz: NaN, interactionGHz: NaN, moverInteractionFlux: NaN, moverF12AtInteractionGHz: NaN,
     crossingCouplingGHz: NaN, speedLimitNs: NaN, gAtInteractionGHz: NaN, durationNs: NaN, rampNs: NaN, parked: [], swept: [], findings: [],
     score: Infinity, reason: '', options: [],
   };

@@ -70,19 +70,19 @@ describe('checkDesign', () => {
   };
 
   it('flags the defect A sweeps through when the waveform passes it slowly, at the waveform\'s own rate', () => {
-    const slow = checkDesign(plan, e, design(200));
+    const slow = checkDesign(plan, e, design(200)).findings;
     const f = slow.find((x) => x.rule === 'cz-swept-tls');
     expect(f, JSON.stringify(slow)).toBeDefined();
     // The transfer reported is the Landau-Zener value at |df01/dt| there (g = width / 2 = 2 MHz).
     const rate = (f!.details!.rateHzPerS as number) * 1e-18;
     expect(f!.value).toBeCloseTo(landauZenerTransfer(0.002, rate), 12);
-    const fast = checkDesign(plan, e, design(2));
+    const fast = checkDesign(plan, e, design(2)).findings;
     expect(fast.find((x) => x.rule === 'cz-swept-tls')).toBeUndefined();
   });
 
   it('reports an infeasible design with the gate stage\'s reason', () => {
     const bad = { ...design(5), feasible: false, reason: 'no hold reaches pi within 100 ns' };
-    expect(checkDesign(plan, e, bad).map((x) => x.message)).toContain('no CZ design for A-B within 100.0 ns: no hold reaches pi within 100 ns');
+    expect(checkDesign(plan, e, bad).findings.map((x) => x.message)).toContain('no CZ design for A-B within 100.0 ns: no hold reaches pi within 100 ns');
   });
 });
 

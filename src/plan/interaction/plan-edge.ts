@@ -60,7 +60,12 @@ export interface EdgePlan {
   partner: number;
   crossing: Crossing;
   feasible: boolean;
-  /** Interaction frequency (mover f01 at the crossing), or NaN when no crossing is reachable. */
+  /** The crossing: the mover's f01 where the bare resonance with the partner at parking lies (NaN when unreachable). */
+  crossingGHz: number;
+  /**
+   * The interaction (destination) frequency: the crossing, until a designed gate moves it to its
+   * own offset (src/plan/pulses.ts).
+   */
   interactionGHz: number;
   moverInteractionFlux: number;
   moverF12AtInteractionGHz: number;
@@ -157,7 +162,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): E
   if (!chosen.scenario || !chosen.eval) {
     const partner0 = e.b;
     return {
-      edge, mover: e.a, partner: partner0, crossing: '11-20', feasible: false, interactionGHz: NaN, moverInteractionFlux: NaN,
+      edge, mover: e.a, partner: partner0, crossing: '11-20', feasible: false, crossingGHz: NaN, interactionGHz: NaN, moverInteractionFlux: NaN,
       moverF12AtInteractionGHz: NaN, crossingCouplingGHz: NaN, speedLimitNs: NaN, gAtInteractionGHz: NaN, durationNs: NaN, rampNs,
       parked: [], swept: [], findings: chosen.report.problems, score: Infinity, reason, options: reports,
     };
@@ -173,6 +178,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): E
     partner: s.partner,
     crossing: s.crossing,
     feasible: chosen.report.feasible,
+    crossingGHz: s.toGHz,
     interactionGHz: s.toGHz,
     moverInteractionFlux: atFlux,
     moverF12AtInteractionGHz: s.moverF12AtToGHz,
@@ -224,15 +230,47 @@ function evaluateOption(
     parking,
     parked,
   };
+  const resolved = parkSpectators(ec, scenario, parkedInfo);
+  const ev = resolved.evaluation;
+  const unmovable = resolved.unmovable;
+  parkedInfo.sort((a, b) => a.qubit - b.qubit);
+  const feasible = ev.findings.length === 0;
+  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs);
+  const report: OptionReport = {
+    mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
+    note: feasible
+      ? `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`
+      : `${ev.findings.length} problem(s): ${[...new Set(ev.findings.map((f) => `${f.rule} ${f.qubits.filter((q) => q !== id[mover]).join('/')}`.trim()))].slice(0, 4).join('; ')}` +
+        (unmovable.length > 0 ? ` (${unmovable.join('; ')})` : ''),
+  };
+  return { report, scenario, eval: ev, g: res.couplingGHz };
+}
+
+/**
+ * Resolve by spectator parking every finding of a scenario that a spectator's temporary move
+ * could clear (up to three rounds; the qubits already moved may be moved again). `scenario.parked`
+ * and `parkedInfo` are updated in place. Returns the final evaluation and, for each spectator that
+ * could not be moved, why.
+ */
+export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedInfo: ParkedSpectator[]): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
+  const { ctx } = ec;
+  const id = ctx.ids;
+  const parked = scenario.parked as Map<number, DuringGate>;
   let ev = evaluateGate(ctx, scenario);
   const tried = new Set<number>();
   const unmovable: string[] = [];
   for (let round = 0; round < MAX_PARKING_ROUNDS; round++) {
-    const blamed = [...new Set(ev.findings.map((f) => f.blame).filter((q) => q >= 0 && q !== mover && q !== partner && !tried.has(q)))].sort((a, b) => a - b);
+    const blamed = [...new Set(ev.findings.map((f) => f.blame).filter((q) => q >= 0 && q !== scenario.mover && q !== scenario.partner && !tried.has(q)))].sort((a, b) => a - b);
     if (blamed.length === 0) break;
     for (const P of blamed) {
       tried.add(P);
       const rules = [...new Set(ev.findings.filter((f) => f.blame === P).map((f) => f.rule))];
+      // A spectator moved before is placed again from scratch.
+      const before = parked.get(P);
+      const k = parkedInfo.findIndex((p) => p.qubit === P);
+      const beforeInfo = k >= 0 ? parkedInfo[k] : undefined;
+      parked.delete(P);
+      if (k >= 0) parkedInfo.splice(k, 1);
       const search = spectatorParkingCandidates(ctx, ec.blockers, scenario, P);
       let placed = false;
       for (const x of search.points.slice(0, 6)) {
@@ -255,6 +293,11 @@ function evaluateOption(
         parked.delete(P);
       }
       if (!placed) {
+        if (before && beforeInfo) {
+          // keep its earlier temporary point rather than none
+          parked.set(P, before);
+          parkedInfo.push(beforeInfo);
+        }
         ev = evaluateGate(ctx, scenario);
         unmovable.push(
           search.points.length === 0
@@ -265,16 +308,7 @@ function evaluateOption(
     }
   }
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
-  const feasible = ev.findings.length === 0;
-  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs);
-  const report: OptionReport = {
-    mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
-    note: feasible
-      ? `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`
-      : `${ev.findings.length} problem(s): ${[...new Set(ev.findings.map((f) => `${f.rule} ${f.qubits.filter((q) => q !== id[mover]).join('/')}`.trim()))].slice(0, 4).join('; ')}` +
-        (unmovable.length > 0 ? ` (${unmovable.join('; ')})` : ''),
-  };
-  return { report, scenario, eval: ev, g: res.couplingGHz };
+  return { evaluation: ev, unmovable };
 }
 
 function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], durationNs: number): number {

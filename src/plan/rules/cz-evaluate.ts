@@ -18,7 +18,7 @@
  *   for each parked spectator P at its temporary frequency: cz-parked-01-01, -01-12,
  *     -next-01-01, -tls, -readout against the others (the mover excepted), and its own sweep from
  *     parking with the same cz-swept rules (the mover still at parking then).
- *   cz-duration: 1 / (2 g_c) + 2 rampNs (+ 2 rampNs when spectators move) <= maxGate.
+ *   cz-duration: 1 / (2 g_c) + 2 rampNs (+ 2 spectatorRampNs when spectators move) <= maxGate.
  *
  * Each finding names, in `blame`, the qubit whose temporary move could clear it (a spectator or
  * next-nearest neighbour), or none (the partner, a defect, the resonator: only another mover or
@@ -55,7 +55,10 @@ export interface GateScenario {
   moverF12AtToGHz: number;
   /** Bare coupling of the crossing (GHz). */
   crossingCouplingGHz: number;
+  /** Ramp time of the mover (sets its sweep rate). */
   rampNs: number;
+  /** Ramp time of each parked spectator's move (default rampNs). */
+  spectatorRampNs?: number;
   /** Every qubit at parking (exact f01, f12). */
   parking: readonly DuringGate[];
   /** Spectators moved for this gate: qubit -> temporary f01/f12 (exact). */
@@ -176,10 +179,10 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
       add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator`, blame: P });
     }
     const from = s.parking[P].f01GHz;
-    const rate = Math.abs(f - from) / s.rampNs;
+    const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
     sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add);
   }
-  const durationNs = 1 / (2 * s.crossingCouplingGHz) + 2 * s.rampNs + (s.parked.size > 0 ? 2 * s.rampNs : 0);
+  const durationNs = 1 / (2 * s.crossingCouplingGHz) + 2 * s.rampNs + (s.parked.size > 0 ? 2 * (s.spectatorRampNs ?? s.rampNs) : 0);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
       message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus ramps${s.parked.size > 0 ? ' and spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
