@@ -77,6 +77,15 @@ describe('fluxlane plan --no-pulses', () => {
     expect(plan.explanations.some((x: any) => x.kind === 'edge')).toBe(true);
   });
 
+  it('draws progress bars on a terminal only, and erases them', async () => {
+    const tty = await runFluxlane(['plan', 'layouts/hitch-30.yaml', '--no-pulses'], { stderrIsTTY: true });
+    expect(tty.err).toMatch(/\rspectra \[#*\.*\] \d+\/30/);
+    expect(tty.err).toMatch(/\rinteraction \[#*\.*\] \d+\/32/);
+    expect(tty.err.endsWith('\r\x1b[K')).toBe(true);
+    const piped = await runFluxlane(['plan', 'layouts/hitch-30.yaml', '--no-pulses']);
+    expect(piped.err).toBe('');
+  });
+
   it('bad options exit 2 naming the option', async () => {
     const r = await runFluxlane(['plan', 'layouts/bowline-5.yaml', '--no-pulses', '--seed', 'x']);
     expect(r.code).toBe(2);

@@ -86,6 +86,21 @@ describe('checkDesign', () => {
   });
 });
 
+describe('gateRequest', () => {
+  it('passes the worst spectator as a third transmon only with spectators on, and the user ramp and family', () => {
+    const plan = planChip(loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml'));
+    const e = plan.edges[0];
+    expect(gateRequest(plan, e, {}).spectators).toBeUndefined();
+    const req = gateRequest(plan, e, { spectators: true, family: 'erf', rampNs: 12, targetPhase: Math.PI / 2 });
+    expect(req.spectators).toHaveLength(1);
+    expect(req.spectators![0].transmon.id).toBe(worstSpectator(plan, e)!.transmon.id);
+    expect(req).toMatchObject({ family: 'erf', rampNs: 12, targetPhase: Math.PI / 2, noise: true });
+    // A gate with spectator moves keeps two of the plan's ramps out of the designer's budget.
+    const moved = plan.edges.find((x) => x.parked.length > 0)!;
+    expect(gateRequest(plan, moved, {}).rules.maxGateNs).toBe(plan.ctx.rules.maxGateNs - 2 * moved.rampNs);
+  });
+});
+
 describe('worstSpectator', () => {
   it('is the neighbour of the mover or partner with the largest g / Delta during the gate', () => {
     const plan = planChip(loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml'));
