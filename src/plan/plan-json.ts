@@ -7,7 +7,7 @@
  */
 import { formatTrajectoryCsv } from '../sim/trajectory.js';
 import type { ChipPlan } from './plan.js';
-import { ghz, mhz, khz, ns, plain, prob, toHz, toSeconds } from './format.js';
+import { ghz, mhz, khz, ns, plain, toHz, toSeconds } from './format.js';
 import { toFindingJson } from './rules/findings.js';
 import type { GateDesign } from './gate-seam.js';
 import { bandText } from './crowding.js';
@@ -155,7 +155,7 @@ const CSV_HEADER = [
 ];
 
 /** The gate table: one CSV row per edge. */
-export function gateTableCsv(plan: ChipPlan, json: Record<string, unknown>): string {
+export function gateTableCsv(json: Record<string, unknown>): string {
   const edges = json.edges as Record<string, any>[];
   const rows = [CSV_HEADER.join(',')];
   for (const e of edges) {
@@ -167,7 +167,6 @@ export function gateTableCsv(plan: ChipPlan, json: Record<string, unknown>): str
     ];
     rows.push(cells.map(csvCell).join(','));
   }
-  void plan;
   return rows.join('\n') + '\n';
 }
 
@@ -232,7 +231,6 @@ export function planText(plan: ChipPlan, file: string): string {
       ? `ok: every rule holds; ${plan.flags.length} flag(s). Model estimates: verify on hardware, respect flux-line current limits.`
       : `FAILED: ${plan.violations.length} violation(s), ${plan.flags.length} flag(s). Model estimates: verify on hardware.`,
   );
-  void prob;
   return lines.join('\n');
 }
 

@@ -89,7 +89,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   if (o.outputDir !== undefined) {
     const dir = o.outputDir.replace(/\/+$/, '') || '.';
     files.push({ path: `${dir}/plan.json`, contents: `${JSON.stringify(json, null, 2)}\n` });
-    files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(plan, json) });
+    files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(json) });
     files.push({ path: `${dir}/gates.txt`, contents: gateTableText(plan) });
     files.push(...waveformFiles(plan, dir));
   }

@@ -193,7 +193,6 @@ export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: 
  * more rules than before. Stops when nothing is broken or the kick budget is spent.
  */
 function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: number, stats: SearchStats): void {
-  const ctx = state.ctx;
   let pending = stuck;
   while (pending.length > 0 && stats.kicks < budget) {
     stats.kicks++;
@@ -227,7 +226,6 @@ function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: nu
     pending = region.filter((i) => state.active[i] && state.violationOf(i) > 0);
     if (pending.length === 0) pending = allViolating(state);
   }
-  void ctx;
 }
 
 /** The qubits, their neighbours and next-nearest neighbours (active only), in index order. */
