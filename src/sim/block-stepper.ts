@@ -10,7 +10,8 @@
  * eigen-decomposition of each small Hermitian block.
  *
  * U_I: the interaction picture of H_x relative to the in-block motion, taken about the middle
- * of the step with the block Hamiltonian H_m = (H(t1) + H(t2))/2 = Q Lambda Q^dag, so that in
+ * of the step with the block Hamiltonian H_m = Q Lambda Q^dag, taken as M / h from the in-block
+ * Magnus exponent (equal to (H(t1) + H(t2))/2 up to O(h^2)), so that in
  * Q's basis H_x(t) = X_m + tau X_d + (tau^2/2) X_c (a parabola through the two nodes and the
  * midpoint) oscillates as e^{i (w_pq tau + w'_pq tau^2 / 2)} (w_pq = lambda_p - lambda_q, GHz-scale
  * for states of different manifolds, w' its rate from dE/dt; the chirp enters to first order).
@@ -36,8 +37,6 @@ const TWO_PI = 2 * Math.PI;
 class BlockScratch {
   readonly mr: Float64Array;
   readonly mi: Float64Array;
-  readonly hr: Float64Array;
-  readonly hi: Float64Array;
   readonly u: HermitianEigen;
   readonly q: HermitianEigen;
   readonly work: Float64Array;
@@ -46,8 +45,6 @@ class BlockScratch {
     const m = size;
     this.mr = new Float64Array(m * m);
     this.mi = new Float64Array(m * m);
-    this.hr = new Float64Array(m * m);
-    this.hi = new Float64Array(m * m);
     this.u = { values: new Float64Array(m), vectorsRe: new Float64Array(m * m), vectorsIm: new Float64Array(m * m) };
     this.q = { values: new Float64Array(m), vectorsRe: new Float64Array(m * m), vectorsIm: new Float64Array(m * m) };
     this.work = new Float64Array(4 * m * m);
@@ -75,6 +72,9 @@ export class BlockStepper {
   /** second time derivative of X (from the midpoint value), half of it enters as tau^2 / 2 */
   private readonly xcr: Float64Array;
   private readonly xci: Float64Array;
+  private readonly qFullRe: Float64Array;
+  private readonly qFullIm: Float64Array;
+  private readonly tFull: Float64Array;
   /** Tables per pair: S0(w_pq), cos/sin(w_pq h/2). */
   private readonly s0: Float64Array;
   private readonly ch: Float64Array;
@@ -91,7 +91,11 @@ export class BlockStepper {
   /** Whether the current step has an inter-manifold part. */
   private coupled = false;
 
-  constructor(blocks: readonly FrameBlock[], d: number) {
+  /**
+   * `inBlockOnly`: skip the inter-manifold part (an approximation for fast scans; its effect on
+   * the computational block is second order in B_x, ~1e-6 for typical ramps).
+   */
+  constructor(blocks: readonly FrameBlock[], d: number, private readonly inBlockOnly = false) {
     this.d = d;
     this.blocks = blocks.map((b) => new BlockScratch(b.start, b.size));
     this.blockOf = new Int32Array(d);
@@ -109,6 +113,9 @@ export class BlockStepper {
     this.xdi = new Float64Array(dd);
     this.xcr = new Float64Array(dd);
     this.xci = new Float64Array(dd);
+    this.qFullRe = new Float64Array(dd);
+    this.qFullIm = new Float64Array(dd);
+    this.tFull = new Float64Array(2 * dd);
     this.s0 = new Float64Array(dd);
     this.ch = new Float64Array(dd);
     this.sh = new Float64Array(dd);
@@ -177,20 +184,16 @@ export class BlockStepper {
           b.mr[j * m + i] = re;
           b.mi[i * m + j] = i === j ? 0 : im;
           b.mi[j * m + i] = i === j ? 0 : -im;
-          // Mid-step block Hamiltonian (rad/ns).
-          const hre = Math.PI * (e1[n * d + k] + e2[n * d + k]);
-          const him = -0.5 * (b1[n * d + k] + b2[n * d + k]);
-          b.hr[i * m + j] = hre;
-          b.hr[j * m + i] = hre;
-          b.hi[i * m + j] = i === j ? 0 : him;
-          b.hi[j * m + i] = i === j ? 0 : -him;
         }
       }
       const warm = b.hasStart && m >= WARM_START_MIN;
       hermitianEigen(b.mr, b.mi, m, { out: b.u, start: warm ? { re: b.u.vectorsRe, im: b.u.vectorsIm } : undefined, sort: false, work: b.work });
-      hermitianEigen(b.hr, b.hi, m, { out: b.q, start: warm ? { re: b.q.vectorsRe, im: b.q.vectorsIm } : undefined, sort: false, work: b.work });
+      // The interaction frame of the inter-manifold step uses H_m = M / h + O(h^2): the
+      // eigenvectors of M serve (their O(h^2) difference enters only the small coupling terms).
+      b.q.vectorsRe.set(b.u.vectorsRe);
+      b.q.vectorsIm.set(b.u.vectorsIm);
       b.hasStart = true;
-      for (let i = 0; i < m; i++) this.lam[o + i] = b.q.values[i];
+      for (let i = 0; i < m; i++) this.lam[o + i] = b.u.values[i] / h;
       // d lambda_i/dt ~ 2 pi (Q^dag dE/dt Q)_ii, dE/dt = (E2 - E1) sqrt3 / h
       const kd = Math.sqrt(3) / h;
       for (let i = 0; i < m; i++) {
@@ -211,71 +214,69 @@ export class BlockStepper {
     // Inter-manifold coupling in Q's basis: X = Q^dag (-i B_x) Q for off-block pairs.
     let any = false;
     for (let p = 0; p < d && !any; p++) for (let q = 0; q < d; q++) if (bo[p] !== bo[q] && (b1[p * d + q] !== 0 || b2[p * d + q] !== 0)) any = true;
-    this.coupled = any;
+    this.coupled = any && !this.inBlockOnly;
     if (!this.coupled) return;
     const kd = Math.sqrt(3) / h; // 1 / (h (c2 - c1)) = 1 / (2 delta)
     const kc = 12 / (h * h); // 1 / delta^2, delta = h sqrt3 / 6 (second difference, halved below)
     const { xmr, xmi, xdr, xdi } = this;
-    for (const ba of this.blocks) {
-      for (const bb of this.blocks) {
-        if (ba === bb) continue;
-        const ma = ba.size;
-        const mb = bb.size;
-        for (let i = 0; i < ma; i++) {
-          for (let j = 0; j < mb; j++) {
-            // sum_{r in a, s in b} conj(Qa[r][i]) (-i Bx[r][s]) Qb[s][j]
-            let mr = 0;
-            let mi = 0;
-            let dr = 0;
-            let di = 0;
-            let qr2 = 0;
-            let qi2 = 0;
-            for (let r = 0; r < ma; r++) {
-              const qar = ba.q.vectorsRe[r * ma + i];
-              const qai = -ba.q.vectorsIm[r * ma + i];
-              // t = sum_s Bx[r][s] Qb[s][j] for mean and difference
-              let tmr = 0;
-              let tmi = 0;
-              let tdr = 0;
-              let tdi = 0;
-              let tcr = 0;
-              let tci = 0;
-              const row = (ba.start + r) * d + bb.start;
-              for (let s = 0; s < mb; s++) {
-                const bm = bMid ? bMid[row + s] : 0.5 * (b1[row + s] + b2[row + s]);
-                const bd = (b2[row + s] - b1[row + s]) * kd;
-                const bc = bMid ? (b1[row + s] - 2 * bm + b2[row + s]) * kc : 0;
-                const qbr = bb.q.vectorsRe[s * mb + j];
-                const qbi = bb.q.vectorsIm[s * mb + j];
-                tmr += bm * qbr;
-                tmi += bm * qbi;
-                tdr += bd * qbr;
-                tdi += bd * qbi;
-                tcr += bc * qbr;
-                tci += bc * qbi;
-              }
-              // (-i) * t
-              const ar = tmi;
-              const ai = -tmr;
-              const cr = tdi;
-              const ci = -tdr;
-              const er = tci;
-              const ei = -tcr;
-              mr += qar * ar - qai * ai;
-              mi += qar * ai + qai * ar;
-              dr += qar * cr - qai * ci;
-              di += qar * ci + qai * cr;
-              qr2 += qar * er - qai * ei;
-              qi2 += qar * ei + qai * er;
-            }
-            const p = (ba.start + i) * d + bb.start + j;
-            xmr[p] = mr;
-            xmi[p] = mi;
-            xdr[p] = dr;
-            xdi[p] = di;
-            this.xcr[p] = qr2;
-            this.xci[p] = qi2;
+    // X = Q^dag (-i B_x) Q for the mean, slope and curvature of B over the step (off-block
+    // entries only), as T = B Q (sum over the block of the column) then Q^dag T (sum over the
+    // block of the row): O(D^2 m) each.
+    const bo2 = this.blockOf;
+    const qr = this.qFullRe;
+    const qi = this.qFullIm;
+    qr.fill(0);
+    qi.fill(0);
+    for (const b of this.blocks) {
+      const m = b.size;
+      for (let r = 0; r < m; r++)
+        for (let c = 0; c < m; c++) {
+          qr[(b.start + r) * d + b.start + c] = b.q.vectorsRe[r * m + c];
+          qi[(b.start + r) * d + b.start + c] = b.q.vectorsIm[r * m + c];
+        }
+    }
+    const tr = this.tFull;
+    for (let variant = 0; variant < 3; variant++) {
+      // T[r][j] (complex, stored re then im) = sum_{s in block(j)} Bv[r][s] Q[s][j] for r outside block(j)
+      for (let r = 0; r < d; r++) {
+        for (let j = 0; j < d; j++) {
+          if (bo2[r] === bo2[j]) continue;
+          const blk = this.blocks[bo2[j]];
+          let sr = 0;
+          let si = 0;
+          for (let s2 = blk.start; s2 < blk.start + blk.size; s2++) {
+            const idx = r * d + s2;
+            let bv: number;
+            if (variant === 0) bv = bMid ? bMid[idx] : 0.5 * (b1[idx] + b2[idx]);
+            else if (variant === 1) bv = (b2[idx] - b1[idx]) * kd;
+            else bv = bMid ? (b1[idx] - 2 * bMid[idx] + b2[idx]) * kc : 0;
+            sr += bv * qr[s2 * d + j];
+            si += bv * qi[s2 * d + j];
           }
+          tr[2 * (r * d + j)] = sr;
+          tr[2 * (r * d + j) + 1] = si;
+        }
+      }
+      const outR = variant === 0 ? xmr : variant === 1 ? xdr : this.xcr;
+      const outI = variant === 0 ? xmi : variant === 1 ? xdi : this.xci;
+      for (let i = 0; i < d; i++) {
+        const blk = this.blocks[bo2[i]];
+        for (let j = 0; j < d; j++) {
+          if (bo2[i] === bo2[j]) continue;
+          // sum_{r in block(i)} conj(Q[r][i]) (-i) T[r][j]
+          let sr = 0;
+          let si = 0;
+          for (let r = blk.start; r < blk.start + blk.size; r++) {
+            const ar = qr[r * d + i];
+            const ai = -qi[r * d + i];
+            const t1 = tr[2 * (r * d + j)];
+            const t2 = tr[2 * (r * d + j) + 1];
+            // (-i)(t1 + i t2) = t2 - i t1
+            sr += ar * t2 + ai * t1;
+            si += ai * t2 - ar * t1;
+          }
+          outR[i * d + j] = sr;
+          outI[i * d + j] = si;
         }
       }
     }

@@ -36,12 +36,13 @@ export interface FramePropagationOptions {
   /**
    * 'blocks' (default): Magnus per manifold block plus the exact-oscillation treatment of the
    * inter-manifold coupling (src/sim/block-stepper.ts); 'full': one Magnus exponential of the
-   * whole generator (simple, needs steps short against the inter-manifold periods; a reference).
+   * whole generator (simple, needs steps short against the inter-manifold periods; a reference);
+   * 'in-block': the block Magnus alone, dropping the inter-manifold coupling (fast scans only).
    */
-  scheme?: 'blocks' | 'full';
+  scheme?: 'blocks' | 'full' | 'in-block';
 }
 
-export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.1, maxAngle: 0.1, maxEjStepGHz: 0.5, scheme: 'blocks' as 'blocks' | 'full' });
+export const FRAME_PROPAGATION_DEFAULTS = Object.freeze({ maxStepNs: 0.1, maxAngle: 0.1, maxEjStepGHz: 0.5, scheme: 'blocks' as 'blocks' | 'full' | 'in-block' });
 
 /** Final amplitudes of each initial frame vector (in its sector's frame basis). */
 export interface FrameColumns {
@@ -78,9 +79,9 @@ export class SectorStepper {
   hasStart = false;
   private readonly blocks: BlockStepper | undefined;
 
-  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, scheme: 'blocks' | 'full' = 'blocks') {
+  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, scheme: 'blocks' | 'full' | 'in-block' = 'blocks') {
     const d = sector.size;
-    this.blocks = scheme === 'blocks' ? new BlockStepper(sector.blocks, d) : undefined;
+    this.blocks = scheme === 'full' ? undefined : new BlockStepper(sector.blocks, d, scheme === 'in-block');
     this.d = d;
     this.e1 = new Float64Array(d * d);
     this.e2 = new Float64Array(d * d);

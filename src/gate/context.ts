@@ -1,0 +1,67 @@
+/**
+ * What a ramp family and the tuner need to know about one edge's CZ (../../shared/physics.md
+ * secs. 2 and 6): the mover, its static partner at its parking flux, the charge coupling, and
+ * which avoided crossing the gate uses (11-20: the mover goes to |2>, above the partner by
+ * |alpha_mover|; 11-02: the partner's |2>, mover below by |alpha_partner|).
+ */
+import type { Transmon } from '../transmon/transmon.js';
+
+export type CrossingName = '11-20' | '11-02';
+
+export interface EdgeContext {
+  mover: Transmon;
+  partner: Transmon;
+  partnerFlux: number;
+  /** Charge coupling G (GHz). */
+  gChargeGHz: number;
+  crossing: CrossingName;
+  moverParkFlux: number;
+}
+
+/**
+ * The crossing as a two-level system in bare frequencies, along the mover's flux:
+ *   11-20: Delta = E_20 - E_11 = f12_mover - f01_partner,  J = G |n12_mover| |n01_partner|,
+ *   11-02: Delta = E_02 - E_11 = f12_partner - f01_mover,  J = G |n01_mover| |n12_partner|.
+ * Gap sqrt(Delta^2 + 4 J^2), mixing angle theta = atan2(2 J, Delta) in (0, pi): theta -> 0 far on
+ * the parking side, pi/2 at the crossing.
+ */
+export interface TwoLevelPoint {
+  deltaGHz: number;
+  jGHz: number;
+  theta: number;
+  gapGHz: number;
+}
+
+/**
+ * The 01-10 exchange pair along the mover's flux: Delta' = f01_mover - f01_partner, J' = g (the
+ * exchange coupling there). A CZ passes near it on the way to the 11-20 crossing (the mover ends
+ * |alpha| above the partner), and ramps that rush it leave a 01 <-> 10 exchange error.
+ */
+export function exchangeAt(ctx: EdgeContext, moverFlux: number): TwoLevelPoint {
+  const fm = ctx.mover.f01(moverFlux);
+  const fp = ctx.partner.f01(ctx.partnerFlux);
+  const j = ctx.gChargeGHz * ctx.mover.chargeElement01(moverFlux) * ctx.partner.chargeElement01(ctx.partnerFlux);
+  let delta = fm - fp;
+  if (ctx.mover.f01(ctx.moverParkFlux) - fp < 0) delta = -delta;
+  return { deltaGHz: delta, jGHz: j, theta: Math.atan2(2 * j, delta), gapGHz: Math.sqrt(delta * delta + 4 * j * j) };
+}
+
+export function twoLevelAt(ctx: EdgeContext, moverFlux: number): TwoLevelPoint {
+  const m = ctx.mover.spectrum(moverFlux);
+  const p = ctx.partner.spectrum(ctx.partnerFlux);
+  const nm = ctx.mover.chargeBasis(moverFlux, 3).charge;
+  const np = ctx.partner.chargeBasis(ctx.partnerFlux, 3).charge;
+  let delta: number;
+  let j: number;
+  if (ctx.crossing === '11-20') {
+    delta = m.f12GHz - p.f01GHz;
+    j = ctx.gChargeGHz * Math.abs(nm[5]) * Math.abs(np[1]);
+  } else {
+    delta = p.f12GHz - m.f01GHz;
+    j = ctx.gChargeGHz * Math.abs(nm[1]) * Math.abs(np[5]);
+  }
+  // orient so that the parking side has Delta > 0
+  const parkDelta = ctx.crossing === '11-20' ? ctx.mover.spectrum(ctx.moverParkFlux).f12GHz - p.f01GHz : p.f12GHz - ctx.mover.f01(ctx.moverParkFlux);
+  if (parkDelta < 0) delta = -delta;
+  return { deltaGHz: delta, jGHz: j, theta: Math.atan2(2 * j, delta), gapGHz: Math.sqrt(delta * delta + 4 * j * j) };
+}

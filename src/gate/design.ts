@@ -1,0 +1,317 @@
+/**
+ * Per-edge CZ pulse design (the gate stage's entry point; the planner calls it through
+ * src/plan/gate-seam.ts):
+ *
+ *   1. the crossing: the bare resonance (src/pair/resonances.ts), then the exact minimum of the
+ *      dressed |11>-|20> (or |11>-|02>) splitting in the simulator's model (src/gate/crossing.ts);
+ *   2. the ramp family's flux ramp from parking to a destination offset from that crossing;
+ *   3. tuning of the hold and the offset for the target conditional phase with the least leakage
+ *      (src/gate/tune.ts), on fast ramp-only simulations (src/gate/hold-scan.ts);
+ *   4. the realised waveform (AWG samples, optional flux-line filter, src/gate/pulse.ts),
+ *      simulated as exported, with the hold corrected by secant steps until phi_c hits the
+ *      target on the samples themselves (physics.md sec. 6: the metrics are those of the file);
+ *   5. decoherence (Lindblad and the first-order estimate) with `noise`;
+ *   6. the untuned reference: destination at the exact crossing, hold 1/gap - ramp (the
+ *      two-level full-cycle time, physics.md sec. 2), same family and ramp.
+ * Units: GHz, ns, Phi0, rad. Model: mover 6 levels, partner 4, spectators 3 (src/sim/pair-model.ts).
+ */
+import type { Rules } from '../layout/types.js';
+import { chargeCouplingFromExchange } from '../pair/coupling.js';
+import { pairResonances } from '../pair/resonances.js';
+import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
+import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
+import { computationalStates, simulateGate, type GateSimulation } from '../sim/simulate-gate.js';
+import { propagateInFrame } from '../sim/propagate-frame.js';
+import { wrapAngle } from '../sim/gate-metrics.js';
+import type { Trajectory } from '../sim/trajectory.js';
+import type { Transmon } from '../transmon/transmon.js';
+import type { CrossingName, EdgeContext } from './context.js';
+import { exactCrossing } from './crossing.js';
+import { RampInfeasible, rampFamily, RAMP_FAMILIES, type Ramp, type RampFamily } from './families/index.js';
+import { HoldScan } from './hold-scan.js';
+import { pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
+import { bestHold, searchOffset, type HoldSolution } from './tune.js';
+import { TwoLevelTable } from './two-level-table.js';
+
+export interface GateSpectatorRequest {
+  transmon: Transmon;
+  coupledTo: 'mover' | 'partner';
+  gGHz: number;
+  flux: number;
+}
+
+export interface GateDesignRequest {
+  mover: Transmon;
+  partner: Transmon;
+  /** Layout g (both at Phi = 0). */
+  gGHz: number;
+  moverParkFlux: number;
+  partnerFlux: number;
+  crossing: CrossingName;
+  family?: string;
+  rampNs?: number;
+  /** Default pi. */
+  targetPhase?: number;
+  rules: Pick<Rules, 'maxGateNs' | 'sampleRateGHz' | 'fluxBandwidthGHz'>;
+  noise?: boolean;
+  spectators?: GateSpectatorRequest[];
+}
+
+export interface GateDesign {
+  mover: string;
+  family: string;
+  rampNs: number;
+  holdNs: number;
+  durationNs: number;
+  interactionFrequencyGHz: number;
+  crossingOffsetGHz: number;
+  conditionalPhase: number;
+  leakage: number;
+  fidelity: number;
+  fidelityNoisy?: number;
+  /** First-order decoherence estimate of 1 - F (with noise). */
+  decoherenceEstimate?: number;
+  virtualZ: { a: number; b: number };
+  speedLimitNs: number;
+  untuned: { conditionalPhase: number; leakage: number; fidelity: number };
+  waveform: Trajectory;
+  feasible: boolean;
+  reason?: string;
+  /** The exact crossing found (mover flux and f01, minimum splitting). */
+  crossingFlux: number;
+  crossingFrequencyGHz: number;
+  gapGHz: number;
+  /** Populations of 20 and 02 at the end, from 11. */
+  populations: { '20': number; '02': number };
+  /** Simulations run while tuning (for profiling). */
+  evaluations: number;
+}
+
+export const DEFAULT_FAMILY = 'faquad';
+export const DEFAULT_RAMP_NS: Readonly<Record<string, number>> = Object.freeze({
+  faquad: 8,
+  'fast-adiabatic': 8,
+  'squeezing-aware': 8,
+  erf: 8,
+  linear: 8,
+});
+
+export const DESIGN_DEFAULTS = Object.freeze({
+  /** Offset window, in units of the minimum splitting, on the parking side (+) and beyond (-). */
+  offsetWindow: [-1, 3] as const,
+  coarseOffsets: 15,
+  goldenSteps: 8,
+  candidates: 2,
+  /** A fine offset grid +-fineWindow gaps around the crossing (short gates live there). */
+  fineWindow: 0.3,
+  finePoints: 17,
+  /** Step of the ramp-only simulations while tuning (ns; in-block scheme, the final simulations use the full one). */
+  tuningStepNs: 0.5,
+  /** Stop the secant correction of the hold on the samples below this phase error (rad). */
+  phaseTolerance: 2e-5,
+  maxSecant: 8,
+});
+
+export function designCzGate(req: GateDesignRequest): GateDesign {
+  const theta = req.targetPhase ?? Math.PI;
+  const family = rampFamily(req.family ?? DEFAULT_FAMILY);
+  if (!family) throw new RangeError(`unknown ramp family ${req.family}; known: ${RAMP_FAMILIES.map((f) => f.name).join(', ')}`);
+  const rampNs = req.rampNs ?? DEFAULT_RAMP_NS[family.name] ?? 8;
+  const { mover, partner } = req;
+  const gCharge = chargeCouplingFromExchange(req.gGHz, mover.chargeElement01(0), partner.chargeElement01(0));
+  const ctx: EdgeContext = { mover, partner, partnerFlux: req.partnerFlux, gChargeGHz: gCharge, crossing: req.crossing, moverParkFlux: req.moverParkFlux };
+  const infeasible = (reason: string): GateDesign => ({
+    mover: mover.id,
+    family: family.name,
+    rampNs,
+    holdNs: 0,
+    durationNs: 0,
+    interactionFrequencyGHz: NaN,
+    crossingOffsetGHz: NaN,
+    conditionalPhase: NaN,
+    leakage: NaN,
+    fidelity: NaN,
+    virtualZ: { a: NaN, b: NaN },
+    speedLimitNs: NaN,
+    untuned: { conditionalPhase: NaN, leakage: NaN, fidelity: NaN },
+    waveform: { timeNs: new Float64Array(0), flux: new Float64Array(0) },
+    feasible: false,
+    reason,
+    crossingFlux: NaN,
+    crossingFrequencyGHz: NaN,
+    gapGHz: NaN,
+    populations: { '20': NaN, '02': NaN },
+    evaluations: 0,
+  });
+  // 1. Bare resonance on the mover's branch, oriented to the parking flux's sign.
+  const res = pairResonances(mover, partner, req.partnerFlux, gCharge)[req.crossing];
+  if (!res) return infeasible(`the ${req.crossing} crossing lies outside ${mover.id}'s tunable range`);
+  const sgn = req.moverParkFlux < 0 ? -1 : 1;
+  const xBare = sgn * res.moverFlux;
+  const park = req.moverParkFlux;
+  const towards = Math.sign(xBare - park) || 1;
+  // Flux range: parking to somewhat beyond the crossing (for offsets past it), inside [-1/2, 1/2].
+  const span = Math.abs(xBare - park);
+  const far = Math.max(-0.5, Math.min(0.5, xBare + towards * Math.max(0.25 * span, 0.02)));
+  const table = new TwoLevelTable(ctx, park, far);
+  const model = edgeSimModel({ mover, partner, gGHz: req.gGHz, partnerFlux: req.partnerFlux, noise: !!req.noise, spectators: req.spectators as EdgeSpectator[] | undefined });
+  const ejPark = mover.ejGHz(park);
+  const ejFar = mover.ejGHz(far);
+  const frame = buildManifoldFrame(model, { ejLo: Math.min(ejPark, ejFar), ejHi: Math.max(ejPark, ejFar), noiseOperators: !!req.noise });
+  const ejOf = (x: number): number => mover.ejGHz(x);
+  // 2. Exact crossing near the bare one.
+  const w = Math.max(0.2 * span, 0.005);
+  const cross = exactCrossing(frame, req.crossing, ejOf, Math.max(Math.min(park, far), xBare - w), Math.min(Math.max(park, far), xBare + w));
+  const fCross = mover.f01(cross.flux);
+  const fPark = mover.f01(park);
+  const parkSide = Math.sign(fPark - fCross) || 1;
+  const gAtCross = gCharge * mover.chargeElement01(cross.flux) * partner.chargeElement01(req.partnerFlux);
+  const speedLimitNs = 1 / (2 * Math.SQRT2 * gAtCross);
+  const maxHold = req.rules.maxGateNs - 2 * rampNs;
+  if (maxHold < 0) return { ...infeasible(`the ramps alone (2 x ${rampNs} ns) exceed the maximum gate duration ${req.rules.maxGateNs} ns`), speedLimitNs };
+  const { comp } = computationalStates(frame, park);
+  const initial = comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) }));
+  const destFor = (offsetGHz: number): number | null => {
+    const f = fCross + parkSide * offsetGHz;
+    if (offsetGHz === 0) return cross.flux;
+    const x = mover.fluxForF01OrNull(f);
+    if (x === null) return null;
+    const xs = sgn * x;
+    if ((xs - park) * towards <= 0) return null; // the destination must lie between parking and beyond
+    if ((far - xs) * towards < 0) return null;
+    return xs;
+  };
+  const rampFor = (destFlux: number): Ramp | null => {
+    try {
+      return family.ramp({ ctx, table, parkFlux: park, destFlux, rampNs });
+    } catch (e) {
+      if (e instanceof RampInfeasible) return null;
+      throw e;
+    }
+  };
+  let evaluations = 0;
+  const scanFor = (offsetGHz: number): { scan: HoldScan; shape: PulseShape } | null => {
+    const dest = destFor(offsetGHz);
+    if (dest === null) return null;
+    const ramp = rampFor(dest);
+    if (!ramp) return null;
+    const shape: PulseShape = { ramp, rampNs, holdNs: 0, parkFlux: park, destFlux: dest };
+    const traj = rampTrajectory(shape, req.rules.sampleRateGHz);
+    const res = propagateInFrame(frame, traj, initial, { maxStepNs: DESIGN_DEFAULTS.tuningStepNs, scheme: 'in-block' });
+    evaluations++;
+    return { scan: new HoldScan(frame, ejOf(dest), comp, res.re, res.im, rampNs), shape };
+  };
+  // 3. Tune. The tuner weighs a longer hold by the decoherence it costs: the idle rate
+  // (2/5) sum_q (1/T1 + 1/T_phi) (physics.md sec. 4) with both qubits at the crossing point.
+  const gapScale = cross.gapGHz;
+  const errorPerNs = holdErrorRate(mover, cross.flux) + holdErrorRate(partner, req.partnerFlux);
+  const found = searchOffset(
+    (delta) => {
+      const s = scanFor(delta);
+      return s ? bestHold(s.scan, theta, maxHold, undefined, errorPerNs) : null;
+    },
+    DESIGN_DEFAULTS.offsetWindow[0] * gapScale,
+    DESIGN_DEFAULTS.offsetWindow[1] * gapScale,
+    DESIGN_DEFAULTS.coarseOffsets,
+    DESIGN_DEFAULTS.goldenSteps,
+    DESIGN_DEFAULTS.candidates,
+    [-DESIGN_DEFAULTS.fineWindow * gapScale, DESIGN_DEFAULTS.fineWindow * gapScale, DESIGN_DEFAULTS.finePoints],
+  );
+  // 6. Untuned reference (also reported when tuning fails).
+  const untunedShape = (() => {
+    const dest = cross.flux;
+    const ramp = rampFor(dest);
+    if (!ramp) return null;
+    return { ramp, rampNs, holdNs: Math.max(0, Math.min(maxHold, 1 / cross.gapGHz - rampNs)), parkFlux: park, destFlux: dest } as PulseShape;
+  })();
+  const wave = (shape: PulseShape): Trajectory => sampleWaveform(shape, { sampleRateGHz: req.rules.sampleRateGHz, bandwidthGHz: req.rules.fluxBandwidthGHz });
+  const simulateWave = (traj: Trajectory, lindblad = false): GateSimulation => {
+    evaluations++;
+    return simulateGate(frame, traj, { targetPhase: theta, lindblad });
+  };
+  const untuned = untunedShape ? simulateWave(wave(untunedShape)) : undefined;
+  const untunedOut = untuned
+    ? { conditionalPhase: untuned.conditionalPhase, leakage: untuned.leakage, fidelity: untuned.fidelity }
+    : { conditionalPhase: NaN, leakage: NaN, fidelity: NaN };
+  const common = { speedLimitNs, crossingFlux: cross.flux, crossingFrequencyGHz: fCross, gapGHz: cross.gapGHz, untuned: untunedOut };
+  if (!found) {
+    return {
+      ...infeasible(`no hold time within the maximum gate duration (${req.rules.maxGateNs} ns) reaches a conditional phase of ${theta.toFixed(4)} rad at any destination offset in [${(DESIGN_DEFAULTS.offsetWindow[0] * gapScale * 1e3).toFixed(1)}, ${(DESIGN_DEFAULTS.offsetWindow[1] * gapScale * 1e3).toFixed(1)}] MHz with the ${family.name} ramp of ${rampNs} ns`),
+      ...common,
+      evaluations,
+    };
+  }
+  // 4. The realised waveform; secant correction of the hold on the samples.
+  const best = scanFor(found.offsetGHz)!;
+  let hold = found.hold.holdNs;
+  let shape: PulseShape = { ...best.shape, holdNs: hold };
+  // one spare sample interval, held fixed while the hold is corrected (continuity in the hold)
+  const intervals = Math.ceil(pulseDuration(shape) * req.rules.sampleRateGHz - 1e-9) + 1;
+  const waveFixed = (sh: PulseShape): Trajectory => sampleWaveform(sh, { sampleRateGHz: req.rules.sampleRateGHz, bandwidthGHz: req.rules.fluxBandwidthGHz, minIntervals: intervals });
+  let traj = waveFixed(shape);
+  let sim = simulateWave(traj);
+  let err = wrapAngle(sim.conditionalPhase - theta);
+  // slope dphi/dt from the hold scan (finite difference), then secant on the samples
+  const probe = (t: number): number => {
+    const m = best.scan.block(t);
+    return computePhase(m);
+  };
+  let slope = (wrapAngle(probe(hold + 1e-3) - probe(Math.max(0, hold - 1e-3))) / (hold + 1e-3 - Math.max(0, hold - 1e-3))) || 1;
+  let prevHold = hold;
+  let prevErr = err;
+  let bestSeen = { err, hold, traj, sim };
+  for (let it = 0; it < DESIGN_DEFAULTS.maxSecant && Math.abs(err) > DESIGN_DEFAULTS.phaseTolerance; it++) {
+    let next = hold - err / slope;
+    next = Math.max(0, Math.min(maxHold, next));
+    if (next === hold) break;
+    prevHold = hold;
+    prevErr = err;
+    hold = next;
+    shape = { ...best.shape, holdNs: hold };
+    traj = waveFixed(shape);
+    sim = simulateWave(traj);
+    err = wrapAngle(sim.conditionalPhase - theta);
+    if (Math.abs(err) < Math.abs(bestSeen.err)) bestSeen = { err, hold, traj, sim };
+    if (hold !== prevHold && err !== prevErr) slope = (err - prevErr) / (hold - prevHold);
+  }
+  ({ hold, traj, sim } = bestSeen);
+  // 5. Noise on the final waveform.
+  let final = sim;
+  if (req.noise) final = simulateWave(traj, true);
+  const dest = best.shape.destFlux;
+  return {
+    mover: mover.id,
+    family: family.name,
+    rampNs,
+    holdNs: hold,
+    durationNs: traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0],
+    interactionFrequencyGHz: mover.f01(dest),
+    crossingOffsetGHz: mover.f01(dest) - fCross,
+    conditionalPhase: final.conditionalPhase,
+    leakage: final.leakage,
+    fidelity: final.fidelity,
+    fidelityNoisy: final.noisy?.fidelity,
+    decoherenceEstimate: req.noise ? final.decoherenceEstimate : undefined,
+    virtualZ: final.virtualZ,
+    waveform: traj,
+    feasible: true,
+    populations: final.populations,
+    ...common,
+    evaluations,
+  };
+}
+
+/** (2/5) (1/T1 + 1/T_phi) of a transmon at a flux (0 without coherence data), 1/ns. */
+function holdErrorRate(q: Transmon, flux: number): number {
+  if (!q.coherenceSpec) return 0;
+  const c = q.coherence(flux);
+  const r = (t: number): number => (Number.isFinite(t) && t > 0 ? 1 / t : 0);
+  return 0.4 * (r(c.t1Ns) + r(c.tphiNs));
+}
+
+function computePhase(m: { re: Float64Array; im: Float64Array }): number {
+  const arg = (k: number): number => Math.atan2(m.im[k * 5], m.re[k * 5]);
+  return wrapAngle(arg(3) - arg(2) - arg(1) + arg(0));
+}
+
+export { pulseDuration, type RampFamily, type ManifoldFrame };

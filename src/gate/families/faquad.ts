@@ -1,0 +1,52 @@
+/**
+ * FAQUAD, fast quasi-adiabatic dynamics (Martinez-Garaot, Ruschhaupt, Gillet, Busch and Muga,
+ * Phys. Rev. A 92, 043406 (2015)): the control lambda (here the mover flux) runs so that the
+ * adiabaticity parameter of the gate's avoided crossing is constant along the ramp,
+ *
+ *     |<+| d_lambda H |->| / (E_+ - E_-)^2 * dlambda/dt = c,
+ *
+ * which for a two-level model (src/gate/context.ts) is mu(lambda) dlambda/dt = c with
+ * mu = |d theta / d lambda| / (2 gap). Hence t(lambda) = rampNs * int_park^lambda mu / int_park^dest mu,
+ * inverted on a fine grid. The ramp is slow where the crossing is narrow and fast far from it.
+ */
+import { tabulatedRamp, type RampFamily } from './family.js';
+
+export const FAQUAD_GRID = 400;
+
+export const faquadFamily: RampFamily = {
+  name: 'faquad',
+  summary: 'constant adiabaticity against the 11-20 (or 11-02) crossing',
+  source: 'Martinez-Garaot et al., Phys. Rev. A 92, 043406 (2015)',
+  ramp: ({ table, parkFlux, destFlux, rampNs }) => {
+    const n = FAQUAD_GRID;
+    const xs = new Float64Array(n + 1);
+    const mu = new Float64Array(n + 1);
+    const th = new Float64Array(n + 1);
+    const gap = new Float64Array(n + 1);
+    for (let k = 0; k <= n; k++) {
+      xs[k] = parkFlux + ((destFlux - parkFlux) * k) / n;
+      const p = table.at(xs[k]);
+      th[k] = p.theta;
+      gap[k] = p.gapGHz;
+    }
+    const diff = (v: Float64Array, k: number): number => (k === 0 ? v[1] - v[0] : k === n ? v[n] - v[n - 1] : 0.5 * (v[k + 1] - v[k - 1]));
+    for (let k = 0; k <= n; k++) mu[k] = Math.abs(diff(th, k)) / (2 * gap[k]);
+    // cumulative integral (trapezoid) = time fraction
+    const cum = new Float64Array(n + 1);
+    for (let k = 1; k <= n; k++) cum[k] = cum[k - 1] + 0.5 * (mu[k] + mu[k - 1]);
+    const total = cum[n];
+    // invert: flux at equally spaced times
+    const out = new Float64Array(n + 1);
+    let k = 0;
+    for (let q = 0; q <= n; q++) {
+      const target = (total * q) / n;
+      while (k < n - 1 && cum[k + 1] < target) k++;
+      const span = cum[k + 1] - cum[k];
+      const f = span > 0 ? Math.min(1, Math.max(0, (target - cum[k]) / span)) : 0;
+      out[q] = xs[k] + f * (xs[k + 1] - xs[k]);
+    }
+    out[0] = parkFlux;
+    out[n] = destFlux;
+    return tabulatedRamp(rampNs, out);
+  },
+};

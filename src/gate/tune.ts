@@ -1,0 +1,175 @@
+/**
+ * Hold and destination tuning of a CZ (issue: find the hold time at the destination and the
+ * destination's offset from the exact crossing that give the target conditional phase with the
+ * least leakage, within the maximum gate duration).
+ *
+ * For a destination offset delta (mover f01 at the destination minus its f01 at the exact
+ * crossing), one simulation of the ramp gives the gate for every hold time (src/gate/hold-scan.ts).
+ * Along the hold, phi_c(t) is scanned on a fine grid; every solution of phi_c(t) = theta (mod
+ * 2 pi) is refined by bisection and the one with the least estimated error kept: the coherent
+ * error 1 - F (leakage plus any exchange error) plus the decoherence a longer hold costs,
+ * errorPerNs * hold (the caller's estimate of the decoherence rate at the destination), with
+ * leakage above 5e-5 penalised strongly (leakage is the error virtual-Z corrections and later
+ * gates cannot undo): e*(delta). e* is minimised over delta by a
+ * coarse scan over the offset window followed by a golden-section search around the best point. When no offset has a solution within the
+ * duration limit, the tuner says so.
+ */
+import { conditionalPhase, gateMetrics, leakage, wrapAngle, type Block4 } from '../sim/gate-metrics.js';
+import type { HoldScan } from './hold-scan.js';
+
+export interface HoldSolution {
+  holdNs: number;
+  leakage: number;
+  conditionalPhase: number;
+  /** 1 - F (coherent, after optimal virtual Z). */
+  infidelity: number;
+  /** What the tuner minimises: infidelity + errorPerNs * hold (an estimate of decoherence). */
+  score: number;
+}
+
+export const HOLD_SCAN_DEFAULTS = Object.freeze({
+  stepNs: 0.1,
+  refine: 12,
+  /** Leakage above this is penalised with leakageWeight per unit (a near-hard limit). */
+  leakageTarget: 5e-5,
+  leakageWeight: 1000,
+});
+
+/**
+ * The hold in [0, maxHoldNs] reaching phi_c = theta with the least coherent error (1 - F, which
+ * contains the leakage and any exchange error between 01 and 10), or null.
+ */
+export function bestHold(scan: HoldScan, theta: number, maxHoldNs: number, stepNs: number = HOLD_SCAN_DEFAULTS.stepNs, errorPerNs = 0): HoldSolution | null {
+  if (!(maxHoldNs >= 0)) return null;
+  const buf: Block4 = { re: new Float64Array(16), im: new Float64Array(16) };
+  const err = (t: number): number => wrapAngle(conditionalPhase(scan.block(t, buf)) - theta);
+  const n = Math.max(1, Math.ceil(maxHoldNs / stepNs));
+  const step = maxHoldNs / n;
+  const grid = scan.phaseScan(step, n);
+  let best: HoldSolution | null = null;
+  const consider = (t: number): void => {
+    const m = scan.block(t, buf);
+    const g = gateMetrics(m, theta);
+    const l = leakage(m);
+    const excess = Math.max(0, l - HOLD_SCAN_DEFAULTS.leakageTarget);
+    const sol = { holdNs: t, leakage: l, conditionalPhase: conditionalPhase(m), infidelity: 1 - g.fidelity, score: 1 - g.fidelity + errorPerNs * t + HOLD_SCAN_DEFAULTS.leakageWeight * excess };
+    if (!best || sol.score < best.score * (1 - 1e-9) - 1e-12) best = sol;
+  };
+  let e0 = wrapAngle(grid[0] - theta);
+  if (Math.abs(e0) < 1e-12) consider(0);
+  for (let k = 1; k <= n; k++) {
+    const e1 = wrapAngle(grid[k] - theta);
+    // a genuine zero crossing (not the wrap jump at +-pi)
+    if (e0 !== 0 && Math.sign(e0) !== Math.sign(e1) && Math.abs(e0 - e1) < Math.PI) {
+      // Illinois (modified false position) on the bracket
+      let a = (k - 1) * step;
+      let b = k * step;
+      let ea = e0;
+      let eb = e1;
+      let side = 0;
+      let m = a;
+      for (let it = 0; it < HOLD_SCAN_DEFAULTS.refine; it++) {
+        m = (a * eb - b * ea) / (eb - ea);
+        const em = err(m);
+        if (Math.abs(em) < 1e-12 || b - a < 1e-12) break;
+        if (Math.sign(em) === Math.sign(ea)) {
+          a = m;
+          ea = em;
+          if (side === -1) eb *= 0.5;
+          side = -1;
+        } else {
+          b = m;
+          eb = em;
+          if (side === 1) ea *= 0.5;
+          side = 1;
+        }
+      }
+      consider(m);
+    } else if (e1 === 0) consider(k * step);
+    e0 = e1;
+  }
+  return best;
+}
+
+export interface OffsetSearchResult {
+  offsetGHz: number;
+  hold: HoldSolution;
+  evaluations: number;
+}
+
+/**
+ * Minimise e*(delta) over [lo, hi]: `coarse` equally spaced points, then golden-section search
+ * in the bracket of each of the `candidates` best local minima of the coarse scan (the landscape
+ * has narrow minima where the leakage of the two ramps interferes away). `evaluate` returns null
+ * when an offset has no solution.
+ */
+export function searchOffset(
+  evaluate: (offsetGHz: number) => HoldSolution | null,
+  lo: number,
+  hi: number,
+  coarse = 17,
+  golden = 9,
+  candidates = 3,
+  /** An extra fine grid [from, to, points], e.g. around the exact crossing where short gates live. */
+  fine?: [number, number, number],
+): OffsetSearchResult | null {
+  const pts: number[] = [];
+  for (let k = 0; k < coarse; k++) pts.push(lo + ((hi - lo) * k) / (coarse - 1));
+  if (fine) for (let k = 0; k < fine[2]; k++) pts.push(fine[0] + ((fine[1] - fine[0]) * k) / (fine[2] - 1));
+  pts.sort((a, b) => a - b);
+  const xs: number[] = [];
+  const vals: (HoldSolution | null)[] = [];
+  let evaluations = 0;
+  for (const x of pts) {
+    if (xs.length > 0 && Math.abs(x - xs[xs.length - 1]) < 1e-12) continue;
+    xs.push(x);
+    vals.push(evaluate(x));
+    evaluations++;
+  }
+  coarse = xs.length;
+  const score = (s: HoldSolution | null): number => (s ? s.score : Infinity);
+  let best: { offsetGHz: number; hold: HoldSolution } | null = null;
+  const note = (x: number, s: HoldSolution | null): void => {
+    if (s && (!best || s.score < best.hold.score)) best = { offsetGHz: x, hold: s };
+  };
+  xs.forEach((x, k) => note(x, vals[k]));
+  if (!best) return null;
+  const minima = xs
+    .map((_, k) => k)
+    .filter((k) => Number.isFinite(score(vals[k])) && (k === 0 || score(vals[k]) <= score(vals[k - 1])) && (k === coarse - 1 || score(vals[k]) <= score(vals[k + 1])))
+    .sort((a, b) => score(vals[a]) - score(vals[b]))
+    .slice(0, candidates);
+  const r = (Math.sqrt(5) - 1) / 2;
+  const brackets: [number, number][] = minima.map((k) => [xs[Math.max(0, k - 1)], xs[Math.min(coarse - 1, k + 1)]] as [number, number]);
+  for (const [a0, b0] of brackets) {
+    let a = a0;
+    let b = b0;
+    let c = b - r * (b - a);
+    let d = a + r * (b - a);
+    let sc = evaluate(c);
+    let sd = evaluate(d);
+    evaluations += 2;
+    note(c, sc);
+    note(d, sd);
+    for (let it = 0; it < golden; it++) {
+      if (score(sc) < score(sd)) {
+        b = d;
+        d = c;
+        sd = sc;
+        c = b - r * (b - a);
+        sc = evaluate(c);
+        note(c, sc);
+      } else {
+        a = c;
+        c = d;
+        sc = sd;
+        d = a + r * (b - a);
+        sd = evaluate(d);
+        note(d, sd);
+      }
+      evaluations++;
+    }
+  }
+  const found = best as { offsetGHz: number; hold: HoldSolution };
+  return { ...found, evaluations };
+}
