@@ -4,7 +4,8 @@
  * the partner parks so low that the mover's excursion crosses half the chip) is retried with one
  * of its qubits parked elsewhere. For each such edge, in order, the qubits tried are its partner,
  * the other qubits its findings name, then its mover; for each, up to `candidates` parking points
- * that keep every idle rule (its allowed set, cheapest first by the parking cost). A move is kept
+ * that keep every idle rule (the cheapest point of each of its allowed intervals first, then the
+ * next cheapest, by the parking cost). A move is kept
  * when it clears the edge, keeps the exact ZZ of the moved qubit's pairs within the limit, and
  * does not leave more edges infeasible nearby (edges with a qubit within three couplings of the
  * moved one are re-planned: a plan depends on its qubits' neighbours, the mover's next-nearest
@@ -50,8 +51,23 @@ export function repairInfeasibleEdges(ec: EdgeContext, state: ParkingState, stat
         .map((f) => ({ f, c: state.costAt(q, f, blockers) }))
         .filter((x) => x.c.violation === 0)
         .sort((a, b) => a.c.soft - b.c.soft || a.f - b.f);
+      // The cheapest point of each allowed interval first (a qubit in the way often has to go far).
+      const allowed = state.allowed(q, blockers);
+      const intervalOf = (f: number) => allowed.findIndex((a) => f >= a.lo - 1e-12 && f <= a.hi + 1e-12);
+      const firstOfEach: number[] = [];
+      const rest: number[] = [];
+      const seenInterval = new Set<number>();
       const seen = new Set<number>();
-      const cands = scored.filter((x) => (seen.has(x.f) ? false : (seen.add(x.f), true))).slice(0, limits.candidates).map((x) => x.f);
+      for (const x of scored) {
+        if (seen.has(x.f)) continue;
+        seen.add(x.f);
+        const k = intervalOf(x.f);
+        if (!seenInterval.has(k)) {
+          seenInterval.add(k);
+          firstOfEach.push(x.f);
+        } else rest.push(x.f);
+      }
+      const cands = [...firstOfEach, ...rest].slice(0, limits.candidates);
       for (const f of cands) {
         if (stats.trials >= budget) break;
         stats.trials++;
