@@ -97,17 +97,26 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   return plan;
 }
 
-/** One explanation per edge that no option clears (its reason names what each option ran into). */
-function edgeExplanations(plan: ChipPlan): Explanation[] {
+/**
+ * One explanation per edge that cannot be run cleanly: no option clears it (its reason names
+ * what each option ran into), or its designed gate breaks a rule.
+ */
+export function edgeExplanations(plan: ChipPlan): Explanation[] {
   const { ctx } = plan;
-  return plan.edges
-    .filter((e) => !e.feasible)
-    .map((e) => {
-      const key = ctx.edges[e.edge].key;
-      const qubits = [...new Set([ctx.ids[e.mover], ctx.ids[e.partner], ...e.findings.flatMap((f) => f.qubits)])];
-      const rules = [...new Set(e.findings.map((f) => f.rule))];
-      return { kind: 'edge' as const, qubits, rules, message: `${key}: ${e.reason}`, lines: e.findings.map((f) => f.message) };
-    });
+  const out: Explanation[] = [];
+  plan.edges.forEach((e, k) => {
+    const key = ctx.edges[e.edge].key;
+    const gate = plan.gates?.[k];
+    const findings = gate ? gate.findings : e.findings;
+    if (findings.length === 0) return;
+    const qubits = [...new Set([ctx.ids[e.mover], ctx.ids[e.partner], ...findings.flatMap((f) => f.qubits)])];
+    const rules = [...new Set(findings.map((f) => f.rule))];
+    const message = gate && e.findings.length === 0
+      ? `${key}: the designed CZ (${gate.design.family}) breaks ${rules.join(', ')}: ${findings[0].message}`
+      : `${key}: ${e.reason}`;
+    out.push({ kind: 'edge', qubits, rules, message, lines: findings.map((f) => f.message) });
+  });
+  return out;
 }
 
 /** Recompute `violations` and `flags` from the stages (after pulses replace an edge's findings). */

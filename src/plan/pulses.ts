@@ -15,7 +15,7 @@
  * These findings replace the plan's linear-ramp estimate for the edge.
  */
 import type { ChipPlan, PlannedGate } from './plan.js';
-import { collectFindings } from './plan.js';
+import { collectFindings, edgeExplanations } from './plan.js';
 import type { GateDesign, GateDesigner, GateDesignRequest, GateSpectatorRequest } from './gate-seam.js';
 import { evaluateGate, type DuringGate, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
@@ -54,6 +54,7 @@ export function designPulses(plan: ChipPlan, designer: GateDesigner, options: Pu
   plan.layers = planLayers(ctx, plan.edges, f12, plan.parking.parkingGHz);
   plan.crowding = crowding(ctx, plan.parking.parkingGHz, plan.states, calibratedZzScale(ctx, plan.parking.parkingGHz, plan.parking.idle.zzGHz), plan.edges);
   collectFindings(plan);
+  plan.explanations = [...plan.explanations.filter((x) => x.kind === 'parking'), ...edgeExplanations(plan)];
 }
 
 export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions): GateDesignRequest {
