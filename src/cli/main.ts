@@ -18,6 +18,7 @@ import { registerCheck } from './commands/check.js';
 import { registerGenerate } from './commands/generate.js';
 import { registerPair } from './commands/pair.js';
 import { registerSimulate } from './commands/simulate.js';
+import { registerGate } from './commands/gate.js';
 import { registerSpectrum } from './commands/spectrum.js';
 import { registerPlan } from './commands/plan.js';
 import { registerVerify } from './commands/verify.js';
@@ -26,7 +27,7 @@ import { registerVerify } from './commands/verify.js';
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerPlan, registerVerify];
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify];
 
 function packageVersion(): string {
   try {
