@@ -4,7 +4,8 @@
  * src/plan/rules/catalogue.ts satisfied, and the cost of ./cost.ts minimised.
  *
  * 1. Frequency groups by DSATUR colouring (./colouring.ts); greedy construction (./search.ts).
- * 2. Seeded local search with the fast rules (tables, second-order ZZ).
+ * 2. Seeded local search with the fast rules (tables, second-order ZZ): a descent, joint moves,
+ *    then a descent with refined candidates.
  * 3. Exact check: every qubit's exact flux, every pair's exact dressed ZZ (CoupledPair). Each
  *    edge's ZZ estimate is rescaled to the exact value at the current point and, while an exact
  *    ZZ breaks the limit, the search runs again from where it stands (at most
@@ -44,16 +45,15 @@ export function assignParking(ctx: PlanContext, options: PlanOptions, progress?:
   const stats: SearchStats & { rounds: number } = { sweeps: 0, moves: 0, kicks: 0, rounds: 0 };
   for (let round = 0; round < Math.max(1, options.search.calibrationRounds); round++) {
     stats.rounds++;
-    const s = localSearch(state, rng, options.search);
-    stats.sweeps += s.sweeps;
-    stats.moves += s.moves;
-    stats.kicks += s.kicks;
-    if (jointMoves(state, rng) > 0) {
-      const again = localSearch(state, rng, options.search);
-      stats.sweeps += again.sweeps;
-      stats.moves += again.moves;
-      stats.kicks += again.kicks;
-    }
+    // A cheap descent first, joint moves out of local minima, then the refined descent.
+    const add = (s: SearchStats) => {
+      stats.sweeps += s.sweeps;
+      stats.moves += s.moves;
+      stats.kicks += s.kicks;
+    };
+    add(localSearch(state, rng, options.search, false));
+    jointMoves(state, rng);
+    add(localSearch(state, rng, options.search, true));
     progress?.(`search round ${round + 1}`);
     if (!recalibrate(ctx, state)) break;
   }

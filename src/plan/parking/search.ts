@@ -153,9 +153,10 @@ export function constructionOrder(state: ParkingState, members: readonly number[
 /**
  * Seeded local search over the active movable qubits. A worklist keeps the sweeps cheap on big
  * chips: after the first full sweep, only qubits next to one that moved (neighbours and
- * next-nearest neighbours) are visited again.
+ * next-nearest neighbours) are visited again. Without `refine`, candidates are not refined by the
+ * golden-section search (a cheaper first descent).
  */
-export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: number; kicks: number }): SearchStats {
+export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: number; kicks: number }, refine = true): SearchStats {
   const n = state.ctx.n;
   const free: number[] = [];
   for (let i = 0; i < n; i++) if (state.movable(i)) free.push(i);
@@ -168,7 +169,7 @@ export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: 
     const next = new Set<number>();
     let moved = 0;
     for (const i of order) {
-      if (!improveQubit(state, i)) continue;
+      if (!improveQubit(state, i, refine)) continue;
       moved++;
       for (const j of neighbourhood(state, [i])) if (state.movable(j)) next.add(j);
     }
