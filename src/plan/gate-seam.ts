@@ -5,56 +5,12 @@
  *
  * The planner calls it through `loadGateDesigner()`, which imports the gate stage lazily, so that
  * `fluxlane plan --no-pulses` and `fluxlane check` work without it and the planner's tests do not
- * pay for loading the simulator. Units inside: GHz, ns, Phi0, rad.
+ * pay for loading the simulator (the types come from src/gate/design.ts; a type-only import
+ * costs nothing at run time). Units inside: GHz, ns, Phi0, rad.
  */
-import type { Rules } from '../layout/types.js';
-import type { Transmon } from '../transmon/transmon.js';
+import type { GateDesign, GateDesignRequest, GateSpectatorRequest } from '../gate/design.js';
 
-export interface GateSpectatorRequest {
-  transmon: Transmon;
-  coupledTo: 'mover' | 'partner';
-  /** Layout g of its coupling (both at Phi = 0). */
-  gGHz: number;
-  /** Its flux during the gate. */
-  flux: number;
-}
-
-export interface GateDesignRequest {
-  mover: Transmon;
-  partner: Transmon;
-  /** Layout g (both at Phi = 0). */
-  gGHz: number;
-  moverParkFlux: number;
-  partnerFlux: number;
-  crossing: '11-20' | '11-02';
-  family?: string;
-  rampNs?: number;
-  /** Default pi. */
-  targetPhase?: number;
-  rules: Rules;
-  noise?: boolean;
-  spectators?: GateSpectatorRequest[];
-}
-
-export interface GateDesign {
-  mover: string;
-  family: string;
-  rampNs: number;
-  holdNs: number;
-  durationNs: number;
-  interactionFrequencyGHz: number;
-  crossingOffsetGHz: number;
-  conditionalPhase: number;
-  leakage: number;
-  fidelity: number;
-  fidelityNoisy?: number;
-  virtualZ: { a: number; b: number };
-  speedLimitNs: number;
-  untuned: { conditionalPhase: number; leakage: number; fidelity: number };
-  waveform: { timeNs: Float64Array; flux: Float64Array };
-  feasible: boolean;
-  reason?: string;
-}
+export type { GateDesign, GateDesignRequest, GateSpectatorRequest };
 
 export type GateDesigner = (request: GateDesignRequest) => GateDesign;
 

@@ -42,6 +42,9 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
     untuned: { conditionalPhase: plain(d.untuned.conditionalPhase), leakage: plain(d.untuned.leakage), fidelity: plain(d.untuned.fidelity) },
     feasible: d.feasible,
   };
+  if (d.decoherenceEstimate !== undefined) out.decoherenceEstimate = plain(d.decoherenceEstimate);
+  if (Number.isFinite(d.crossingFrequencyGHz)) out.exactCrossingFrequency = toHz(d.crossingFrequencyGHz);
+  if (Number.isFinite(d.gapGHz)) out.gap = toHz(d.gapGHz);
   if (d.reason !== undefined) out.reason = d.reason;
   if (waveform !== null) out.waveform = waveform;
   return out;
