@@ -22,9 +22,17 @@ export function waveformPath(edgeKey: string): string {
   return `waveforms/${edgeKey}.csv`;
 }
 
+/** NaN and infinite numbers become null (JSON has no NaN; a design that failed has none). */
+function nanToNull(x: unknown): unknown {
+  if (typeof x === 'number') return Number.isFinite(x) ? x : null;
+  if (Array.isArray(x)) return x.map(nanToNull);
+  if (x && typeof x === 'object' && !(x instanceof Float64Array)) return Object.fromEntries(Object.entries(x).map(([k, v]) => [k, nanToNull(v)]));
+  return x;
+}
+
 /** `fluxlane gate`'s JSON fields (SI) for a design. */
 export function gateJson(edge: [string, string], d: GateDesign, waveform: string | null): Record<string, unknown> {
-  const out: Record<string, unknown> = {
+  const out: Record<string, unknown> = nanToNull({
     edge,
     mover: d.mover,
     family: d.family,
@@ -41,7 +49,7 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
     speedLimit: toSeconds(d.speedLimitNs),
     untuned: { conditionalPhase: plain(d.untuned.conditionalPhase), leakage: plain(d.untuned.leakage), fidelity: plain(d.untuned.fidelity) },
     feasible: d.feasible,
-  };
+  }) as Record<string, unknown>;
   if (d.decoherenceEstimate !== undefined) out.decoherenceEstimate = plain(d.decoherenceEstimate);
   if (Number.isFinite(d.crossingFrequencyGHz)) out.exactCrossingFrequency = toHz(d.crossingFrequencyGHz);
   if (Number.isFinite(d.gapGHz)) out.gap = toHz(d.gapGHz);
@@ -196,11 +204,11 @@ export function gateTableText(plan: ChipPlan): string {
       String(plan.layers.layerOf[k]),
       e.parked.length > 0 ? e.parked.map((p) => `${id[p.qubit]}@${ghz(p.fGHz)}`).join(' ') : '-',
       khz(plan.parking.idle.zzGHz[e.edge]),
-      ns(d ? d.rampNs : e.rampNs),
-      Number.isFinite(e.durationNs) ? ns(d ? d.durationNs : e.durationNs) : '-',
+      ns(d && Number.isFinite(d.rampNs) ? d.rampNs : e.rampNs),
+      Number.isFinite(d ? d.durationNs : e.durationNs) ? ns(d ? d.durationNs : e.durationNs) : '-',
       d ? d.family : '-',
-      d ? d.fidelity.toFixed(5) : '-',
-      d && d.fidelityNoisy !== undefined ? d.fidelityNoisy.toFixed(5) : '-',
+      d && Number.isFinite(d.fidelity) ? d.fidelity.toFixed(5) : '-',
+      d && d.fidelityNoisy !== undefined && Number.isFinite(d.fidelityNoisy) ? d.fidelityNoisy.toFixed(5) : '-',
       ok ? 'yes' : 'NO',
     ];
   });

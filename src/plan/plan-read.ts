@@ -15,11 +15,12 @@ import { PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
 const hz = z.number({ error: () => 'a frequency in Hz (a number)' }).positive({ error: () => 'a positive frequency in Hz' });
 
 const GateSchema = z.looseObject({
-  crossingOffset: z.number({ error: () => 'a frequency offset in Hz (a number)' }).optional(),
-  rampTime: z.number().positive().optional(),
-  duration: z.number().positive().optional(),
+  crossingOffset: z.number({ error: () => 'a frequency offset in Hz (a number)' }).nullable().optional(),
+  rampTime: z.number({ error: () => 'a ramp time in s (a number)' }).positive().nullable().optional(),
+  duration: z.number({ error: () => 'a duration in s (a number)' }).positive().nullable().optional(),
   waveform: z.string().optional(),
   feasible: z.boolean().optional(),
+  reason: z.string().optional(),
 });
 
 const EdgeSchema = z.looseObject({

@@ -85,9 +85,26 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
 }
 
 function designEdge(plan: ChipPlan, designer: GateDesigner, e: EdgePlan, options: PulseOptions): { gate: PlannedGate; edge: EdgePlan } {
-  const design = designer(gateRequest(plan, e, options));
+  let design: GateDesign;
+  try {
+    design = designer(gateRequest(plan, e, options));
+  } catch (err) {
+    // A failure inside the gate stage on one edge is reported on that edge (rule cz-design)
+    // instead of losing the whole plan.
+    design = failedDesign(plan.ctx.ids[e.mover], `the gate stage failed on this edge: ${err instanceof Error ? err.message.split('\n')[0] : String(err)}`);
+  }
   const { findings, edge } = checkDesign(plan, e, design);
   return { gate: { design, findings }, edge };
+}
+
+/** A design that did not happen (the gate stage threw): infeasible, with the reason. */
+function failedDesign(mover: string, reason: string): GateDesign {
+  return {
+    mover, family: '-', rampNs: NaN, holdNs: NaN, durationNs: NaN, interactionFrequencyGHz: NaN, crossingOffsetGHz: NaN,
+    conditionalPhase: NaN, leakage: NaN, fidelity: NaN, virtualZ: { a: NaN, b: NaN }, speedLimitNs: NaN,
+    untuned: { conditionalPhase: NaN, leakage: NaN, fidelity: NaN }, waveform: { timeNs: new Float64Array(0), flux: new Float64Array(0) },
+    feasible: false, reason, crossingFlux: NaN, crossingFrequencyGHz: NaN, gapGHz: NaN, populations: { '20': NaN, '02': NaN }, evaluations: 0,
+  };
 }
 
 /** The neighbour of mover or partner with the largest g / Delta during the gate. */

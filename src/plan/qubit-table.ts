@@ -14,9 +14,11 @@
  * against the exact Transmon): better than 1e-7 GHz in f12 with the default 32 points.
  *
  * Planning range: from u_min = sqrt(max(d, minEjOverEc E_C / E_JS)) to u = 1 (the upper sweet
- * spot). Below E_J / E_C = 20 the charge dispersion of the first excited level grows beyond a few
- * MHz (Koch 2007, Eq. 2.18) and the n_g = 0 spectrum the model uses stops being representative,
- * so the planner does not park or tune a qubit there (documented in the README).
+ * spot). Below E_J / E_C = 30 the charge dispersion grows fast (Koch 2007, Eq. 2.18: for
+ * E_C = 0.2 GHz about 0.45 MHz for the first excited level at E_J / E_C = 30, 4.6 MHz at 20, and
+ * some ten times more for the second, which a CZ populates), so the n_g = 0 spectrum the model
+ * uses stops standing for the device; the planner does not park or tune a qubit there
+ * (documented in the README).
  *
  * Search-only: every number the planner reports and every rule it checks in the end comes from
  * the exact Transmon (src/plan/exact-state.ts); this table only steers the search.
@@ -33,7 +35,7 @@ export interface QubitTableOptions {
   minEjOverEc: number;
 }
 
-export const QUBIT_TABLE_DEFAULTS: Readonly<QubitTableOptions> = Object.freeze({ points: 32, minEjOverEc: 20 });
+export const QUBIT_TABLE_DEFAULTS: Readonly<QubitTableOptions> = Object.freeze({ points: 32, minEjOverEc: 30 });
 
 /** Interpolated state of a transmon at one f01 (GHz; matrix elements are |<i|n|k>|). */
 export interface TableState {

@@ -117,12 +117,16 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     }
     for (const f of ev.findings) {
       if (waveform && f.rule.startsWith('cz-swept-') && f.qubits[0] === pe.mover) continue;
-      if (pe.gate?.duration !== undefined && f.rule === 'cz-duration') continue;
+      if (pe.gate?.duration != null && f.rule === 'cz-duration') continue;
       const { blame: _b, ...rest } = f;
       violations.push(rest);
     }
     if (waveform) violations.push(...waveformSweepFindings(ctx, mover, key, ev.swept, waveform));
-    if (pe.gate?.duration !== undefined) {
+    if (pe.gate && pe.gate.feasible === false) {
+      violations.push({ rule: 'cz-design', qubits: [pe.mover, ctx.ids[partner]], value: null, threshold: null, edge: key,
+        message: `the plan's CZ design for ${key} is marked infeasible${pe.gate.reason ? `: ${pe.gate.reason}` : ''}` });
+    }
+    if (pe.gate?.duration != null) {
       const total = pe.gate.duration * 1e9 + (parked.size > 0 ? 2 * spectatorRampNs : 0);
       if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns with its spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
     }

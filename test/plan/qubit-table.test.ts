@@ -54,11 +54,11 @@ describe('QubitTable', () => {
     expect(table.f01ForF12(0.1)).toBeNull();
   });
 
-  it('stops at E_J / E_C = 20 when the SQUID would tune below it (planning range)', () => {
+  it('stops at E_J / E_C = 30 when the SQUID would tune below it (planning range)', () => {
     const weak = new Transmon('B', { ecGHz: 0.25, ejsGHz: 15, asymmetry: 0.1 });
     const wt = new QubitTable(weak);
     expect(wt.fLowGHz).toBeGreaterThan(weak.fMinGHz);
-    expectClose(wt.at(wt.fLowGHz).ejRatio * weak.ejsGHz / weak.ecGHz, 20, 1e-9, 'E_J/E_C at the floor');
+    expectClose(wt.at(wt.fLowGHz).ejRatio * weak.ejsGHz / weak.ecGHz, 30, 1e-9, 'E_J/E_C at the floor');
     expectClose(wt.fMaxGHz, weak.fMaxGHz, 1e-12, 'top');
   });
 });

@@ -54,7 +54,7 @@ export function explainInfeasible(ctx: PlanContext, options: PlanOptions, main: 
     const w = ctx.qubits[i].windowGHz;
     const id = ctx.ids[i];
     const line = ctx.domains[i] === null
-      ? `${id}: window ${band(w![0], w![1])} lies outside its planning range ${band(r.lo, r.hi)} (tunable range up to the sweet spot, E_J/E_C >= 20)`
+      ? `${id}: window ${band(w![0], w![1])} lies outside its planning range ${band(r.lo, r.hi)} (tunable range up to the sweet spot, E_J/E_C >= 30)`
       : `${id}: fixed park ${ghz(ctx.fixed[i]!)} lies outside its window or planning range ${band(ctx.domains[i]!.lo, ctx.domains[i]!.hi)}`;
     out.push({ kind: 'parking', qubits: [id], rules: ['window'], message: `${line}. Move the window or the park value, or change the transmon parameters.`, lines: [line] });
   }

@@ -72,7 +72,7 @@ const rule = (r: CollisionRule): CollisionRule => Object.freeze(r);
 /** Every rule, in the order findings are reported. */
 export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
   rule({ name: 'window', scope: 'idle', transitions: 'parking f01 against the window and the tunable range', threshold: null, compare: 'none', quantity: 'frequency',
-    doc: 'A qubit parks inside its window and inside its planning range (E_J/E_C >= 20 up to the sweet spot); a fixed `park` must lie there too.', source: 'layout contract' }),
+    doc: 'A qubit parks inside its window and inside its planning range (E_J/E_C >= 30 up to the sweet spot); a fixed `park` must lie there too.', source: 'layout contract' }),
   rule({ name: '01-01', scope: 'idle', transitions: 'f01_i vs f01_j, coupled neighbours', threshold: 'detuning0101GHz', compare: 'min', quantity: 'frequency',
     doc: 'Coupled neighbours at idle keep |f01_i - f01_j| >= detuning0101 (resonant exchange).', source: 'common practice' }),
   rule({ name: '01-12', scope: 'idle', transitions: 'f01_i vs f12_j and f12_i vs f01_j, coupled neighbours', threshold: 'detuning0112GHz', compare: 'min', quantity: 'frequency',

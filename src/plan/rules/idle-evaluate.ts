@@ -58,7 +58,7 @@ export function evaluateIdle(ctx: PlanContext, parkingGHz: ArrayLike<number>, gi
     }
     if (f < range.lo - 1e-9) {
       out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: range.lo,
-        message: `${id[i]} parking ${ghz(f)} is below its planning range ${band(range.lo, range.hi)} (E_J/E_C < 20 there)` });
+        message: `${id[i]} parking ${ghz(f)} is below its planning range ${band(range.lo, range.hi)} (E_J/E_C < 30 there)` });
     }
     if (win && (f < win[0] - 1e-9 || f > win[1] + 1e-9)) {
       out.push({ rule: 'window', qubits: [id[i]], value: f, threshold: null, message: `${id[i]} parking ${ghz(f)} is outside its window ${band(win[0], win[1])}` });
