@@ -67,8 +67,9 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     moverParkFlux: plan.states[e.mover].flux,
     partnerFlux: plan.states[e.partner].flux,
     crossing: e.crossing,
-    // Spectators moved for the gate take two of the plan's ramps out of the time budget.
-    rules: e.parked.length > 0 ? { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - 2 * e.rampNs } : ctx.rules,
+    // Spectators moved for the gate take two of the plan's ramps out of the time budget, and one
+    // AWG sample is kept in hand (the waveform is rounded up to the sample grid).
+    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - (e.parked.length > 0 ? 2 * e.rampNs : 0) - 1 / ctx.rules.sampleRateGHz },
     noise: options.noise ?? true,
   };
   // The ramp: the user's, else the faster one the plan fell back to for this edge, else the gate
