@@ -1,7 +1,7 @@
 /**
  * The JSON Schema (draft 2020-12) of the layout format, made from the zod schemas in schema.ts
  * with `z.toJSONSchema`, for editors (completion, hover docs, checks). Published as
- * shared/layout.schema.json (scripts/write-generated.ts writes it; a test keeps it in step).
+ * shared/layout.schema.json (test/tools/write-generated.ts writes it; a test keeps it in step).
  *
  * Adjustments to zod's output:
  * - quantities become text with a pattern (a number and a unit of the right family), so editors

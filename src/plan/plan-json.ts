@@ -45,6 +45,7 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
     leakage: plain(d.leakage),
     fidelity: plain(d.fidelity),
     fidelityNoisy: d.fidelityNoisy === undefined ? null : plain(d.fidelityNoisy),
+    fidelityNoisyMethod: d.fidelityNoisyMethod ?? null,
     virtualZ: { a: plain(d.virtualZ.a), b: plain(d.virtualZ.b) },
     speedLimit: toSeconds(d.speedLimitNs),
     untuned: { conditionalPhase: plain(d.untuned.conditionalPhase), leakage: plain(d.untuned.leakage), fidelity: plain(d.untuned.fidelity) },

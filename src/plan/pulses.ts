@@ -32,6 +32,8 @@ export interface PulseOptions {
   targetPhase?: number;
   /** Decoherence in the design (default true). */
   noise?: boolean;
+  /** Integrate the Lindblad equation for fidelityNoisy (default: the first-order estimate, ~10x faster, within ~2 %). */
+  lindblad?: boolean;
   /** Simulate the worst spectator as a third transmon. */
   spectators?: boolean;
 }
@@ -67,10 +69,11 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     moverParkFlux: plan.states[e.mover].flux,
     partnerFlux: plan.states[e.partner].flux,
     crossing: e.crossing,
-    // Spectators moved for the gate take two of the plan's ramps out of the time budget, and one
-    // AWG sample is kept in hand (the waveform is rounded up to the sample grid).
-    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - (e.parked.length > 0 ? 2 * e.rampNs : 0) - 1 / ctx.rules.sampleRateGHz },
+    // Spectators moved for the gate take two of the plan's ramps out of the time budget (the
+    // designer itself keeps the waveform's rounding to the sample grid inside the limit).
+    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - (e.parked.length > 0 ? 2 * e.rampNs : 0) },
     noise: options.noise ?? true,
+    decoherence: options.lindblad ? 'lindblad' : 'estimate',
   };
   // The ramp: the user's, else the faster one the plan fell back to for this edge, else the gate
   // stage's default for the family.

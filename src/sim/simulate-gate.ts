@@ -28,6 +28,8 @@ export interface GateSimulationOptions extends FramePropagationOptions {
   noiseExcitations?: number;
   /** Hold sub-step for the first-order estimate (ns). */
   estimateStepNs?: number;
+  /** Compute the first-order decoherence estimate (when the frame has noise data). */
+  estimate?: boolean;
 }
 
 export const GATE_SIMULATION_DEFAULTS = Object.freeze({
@@ -95,7 +97,7 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
   const o = { ...GATE_SIMULATION_DEFAULTS, ...options };
   const { comp, leak20, leak02 } = computationalStates(frame, traj.flux[0], o.spectatorLevels);
   const initial: FrameInitial[] = comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) }));
-  const noise = hasNoise(frame);
+  const noise = hasNoise(frame) && o.estimate !== false;
   const propOptions = { ...o, maxHoldStepNs: noise ? o.estimateStepNs : Infinity };
   const estimate = noise ? new FirstOrderEstimate(frame, traj, stepSchedule(frame, traj, propOptions)) : undefined;
   const res = propagateInFrame(frame, traj, initial, propOptions, estimate?.observer);

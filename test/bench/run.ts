@@ -30,6 +30,8 @@ export interface Benchmark {
   runs?: number;
   /** Untimed calls before the timed ones when `runs` is set (default 1). */
   warmup?: number;
+  /** Extra measured facts printed after the timing (accuracy, ratios to other tools ...). */
+  report?: () => string;
 }
 
 export interface BenchResult {
@@ -40,6 +42,7 @@ export interface BenchResult {
   calls: number;
   target?: number;
   underTarget?: boolean;
+  note?: string;
 }
 
 const WARMUP_S = 0.3;
@@ -126,10 +129,12 @@ async function main(): Promise<void> {
         r.target = b.target;
         r.underTarget = m.medianUs < b.target;
       }
+      if (b.report) r.note = b.report();
       results.push(r);
       if (!json) {
         const verdict = b.target === undefined ? '' : `  target < ${formatUs(b.target)}: ${r.underTarget ? 'ok' : 'MISSED'}`;
         process.stdout.write(`${file}  ${b.name}\n    median ${formatUs(m.medianUs)}  min ${formatUs(m.minUs)}  (${m.calls} calls)${verdict}\n`);
+        if (r.note) process.stdout.write(`    ${r.note}\n`);
       }
     }
   }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { Ajv2020 } from 'ajv/dist/2020.js';
 import { parse } from 'yaml';
-import { schemaText } from '../../scripts/write-generated.js';
+import { schemaText } from '../tools/write-generated.js';
 import { generateLayout } from '../../src/chip/generate.js';
 import { layoutToYaml } from '../../src/layout/write.js';
 import { quantityPattern } from '../../src/layout/json-schema.js';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { DEFAULT_RULES, RULE_SPECS, parseRuleValue, ruleSpecByKey, rulesTableMarkdown } from '../../src/layout/rules.js';
-import { readmeWithRulesTable } from '../../scripts/write-generated.js';
+import { readmeWithRulesTable } from '../tools/write-generated.js';
 
 describe('shared/rules.json', () => {
   it('has one entry per Rules field, with unique keys, a doc sentence and a source', () => {

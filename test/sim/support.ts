@@ -71,6 +71,10 @@ export function cosineRamps(flux: number, rampNs: number, holdNs: number, dtNs: 
     t.push(k * dtNs);
     x.push(flux * (0.5 - 0.5 * Math.cos((Math.PI * k) / n)));
   }
+  if (holdNs > 0) {
+    t.push(rampNs + holdNs);
+    x.push(flux);
+  }
   for (let k = 1; k <= n; k++) {
     t.push(rampNs + holdNs + k * dtNs);
     x.push(flux * (0.5 - 0.5 * Math.cos((Math.PI * (n - k)) / n)));

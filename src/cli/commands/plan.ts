@@ -27,6 +27,7 @@ const PlanOptionsSchema = z.object({
   outputDir: z.string().min(1, { error: () => 'a folder name' }).optional(),
   pulses: z.boolean().default(true),
   noise: z.boolean().default(true),
+  lindblad: z.boolean().optional(),
   spectators: z.boolean().optional(),
   family: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, { error: () => 'a ramp family name' }).optional(),
   ramp: z.string().optional(),
@@ -77,7 +78,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   const progress = stageProgress(ctx);
   const plan = planChip(layout, { seed: o.seed }, { profiler: ctx.profiler, progress: progress.update }, graph);
   if (designer) {
-    const pulses: PulseOptions = { noise: o.noise, spectators: o.spectators ?? false };
+    const pulses: PulseOptions = { noise: o.noise, lindblad: o.lindblad ?? false, spectators: o.spectators ?? false };
     if (o.family !== undefined) pulses.family = o.family;
     if (rampNs !== undefined) pulses.rampNs = rampNs;
     if (o.phase !== undefined) pulses.targetPhase = o.phase;
@@ -115,6 +116,7 @@ export function registerPlan(program: Command, io: CliIo): void {
       .option('--ramp <time>', 'ramp time for every CZ, e.g. "12 ns" (default: the ramp the plan chose per edge)')
       .option('--phase <rad>', 'target conditional phase in rad (default pi)')
       .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
-      .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)'),
+      .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)')
+      .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)'),
   ).action(commandAction<[string]>(io, (ctx, layoutPath, options) => planCommand(ctx, layoutPath, options)));
 }

@@ -60,7 +60,8 @@ export const squeezingAwareFamily: RampFamily = {
     const s1 = gaussianWidth(ec, q.ejGHz(destFlux));
     const n = SQUEEZING_AWARE_GRID;
     const out = new Float64Array(n + 1);
-    const sign = destFlux >= parkFlux ? 1 : -1;
+    // E_J is even in the flux: stay on the side (sign) of the parking and destination fluxes
+    const sign = (parkFlux !== 0 ? parkFlux : destFlux) < 0 ? -1 : 1;
     const twoPi2 = 4 * Math.PI * Math.PI;
     for (let k = 0; k <= n; k++) {
       if (k === 0) {

@@ -8,11 +8,11 @@
 
 import { readFileSync, realpathSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { layoutJsonSchema } from '../src/layout/json-schema.js';
-import { rulesTableMarkdown } from '../src/layout/rules.js';
+import { layoutJsonSchema } from '../../src/layout/json-schema.js';
+import { rulesTableMarkdown } from '../../src/layout/rules.js';
 
-export const SCHEMA_FILE = new URL('../shared/layout.schema.json', import.meta.url);
-export const README_FILE = new URL('../README.md', import.meta.url);
+export const SCHEMA_FILE = new URL('../../shared/layout.schema.json', import.meta.url);
+export const README_FILE = new URL('../../README.md', import.meta.url);
 export const RULES_TABLE_START = '<!-- rules-table:start (generated from shared/rules.json by npm run generated) -->';
 export const RULES_TABLE_END = '<!-- rules-table:end -->';
 
