@@ -119,11 +119,37 @@ export const DESIGN_DEFAULTS = Object.freeze({
   maxSecant: 8,
 });
 
+/**
+ * Design the CZ of one edge. Without a requested ramp time the family's default is used, and when
+ * its tuned gate still leaks more than LEAKAGE_GOAL (large or fast excursions), longer ramps
+ * (x1.5, x2, as the duration limit allows) are tried and the best design is kept (least
+ * coherent error plus decoherence cost, leakage above the goal weighed heavily).
+ */
 export function designCzGate(req: GateDesignRequest): GateDesign {
-  const theta = req.targetPhase ?? Math.PI;
   const family = rampFamily(req.family ?? DEFAULT_FAMILY);
   if (!family) throw new RangeError(`unknown ramp family ${req.family}; known: ${RAMP_FAMILIES.map((f) => f.name).join(', ')}`);
-  const rampNs = req.rampNs ?? DEFAULT_RAMP_NS[family.name] ?? 8;
+  if (req.rampNs !== undefined) return designWithRamp(req, family, req.rampNs);
+  const base = DEFAULT_RAMP_NS[family.name] ?? 8;
+  let best = designWithRamp(req, family, base);
+  if (!best.feasible || best.leakage <= LEAKAGE_GOAL) return best;
+  const score = (d: GateDesign): number => (d.feasible ? 1 - d.fidelity + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL) : Infinity);
+  for (const factor of [1.5, 2]) {
+    const ramp = base * factor;
+    if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) break;
+    const d = designWithRamp(req, family, ramp);
+    d.evaluations += best.evaluations;
+    if (score(d) < score(best)) best = d;
+    else best.evaluations = d.evaluations;
+    if (best.leakage <= LEAKAGE_GOAL) break;
+  }
+  return best;
+}
+
+/** The leakage a default design aims below (the acceptance goal of the gate stage). */
+export const LEAKAGE_GOAL = 1e-4;
+
+function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: number): GateDesign {
+  const theta = req.targetPhase ?? Math.PI;
   const { mover, partner } = req;
   const gCharge = chargeCouplingFromExchange(req.gGHz, mover.chargeElement01(0), partner.chargeElement01(0));
   const ctx: EdgeContext = { mover, partner, partnerFlux: req.partnerFlux, gChargeGHz: gCharge, crossing: req.crossing, moverParkFlux: req.moverParkFlux };

@@ -4,6 +4,7 @@
  * theta and the gap at any flux cheaply (cubic Hermite with Catmull-Rom slopes; the functions
  * are smooth on this interval).
  */
+import { josephsonEnergySlope } from '../transmon/josephson.js';
 import { exchangeAt, twoLevelAt, type EdgeContext, type TwoLevelPoint } from './context.js';
 
 export class TwoLevelTable {
@@ -13,6 +14,14 @@ export class TwoLevelTable {
   /** the 01-10 exchange pair (src/gate/context.ts exchangeAt) */
   readonly exDelta: Float64Array;
   readonly exJ: Float64Array;
+  /**
+   * the other crossing of the 2-excitation manifold (11-02 when the gate uses 11-20 and vice
+   * versa), and the mover's own squeezing adiabaticity sum_{(m,m+2) = (0,2),(1,3)}
+   * |dE_J/dPhi| |<m|cos phi|m+2>| / (E_{m+2} - E_m)^2 (per Phi0, 1/GHz)
+   */
+  readonly otherDelta: Float64Array;
+  readonly otherJ: Float64Array;
+  readonly squeezeMu: Float64Array;
 
   constructor(ctx: EdgeContext, fluxFrom: number, fluxTo: number, points = 257) {
     this.flux = new Float64Array(points);
@@ -20,16 +29,43 @@ export class TwoLevelTable {
     this.j = new Float64Array(points);
     this.exDelta = new Float64Array(points);
     this.exJ = new Float64Array(points);
+    this.otherDelta = new Float64Array(points);
+    this.otherJ = new Float64Array(points);
+    this.squeezeMu = new Float64Array(points);
+    const other: EdgeContext = { ...ctx, crossing: ctx.crossing === '11-20' ? '11-02' : '11-20' };
     for (let k = 0; k < points; k++) {
       const x = fluxFrom + ((fluxTo - fluxFrom) * k) / (points - 1);
       const p = twoLevelAt(ctx, x);
       const e = exchangeAt(ctx, x);
+      const o = twoLevelAt(other, x);
       this.flux[k] = x;
       this.delta[k] = p.deltaGHz;
       this.j[k] = p.jGHz;
       this.exDelta[k] = e.deltaGHz;
       this.exJ[k] = e.jGHz;
+      this.otherDelta[k] = o.deltaGHz;
+      this.otherJ[k] = o.jGHz;
+      const b = ctx.mover.eigenbasis(x, 4);
+      const slope = Math.abs(josephsonEnergySlope(ctx.mover.ejsGHz, ctx.mover.asymmetry, x));
+      let mu = 0;
+      for (const m of [0, 1]) {
+        const gap = b.energies[m + 2] - b.energies[m];
+        mu += (slope * Math.abs(b.cosPhi[m * 4 + m + 2])) / (gap * gap);
+      }
+      this.squeezeMu[k] = mu;
     }
+  }
+
+  /** The other crossing of the 2-excitation manifold at flux x. */
+  otherCrossing(x: number): TwoLevelPoint {
+    const d = this.interp(this.otherDelta, x);
+    const j = this.interp(this.otherJ, x);
+    return { deltaGHz: d, jGHz: j, theta: Math.atan2(2 * j, d), gapGHz: Math.sqrt(d * d + 4 * j * j) };
+  }
+
+  /** The mover's squeezing adiabaticity parameter at flux x (per Phi0). */
+  squeezing(x: number): number {
+    return this.interp(this.squeezeMu, x);
   }
 
   /** The 01-10 exchange pair at flux x. */
