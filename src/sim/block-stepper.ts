@@ -29,6 +29,7 @@
  * their period; the neglected terms are third order in B_x and the chirp of the in-block phases
  * over the step.
  */
+import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
 import type { FrameBlock } from './manifold-frame.js';
 
@@ -462,39 +463,6 @@ export class BlockStepper {
       }
     }
     // x <- U_in x per block: V e^{-i w} V^dag x
-    for (const b of this.blocks) {
-      const m = b.size;
-      const vr = b.u.vectorsRe;
-      const vi = b.u.vectorsIm;
-      const w = b.u.values;
-      for (let k = 0; k < m; k++) {
-        let sr = 0;
-        let si = 0;
-        for (let r = 0; r < m; r++) {
-          const ar = vr[r * m + k];
-          const ai = -vi[r * m + k];
-          const xr = re[b.start + r];
-          const xi = im[b.start + r];
-          sr += ar * xr - ai * xi;
-          si += ar * xi + ai * xr;
-        }
-        const cw = Math.cos(w[k]);
-        const sw = -Math.sin(w[k]);
-        ur[k] = cw * sr - sw * si;
-        ui[k] = sw * sr + cw * si;
-      }
-      for (let r = 0; r < m; r++) {
-        let sr = 0;
-        let si = 0;
-        for (let k = 0; k < m; k++) {
-          const ar = vr[r * m + k];
-          const ai = vi[r * m + k];
-          sr += ar * ur[k] - ai * ui[k];
-          si += ar * ui[k] + ai * ur[k];
-        }
-        re[b.start + r] = sr;
-        im[b.start + r] = si;
-      }
-    }
+    for (const b of this.blocks) applyEigenExponential(b.u.vectorsRe, b.u.vectorsIm, b.u.values, b.size, re, im, ur, ui, b.start);
   }
 }

@@ -12,6 +12,7 @@
  * `propagateMovingBasis` integrates it with the fourth-order Magnus method and an exact
  * exponential per step (dense Hermitian eigen-decomposition): simple and slow, for tests.
  */
+import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { chargeMatrix } from '../transmon/matrix-elements.js';
@@ -153,36 +154,7 @@ export function propagateMovingBasis(mb: MovingBasisModel, traj: Trajectory, re:
           mi[a * n + b] = -0.5 * h * (ra * pa.t[a * n + b] + rb * pb.t[a * n + b]) - 4 * Math.PI * Math.PI * c * c1 + c * ra * rb * c3;
         }
       const eig = hermitianEigen(mr, mi, n, { sort: false });
-      for (let col = 0; col < re.length; col++) {
-        const xr = re[col];
-        const xi = im[col];
-        for (let z = 0; z < n; z++) {
-          let sr = 0;
-          let si = 0;
-          for (let r = 0; r < n; r++) {
-            const ar = eig.vectorsRe[r * n + z];
-            const ai = -eig.vectorsIm[r * n + z];
-            sr += ar * xr[r] - ai * xi[r];
-            si += ar * xi[r] + ai * xr[r];
-          }
-          const cw = Math.cos(eig.values[z]);
-          const sw = -Math.sin(eig.values[z]);
-          tr[z] = cw * sr - sw * si;
-          ti[z] = sw * sr + cw * si;
-        }
-        for (let r = 0; r < n; r++) {
-          let sr = 0;
-          let si = 0;
-          for (let z = 0; z < n; z++) {
-            const ar = eig.vectorsRe[r * n + z];
-            const ai = eig.vectorsIm[r * n + z];
-            sr += ar * tr[z] - ai * ti[z];
-            si += ar * ti[z] + ai * tr[z];
-          }
-          xr[r] = sr;
-          xi[r] = si;
-        }
-      }
+      for (let col = 0; col < re.length; col++) applyEigenExponential(eig.vectorsRe, eig.vectorsIm, eig.values, n, re[col], im[col], tr, ti);
     }
   }
 }

@@ -22,6 +22,7 @@
  * (test/sim/propagate-frame.test.ts measures the order). The default scheme handles each
  * manifold block this way and the inter-manifold coupling by src/sim/block-stepper.ts.
  */
+import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { josephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
@@ -200,39 +201,9 @@ export class SectorStepper {
       this.blocks.apply(re, im);
       return;
     }
-    const d = this.d;
-    const vr = this.eig.vectorsRe;
-    const vi = this.eig.vectorsIm;
-    const w = this.eig.values;
-    const tr = this.tr;
-    const ti = this.ti;
-    for (let k = 0; k < d; k++) {
-      let sr = 0;
-      let si = 0;
-      for (let r = 0; r < d; r++) {
-        const ar = vr[r * d + k];
-        const ai = -vi[r * d + k];
-        sr += ar * re[r] - ai * im[r];
-        si += ar * im[r] + ai * re[r];
-      }
-      const cw = Math.cos(w[k]);
-      const sw = -Math.sin(w[k]);
-      tr[k] = cw * sr - sw * si;
-      ti[k] = sw * sr + cw * si;
-    }
-    for (let r = 0; r < d; r++) {
-      let sr = 0;
-      let si = 0;
-      for (let k = 0; k < d; k++) {
-        const ar = vr[r * d + k];
-        const ai = vi[r * d + k];
-        sr += ar * tr[k] - ai * ti[k];
-        si += ar * ti[k] + ai * tr[k];
-      }
-      re[r] = sr;
-      im[r] = si;
-    }
+    applyEigenExponential(this.eig.vectorsRe, this.eig.vectorsIm, this.eig.values, this.d, re, im, this.tr, this.ti);
   }
+
 }
 
 /** One step of a schedule: a hold (exact) or a Magnus step on a ramp segment. */
