@@ -156,3 +156,31 @@ describe('propagation in the frame', () => {
     expect(Math.abs(Math.abs(sim.conditionalPhase) - Math.PI)).toBeLessThan(0.15);
   });
 });
+
+describe('spectators', () => {
+  it('a third transmon coupled to the mover: the frame agrees with the moving-basis integration, and a spectator near the interaction point changes the gate', () => {
+    const traj = trapezoid(XC, 5, 8);
+    const base = pairModel(5, 3);
+    // a spectator on the mover, parked far (idle) or where the mover's destination f01 sits
+    const spectator = (ejs: number) => ({ ecGHz: 0.2, ejsGHz: ejs, asymmetry: 0.3, levels: 3, flux: 0 });
+    const withSpectator = (ejs: number) => ({
+      ...base,
+      transmons: [...base.transmons, spectator(ejs)],
+      couplings: [...base.couplings, { a: 0, b: 2, gCharge: base.couplings[0].gCharge }],
+    });
+    const far = withSpectator(12); // f01 ~ 4.2 GHz, far below the mover's path
+    const frame = buildManifoldFrame(far, ejRange(traj));
+    const fast = simulateGate(frame, traj, { maxStepNs: 0.05 });
+    const ref = movingBasisBlock(far, traj, 0.02);
+    expect(blockDistance(fast.m, ref)).toBeLessThan(1e-6);
+    // spectator in its excited state: a different conditional phase (the mover's crossing shifts)
+    const excited = simulateGate(frame, traj, { maxStepNs: 0.05, spectatorLevels: [1] });
+    expect(Math.abs(excited.conditionalPhase - fast.conditionalPhase)).toBeGreaterThan(1e-4);
+    // a spectator whose f01 the mover sweeps through ruins the gate
+    const near = withSpectator(23.2);
+    const hit = simulateGate(buildManifoldFrame(near, ejRange(traj)), traj, { maxStepNs: 0.05 });
+    const noSpect = simulateGate(buildManifoldFrame(base, ejRange(traj)), traj, { maxStepNs: 0.05 });
+    expect(blockDistance(fast.m, noSpect.m)).toBeLessThan(0.05);
+    expect(blockDistance(hit.m, noSpect.m)).toBeGreaterThan(0.1);
+  }, 60_000);
+});
