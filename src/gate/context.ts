@@ -32,20 +32,6 @@ export interface TwoLevelPoint {
   gapGHz: number;
 }
 
-/**
- * The 01-10 exchange pair along the mover's flux: Delta' = f01_mover - f01_partner, J' = g (the
- * exchange coupling there). A CZ passes near it on the way to the 11-20 crossing (the mover ends
- * |alpha| above the partner), and ramps that rush it leave a 01 <-> 10 exchange error.
- */
-export function exchangeAt(ctx: EdgeContext, moverFlux: number): TwoLevelPoint {
-  const fm = ctx.mover.f01(moverFlux);
-  const fp = ctx.partner.f01(ctx.partnerFlux);
-  const j = ctx.gChargeGHz * ctx.mover.chargeElement01(moverFlux) * ctx.partner.chargeElement01(ctx.partnerFlux);
-  let delta = fm - fp;
-  if (ctx.mover.f01(ctx.moverParkFlux) - fp < 0) delta = -delta;
-  return { deltaGHz: delta, jGHz: j, theta: Math.atan2(2 * j, delta), gapGHz: Math.sqrt(delta * delta + 4 * j * j) };
-}
-
 export function twoLevelAt(ctx: EdgeContext, moverFlux: number): TwoLevelPoint {
   const m = ctx.mover.spectrum(moverFlux);
   const p = ctx.partner.spectrum(ctx.partnerFlux);

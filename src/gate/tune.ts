@@ -28,7 +28,7 @@ export interface HoldSolution {
 }
 
 export const HOLD_SCAN_DEFAULTS = Object.freeze({
-  stepNs: 0.1,
+  stepNs: 0.2,
   refine: 12,
   /** Leakage above this is penalised with leakageWeight per unit (a near-hard limit). */
   leakageTarget: 5e-5,

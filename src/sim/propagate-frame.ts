@@ -80,7 +80,7 @@ export class SectorStepper {
   hasStart = false;
   private readonly blocks: BlockStepper | undefined;
 
-  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, scheme: 'blocks' | 'full' | 'in-block' = 'blocks') {
+  constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, private readonly scheme: 'blocks' | 'full' | 'in-block' = 'blocks') {
     const d = sector.size;
     this.blocks = scheme === 'full' ? undefined : new BlockStepper(sector.blocks, d, scheme === 'in-block');
     this.d = d;
@@ -115,6 +115,10 @@ export class SectorStepper {
     for (let q = 0; q < d * d; q++) {
       this.a1[q] *= ra;
       this.a2[q] *= rb;
+    }
+    if (this.blocks && this.scheme === 'in-block') {
+      this.blocks.setStep(this.e1, this.e2, this.a1, this.a2, h);
+      return;
     }
     if (this.blocks) {
       const xm = x0 + 0.5 * v * h;

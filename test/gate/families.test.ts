@@ -33,12 +33,15 @@ describe('ramp families', () => {
     for (let x = -4; x <= 4; x += 0.137) expect(Math.abs(erf(x) - (mathErf(x) as number))).toBeLessThan(1e-14);
   });
 
-  it('faquad spends time in proportion to int mu dPhi, i.e. mu dPhi/dt is constant (Martinez-Garaot et al. 2015)', () => {
+  it('faquad spends time in proportion to int mu dPhi, i.e. mu dPhi/dw is constant in its warped time w (Martinez-Garaot et al. 2015)', () => {
     const ramp = faquadFamily.ramp(input(10));
+    // mu: the crossing's |d theta/dPhi| / (2 gap), plus (our documented extension) the other
+    // 2-excitation crossing's and the mover's squeezing parameter
     const mu = (x: number): number => {
       const h = 1e-7;
       const dth = (TABLE.at(x + h).theta - TABLE.at(x - h).theta) / (2 * h);
-      return Math.abs(dth) / (2 * TABLE.at(x).gapGHz);
+      const dtho = (TABLE.otherCrossing(x + h).theta - TABLE.otherCrossing(x - h).theta) / (2 * h);
+      return Math.abs(dth) / (2 * TABLE.at(x).gapGHz) + Math.abs(dtho) / (2 * TABLE.otherCrossing(x).gapGHz) + TABLE.squeezing(x);
     };
     // int_0^x mu by Simpson's rule on 4000 intervals
     const integral = (x: number): number => {
@@ -50,8 +53,8 @@ describe('ramp families', () => {
     };
     const total = integral(DEST);
     for (let k = 1; k < 10; k++) {
-      const t = k;
-      expect(Math.abs(integral(ramp(t)) / total - t / 10)).toBeLessThan(3e-3);
+      const warped = 0.5 - 0.5 * Math.cos((Math.PI * k) / 10);
+      expect(Math.abs(integral(ramp(k)) / total - warped)).toBeLessThan(3e-3);
     }
   });
 

@@ -34,10 +34,43 @@ export const fastAdiabaticFamily: RampFamily = {
     const n = FAST_ADIABATIC_DEFAULTS.grid;
     const th0 = table.at(parkFlux).theta;
     const th1 = table.at(destFlux).theta;
+    // theta(flux) on a fine grid between parking and destination (monotonic there), inverted by
+    // interpolation and polished with two secant steps on the table
+    const m = 4 * n;
+    const fx = new Float64Array(m + 1);
+    const ft = new Float64Array(m + 1);
+    for (let k = 0; k <= m; k++) {
+      fx[k] = parkFlux + ((destFlux - parkFlux) * k) / m;
+      ft[k] = table.at(fx[k]).theta;
+    }
+    const rising = th1 >= th0;
     const out = new Float64Array(n + 1);
+    let k = 0;
     for (let q = 0; q <= n; q++) {
+      if (q === 0 || q === n) {
+        out[q] = q === 0 ? parkFlux : destFlux;
+        continue;
+      }
       const th = th0 + (th1 - th0) * fourierShape(FAST_ADIABATIC_DEFAULTS.coefficients, q / n);
-      out[q] = q === 0 ? parkFlux : q === n ? destFlux : table.fluxForTheta(th, parkFlux, destFlux);
+      while (k < m - 1 && (rising ? ft[k + 1] < th : ft[k + 1] > th)) k++;
+      let a = fx[k];
+      let b = fx[k + 1];
+      let ta = ft[k] - th;
+      let tb = ft[k + 1] - th;
+      let x = tb === ta ? a : a - (ta * (b - a)) / (tb - ta);
+      for (let it = 0; it < 2; it++) {
+        const tx = table.at(x).theta - th;
+        if (tx === 0) break;
+        if (Math.sign(tx) === Math.sign(ta)) {
+          a = x;
+          ta = tx;
+        } else {
+          b = x;
+          tb = tx;
+        }
+        x = tb === ta ? x : a - (ta * (b - a)) / (tb - ta);
+      }
+      out[q] = x;
     }
     return tabulatedRamp(rampNs, out);
   },
