@@ -33,21 +33,30 @@ export interface TwoLevelPoint {
 }
 
 export function twoLevelAt(ctx: EdgeContext, moverFlux: number): TwoLevelPoint {
-  const m = ctx.mover.spectrum(moverFlux);
+  return twoLevelModel(ctx)(moverFlux);
+}
+
+/** twoLevelAt as a function of the mover flux, with the partner's (static) part computed once. */
+export function twoLevelModel(ctx: EdgeContext): (moverFlux: number) => TwoLevelPoint {
   const p = ctx.partner.spectrum(ctx.partnerFlux);
-  const nm = ctx.mover.chargeBasis(moverFlux, 3).charge;
   const np = ctx.partner.chargeBasis(ctx.partnerFlux, 3).charge;
-  let delta: number;
-  let j: number;
-  if (ctx.crossing === '11-20') {
-    delta = m.f12GHz - p.f01GHz;
-    j = ctx.gChargeGHz * Math.abs(nm[5]) * Math.abs(np[1]);
-  } else {
-    delta = p.f12GHz - m.f01GHz;
-    j = ctx.gChargeGHz * Math.abs(nm[1]) * Math.abs(np[5]);
-  }
   // orient so that the parking side has Delta > 0
   const parkDelta = ctx.crossing === '11-20' ? ctx.mover.spectrum(ctx.moverParkFlux).f12GHz - p.f01GHz : p.f12GHz - ctx.mover.f01(ctx.moverParkFlux);
-  if (parkDelta < 0) delta = -delta;
-  return { deltaGHz: delta, jGHz: j, theta: Math.atan2(2 * j, delta), gapGHz: Math.sqrt(delta * delta + 4 * j * j) };
+  const sign = parkDelta < 0 ? -1 : 1;
+  return (moverFlux) => {
+    // one diagonalisation gives the mover's levels 0-2 and their charge elements
+    const b = ctx.mover.chargeBasis(moverFlux, 3);
+    const nm = b.charge;
+    let delta: number;
+    let j: number;
+    if (ctx.crossing === '11-20') {
+      delta = b.energies[2] - b.energies[1] - p.f01GHz;
+      j = ctx.gChargeGHz * Math.abs(nm[5]) * Math.abs(np[1]);
+    } else {
+      delta = p.f12GHz - (b.energies[1] - b.energies[0]);
+      j = ctx.gChargeGHz * Math.abs(nm[1]) * Math.abs(np[5]);
+    }
+    delta *= sign;
+    return { deltaGHz: delta, jGHz: j, theta: Math.atan2(2 * j, delta), gapGHz: Math.sqrt(delta * delta + 4 * j * j) };
+  };
 }

@@ -126,26 +126,34 @@ export class HoldScan {
     const T = 2 * this.rampNs + holdNs;
     out.re.fill(0);
     out.im.fill(0);
+    // e^{-i 2 pi lam_k t} once per sector
+    const rot = this.lam.map((lam) => {
+      const c = new Float64Array(lam.length);
+      const sn = new Float64Array(lam.length);
+      for (let k = 0; k < lam.length; k++) {
+        const a = -2 * Math.PI * lam[k] * holdNs;
+        c[k] = Math.cos(a);
+        sn[k] = Math.sin(a);
+      }
+      return { c, sn };
+    });
     for (let r = 0; r < 4; r++) {
       const yr = this.y[r];
       const ph = 2 * Math.PI * this.eLoc[r] * T;
       const cr = Math.cos(ph);
       const ci = Math.sin(ph);
+      const { c: ca, sn: sa } = rot[yr.sector];
       for (let c = 0; c < 4; c++) {
         const yc = this.y[c];
         if (yr.sector !== yc.sector) continue;
-        const lam = this.lam[yr.sector];
         let sr = 0;
         let si = 0;
-        for (let k = 0; k < lam.length; k++) {
+        for (let k = 0; k < ca.length; k++) {
           // yr_k yc_k e^{-i 2 pi lam_k t}
           const pr = yr.re[k] * yc.re[k] - yr.im[k] * yc.im[k];
           const pi = yr.re[k] * yc.im[k] + yr.im[k] * yc.re[k];
-          const a = -2 * Math.PI * lam[k] * holdNs;
-          const ca = Math.cos(a);
-          const sa = Math.sin(a);
-          sr += pr * ca - pi * sa;
-          si += pr * sa + pi * ca;
+          sr += pr * ca[k] - pi * sa[k];
+          si += pr * sa[k] + pi * ca[k];
         }
         out.re[r * 4 + c] = cr * sr - ci * si;
         out.im[r * 4 + c] = ci * sr + cr * si;

@@ -6,7 +6,7 @@
  * 11-20 gate and vice versa) and the mover's squeezing adiabaticity are tabulated on first use.
  */
 import { josephsonEnergySlope } from '../transmon/josephson.js';
-import { twoLevelAt, type EdgeContext, type TwoLevelPoint } from './context.js';
+import { twoLevelModel, type EdgeContext, type TwoLevelPoint } from './context.js';
 
 export class TwoLevelTable {
   readonly flux: Float64Array;
@@ -19,9 +19,10 @@ export class TwoLevelTable {
     this.flux = new Float64Array(points);
     this.delta = new Float64Array(points);
     this.j = new Float64Array(points);
+    const at = twoLevelModel(ctx);
     for (let k = 0; k < points; k++) {
       const x = fluxFrom + ((fluxTo - fluxFrom) * k) / (points - 1);
-      const p = twoLevelAt(ctx, x);
+      const p = at(x);
       this.flux[k] = x;
       this.delta[k] = p.deltaGHz;
       this.j[k] = p.jGHz;
@@ -52,14 +53,20 @@ export class TwoLevelTable {
     return this.point(this.interp(this.delta, x), this.interp(this.j, x));
   }
 
+  /** The mixing angle atan2(2 J, Delta) at flux x (what at(x).theta gives, without the object). */
+  theta(x: number): number {
+    return Math.atan2(2 * this.interp(this.j, x), this.interp(this.delta, x));
+  }
+
   /** The other crossing of the 2-excitation manifold at flux x. */
   otherCrossing(x: number): TwoLevelPoint {
     if (!this.other) {
       const ctx: EdgeContext = { ...this.ctx, crossing: this.ctx.crossing === '11-20' ? '11-02' : '11-20' };
       const delta = new Float64Array(this.flux.length);
       const j = new Float64Array(this.flux.length);
+      const at = twoLevelModel(ctx);
       this.flux.forEach((fx, k) => {
-        const p = twoLevelAt(ctx, fx);
+        const p = at(fx);
         delta[k] = p.deltaGHz;
         j[k] = p.jGHz;
       });
@@ -93,10 +100,10 @@ export class TwoLevelTable {
   fluxForTheta(target: number, a: number, b: number): number {
     let lo = a;
     let hi = b;
-    const fa = this.at(a).theta - target;
+    const fa = this.theta(a) - target;
     for (let it = 0; it < 100; it++) {
       const mid = 0.5 * (lo + hi);
-      const fm = this.at(mid).theta - target;
+      const fm = this.theta(mid) - target;
       if (fm === 0) return mid;
       if (Math.sign(fm) === Math.sign(fa)) lo = mid;
       else hi = mid;

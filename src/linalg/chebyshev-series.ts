@@ -7,7 +7,7 @@
  *     c_k = (2 / n) sum_j'' f_j cos(pi j k / n)   (halved at k = 0 and k = n; '' halves j = 0, n),
  *
  * derivative coefficients by the recurrence c'_{k-1} = c'_{k+1} + 2 k c_k (scaled by 2/(b-a)),
- * and Clenshaw's recurrence for evaluation. For a function analytic in a Bernstein ellipse
+ * and the three-term recurrence of T_k for evaluation. For a function analytic in a Bernstein ellipse
  * of parameter rho the coefficients decay like rho^-k, so |c_k| for the last few k measures
  * the interpolation error. Costs: O(n^2) for the coefficients (n is small here), O(n) per
  * evaluation.
@@ -68,18 +68,22 @@ export function chebyshevDerivative(c: ArrayLike<number>, n: number, width: numb
   return d;
 }
 
-/** Evaluate all `width` series at x (Clenshaw), writing out[q]. */
+/**
+ * Evaluate all `width` series at x, writing out[q]: T_k(t) by the three-term recurrence
+ * T_{k+1} = 2 t T_k - T_{k-1} (error ~k ulp for |t| <= 1), then the sums over k with q
+ * innermost (contiguous; this is the frame tabulation's hot loop, width up to a few hundred).
+ */
 export function chebyshevEvaluate(c: ArrayLike<number>, n: number, width: number, a: number, b: number, x: number, out: Float64Array): Float64Array {
   const t = (2 * x - a - b) / (b - a);
-  for (let q = 0; q < width; q++) {
-    let b1 = 0;
-    let b2 = 0;
-    for (let k = n; k >= 1; k--) {
-      const b0 = 2 * t * b1 - b2 + c[k * width + q];
-      b2 = b1;
-      b1 = b0;
-    }
-    out[q] = t * b1 - b2 + c[q];
+  for (let q = 0; q < width; q++) out[q] = c[q];
+  let tkm1 = 1;
+  let tk = t;
+  for (let k = 1; k <= n; k++) {
+    const row = k * width;
+    for (let q = 0; q < width; q++) out[q] += tk * c[row + q];
+    const next = 2 * t * tk - tkm1;
+    tkm1 = tk;
+    tk = next;
   }
   return out;
 }

@@ -189,11 +189,12 @@ export class BlockStepper {
       }
       const warm = b.hasStart && m >= WARM_START_MIN;
       hermitianEigen(b.mr, b.mi, m, { out: b.u, start: warm ? { re: b.u.vectorsRe, im: b.u.vectorsIm } : undefined, sort: false, work: b.work });
+      b.hasStart = true;
+      if (this.inBlockOnly) continue;
       // The interaction frame of the inter-manifold step uses H_m = M / h + O(h^2): the
       // eigenvectors of M serve (their O(h^2) difference enters only the small coupling terms).
       b.q.vectorsRe.set(b.u.vectorsRe);
       b.q.vectorsIm.set(b.u.vectorsIm);
-      b.hasStart = true;
       for (let i = 0; i < m; i++) this.lam[o + i] = b.u.values[i] / h;
       // d lambda_i/dt ~ 2 pi (Q^dag dE/dt Q)_ii, dE/dt = (E2 - E1) sqrt3 / h
       const kd = Math.sqrt(3) / h;
@@ -213,9 +214,13 @@ export class BlockStepper {
       }
     }
     // Inter-manifold coupling in Q's basis: X = Q^dag (-i B_x) Q for off-block pairs.
+    if (this.inBlockOnly) {
+      this.coupled = false;
+      return;
+    }
     let any = false;
     for (let p = 0; p < d && !any; p++) for (let q = 0; q < d; q++) if (bo[p] !== bo[q] && (b1[p * d + q] !== 0 || b2[p * d + q] !== 0)) any = true;
-    this.coupled = any && !this.inBlockOnly;
+    this.coupled = any;
     if (!this.coupled) return;
     const kd = Math.sqrt(3) / h; // 1 / (h (c2 - c1)) = 1 / (2 delta)
     const kc = 12 / (h * h); // 1 / delta^2, delta = h sqrt3 / 6 (second difference, halved below)

@@ -531,22 +531,48 @@ export class ManifoldFrameBuilder {
           eVals[(j * d + a) * d + b] = v;
           eVals[(j * d + b) * d + a] = v;
         }
-    const eC = chebyshevCoefficients(eVals, degree, d * d);
-    const eD = chebyshevDerivative(eC, degree, d * d, lo, hi);
-    const aC = chebyshevCoefficients(aVals, degree, d * d);
-    const aD = chebyshevDerivative(aC, degree, d * d, lo, hi);
+    // Only the independent entries are tabulated: E's in-block upper triangle, A's strict upper
+    // triangle (E is block diagonal and symmetric, A antisymmetric), then mirrored.
     const w = d * d;
+    const eCols: number[] = [];
+    const aCols: number[] = [];
+    for (let a = 0; a < d; a++)
+      for (let b = a; b < d; b++) {
+        if (blockOf[a] === blockOf[b]) eCols.push(a * d + b);
+        if (b > a) aCols.push(a * d + b);
+      }
+    const compress = (vals: Float64Array, cols: number[]): Float64Array => {
+      const out = new Float64Array(nPts * cols.length);
+      for (let j = 0; j < nPts; j++) for (let c = 0; c < cols.length; c++) out[j * cols.length + c] = vals[j * w + cols[c]];
+      return out;
+    };
+    const ne = eCols.length;
+    const na = aCols.length;
+    const eC = chebyshevCoefficients(compress(eVals, eCols), degree, ne);
+    const eD = chebyshevDerivative(eC, degree, ne, lo, hi);
+    const aC = chebyshevCoefficients(compress(aVals, aCols), degree, na);
+    const aD = chebyshevDerivative(aC, degree, na, lo, hi);
     const energy = new Float64Array((nT + 1) * w);
     const energySlope = new Float64Array((nT + 1) * w);
     const coupling = new Float64Array((nT + 1) * w);
     const couplingSlope = new Float64Array((nT + 1) * w);
-    const tmp = new Float64Array(w);
+    const tmpE = new Float64Array(ne);
+    const tmpA = new Float64Array(na);
+    const scatter = (src: Float64Array, cols: number[], dst: Float64Array, at: number, sign: number): void => {
+      for (let c = 0; c < cols.length; c++) {
+        const q = cols[c];
+        const a = Math.floor(q / d);
+        const b = q - a * d;
+        dst[at + q] = src[c];
+        dst[at + b * d + a] = sign * src[c];
+      }
+    };
     for (let i = 0; i <= nT; i++) {
       const u = i === nT ? hi : lo + ((hi - lo) * i) / nT;
-      energy.set(chebyshevEvaluate(eC, degree, w, lo, hi, u, tmp), i * w);
-      energySlope.set(chebyshevEvaluate(eD, degree, w, lo, hi, u, tmp), i * w);
-      coupling.set(chebyshevEvaluate(aC, degree, w, lo, hi, u, tmp), i * w);
-      couplingSlope.set(chebyshevEvaluate(aD, degree, w, lo, hi, u, tmp), i * w);
+      scatter(chebyshevEvaluate(eC, degree, ne, lo, hi, u, tmpE), eCols, energy, i * w, 1);
+      scatter(chebyshevEvaluate(eD, degree, ne, lo, hi, u, tmpE), eCols, energySlope, i * w, 1);
+      scatter(chebyshevEvaluate(aC, degree, na, lo, hi, u, tmpA), aCols, coupling, i * w, -1);
+      scatter(chebyshevEvaluate(aD, degree, na, lo, hi, u, tmpA), aCols, couplingSlope, i * w, -1);
     }
     const maxCoupling = new Float64Array(nT);
     for (let i = 0; i < nT; i++) {

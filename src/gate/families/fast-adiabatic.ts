@@ -18,11 +18,11 @@ export const FAST_ADIABATIC_DEFAULTS = Object.freeze({ coefficients: [1, 0, -0.1
 export function fourierShape(coefficients: readonly number[], tau: number): number {
   let num = 0;
   let den = 0;
-  coefficients.forEach((l, i) => {
+  for (let i = 0; i < coefficients.length; i++) {
     const n = i + 1;
-    num += l * (1 - Math.cos(n * Math.PI * tau));
-    den += l * (1 - Math.cos(n * Math.PI));
-  });
+    num += coefficients[i] * (1 - Math.cos(n * Math.PI * tau));
+    den += coefficients[i] * (1 - Math.cos(n * Math.PI));
+  }
   return num / den;
 }
 
@@ -32,8 +32,8 @@ export const fastAdiabaticFamily: RampFamily = {
   source: 'Martinis and Geller, Phys. Rev. A 90, 022307 (2014)',
   ramp: ({ table, parkFlux, destFlux, rampNs }) => {
     const n = FAST_ADIABATIC_DEFAULTS.grid;
-    const th0 = table.at(parkFlux).theta;
-    const th1 = table.at(destFlux).theta;
+    const th0 = table.theta(parkFlux);
+    const th1 = table.theta(destFlux);
     // theta(flux) on a fine grid between parking and destination (monotonic there), inverted by
     // interpolation and polished with two secant steps on the table
     const m = 4 * n;
@@ -41,7 +41,7 @@ export const fastAdiabaticFamily: RampFamily = {
     const ft = new Float64Array(m + 1);
     for (let k = 0; k <= m; k++) {
       fx[k] = parkFlux + ((destFlux - parkFlux) * k) / m;
-      ft[k] = table.at(fx[k]).theta;
+      ft[k] = table.theta(fx[k]);
     }
     const rising = th1 >= th0;
     const out = new Float64Array(n + 1);
@@ -59,7 +59,7 @@ export const fastAdiabaticFamily: RampFamily = {
       let tb = ft[k + 1] - th;
       let x = tb === ta ? a : a - (ta * (b - a)) / (tb - ta);
       for (let it = 0; it < 2; it++) {
-        const tx = table.at(x).theta - th;
+        const tx = table.theta(x) - th;
         if (tx === 0) break;
         if (Math.sign(tx) === Math.sign(ta)) {
           a = x;

@@ -1,0 +1,12 @@
+import { loadLayoutFile } from '../../src/layout/load.js';
+import { planChip } from '../../src/plan/plan.js';
+import { designCzGate } from '../../src/gate/design.js';
+import { gateRequest } from '../../src/plan/pulses.js';
+const layout = loadLayoutFile('layouts/bowline-5.yaml', 'layouts/bowline-5.yaml');
+const plan = planChip(layout, { seed: 1 });
+const reqs = plan.edges.filter((e) => Number.isFinite(e.interactionGHz)).map((e) => ({ ...gateRequest(plan, e, { noise: false }), noise: false }));
+for (let i = 0; i < 4; i++) designCzGate(reqs[i % reqs.length]);
+const t0 = performance.now();
+for (let i = 0; i < 24; i++) designCzGate(reqs[i % reqs.length]);
+console.log(((performance.now() - t0) / 24).toFixed(1), 'ms/design');
+const T = (globalThis as any).__T; for (const k in T) T[k] = +(T[k] / 28).toFixed(2); console.log(T);
