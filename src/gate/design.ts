@@ -23,13 +23,13 @@ import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
 import { computationalStates, simulateGate, type GateSimulation } from '../sim/simulate-gate.js';
 import { propagateInFrame } from '../sim/propagate-frame.js';
 import { wrapAngle } from '../sim/gate-metrics.js';
-import type { Trajectory } from '../sim/trajectory.js';
+import { trajectoryDuration, type Trajectory } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 import type { CrossingName, EdgeContext } from './context.js';
 import { exactCrossing } from './crossing.js';
 import { RampInfeasible, rampFamily, RAMP_FAMILIES, type Ramp, type RampFamily } from './families/index.js';
 import { HoldScan } from './hold-scan.js';
-import { pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
+import { lineDelayNs, pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
 import { bestHold, HOLD_SCAN_DEFAULTS, searchOffset, type HoldSolution } from './tune.js';
 import { TwoLevelTable } from './two-level-table.js';
 
@@ -207,8 +207,14 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   const gAtCross = gCharge * mover.chargeElement01(cross.flux) * partner.chargeElement01(req.partnerFlux);
   const speedLimitNs = 1 / (2 * Math.SQRT2 * gAtCross);
   // the realised waveform is rounded up to the sample grid and keeps one spare interval
-  const maxHold = req.rules.maxGateNs - 2 * rampNs - 2 / req.rules.sampleRateGHz;
-  if (maxHold < 0) return { ...infeasible(`the ramps alone (2 x ${rampNs} ns) exceed the maximum gate duration ${req.rules.maxGateNs} ns`), speedLimitNs };
+  // (plus, through a band-limited line, the filter's settling at both ends)
+  const line = { bandwidthGHz: req.rules.fluxBandwidthGHz };
+  const delayNs = lineDelayNs(req.rules.sampleRateGHz, line.bandwidthGHz);
+  const maxHold = req.rules.maxGateNs - 2 * rampNs - 2 / req.rules.sampleRateGHz - 2 * delayNs;
+  if (maxHold < 0) {
+    const settle = delayNs > 0 ? ` and the line filter's settling (2 x ${delayNs.toFixed(2)} ns)` : ' alone';
+    return { ...infeasible(`the ramps (2 x ${rampNs} ns)${settle} exceed the maximum gate duration ${req.rules.maxGateNs} ns`), speedLimitNs };
+  }
   const { comp } = computationalStates(frame, park);
   const initial = comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) }));
   const destFor = (offsetGHz: number): number | null => {
@@ -231,16 +237,21 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   };
   let evaluations = 0;
   let tuningScheme: 'in-block' | 'blocks' = 'in-block';
-  const scanFor = (offsetGHz: number): { scan: HoldScan; shape: PulseShape } | null => {
+  // the scan's hold h is the plateau after the (filtered) ramp trajectory; the pulse's hold is
+  // h + 2 ext (ext = 0 for an ideal line; src/gate/pulse.ts rampTrajectory)
+  const scanFor = (offsetGHz: number): { scan: HoldScan; shape: PulseShape; extNs: number } | null => {
     const dest = destFor(offsetGHz);
     if (dest === null) return null;
     const ramp = rampFor(dest);
     if (!ramp) return null;
     const shape: PulseShape = { ramp, rampNs, holdNs: 0, parkFlux: park, destFlux: dest };
-    const traj = rampTrajectory(shape, req.rules.sampleRateGHz);
+    // the in-block scheme has no inter-manifold transitions, so the AWG grid serves it; the full
+    // one needs the filter's fine grid (src/gate/pulse.ts filterThroughLine)
+    const traj = rampTrajectory(shape, req.rules.sampleRateGHz, { ...line, fineGrid: tuningScheme === 'blocks' });
     const res = propagateInFrame(frame, traj, initial, { maxStepNs: DESIGN_DEFAULTS.tuningStepNs, maxEjStepGHz: DESIGN_DEFAULTS.tuningMaxEjStepGHz, scheme: tuningScheme });
     evaluations++;
-    return { scan: new HoldScan(frame, ejOf(dest), comp, res.re, res.im, rampNs), shape };
+    const upNs = trajectoryDuration(traj);
+    return { scan: new HoldScan(frame, ejOf(dest), comp, res.re, res.im, upNs), shape, extNs: upNs - rampNs - delayNs };
   };
   // 3. Tune. The tuner weighs a longer hold by the decoherence it costs: the idle rate
   // (2/5) sum_q (1/T1 + 1/T_phi) (physics.md sec. 4) with both qubits at the crossing point.
@@ -250,7 +261,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     searchOffset(
     (delta) => {
       const s = scanFor(delta);
-      return s ? bestHold(s.scan, theta, maxHold, undefined, errorPerNs) : null;
+      return s ? bestHold(s.scan, theta, maxHold - 2 * s.extNs, undefined, errorPerNs) : null;
     },
     DESIGN_DEFAULTS.offsetWindow[0] * gapScale,
     DESIGN_DEFAULTS.offsetWindow[1] * gapScale,
@@ -293,7 +304,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   // 4. The realised waveform; secant correction of the hold on the samples.
   const realise = (f: NonNullable<typeof found>) => {
     const best = scanFor(f.offsetGHz)!;
-    let hold = f.hold.holdNs;
+    let hold = f.hold.holdNs + 2 * best.extNs;
     let shape: PulseShape = { ...best.shape, holdNs: hold };
     // one spare sample interval, held fixed while the hold is corrected (continuity in the hold)
     const intervals = Math.ceil(pulseDuration(shape) * req.rules.sampleRateGHz - 1e-9) + 1;
@@ -303,7 +314,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     let err = wrapAngle(sim.conditionalPhase - theta);
     // slope dphi/dt from the hold scan (finite difference), then secant on the samples
     const probe = (t: number): number => {
-      const m = best.scan.block(t);
+      const m = best.scan.block(Math.max(0, t - 2 * best.extNs));
       return computePhase(m);
     };
     let slope = (wrapAngle(probe(hold + 1e-3) - probe(Math.max(0, hold - 1e-3))) / (hold + 1e-3 - Math.max(0, hold - 1e-3))) || 1;
