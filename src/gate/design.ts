@@ -129,16 +129,38 @@ export const DESIGN_DEFAULTS = Object.freeze({
  * Design the CZ of one edge. Without a requested ramp time the family's default is used, and when
  * its tuned gate still leaks more than LEAKAGE_GOAL (large or fast excursions), longer ramps
  * (x1.5, x2, as the duration limit allows) are tried and the best design is kept (least
- * coherent error plus decoherence cost, leakage above the goal weighed heavily).
+ * coherent error, leakage above the goal weighed heavily). Without a requested family, a default
+ * family's design that still leaks (or fails) is compared with FALLBACK_FAMILY's, and the better
+ * one is kept.
  */
 export function designCzGate(req: GateDesignRequest): GateDesign {
+  const best = designWithFamily(req);
+  // No family asked for and the default one still leaks (or fails): try the fallback family,
+  // whose schedule slows down wherever any of the crossings it watches is near.
+  if (req.family !== undefined || (best.feasible && best.leakage <= LEAKAGE_GOAL) || best.family === FALLBACK_FAMILY) return best;
+  const alt = designWithFamily({ ...req, family: FALLBACK_FAMILY });
+  alt.evaluations += best.evaluations;
+  if (designScore(alt) < designScore(best)) return alt;
+  best.evaluations = alt.evaluations;
+  return best;
+}
+
+/** The family tried when the default one leaks above LEAKAGE_GOAL and no family was asked for. */
+export const FALLBACK_FAMILY = 'faquad';
+
+/** Least coherent error, leakage above the goal weighed heavily; infeasible last. */
+function designScore(d: GateDesign): number {
+  return d.feasible ? 1 - d.fidelity + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL) : Infinity;
+}
+
+function designWithFamily(req: GateDesignRequest): GateDesign {
   const family = rampFamily(req.family ?? DEFAULT_FAMILY);
   if (!family) throw new RangeError(`unknown ramp family ${req.family}; known: ${RAMP_FAMILIES.map((f) => f.name).join(', ')}`);
   if (req.rampNs !== undefined) return designWithRamp(req, family, req.rampNs);
   const base = DEFAULT_RAMP_NS[family.name] ?? 8;
   let best = designWithRamp(req, family, base);
   if (!best.feasible || best.leakage <= LEAKAGE_GOAL) return best;
-  const score = (d: GateDesign): number => (d.feasible ? 1 - d.fidelity + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL) : Infinity);
+  const score = designScore;
   for (const factor of [1.5, 2]) {
     const ramp = base * factor;
     if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) break;

@@ -76,7 +76,7 @@ export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
   keepExcitations: 4,
   vectorTol: 1e-11,
   energyTolGHz: 1e-11,
-  highTol: 1e-5,
+  highTol: 1e-4,
   firstDegree: 16,
   maxDegree: 256,
   tableIntervals: 128,
@@ -456,7 +456,9 @@ export class ManifoldFrameBuilder {
    * manifolds (excitation <= 2) must meet vectorTol / energyTolGHz; those of higher manifolds
    * (the squeezing partners, reached only at second order) a looser highTol: their dressed
    * subspace can be slightly ill-defined where a state of a dropped manifold crosses them (a
-   * narrow, high-order avoided crossing), which leaves a plateau of ~1e-6 in their coefficients.
+   * narrow, high-order avoided crossing), which leaves a plateau in their coefficients that no
+   * degree removes: ~1e-6 on most edges, 3e-5 on Reef-49 Q9-Q10 (E_J 7.6-16.7 GHz, f01 3.3-4.95 GHz), where the
+   * frame still agrees with the moving-basis integration to 3e-6 (test/sim/propagate-frame.test.ts).
    */
   private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
     for (let s = 0; s < this.setups.length; s++) {

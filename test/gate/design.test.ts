@@ -82,6 +82,25 @@ describe('designCzGate', () => {
   });
 });
 
+describe('designCzGate on a 3.2 GHz excursion (Reef-49 Q16 from its sweet spot to Q9 parked near its bottom)', () => {
+  it('falls back to faquad when the default family still leaks above 1e-4, and keeps the better design', async () => {
+    const { loadLayoutFile } = await import('../../src/layout/load.js');
+    const { Transmon } = await import('../../src/transmon/transmon.js');
+    const { DEFAULT_FAMILY, FALLBACK_FAMILY, LEAKAGE_GOAL } = await import('../../src/gate/design.js');
+    const reef = loadLayoutFile('layouts/reef-49.yaml', 'layouts/reef-49.yaml');
+    const q = (id: string) => Transmon.fromLayout(reef.qubits.find((x) => x.id === id)!);
+    // parking from the planner (inputs here): Q16 at its sweet spot, Q9 at flux 0.45233 (3.26 GHz)
+    const req = { mover: q('Q16'), partner: q('Q9'), gGHz: 0.0176, moverParkFlux: 0, partnerFlux: 0.4523267, crossing: '11-20' as const, rules: { ...reef.rules, maxGateNs: 70 } };
+    const plain = designCzGate({ ...req, family: DEFAULT_FAMILY });
+    expect(plain.leakage).toBeGreaterThan(LEAKAGE_GOAL);
+    const d = designCzGate(req);
+    expect(d.family).toBe(FALLBACK_FAMILY);
+    expect(d.feasible).toBe(true);
+    expect(d.leakage).toBeLessThan(LEAKAGE_GOAL);
+    expect(Math.abs(Math.abs(d.conditionalPhase) - Math.PI)).toBeLessThan(1e-3);
+  }, 60_000);
+});
+
 describe('designCzGate with a band-limited flux line', () => {
   it('designs through a 0.6 GHz Gaussian line filter and the exported (filtered) waveform is what was simulated', async () => {
     const { simulateGate } = await import('../../src/sim/simulate-gate.js');

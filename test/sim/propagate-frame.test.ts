@@ -157,6 +157,41 @@ describe('propagation in the frame', () => {
   });
 });
 
+describe('a wide excursion (Reef-49 Q9 moving from 4.95 to 3.35 GHz past Q10)', () => {
+  it('builds although a 3-excitation frame state has a ~3e-5 plateau (a narrow crossing with a dropped manifold), and agrees with the moving-basis integration to 3e-6', async () => {
+    const { loadLayoutFile } = await import('../../src/layout/load.js');
+    const { edgeSimModel, moverEjRange } = await import('../../src/sim/pair-model.js');
+    const reef = loadLayoutFile('layouts/reef-49.yaml', 'layouts/reef-49.yaml');
+    const q = (id: string) => Transmon.fromLayout(reef.qubits.find((x) => x.id === id)!);
+    const mover = q('Q9');
+    const partner = q('Q10');
+    const g = reef.couplings.find((c) => [c.a, c.b].sort().join() === 'Q10,Q9')!.gGHz;
+    // the partner's parking flux from the planner (an input here)
+    const model = edgeSimModel({ mover, partner, gGHz: g, partnerFlux: 0.0722257 });
+    // the designer's frame range for this edge (parking, E_J = 16.674 GHz, to beyond the 11-02
+    // crossing) and a trajectory from parking across most of it
+    const frame = buildManifoldFrame(model, { ejLo: 7.5968, ejHi: 16.6741 });
+    let lo = 0;
+    let hi = 0.5;
+    for (let it = 0; it < 60; it++) {
+      const mid = 0.5 * (lo + hi);
+      if (josephsonEnergy(model.transmons[0].ejsGHz, model.transmons[0].asymmetry, mid) > 16.674) lo = mid;
+      else hi = mid;
+    }
+    const park = lo;
+    const dest = mover.fluxForF01(3.35);
+    const base = cosineRamps(dest - park, 8, 12, 0.05);
+    const traj = { timeNs: base.timeNs, flux: base.flux.map((x) => park + x) };
+    expect(moverEjRange(mover, traj).ejLo).toBeGreaterThan(7.5968);
+    expect(moverEjRange(mover, traj).ejHi).toBeLessThan(16.6741);
+    const fast = simulateGate(frame, traj);
+    const ref = movingBasisBlock(model, traj, 0.01);
+    // 1.2e-6 measured: the default steps' accuracy on this 1.6 GHz excursion (a frame over the
+    // trajectory's own, smaller range, which has no plateau, is 2.6e-6 off as well)
+    expect(blockDistance(fast.m, ref)).toBeLessThan(3e-6);
+  }, 60_000);
+});
+
 describe('spectators', () => {
   it('a third transmon coupled to the mover: the frame agrees with the moving-basis integration, and a spectator near the interaction point changes the gate', () => {
     const traj = trapezoid(XC, 5, 8);

@@ -1,6 +1,7 @@
 /**
  * The gate stage's acceptance sweep (issue 5, "done when"), too long for the unit tests: every
- * edge of the named demo layouts (default: all in layouts/) with every ramp family, on the
+ * edge of the named demo layouts (default: all in layouts/) with every ramp family and the
+ * designer's own choice ('default': no family named, so the fallback family may step in), on the
  * planner's parking (the pipeline's own operating point) and the gate stage's own ramp times (the
  * family default, longer when it leaks; `--plan-ramps` uses the faster ramp the planner falls back
  * to on some edges instead), checked for
@@ -9,7 +10,7 @@
  *   - with --noise: coherent error 1 - F below 10 % of the error decoherence adds (F - F_noisy,
  *     Lindblad), and the first-order estimate within 20 % of the Lindblad decoherence error.
  *
- *     npx tsx test/tools/gate-acceptance.ts [--noise] [--verbose] [--plan-ramps] [--families a,b] [layout-name ...]
+ *     npx tsx test/tools/gate-acceptance.ts [--noise] [--verbose] [--plan-ramps] [--families default,faquad,...] [layout-name ...]
  *
  * Prints one line per failing design and a summary per layout (worst values, time per design);
  * exit code 1 when any design fails. Deterministic (the planner's seed is fixed).
@@ -26,7 +27,8 @@ const noise = args.includes('--noise');
 const verbose = args.includes('--verbose');
 const planRamps = args.includes('--plan-ramps');
 const famArg = args.indexOf('--families');
-const families = famArg >= 0 ? args[famArg + 1].split(',') : RAMP_FAMILIES.map((f) => f.name);
+// 'default' is the designer's own choice (no family named: the default family, with its fallback)
+const families = famArg >= 0 ? args[famArg + 1].split(',') : ['default', ...RAMP_FAMILIES.map((f) => f.name)];
 const names = args.filter((a, i) => !a.startsWith('--') && (famArg < 0 || i !== famArg + 1));
 const layouts = names.length > 0 ? names : readdirSync('layouts').filter((f) => f.endsWith('.yaml')).map((f) => f.replace(/\.yaml$/, ''));
 
@@ -45,7 +47,7 @@ for (const name of layouts) {
       designs++;
       const problems: string[] = [];
       try {
-        const req = { ...gateRequest(plan, e, { noise, lindblad: true }), family };
+        const req = { ...gateRequest(plan, e, { noise, lindblad: true }), family: family === 'default' ? undefined : family };
         if (!planRamps) delete req.rampNs;
         const d = designCzGate(req);
         if (verbose) console.log(`${name} ${label} ${family}: phi_c ${d.conditionalPhase.toFixed(6)} leakage ${d.leakage.toExponential(3)} 1-F ${(1 - d.fidelity).toExponential(3)} hold ${d.holdNs.toFixed(2)} ns offset ${(d.crossingOffsetGHz * 1e3).toFixed(2)} MHz` + (noise ? ` F_noisy ${d.fidelityNoisy?.toFixed(6)} estimate ${d.decoherenceEstimate?.toExponential(3)}` : ''));
