@@ -18,7 +18,7 @@ import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
 import { parseQuantity } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
-import { designCzGate, DEFAULT_FAMILY } from '../../gate/design.js';
+import { designCzGate, DEFAULT_FAMILY, FALLBACK_FAMILY } from '../../gate/design.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import { formatTrajectoryCsv } from '../../sim/trajectory.js';
 import { InputError } from '../../util/errors.js';
@@ -91,7 +91,7 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       moverParkFlux: moverPark,
       partnerFlux,
       crossing: o.crossing ?? '11-20',
-      family: o.family ?? DEFAULT_FAMILY,
+      family: o.family, // none: the designer's default family, with its fallback
       rampNs,
       targetPhase: theta,
       rules: layout.rules,
@@ -156,7 +156,7 @@ export function registerGate(program: Command, io: CliIo): void {
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .requiredOption('--edge <A-B>', 'the coupled pair, e.g. Q0-Q1 (A is the mover)')
       .option('--mover <id>', 'the qubit that moves (default: A)')
-      .option('--family <name>', `ramp family: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default ${DEFAULT_FAMILY})`)
+      .option('--family <name>', `ramp family: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default ${DEFAULT_FAMILY}, with ${FALLBACK_FAMILY} when it leaks above 1e-4)`)
       .option('--ramp <time>', 'ramp time, e.g. "10 ns" (default per family)')
       .option('--phase <theta>', 'target conditional phase (default pi), e.g. pi/2 or 90 deg')
       .option('--crossing <name>', 'avoided crossing to use: 11-20 (mover to |2>) or 11-02 (default 11-20)')
