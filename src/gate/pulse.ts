@@ -83,6 +83,12 @@ export interface WaveformOptions {
    * keeps the waveform's duration, and so the idle phase at its end, continuous in the hold.
    */
   minIntervals?: number;
+  /**
+   * Through a line: false gives the filtered flux on the AWG grid only (cheaper to simulate; its
+   * corners bring back the squeezing kick of filterThroughLine's note, so only for references
+   * that do not need it). Default true.
+   */
+  fineGrid?: boolean;
 }
 
 /** The sampled (and filtered) waveform of a pulse. */
@@ -92,7 +98,7 @@ export function sampleWaveform(p: PulseShape, o: WaveformOptions): Trajectory {
   const n = Math.max(1, Math.ceil(T * fs - 1e-9), o.minIntervals ?? 0);
   const x = new Float64Array(n + 1);
   for (let k = 0; k <= n; k++) x[k] = k === n ? p.parkFlux : pulseFlux(p, k / fs);
-  if (o.bandwidthGHz !== undefined && o.bandwidthGHz > 0) return filterThroughLine(x, fs, o.bandwidthGHz, p.parkFlux, p.parkFlux, true);
+  if (o.bandwidthGHz !== undefined && o.bandwidthGHz > 0) return filterThroughLine(x, fs, o.bandwidthGHz, p.parkFlux, p.parkFlux, o.fineGrid ?? true);
   const t = new Float64Array(x.length);
   for (let k = 0; k < x.length; k++) t[k] = k / fs;
   return { timeNs: t, flux: x };

@@ -14,8 +14,10 @@
  * batches. Long benchmarks (whole-chip plans, seconds per call) set `runs` instead: `warmup`
  * untimed calls (default 1), then exactly `runs` timed calls, median and minimum over those. Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
  * `--strict` exits 1 when a median misses its target (timings on a shared machine vary ~2x, so
- * the default exit code is 0).
+ * the default exit code is 0). Each file runs in a fresh Node process of its own (same loader
+ * flags), so one file's heap and compiled code do not slow down the next one's.
  */
+import { spawnSync } from 'node:child_process';
 import { readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -109,34 +111,59 @@ function formatUs(us: number): string {
   return `${us.toFixed(2)} us`;
 }
 
+const CHILD_FLAG = '--one-file';
+
+async function runFile(dir: string, file: string, filters: string[]): Promise<BenchResult[]> {
+  const mod = (await import(pathToFileURL(join(dir, file)).href)) as Record<string, unknown>;
+  const results: BenchResult[] = [];
+  for (const b of Object.values(mod).filter(isBenchmark)) {
+    if (filters.length > 0 && !filters.some((f) => b.name.includes(f) || file.includes(f))) continue;
+    const m = measure(b);
+    const r: BenchResult = { file, name: b.name, ...m };
+    if (b.target !== undefined) {
+      r.target = b.target;
+      r.underTarget = m.medianUs < b.target;
+    }
+    if (b.report) r.note = b.report();
+    results.push(r);
+  }
+  return results;
+}
+
+function printResult(r: BenchResult): void {
+  const verdict = r.target === undefined ? '' : `  target < ${formatUs(r.target)}: ${r.underTarget ? 'ok' : 'MISSED'}`;
+  process.stdout.write(`${r.file}  ${r.name}\n    median ${formatUs(r.medianUs)}  min ${formatUs(r.minUs)}  (${r.calls} calls)${verdict}\n`);
+  if (r.note) process.stdout.write(`    ${r.note}\n`);
+}
+
 async function main(): Promise<void> {
   const args = process.argv.slice(2);
   const json = args.includes('--json');
   const strict = args.includes('--strict');
-  const filters = args.filter((a) => !a.startsWith('--'));
   const dir = dirname(fileURLToPath(import.meta.url));
+  const child = args.indexOf(CHILD_FLAG);
+  if (child >= 0) {
+    // one file, results as JSON on stdout for the parent
+    const filters = args.filter((a, i) => !a.startsWith('--') && i !== child + 1);
+    process.stdout.write(`${JSON.stringify(await runFile(dir, args[child + 1], filters))}\n`);
+    return;
+  }
+  const filters = args.filter((a) => !a.startsWith('--'));
   const files = readdirSync(dir)
     .filter((f) => f.endsWith('.bench.ts'))
     .sort();
   const results: BenchResult[] = [];
   for (const file of files) {
-    const mod = (await import(pathToFileURL(join(dir, file)).href)) as Record<string, unknown>;
-    for (const b of Object.values(mod).filter(isBenchmark)) {
-      if (filters.length > 0 && !filters.some((f) => b.name.includes(f) || file.includes(f))) continue;
-      const m = measure(b);
-      const r: BenchResult = { file, name: b.name, ...m };
-      if (b.target !== undefined) {
-        r.target = b.target;
-        r.underTarget = m.medianUs < b.target;
-      }
-      if (b.report) r.note = b.report();
-      results.push(r);
-      if (!json) {
-        const verdict = b.target === undefined ? '' : `  target < ${formatUs(b.target)}: ${r.underTarget ? 'ok' : 'MISSED'}`;
-        process.stdout.write(`${file}  ${b.name}\n    median ${formatUs(m.medianUs)}  min ${formatUs(m.minUs)}  (${m.calls} calls)${verdict}\n`);
-        if (r.note) process.stdout.write(`    ${r.note}\n`);
-      }
-    }
+    const out = spawnSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), CHILD_FLAG, file, ...filters], {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'inherit'],
+      maxBuffer: 64 * 1024 * 1024,
+    });
+    if (out.status !== 0) throw new Error(`benchmark file ${file} failed (exit ${out.status})`);
+    const lines = out.stdout.split('\n').filter((l) => l.trim() !== '');
+    const mine = JSON.parse(lines[lines.length - 1]) as BenchResult[];
+    results.push(...mine);
+    if (!json) mine.forEach(printResult);
   }
   if (json) process.stdout.write(`${JSON.stringify({ node: process.version, results }, null, 2)}\n`);
   if (void sink, strict && results.some((r) => r.underTarget === false)) process.exitCode = 1;
