@@ -103,7 +103,7 @@ export function readYamlSource(text: string, collector: DiagnosticCollector): So
     // Anything else (unknown anchors, bad merges, cycles) is reported with a position by the walk.
   }
 
-  // 3. Walk the tree into plain values, recording positions.
+  // 3. Walk the tree into plain values, keeping each value's position.
   const valuePositions = new Map<string, Position>();
   const keyPositions = new Map<string, Position>();
   const walker = new Walker(doc, at, collector, valuePositions, keyPositions);

@@ -26,7 +26,7 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { parseOptions, withCommonOptions } from '../options.js';
-import { defaultFlux, parseEdge } from './pair.js';
+import { defaultFlux, edgeRoles } from './pair.js';
 import { parseFluxValue, si } from './spectrum.js';
 
 const GateOptions = z.object({
@@ -74,11 +74,7 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const theta = o.phase !== undefined ? parsePhase(o.phase) : Math.PI;
   const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
-  const [la, lb, gGHz] = parseEdge(layout, o.edge);
-  if (o.mover !== undefined && o.mover !== la.id && o.mover !== lb.id) {
-    throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(o.mover)}` });
-  }
-  const [lm, ls] = o.mover === undefined || o.mover === la.id ? [la, lb] : [lb, la];
+  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const mover = Transmon.fromLayout(lm);
   const partner = Transmon.fromLayout(ls);
   const moverPark = defaultFlux(mover, lm);

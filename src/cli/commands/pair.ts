@@ -66,6 +66,19 @@ export function parseEdge(layout: ChipLayout, text: string): [QubitLayout, Qubit
   return [findQubit(layout, a, '--edge'), findQubit(layout, b, '--edge'), coupling.gGHz];
 }
 
+/**
+ * The edge's mover and static qubit: `--mover` if given (a qubit of the edge), else the edge's
+ * first qubit; with the coupling's g (GHz).
+ */
+export function edgeRoles(layout: ChipLayout, edgeText: string, moverId: string | undefined): { edge: [QubitLayout, QubitLayout]; mover: QubitLayout; other: QubitLayout; gGHz: number } {
+  const [la, lb, gGHz] = parseEdge(layout, edgeText);
+  if (moverId !== undefined && moverId !== la.id && moverId !== lb.id) {
+    throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(moverId)}` });
+  }
+  const [mover, other] = moverId === undefined || moverId === la.id ? [la, lb] : [lb, la];
+  return { edge: [la, lb], mover, other, gGHz };
+}
+
 /** Default flux of a qubit: its layout parking frequency if fixed, else the upper sweet spot. */
 export function defaultFlux(q: Transmon, layoutQubit: QubitLayout): number {
   if (layoutQubit.parkGHz === undefined) return 0;

@@ -28,7 +28,7 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { integerOption, parseOptions, withCommonOptions } from '../options.js';
-import { defaultFlux, parseEdge } from './pair.js';
+import { defaultFlux, edgeRoles } from './pair.js';
 import { findQubit, parseFluxValue, si } from './spectrum.js';
 
 export const SIMULATE_CLI_DEFAULTS = Object.freeze({ levels: 6 });
@@ -55,11 +55,7 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const o = parseOptions(SimulateOptions, raw);
   const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
-  const [la, lb, gGHz] = parseEdge(layout, o.edge);
-  if (o.mover !== undefined && o.mover !== la.id && o.mover !== lb.id) {
-    throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(o.mover)}` });
-  }
-  const [lm, ls] = o.mover === undefined || o.mover === la.id ? [la, lb] : [lb, la];
+  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const traj = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(ctx.resolvePath(o.trajectory), o.trajectory), o.trajectory));
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
