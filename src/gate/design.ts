@@ -160,13 +160,12 @@ function designWithFamily(req: GateDesignRequest): GateDesign {
   const base = DEFAULT_RAMP_NS[family.name] ?? 8;
   let best = designWithRamp(req, family, base);
   if (!best.feasible || best.leakage <= LEAKAGE_GOAL) return best;
-  const score = designScore;
   for (const factor of [1.5, 2]) {
     const ramp = base * factor;
     if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) break;
     const d = designWithRamp(req, family, ramp);
     d.evaluations += best.evaluations;
-    if (score(d) < score(best)) best = d;
+    if (designScore(d) < designScore(best)) best = d;
     else best.evaluations = d.evaluations;
     if (best.leakage <= LEAKAGE_GOAL) break;
   }

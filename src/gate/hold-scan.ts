@@ -23,6 +23,7 @@ export class HoldScan {
   private readonly eLoc: number[];
 
   constructor(frame: ManifoldFrame, uDest: number, comp: DressedState[], finalRe: Float64Array[], finalIm: Float64Array[], private readonly rampNs: number) {
+    // rampNs: duration of the simulated ramp up (through a line filter, up to where it settles)
     const vecs: Float64Array[] = [];
     this.lam = frame.sectors.map((sector) => {
       const d = sector.size;

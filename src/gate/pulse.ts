@@ -116,7 +116,7 @@ const FILTER_REACH_SIGMAS = 8;
  * `fine`) and delayed by a whole number of AWG intervals so it starts at `before` and ends at the
  * last sample exactly.
  *
- * Exact form: the linear join is L(t) = x_park + sum_k c_k R(t - t_k) with R(u) = max(u, 0) and
+ * Exact form: the linear join is L(t) = x_before + sum_k c_k R(t - t_k) with R(u) = max(u, 0) and
  * c_k the change of slope at sample k; its Gaussian smoothing replaces R by
  * R_s(u) = u Phi(u/s) + s phi(u/s), and R_s - R = s phi(|u|/s) - |u| Phi(-|u|/s) is even and
  * negligible beyond 8 s, so y(t) = L(t) + sum_{|t - t_k| < 8 s} c_k (R_s - R)(t - t_k). On a
