@@ -186,8 +186,17 @@ export function fixedBasisBlock(model: SimModel, traj: Trajectory, options: Fixe
     [1, 1],
   ].map((l) => [...l, ...spect]);
   const fr = propagateFixedBasis(model, fb, traj, labels, options);
+  return fixedBasisLabBlock(fb, labels, fr.re, fr.im, traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0]);
+}
+
+/**
+ * The lab-frame block M (physics.md sec. 3) from the final fixed-basis vectors of the four
+ * computational inputs (`labels`, order 00, 01, 10, 11, spectator levels appended) after a
+ * trajectory of duration T: projections on the dressed states at parking, rotated by the
+ * lab-frame phases of the computational energies.
+ */
+export function fixedBasisLabBlock(fb: FixedBasisModel, labels: readonly (readonly number[])[], finalRe: ArrayLike<number>[], finalIm: ArrayLike<number>[], T: number): { re: Float64Array; im: Float64Array } {
   const n = fb.space.size;
-  const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
   const col = labels.map((l) => fixedBasisStateColumn(fb, l));
   const e = col.map((c) => fb.dressedEnergies[c]);
   const re = new Float64Array(16);
@@ -199,8 +208,8 @@ export function fixedBasisBlock(model: SimModel, traj: Trajectory, options: Fixe
       let si = 0;
       for (let q = 0; q < n; q++) {
         const v = fb.dressedVectors[q * n + col[r]];
-        sr += v * fr.re[c][q];
-        si += v * fr.im[c][q];
+        sr += v * finalRe[c][q];
+        si += v * finalIm[c][q];
       }
       re[r * 4 + c] = Math.cos(ph) * sr - Math.sin(ph) * si;
       im[r * 4 + c] = Math.sin(ph) * sr + Math.cos(ph) * si;

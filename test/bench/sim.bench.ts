@@ -12,7 +12,7 @@
 import type { Benchmark } from './run.js';
 import { buildManifoldFrame, type ManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { simulateGate, type GateSimulation } from '../../src/sim/simulate-gate.js';
-import { fixedBasisBlock, fixedBasisModel, fixedBasisStateColumn } from '../../src/sim/fixed-basis.js';
+import { fixedBasisBlock, fixedBasisLabBlock, fixedBasisModel, fixedBasisStateColumn } from '../../src/sim/fixed-basis.js';
 import { fluxAt } from '../../src/sim/trajectory.js';
 import { runPython } from '../support/python.js';
 import { blockDistance } from '../sim/support.js';
@@ -93,7 +93,6 @@ export const qutipRatio: Benchmark = {
       return Array.from({ length: n }, (_, q) => fb.dressedVectors[q * n + c]);
     });
     const ref = referenceBlock();
-    const e = labels.map((l) => fb.dressedEnergies[fixedBasisStateColumn(fb, l)]);
     const ours = (() => {
       const t0 = performance.now();
       const r = simulateGate(buildManifoldFrame(model, range), traj);
@@ -103,21 +102,7 @@ export const qutipRatio: Benchmark = {
     let best: { seconds: number; tol: number; err: number } | undefined;
     for (const tol of [1e-10, 1e-11, 1e-12]) {
       const out = runPython<{ re: number[][]; im: number[][]; seconds: number }>('qutip_sesolve.py', { h0: rows(fb.hPark), c: rows(fb.cFull), tlist, u, psi0, atol: tol, rtol: tol }, { timeoutMs: 900_000 });
-      const m = { re: new Float64Array(16), im: new Float64Array(16) };
-      labels.forEach((lr, r) => {
-        const ph = 2 * Math.PI * (e[0] + lr[0] * (e[2] - e[0]) + lr[1] * (e[1] - e[0])) * T;
-        const cr = fixedBasisStateColumn(fb, lr);
-        for (let c = 0; c < 4; c++) {
-          let sr = 0;
-          let si = 0;
-          for (let q = 0; q < n; q++) {
-            sr += fb.dressedVectors[q * n + cr] * out.re[c][q];
-            si += fb.dressedVectors[q * n + cr] * out.im[c][q];
-          }
-          m.re[r * 4 + c] = Math.cos(ph) * sr - Math.sin(ph) * si;
-          m.im[r * 4 + c] = Math.sin(ph) * sr + Math.cos(ph) * si;
-        }
-      });
+      const m = fixedBasisLabBlock(fb, labels, out.re, out.im, T);
       const err = blockDistance(m, ref);
       tried.push(`tol ${tol}: ${out.seconds.toFixed(2)} s, error ${err.toExponential(1)}`);
       if (err < 1e-6) {

@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { runPython } from '../support/python.js';
-import { fixedBasisBlock, fixedBasisModel, fixedBasisStateColumn } from '../../src/sim/fixed-basis.js';
+import { fixedBasisBlock, fixedBasisLabBlock, fixedBasisModel, fixedBasisStateColumn } from '../../src/sim/fixed-basis.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { simulateGate, maximiseChannelOverlap } from '../../src/sim/simulate-gate.js';
 import { MovingBasisModel } from '../../src/sim/moving-basis.js';
@@ -46,22 +46,7 @@ describe('QuTiP cross-check', () => {
     });
     const out = runPython<{ re: number[][]; im: number[][]; seconds: number }>('qutip_sesolve.py', { h0: rows(fb.hPark), c: rows(fb.cFull), tlist, u, psi0, atol: 1e-12, rtol: 1e-11 }, { timeoutMs: 300_000 });
     // M from QuTiP's final states (lab frame as everywhere)
-    const e = labels.map((l) => fb.dressedEnergies[fixedBasisStateColumn(fb, l)]);
-    const mq = { re: new Float64Array(16), im: new Float64Array(16) };
-    labels.forEach((lr, r) => {
-      const ph = TWO_PI * (e[0] + lr[0] * (e[2] - e[0]) + lr[1] * (e[1] - e[0])) * T;
-      const cr = fixedBasisStateColumn(fb, lr);
-      for (let c = 0; c < 4; c++) {
-        let sr = 0;
-        let si = 0;
-        for (let q = 0; q < n; q++) {
-          sr += fb.dressedVectors[q * n + cr] * out.re[c][q];
-          si += fb.dressedVectors[q * n + cr] * out.im[c][q];
-        }
-        mq.re[r * 4 + c] = Math.cos(ph) * sr - Math.sin(ph) * si;
-        mq.im[r * 4 + c] = Math.sin(ph) * sr + Math.cos(ph) * si;
-      }
-    });
+    const mq = fixedBasisLabBlock(fb, labels, out.re, out.im, T);
     const ours = fixedBasisBlock(model, traj, { stepNs: 0.005 });
     expect(blockDistance(ours, mq)).toBeLessThan(1e-6);
   }, 300_000);
