@@ -30,7 +30,7 @@ import { exactCrossing } from './crossing.js';
 import { RampInfeasible, rampFamily, RAMP_FAMILIES, type Ramp, type RampFamily } from './families/index.js';
 import { HoldScan } from './hold-scan.js';
 import { lineDelayNs, pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
-import { bestHold, HOLD_SCAN_DEFAULTS, searchOffset, type HoldSolution } from './tune.js';
+import { bestHold, HOLD_SCAN_DEFAULTS, phaseMiss, searchOffset, type HoldSolution } from './tune.js';
 import { TwoLevelTable } from './two-level-table.js';
 
 export interface GateSpectatorRequest {
@@ -90,6 +90,11 @@ export interface GateDesign {
   gapGHz: number;
   /** Populations of 20 and 02 at the end, from 11. */
   populations: { '20': number; '02': number };
+  /**
+   * The idle-formula decoherence error of the gate, (2/5) t sum_q (1/T1 + 1/T_phi) with both
+   * qubits at the crossing point (physics.md sec. 4; about 30 % below a CZ's, NaN when infeasible).
+   */
+  idleErrorEstimate: number;
   /** Simulations run while tuning (for profiling). */
   evaluations: number;
 }
@@ -127,17 +132,18 @@ export const DESIGN_DEFAULTS = Object.freeze({
 
 /**
  * Design the CZ of one edge. Without a requested ramp time the family's default is used, and when
- * its tuned gate still leaks more than LEAKAGE_GOAL (large or fast excursions), longer ramps
- * (x1.5, x2, as the duration limit allows) are tried and the best design is kept (least
- * coherent error, leakage above the goal weighed heavily). Without a requested family, a default
- * family's design that still leaks (or fails) is compared with FALLBACK_FAMILY's, and the better
+ * its tuned gate misses the goals (meetsGoals: leakage above LEAKAGE_GOAL on large or fast
+ * excursions, or a coherent error above COHERENT_SHARE_GOAL of the decoherence error), other ramp
+ * times (RAMP_RETRY_FACTORS, as the duration limit allows) are tried and the best design is kept
+ * (designScore: meeting the goals first, then the least total error). Without a requested family,
+ * a default family's design that misses them is compared with FALLBACK_FAMILY's, and the better
  * one is kept.
  */
 export function designCzGate(req: GateDesignRequest): GateDesign {
   const best = designWithFamily(req);
   // No family asked for and the default one still leaks (or fails): try the fallback family,
   // whose schedule slows down wherever any of the crossings it watches is near.
-  if (req.family !== undefined || (best.feasible && best.leakage <= LEAKAGE_GOAL) || best.family === FALLBACK_FAMILY) return best;
+  if (req.family !== undefined || meetsGoals(best) || best.family === FALLBACK_FAMILY) return best;
   const alt = designWithFamily({ ...req, family: FALLBACK_FAMILY });
   alt.evaluations += best.evaluations;
   if (designScore(alt) < designScore(best)) return alt;
@@ -145,12 +151,36 @@ export function designCzGate(req: GateDesignRequest): GateDesign {
   return best;
 }
 
-/** The family tried when the default one leaks above LEAKAGE_GOAL and no family was asked for. */
+/** The family tried when the default one misses the goals and no family was asked for. */
 export const FALLBACK_FAMILY = 'faquad';
 
-/** Least coherent error, leakage above the goal weighed heavily; infeasible last. */
+/** The error decoherence adds to a design: from its noisy fidelity when computed, else the idle-rate estimate. */
+function decoherenceError(d: GateDesign): number {
+  return d.fidelityNoisy !== undefined ? d.fidelity - d.fidelityNoisy : d.idleErrorEstimate;
+}
+
+/**
+ * The gate stage's goals for a design: leakage at most LEAKAGE_GOAL and a coherent error at most
+ * COHERENT_SHARE_GOAL of the error decoherence adds (the gate is coherence-limited; without
+ * coherence data only the leakage goal applies).
+ */
+export function meetsGoals(d: GateDesign): boolean {
+  if (!d.feasible || !(d.leakage <= LEAKAGE_GOAL)) return false;
+  const decoherence = decoherenceError(d);
+  return !(decoherence > 0) || 1 - d.fidelity <= COHERENT_SHARE_GOAL * decoherence;
+}
+
+/** The coherent error a design aims below, as a share of the error decoherence adds. */
+export const COHERENT_SHARE_GOAL = 0.1;
+
+/**
+ * Designs meeting the goals first, then the least total error (coherent plus decoherence), with
+ * leakage above the goal weighed heavily; infeasible last.
+ */
 function designScore(d: GateDesign): number {
-  return d.feasible ? 1 - d.fidelity + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL) : Infinity;
+  if (!d.feasible) return Infinity;
+  const decoherence = decoherenceError(d);
+  return (meetsGoals(d) ? 0 : 1) + 1 - d.fidelity + (decoherence > 0 ? decoherence : 0) + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL);
 }
 
 function designWithFamily(req: GateDesignRequest): GateDesign {
@@ -159,18 +189,26 @@ function designWithFamily(req: GateDesignRequest): GateDesign {
   if (req.rampNs !== undefined) return designWithRamp(req, family, req.rampNs);
   const base = DEFAULT_RAMP_NS[family.name] ?? 8;
   let best = designWithRamp(req, family, base);
-  if (!best.feasible || best.leakage <= LEAKAGE_GOAL) return best;
-  for (const factor of [1.5, 2]) {
+  if (meetsGoals(best)) return best;
+  for (const factor of RAMP_RETRY_FACTORS) {
     const ramp = base * factor;
-    if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) break;
+    if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) continue;
     const d = designWithRamp(req, family, ramp);
     d.evaluations += best.evaluations;
     if (designScore(d) < designScore(best)) best = d;
     else best.evaluations = d.evaluations;
-    if (best.leakage <= LEAKAGE_GOAL) break;
+    if (meetsGoals(best)) break;
   }
   return best;
 }
+
+/**
+ * Ramp times tried, as multiples of the family's default, when its tuned design leaks above
+ * LEAKAGE_GOAL: longer first (an adiabatic ramp leaks less the slower it goes), then shorter (a
+ * near-sudden ramp leaks less the faster it goes, and leaves more of a tight duration limit to
+ * the hold; the linear and erf ramps on edges whose full 11-20 cycle nearly fills it).
+ */
+export const RAMP_RETRY_FACTORS: readonly number[] = Object.freeze([1.5, 2, 0.625, 0.5]);
 
 /** The leakage a default design aims below (the acceptance goal of the gate stage). */
 export const LEAKAGE_GOAL = 1e-4;
@@ -201,6 +239,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     crossingFrequencyGHz: NaN,
     gapGHz: NaN,
     populations: { '20': NaN, '02': NaN },
+    idleErrorEstimate: NaN,
     evaluations: 0,
   });
   // 1. Bare resonance on the mover's branch, oriented to the parking flux's sign.
@@ -282,7 +321,10 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     searchOffset(
     (delta) => {
       const s = scanFor(delta);
-      return s ? bestHold(s.scan, theta, maxHold - 2 * s.extNs, undefined, errorPerNs) : null;
+      if (!s) return null;
+      const limit = maxHold - 2 * s.extNs;
+      const solution = bestHold(s.scan, theta, limit, undefined, errorPerNs);
+      return { solution, miss: solution ? 0 : phaseMiss(s.scan, theta, limit) };
     },
     DESIGN_DEFAULTS.offsetWindow[0] * gapScale,
     DESIGN_DEFAULTS.offsetWindow[1] * gapScale,
@@ -403,6 +445,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     waveform: traj,
     feasible: true,
     populations: final.populations,
+    idleErrorEstimate: errorPerNs * (traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0]),
     ...common,
     evaluations,
   };

@@ -93,6 +93,26 @@ export function bestHold(scan: HoldScan, theta: number, maxHoldNs: number, stepN
   return best;
 }
 
+/**
+ * How close phi_c comes to theta along the hold (min over the scan grid of |phi_c(t) - theta|,
+ * rad) when no hold reaches it: near a destination where phi_c only touches theta, this closes
+ * to 0, which guides the offset search into narrow windows of solutions (see searchOffset).
+ */
+export function phaseMiss(scan: HoldScan, theta: number, maxHoldNs: number, stepNs: number = HOLD_SCAN_DEFAULTS.stepNs): number {
+  if (!(maxHoldNs >= 0)) return Infinity;
+  const n = Math.max(1, Math.ceil(maxHoldNs / stepNs));
+  const grid = scan.phaseScan(maxHoldNs / n, n);
+  let miss = Infinity;
+  for (let k = 0; k <= n; k++) miss = Math.min(miss, Math.abs(wrapAngle(grid[k] - theta)));
+  return miss;
+}
+
+/** One destination offset: the best hold solution (null when none) and, without one, phaseMiss. */
+export interface OffsetEvaluation {
+  solution: HoldSolution | null;
+  miss: number;
+}
+
 export interface OffsetSearchResult {
   offsetGHz: number;
   hold: HoldSolution;
@@ -103,10 +123,16 @@ export interface OffsetSearchResult {
  * Minimise e*(delta) over [lo, hi]: `coarse` equally spaced points, then golden-section search
  * in the bracket of each of the `candidates` best local minima of the coarse scan (the landscape
  * has narrow minima where the leakage of the two ramps interferes away). `evaluate` returns null
- * when an offset has no solution.
+ * when an offset cannot be reached, and a null solution when no hold reaches theta there.
+ *
+ * When no point of the scan has a solution (theta is reached only in a window of offsets narrower
+ * than the grid, typically where a sudden ramp's phi_c barely touches pi at the full 11-20
+ * cycle), the offset with the least phase miss is refined by golden-section search on the miss
+ * until a solution appears (at most `golden` extra steps), and the score search then runs in
+ * that bracket.
  */
 export function searchOffset(
-  evaluate: (offsetGHz: number) => HoldSolution | null,
+  evaluateOffset: (offsetGHz: number) => OffsetEvaluation | null,
   lo: number,
   hi: number,
   coarse = 17,
@@ -115,6 +141,12 @@ export function searchOffset(
   /** An extra fine grid [from, to, points], e.g. around the exact crossing where short gates live. */
   fine?: [number, number, number],
 ): OffsetSearchResult | null {
+  const misses = new Map<number, number>();
+  const evaluate = (x: number): HoldSolution | null => {
+    const r = evaluateOffset(x);
+    misses.set(x, r ? (r.solution ? 0 : r.miss) : Infinity);
+    return r ? r.solution : null;
+  };
   const pts: number[] = [];
   for (let k = 0; k < coarse; k++) pts.push(lo + ((hi - lo) * k) / (coarse - 1));
   if (fine) for (let k = 0; k < fine[2]; k++) pts.push(fine[0] + ((fine[1] - fine[0]) * k) / (fine[2] - 1));
@@ -135,14 +167,52 @@ export function searchOffset(
     if (s && (!best || s.score < best.hold.score)) best = { offsetGHz: x, hold: s };
   };
   xs.forEach((x, k) => note(x, vals[k]));
-  if (!best) return null;
+  const r = (Math.sqrt(5) - 1) / 2;
+  let brackets: [number, number][] = [];
+  if (!best) {
+    // no solution on the grid: close in on the least phase miss
+    let k = -1;
+    xs.forEach((x, j) => {
+      const m = misses.get(x) ?? Infinity;
+      if (Number.isFinite(m) && (k < 0 || m < (misses.get(xs[k]) ?? Infinity))) k = j;
+    });
+    if (k < 0) return null;
+    let a = xs[Math.max(0, k - 1)];
+    let b = xs[Math.min(coarse - 1, k + 1)];
+    const missAt = (x: number): number => {
+      const s = evaluate(x);
+      evaluations++;
+      note(x, s);
+      return misses.get(x) ?? Infinity;
+    };
+    let c = b - r * (b - a);
+    let d = a + r * (b - a);
+    let mc = missAt(c);
+    let md = missAt(d);
+    for (let it = 0; it < golden && !best; it++) {
+      if (mc < md) {
+        b = d;
+        d = c;
+        md = mc;
+        c = b - r * (b - a);
+        mc = missAt(c);
+      } else {
+        a = c;
+        c = d;
+        mc = md;
+        d = a + r * (b - a);
+        md = missAt(d);
+      }
+    }
+    if (!best) return null;
+    brackets = [[a, b]];
+  }
   const minima = xs
     .map((_, k) => k)
     .filter((k) => Number.isFinite(score(vals[k])) && (k === 0 || score(vals[k]) <= score(vals[k - 1])) && (k === coarse - 1 || score(vals[k]) <= score(vals[k + 1])))
     .sort((a, b) => score(vals[a]) - score(vals[b]))
     .slice(0, candidates);
-  const r = (Math.sqrt(5) - 1) / 2;
-  const brackets: [number, number][] = minima.map((k) => [xs[Math.max(0, k - 1)], xs[Math.min(coarse - 1, k + 1)]] as [number, number]);
+  if (brackets.length === 0) brackets = minima.map((k) => [xs[Math.max(0, k - 1)], xs[Math.min(coarse - 1, k + 1)]] as [number, number]);
   for (const [a0, b0] of brackets) {
     let a = a0;
     let b = b0;

@@ -107,7 +107,7 @@ function failedDesign(mover: string, reason: string): GateDesign {
     mover, family: '-', rampNs: NaN, holdNs: NaN, durationNs: NaN, interactionFrequencyGHz: NaN, crossingOffsetGHz: NaN,
     conditionalPhase: NaN, leakage: NaN, fidelity: NaN, virtualZ: { a: NaN, b: NaN }, speedLimitNs: NaN,
     untuned: { conditionalPhase: NaN, leakage: NaN, fidelity: NaN }, waveform: { timeNs: new Float64Array(0), flux: new Float64Array(0) },
-    feasible: false, reason, crossingFlux: NaN, crossingFrequencyGHz: NaN, gapGHz: NaN, populations: { '20': NaN, '02': NaN }, evaluations: 0,
+    feasible: false, reason, crossingFlux: NaN, crossingFrequencyGHz: NaN, gapGHz: NaN, populations: { '20': NaN, '02': NaN }, idleErrorEstimate: NaN, evaluations: 0,
   };
 }
 

@@ -25,6 +25,7 @@ import { COLLISION_RULES } from './rules/catalogue.js';
 import { evaluateGate, type DuringGate, type GateScenario } from './rules/cz-evaluate.js';
 import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
+import { tuningRoomShortfall } from './rules/tuning-room.js';
 
 export const VERIFY_DEFAULTS = Object.freeze({ crossingToleranceGHz: 1e-5 });
 
@@ -57,9 +58,11 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     const res = pairResonances(ctx.transmons[mover], ctx.transmons[partner], states[partner].flux, edge.gChargeGHz)[pe.crossing];
     const range = ctx.ranges[mover];
     layerOf[edge.index] = pe.layer;
-    if (!res || res.moverF01GHz < range.lo - 1e-9) {
+    const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
+    if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
+      const why = short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : '';
       violations.push({ rule: 'cz-range', qubits: [pe.mover, ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key,
-        message: `${pe.mover} cannot reach the ${pe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}` });
+        message: `${pe.mover} cannot reach the ${pe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${why}` });
       edgePlans[edge.index] = stubPlan(edge.index, mover, partner, pe.crossing);
       continue;
     }

@@ -85,3 +85,35 @@ describe('the choice of mover and crossing', () => {
     }
   });
 });
+
+describe('room to tune past the crossing (src/plan/rules/tuning-room.ts, our choice)', () => {
+  // A's 11-20 crossing with B at 5.5 GHz lies at fInt (pair stage); A's range ends just below it
+  // (5 MHz, less than one bare splitting 2 g_c ~ 34 MHz) or well below it (150 MHz).
+  const chipWithBottom = (fMinGHz: number) =>
+    handChip('room', { A: { fMax: '6.3 GHz', alpha: '-220 MHz', fMin: `${fMinGHz.toFixed(6)} GHz` }, B: { fMax: '5.5 GHz', park: '5.5 GHz' } }, [['A', 'B', '12 MHz']], { zzLimit: '3 MHz' });
+
+  it('tuningRoomShortfall: the missing room on the far side of the excursion, 0 with enough', async () => {
+    const { tuningRoomShortfall } = await import('../../src/plan/rules/tuning-room.js');
+    const range = { lo: 4, hi: 6 };
+    // moving down to 4.010 GHz with g_c = 10 MHz: 20 MHz needed past it, 10 MHz there
+    expect(tuningRoomShortfall(range, 5.5, 4.01, 0.01)).toBeCloseTo(0.01, 12);
+    expect(tuningRoomShortfall(range, 5.5, 4.03, 0.01)).toBe(0);
+    // moving up to 5.995 GHz: 5 MHz below the top, 15 MHz short
+    expect(tuningRoomShortfall(range, 5.0, 5.995, 0.01)).toBeCloseTo(0.015, 12);
+    expect(tuningRoomShortfall(range, 5.0, 5.9, 0.01)).toBe(0);
+  });
+
+  it('a crossing less than one splitting above the bottom of the mover range is not offered; with room it is', () => {
+    const tight = planChip(chipWithBottom(Number(fInt) - 0.005));
+    const e = tight.edges[0];
+    const opt = e.options.find((o) => tight.ctx.ids[o.mover] === 'A' && o.crossing === '11-20')!;
+    expect(opt.feasible).toBe(false);
+    expect(opt.problems.map((p) => p.rule)).toEqual(['cz-range']);
+    expect(opt.problems[0].message).toMatch(/no room to tune the destination past it/);
+    expect(tight.violations.map((v) => v.rule)).toContain('cz-range');
+    const roomy = planChip(chipWithBottom(Number(fInt) - 0.15));
+    expect(roomy.violations).toEqual([]);
+    expect(roomy.ctx.ids[roomy.edges[0].mover]).toBe('A');
+    expect(roomy.edges[0].crossing).toBe('11-20');
+  });
+});

@@ -66,7 +66,7 @@ describe('checkDesign', () => {
       mover: 'A', family: 'linear', rampNs, holdNs: 1, durationNs: 2 * rampNs + 1, interactionFrequencyGHz: e.interactionGHz, crossingOffsetGHz: 0,
       conditionalPhase: Math.PI, leakage: 0, fidelity: 1, virtualZ: { a: 0, b: 0 }, speedLimitNs: e.speedLimitNs,
       untuned: { conditionalPhase: Math.PI, leakage: 0, fidelity: 1 }, waveform: { timeNs: Float64Array.from(t), flux: Float64Array.from(x) }, feasible: true,
-      crossingFlux: dest, crossingFrequencyGHz: e.interactionGHz, gapGHz: 2 * e.crossingCouplingGHz, populations: { '20': 0, '02': 0 }, evaluations: 0,
+      crossingFlux: dest, crossingFrequencyGHz: e.interactionGHz, gapGHz: 2 * e.crossingCouplingGHz, populations: { '20': 0, '02': 0 }, idleErrorEstimate: 0, evaluations: 0,
     };
   };
 

@@ -30,6 +30,7 @@ import type { IdleBlockers } from '../rules/idle-blockers.js';
 import { evaluateGate, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
 import type { ExactQubitState } from '../exact-state.js';
 import { spectatorParkingCandidates } from './spectator-parking.js';
+import { tuningRoomGHz, tuningRoomShortfall } from '../rules/tuning-room.js';
 
 export interface ParkedSpectator {
   qubit: number;
@@ -208,8 +209,13 @@ function evaluateOption(
   const { ctx } = ec;
   const id = ctx.ids;
   const range = ctx.ranges[mover];
-  if (!res || res.moverF01GHz < range.lo - 1e-9) {
-    const where = res ? `${ghz(res.moverF01GHz)}, below its planning range ${ghz(range.lo)}` : `outside its tunable range`;
+  const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, ec.states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
+  if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
+    const where = !res
+      ? `outside its tunable range`
+      : short > 0
+        ? `${ghz(res.moverF01GHz)}, less than one splitting (${ghz(tuningRoomGHz(res.couplingGHz))}) inside its planning range ${band(range.lo, range.hi)}: no room to tune the destination past it`
+        : `${ghz(res.moverF01GHz)}, below its planning range ${ghz(range.lo)}`;
     const problem: CzFinding = {
       rule: 'cz-range', qubits: [id[mover], id[partner]], value: res ? res.moverF01GHz : null, threshold: null, edge: ctx.edges[edge].key, blame: -1,
       message: `${id[mover]} cannot reach the ${crossing} crossing with ${id[partner]} (${where})`,

@@ -13,7 +13,8 @@
  *   gate       w_g (t_CZ / 3) Gamma_1/f(f_int) per coupled pair: the mover's dephasing at its
  *              interaction point during one CZ, t_CZ = 1 / (2 g_c) + 2 rampNs, for the usual
  *              choice (the higher qubit moves to its 11-20 crossing; else the lower one to its
- *              11-02 crossing); 1 when neither crossing is reachable. It prefers short excursions.
+ *              11-02 crossing); 1 when neither crossing is reachable with room to tune the
+ *              destination past it (src/plan/rules/tuning-room.ts). It prefers short excursions.
  *   tls        w_tls (g_TLS / (f - f_TLS))^2 per listed defect, g_TLS = width / 2: the qubit's
  *              admixture with the defect (dispersive hybridisation), which sets the loss through it.
  *   band       w_b ((f_max - f) / 1 GHz)^2: a weak preference for the designed band at the upper sweet
@@ -34,6 +35,7 @@ import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
 import { emptyTableState, type TableState } from '../qubit-table.js';
 import { secondOrderZz } from '../zz-second-order.js';
+import { tuningRoomGHz } from '../rules/tuning-room.js';
 import type { Blocker, FrequencyView } from '../rules/idle-blockers.js';
 
 export interface CostParts {
@@ -48,6 +50,8 @@ export class ParkingCost {
   private visitI = -1;
   private visitStamp = -1;
   private readonly higher = new Map<number, number>();
+  /** Whether the last gateCost came from the higher qubit's 11-20 crossing (which depends on the lower qubit's frequency only). */
+  private lastWasHigherCrossing = false;
 
   /** Start a visit of qubit i with the others fixed (`stamp` changes whenever any frequency does). */
   beginVisit(i: number, stamp: number): void {
@@ -93,7 +97,7 @@ export class ParkingCost {
         let c = this.higher.get(j);
         if (c === undefined) {
           c = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
-          if (this.ctx.tables[i].f01ForF12(view.freq[j]) !== null) this.higher.set(j, c);
+          if (this.lastWasHigherCrossing) this.higher.set(j, c);
         }
         gate = c;
       } else gate = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
@@ -118,19 +122,24 @@ export class ParkingCost {
     const th = this.ctx.tables[h];
     const tl = this.ctx.tables[l];
     const ramp = 2 * this.options.rampNs;
+    this.lastWasHigherCrossing = false;
     // The higher qubit to its 11-20 crossing (its f12 = f01 of the lower one).
     const fInt = th.f01ForF12(fl);
+    // A crossing counts only with room to tune the destination past it (src/plan/rules/tuning-room.ts).
     if (fInt !== null) {
       const sx = th.at(fInt, this.sx);
       const gc = gCharge * sx.n12 * sl.n01;
-      return ((1 / (2 * gc) + ramp) * th.fluxNoiseRateOf(sx)) / 3;
+      if (fInt - th.fLowGHz >= tuningRoomGHz(gc)) {
+        this.lastWasHigherCrossing = true;
+        return ((1 / (2 * gc) + ramp) * th.fluxNoiseRateOf(sx)) / 3;
+      }
     }
     // The lower qubit up to its 11-02 crossing (its f01 = f12 of the higher one).
     const f2 = sh.f12;
     if (tl.covers(f2)) {
       const sx = tl.at(f2, this.sx);
       const gc = gCharge * sx.n01 * sh.n12;
-      return ((1 / (2 * gc) + ramp) * tl.fluxNoiseRateOf(sx)) / 3;
+      if (this.ctx.ranges[l].hi - f2 >= tuningRoomGHz(gc)) return ((1 / (2 * gc) + ramp) * tl.fluxNoiseRateOf(sx)) / 3;
     }
     return 1;
   }
