@@ -141,7 +141,7 @@ export const DESIGN_DEFAULTS = Object.freeze({
  */
 export function designCzGate(req: GateDesignRequest): GateDesign {
   const best = designWithFamily(req);
-  // No family asked for and the default one still leaks (or fails): try the fallback family,
+  // No family asked for and the default one misses the goals (or fails): try the fallback family,
   // whose schedule slows down wherever any of the crossings it watches is near.
   if (req.family !== undefined || meetsGoals(best) || best.family === FALLBACK_FAMILY) return best;
   const alt = designWithFamily({ ...req, family: FALLBACK_FAMILY });
@@ -203,8 +203,8 @@ function designWithFamily(req: GateDesignRequest): GateDesign {
 }
 
 /**
- * Ramp times tried, as multiples of the family's default, when its tuned design leaks above
- * LEAKAGE_GOAL: longer first (an adiabatic ramp leaks less the slower it goes), then shorter (a
+ * Ramp times tried, as multiples of the family's default, when its tuned design misses the goals
+ * (meetsGoals): longer first (an adiabatic ramp leaks less the slower it goes), then shorter (a
  * near-sudden ramp leaks less the faster it goes, and leaves more of a tight duration limit to
  * the hold; the linear and erf ramps on edges whose full 11-20 cycle nearly fills it).
  */

@@ -117,3 +117,19 @@ describe('room to tune past the crossing (src/plan/rules/tuning-room.ts, our cho
     expect(roomy.edges[0].crossing).toBe('11-20');
   });
 });
+
+describe('cz-duration', () => {
+  it('counts the full 11-20 cycle 1/(2 g_c), both ramps, the flux line settling at both ends and two sample intervals (src/gate/pulse.ts)', async () => {
+    const { lineDelayNs } = await import('../../src/gate/pulse.js');
+    const plan = planChip(probe);
+    const ab = plan.edges[0];
+    const r = probe.rules;
+    const settle = 2 * lineDelayNs(r.sampleRateGHz, r.fluxBandwidthGHz) + 2 / r.sampleRateGHz;
+    expect(settle).toBeGreaterThan(0);
+    expectClose(ab.durationNs, 1 / (2 * ab.crossingCouplingGHz) + 2 * ab.rampNs + settle, 1e-12, 'duration');
+    // a limit that the cycle and ramps alone would meet, but not with the settling: a violation
+    const limit = ab.durationNs - settle / 2;
+    const tight = planChip(handChip('probe', { A: { fMax: '6.3 GHz', alpha: '-220 MHz' }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: '6.0 GHz' } }, couplings, { zzLimit: '3 MHz', maxGate: `${limit.toFixed(4)} ns` }));
+    expect(tight.violations.map((v) => v.rule)).toContain('cz-duration');
+  });
+});
