@@ -16,6 +16,7 @@
  */
 import { conditionalPhase, gateMetrics, leakage, wrapAngle, type Block4 } from '../sim/gate-metrics.js';
 import type { HoldScan } from './hold-scan.js';
+import { goldenSection } from '../util/golden-section.js';
 
 export interface HoldSolution {
   holdNs: number;
@@ -167,7 +168,6 @@ export function searchOffset(
     if (s && (!best || s.score < best.hold.score)) best = { offsetGHz: x, hold: s };
   };
   xs.forEach((x, k) => note(x, vals[k]));
-  const r = (Math.sqrt(5) - 1) / 2;
   let brackets: [number, number][] = [];
   if (!best) {
     // no solution on the grid: close in on the least phase miss
@@ -177,35 +177,14 @@ export function searchOffset(
       if (Number.isFinite(m) && (k < 0 || m < (misses.get(xs[k]) ?? Infinity))) k = j;
     });
     if (k < 0) return null;
-    let a = xs[Math.max(0, k - 1)];
-    let b = xs[Math.min(coarse - 1, k + 1)];
     const missAt = (x: number): number => {
-      const s = evaluate(x);
+      note(x, evaluate(x));
       evaluations++;
-      note(x, s);
       return misses.get(x) ?? Infinity;
     };
-    let c = b - r * (b - a);
-    let d = a + r * (b - a);
-    let mc = missAt(c);
-    let md = missAt(d);
-    for (let it = 0; it < golden && !best; it++) {
-      if (mc < md) {
-        b = d;
-        d = c;
-        md = mc;
-        c = b - r * (b - a);
-        mc = missAt(c);
-      } else {
-        a = c;
-        c = d;
-        mc = md;
-        d = a + r * (b - a);
-        md = missAt(d);
-      }
-    }
+    const g = goldenSection(missAt, xs[Math.max(0, k - 1)], xs[Math.min(coarse - 1, k + 1)], golden, () => best !== null);
     if (!best) return null;
-    brackets = [[a, b]];
+    brackets = [[g.a, g.b]];
   }
   const minima = xs
     .map((_, k) => k)
@@ -213,34 +192,18 @@ export function searchOffset(
     .sort((a, b) => score(vals[a]) - score(vals[b]))
     .slice(0, candidates);
   if (brackets.length === 0) brackets = minima.map((k) => [xs[Math.max(0, k - 1)], xs[Math.min(coarse - 1, k + 1)]] as [number, number]);
-  for (const [a0, b0] of brackets) {
-    let a = a0;
-    let b = b0;
-    let c = b - r * (b - a);
-    let d = a + r * (b - a);
-    let sc = evaluate(c);
-    let sd = evaluate(d);
-    evaluations += 2;
-    note(c, sc);
-    note(d, sd);
-    for (let it = 0; it < golden; it++) {
-      if (score(sc) < score(sd)) {
-        b = d;
-        d = c;
-        sd = sc;
-        c = b - r * (b - a);
-        sc = evaluate(c);
-        note(c, sc);
-      } else {
-        a = c;
-        c = d;
-        sc = sd;
-        d = a + r * (b - a);
-        sd = evaluate(d);
-        note(d, sd);
-      }
-      evaluations++;
-    }
+  for (const [a, b] of brackets) {
+    goldenSection(
+      (x) => {
+        const s = evaluate(x);
+        note(x, s);
+        return score(s);
+      },
+      a,
+      b,
+      golden,
+    );
+    evaluations += 2 + golden;
   }
   const found = best as { offsetGHz: number; hold: HoldSolution };
   return { ...found, evaluations };

@@ -11,6 +11,7 @@
  * random candidate of its own; kicks are bounded. Everything depends only on the layout and the
  * seed (src/util/random.ts), so the same seed gives the same assignment.
  */
+import { goldenSection } from '../../util/golden-section.js';
 import { Random } from '../../util/random.js';
 import type { ParkingState } from './state.js';
 
@@ -79,28 +80,7 @@ export function improveQubit(state: ParkingState, i: number, refine = true): boo
           x0 = f;
         }
       }
-      let l = Math.max(lo, x0 - step);
-      let r = Math.min(hi, x0 + step);
-      const phi = (Math.sqrt(5) - 1) / 2;
-      let m1 = r - phi * (r - l);
-      let m2 = l + phi * (r - l);
-      let c1 = total(m1);
-      let c2 = total(m2);
-      for (let it = 0; it < 10; it++) {
-        if (c1 < c2) {
-          r = m2;
-          m2 = m1;
-          c2 = c1;
-          m1 = r - phi * (r - l);
-          c1 = total(m1);
-        } else {
-          l = m1;
-          m1 = m2;
-          c1 = c2;
-          m2 = l + phi * (r - l);
-          c2 = total(m2);
-        }
-      }
+      const { c: m1, fc: c1, d: m2, fd: c2 } = goldenSection(total, Math.max(lo, x0 - step), Math.min(hi, x0 + step), 10);
       for (const [f, c] of [[x0, c0], [m1, c1], [m2, c2]] as const) {
         if (c < best - IMPROVEMENT) {
           best = c;
