@@ -17,7 +17,7 @@ export { planEdge, type EdgePlan } from './interaction/plan-edge.js';
 export { planLayers, type LayerPlan } from './layers.js';
 export { crowding, type Crowding } from './crowding.js';
 export { planChip, type ChipPlan } from './plan.js';
-export { designPulses, type PulseOptions } from './pulses.js';
+export { designPulses, designPulsesInParallel, type PulseOptions } from './pulses.js';
 export { loadGateDesigner, type GateDesign, type GateDesignRequest, type GateDesigner } from './gate-seam.js';
 export { planJson, gateTableCsv, gateTableText, planText, PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
 export { readPlan, type PlanInput } from './plan-read.js';

@@ -57,6 +57,16 @@ export interface TransmonEigenbasis {
   chargeCutoff: number;
 }
 
+/** A transmon as plain data (Transmon.descriptor, Transmon.fromDescriptor). */
+export interface TransmonDescriptor {
+  id: string;
+  params: TransmonParams;
+  chargeCutoff: number;
+  coherence: CoherenceOptions;
+  coherenceSpec?: CoherenceSpec;
+  source?: SourceRef;
+}
+
 export class Transmon {
   readonly id: string;
   readonly ecGHz: number;
@@ -106,6 +116,21 @@ export class Transmon {
     if (q.tphiNs !== undefined) coherenceSpec.tphiNs = q.tphiNs;
     if (q.fluxNoisePhi0 !== undefined) coherenceSpec.fluxNoisePhi0 = q.fluxNoisePhi0;
     return new Transmon(q.id, params, { ...options, coherenceSpec, source: q.source });
+  }
+
+  /**
+   * Everything that defines this transmon, as plain data (structured-clonable, JSON-safe):
+   * `Transmon.fromDescriptor` rebuilds an identical one, e.g. in a worker thread.
+   */
+  descriptor(): TransmonDescriptor {
+    const d: TransmonDescriptor = { id: this.id, params: this.params, chargeCutoff: this.chargeCutoff, coherence: { ...this.coherenceOptions } };
+    if (this.coherenceSpec) d.coherenceSpec = { ...this.coherenceSpec };
+    if (this.source) d.source = { ...this.source };
+    return d;
+  }
+
+  static fromDescriptor(d: TransmonDescriptor): Transmon {
+    return new Transmon(d.id, d.params, { chargeCutoff: d.chargeCutoff, coherence: d.coherence, coherenceSpec: d.coherenceSpec, source: d.source });
   }
 
   get params(): TransmonParams {

@@ -121,4 +121,23 @@ describe('fluxlane plan with pulse design', () => {
     expect(v.code).toBe(r.code);
     expect(v.json().checked.waveforms).toBe(4);
   });
+
+  it('writes the same files with the designs on worker threads as in one thread (--threads; Clove-17: 24 designs, enough for the workers)', async () => {
+    const { readdirSync } = await import('node:fs');
+    const dir = mkdtempSync(join(tmpdir(), 'fluxlane-plan-'));
+    const one = await runFluxlane(['plan', resolve('layouts/clove-17.yaml'), '--threads', '1', '-o', 'one'], { cwd: dir });
+    const two = await runFluxlane(['plan', resolve('layouts/clove-17.yaml'), '--threads', '2', '-o', 'two'], { cwd: dir });
+    expect(two.code).toBe(one.code);
+    expect(two.err).not.toMatch(/worker threads could not run/);
+    const files = (d: string): string[] => readdirSync(join(dir, d), { recursive: true }).map(String).sort();
+    expect(files('two')).toEqual(files('one'));
+    expect(files('one')).toContain('plan.json');
+    for (const f of files('one')) {
+      if (f === 'waveforms') continue;
+      expect(readFileSync(join(dir, 'two', f), 'utf8'), f).toBe(readFileSync(join(dir, 'one', f), 'utf8'));
+    }
+    const bad = await runFluxlane(['plan', resolve('layouts/bowline-5.yaml'), '--threads', '0'], { cwd: dir });
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/--threads: expected an integer from 1 to 64, found "0"/);
+  }, 60_000);
 });

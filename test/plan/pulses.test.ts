@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { planChip } from '../../src/plan/plan.js';
-import { checkDesign, designPulses, gateRequest, worstSpectator } from '../../src/plan/pulses.js';
+import { checkDesign, designPulses, designPulsesInParallel, gateRequest, worstSpectator } from '../../src/plan/pulses.js';
 import { loadGateDesigner, type GateDesign } from '../../src/plan/gate-seam.js';
 import { planJson } from '../../src/plan/plan-json.js';
 import { loadLayoutFile } from '../../src/layout/load.js';
@@ -44,6 +44,27 @@ describe('designPulses with the gate stage', () => {
     expect(edge.interactionFrequency).toBeCloseTo(g.design.interactionFrequencyGHz * 1e9, 0);
     expect(plan.violations).toEqual(g.findings);
   });
+
+  it('designPulsesInParallel gives the plan designPulses gives, byte for byte, also with a designer error on an edge (Bowline-5, 2 workers)', async () => {
+    const designer = (await loadGateDesigner())!;
+    const layout = loadLayoutFile('layouts/bowline-5.yaml', 'layouts/bowline-5.yaml');
+    for (const options of [{}, { family: 'no-such-family' }]) {
+      const a = planChip(layout, { seed: 1 });
+      designPulses(a, designer, options);
+      const b = planChip(layout, { seed: 1 });
+      const ticks: number[] = [];
+      const r = await designPulsesInParallel(b, designer, { threads: 2, minDesigns: 1 }, options, (d) => ticks.push(d));
+      expect(r.fallback).toBeUndefined();
+      expect(ticks).toHaveLength(4);
+      expect(JSON.stringify(planJson(b, { file: 'x', seed: 1, pulses: true }))).toBe(JSON.stringify(planJson(a, { file: 'x', seed: 1, pulses: true })));
+      expect(b.gates!.map((g) => g!.design.waveform)).toEqual(a.gates!.map((g) => g!.design.waveform));
+    }
+    // the error reached the plan as that edge's failed design
+    const c = planChip(layout, { seed: 1 });
+    await designPulsesInParallel(c, designer, { threads: 2, minDesigns: 1 }, { family: 'no-such-family' });
+    expect(c.gates![0]!.design.feasible).toBe(false);
+    expect(c.gates![0]!.design.reason).toMatch(/the gate stage failed on this edge: unknown ramp family no-such-family/);
+  }, 120_000);
 });
 
 describe('checkDesign', () => {

@@ -6,6 +6,7 @@
  * DIR/gates.txt (the same table for people) and DIR/waveforms/A-B.csv (time_ns,flux of each
  * designed gate). Exit 1 when a rule is broken (the files are still complete and say so).
  */
+import { availableParallelism } from 'node:os';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
@@ -13,7 +14,7 @@ import { buildChipGraph } from '../../chip/graph.js';
 import { parseQuantity } from '../../layout/units.js';
 import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';
-import { designPulses, type PulseOptions } from '../../plan/pulses.js';
+import { designPulses, designPulsesInParallel, type PulseOptions } from '../../plan/pulses.js';
 import { loadGateDesigner } from '../../plan/gate-seam.js';
 import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
 import { commandAction, type CommandContext } from '../handler.js';
@@ -31,6 +32,7 @@ const PlanOptionsSchema = z.object({
   spectators: z.boolean().optional(),
   family: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, { error: () => 'a ramp family name' }).optional(),
   ramp: z.string().optional(),
+  threads: integerOption(1, 64).optional(),
   phase: z
     .string({ error: () => 'a phase in rad' })
     .regex(/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/, { error: () => 'a phase in rad (a number)' })
@@ -82,7 +84,12 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     if (o.family !== undefined) pulses.family = o.family;
     if (rampNs !== undefined) pulses.rampNs = rampNs;
     if (o.phase !== undefined) pulses.targetPhase = o.phase;
-    ctx.profiler.time('pulses', () => designPulses(plan, designer, pulses, (done, total) => progress.update('designing CZ pulses', done, total)));
+    const threads = o.threads ?? Math.max(1, Math.min(8, availableParallelism()));
+    const onDone = (done: number, total: number): void => progress.update('designing CZ pulses', done, total);
+    if (threads > 1) {
+      const r = await ctx.profiler.timeAsync('pulses', () => designPulsesInParallel(plan, designer, { threads }, pulses, onDone));
+      if (r.fallback) ctx.io.stderr(`note: the worker threads could not run (${r.fallback}); the CZ pulses were designed in one thread\n`);
+    } else ctx.profiler.time('pulses', () => designPulses(plan, designer, pulses, onDone));
   }
   progress.finish();
   const json = ctx.profiler.time('output', () => planJson(plan, { file: layout.file, seed: o.seed, pulses: designer !== null }));
@@ -117,6 +124,7 @@ export function registerPlan(program: Command, io: CliIo): void {
       .option('--phase <rad>', 'target conditional phase in rad (default pi)')
       .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
       .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)')
-      .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)'),
+      .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)')
+      .option('--threads <n>', 'worker threads for the per-edge CZ designs (default: the machine\'s cores, at most 8; 1 designs in this thread; the plan is the same for any count)'),
   ).action(commandAction<[string]>(io, (ctx, layoutPath, options) => planCommand(ctx, layoutPath, options)));
 }
