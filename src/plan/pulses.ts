@@ -58,8 +58,9 @@ export const MIN_DESIGNS_FOR_WORKERS = 12;
 
 /**
  * designPulses with the designs on `threads` worker threads (src/gate/design-pool.ts), the same
- * plan bit for bit (with fewer than `minDesigns`, default MIN_DESIGNS_FOR_WORKERS, in this thread). If the workers cannot run (no worker support, a worker dies), the designs
- * are made in this thread with `designer`, and the reason is returned.
+ * plan bit for bit; with fewer than `minDesigns` designs (default MIN_DESIGNS_FOR_WORKERS) they
+ * are made in this thread. If the workers cannot run (no worker support, a worker dies), the
+ * designs are made in this thread with `designer`, and the reason is returned.
  */
 export async function designPulsesInParallel(
   plan: ChipPlan,
