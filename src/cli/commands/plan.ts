@@ -6,7 +6,6 @@
  * DIR/gates.txt (the same table for people) and DIR/waveforms/A-B.csv (time_ns,flux of each
  * designed gate). Exit 1 when a rule is broken (the files are still complete and say so).
  */
-import { availableParallelism } from 'node:os';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
@@ -16,6 +15,7 @@ import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';
 import { designPulses, designPulsesInParallel, type PulseOptions } from '../../plan/pulses.js';
 import { loadGateDesigner } from '../../plan/gate-seam.js';
+import { defaultDesignThreads } from '../../gate/design-pool.js';
 import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
@@ -84,7 +84,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     if (o.family !== undefined) pulses.family = o.family;
     if (rampNs !== undefined) pulses.rampNs = rampNs;
     if (o.phase !== undefined) pulses.targetPhase = o.phase;
-    const threads = o.threads ?? Math.max(1, Math.min(8, availableParallelism()));
+    const threads = o.threads ?? defaultDesignThreads();
     const onDone = (done: number, total: number): void => progress.update('designing CZ pulses', done, total);
     if (threads > 1) {
       const r = await ctx.profiler.timeAsync('pulses', () => designPulsesInParallel(plan, designer, { threads }, pulses, onDone));
