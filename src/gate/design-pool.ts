@@ -4,8 +4,8 @@
  * process, bit for bit (the same code on the same plain-data request), and the results come back
  * in request order, so a plan's output does not depend on the thread count.
  *
- * Requests are handed out one at a time to whichever worker is free (designs differ in cost by
- * up to ~10x). A worker that fails to start or dies rejects the whole call; the caller may then
+ * Requests are handed out one at a time to whichever worker is free (designs differ in cost: on
+ * Reef-49 the longest took 0.30 s against 81 ms on average). A worker that fails to start or dies rejects the whole call; the caller may then
  * design in its own thread (src/plan/pulses.ts does).
  *
  * Under tsx or vitest (this module is a .ts file) the workers start from

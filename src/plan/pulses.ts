@@ -50,8 +50,9 @@ export function designPulses(plan: ChipPlan, designer: GateDesigner, options: Pu
 }
 
 /**
- * Fewer designs than this are made in this thread: each worker's start-up and JIT warm-up
- * (~0.3 s) cost more than the threads save (Bowline-5's 4 designs: 1.2 s with 2 workers, 0.9 s
+ * Fewer designs than this are made in this thread: each worker's start-up and JIT warm-up (its
+ * first design came back after 0.34-0.56 s, against 81 ms per design on average) cost more than
+ * the threads save (Bowline-5's 4 designs: 1.2 s with 2 workers, 0.9 s
  * without; Clove-17's 24 break even, Reef-49's 83 gain 1.3x on 2 cores; measured 2026-12-02).
  */
 export const MIN_DESIGNS_FOR_WORKERS = 12;

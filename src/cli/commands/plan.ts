@@ -125,6 +125,6 @@ export function registerPlan(program: Command, io: CliIo): void {
       .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
       .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)')
       .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)')
-      .option('--threads <n>', 'worker threads for the per-edge CZ designs (default: the machine\'s cores, at most 8; 1 designs in this thread; the plan is the same for any count)'),
+      .option('--threads <n>', 'worker threads for the per-edge CZ designs (default: the machine\'s cores, at most 8; 1, or fewer than 12 designs, designs in this thread; the plan is the same for any count)'),
   ).action(commandAction<[string]>(io, (ctx, layoutPath, options) => planCommand(ctx, layoutPath, options)));
 }
