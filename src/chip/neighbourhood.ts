@@ -1,7 +1,7 @@
 /**
  * Neighbourhoods on the chip graph: nearest neighbours of a qubit, and next-nearest-neighbour
  * pairs (two qubits that share at least one neighbour), the pairs that the idle collision rules
- * check for mediated exchange and drive crosstalk (shared/physics.md, section 5).
+ * check for mediated exchange and drive crosstalk (README physics conventions, section 5).
  */
 
 import type { ChipGraph } from './graph.js';

@@ -1,5 +1,5 @@
 /**
- * What a ramp family and the tuner need to know about one edge's CZ (../../shared/physics.md
+ * What a ramp family and the tuner need to know about one edge's CZ (README physics conventions
  * secs. 2 and 6): the mover, its static partner at its parking flux, the charge coupling, and
  * which avoided crossing the gate uses (11-20: the mover goes to |2>, above the partner by
  * |alpha_mover|; 11-02: the partner's |2>, mover below by |alpha_partner|).

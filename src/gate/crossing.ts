@@ -1,5 +1,5 @@
 /**
- * The exact avoided crossing of a CZ (../../shared/physics.md sec. 2): the mover flux where the
+ * The exact avoided crossing of a CZ (README physics conventions sec. 2): the mover flux where the
  * dressed |11> and the leakage state (|20> for 11-20, |02> for 11-02) come closest, found by
  * golden-section search of their splitting in the simulator's own dressed spectrum (the same
  * model the gate is simulated in), around the bare-frequency resonance.

@@ -9,10 +9,10 @@
  *      (src/gate/tune.ts), on fast ramp-only simulations (src/gate/hold-scan.ts);
  *   4. the realised waveform (AWG samples, optional flux-line filter, src/gate/pulse.ts),
  *      simulated as exported, with the hold corrected by secant steps until phi_c hits the
- *      target on the samples themselves (physics.md sec. 6: the metrics are those of the file);
+ *      target on the samples themselves (README physics conventions sec. 6: the metrics are those of the file);
  *   5. decoherence (Lindblad and the first-order estimate) with `noise`;
  *   6. the untuned reference: destination at the exact crossing, hold 1/gap - ramp (the
- *      two-level full-cycle time, physics.md sec. 2), same family and ramp.
+ *      two-level full-cycle time, README physics conventions sec. 2), same family and ramp.
  * Units: GHz, ns, Phi0, rad. Model: mover 6 levels, partner 4, spectators 3 (src/sim/pair-model.ts).
  */
 import type { Rules } from '../layout/types.js';
@@ -92,7 +92,7 @@ export interface GateDesign {
   populations: { '20': number; '02': number };
   /**
    * The idle-formula decoherence error of the gate, (2/5) t sum_q (1/T1 + 1/T_phi) with both
-   * qubits at the crossing point (physics.md sec. 4; about 30 % below a CZ's, NaN when infeasible).
+   * qubits at the crossing point (README physics conventions sec. 4; about 30 % below a CZ's, NaN when infeasible).
    */
   idleErrorEstimate: number;
   /** Simulations run while tuning (for profiling). */
@@ -314,7 +314,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     return { scan: new HoldScan(frame, ejOf(dest), comp, res.re, res.im, upNs), shape, extNs: upNs - rampNs - delayNs };
   };
   // 3. Tune. The tuner weighs a longer hold by the decoherence it costs: the idle rate
-  // (2/5) sum_q (1/T1 + 1/T_phi) (physics.md sec. 4) with both qubits at the crossing point.
+  // (2/5) sum_q (1/T1 + 1/T_phi) (README physics conventions sec. 4) with both qubits at the crossing point.
   const gapScale = cross.gapGHz;
   const errorPerNs = holdErrorRate(mover, cross.flux) + holdErrorRate(partner, req.partnerFlux);
   const search = (): ReturnType<typeof searchOffset> =>
@@ -344,7 +344,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   // Secant iterations use the in-block scheme at the tuning steps (its phase differs from the
   // full one by ~1e-4 rad), the untuned reference the full scheme at the tuning steps (1 - F
   // within ~4e-6 of the converged value); the design's reported metrics come from one full
-  // simulation of the final waveform at the simulator's default steps (physics.md sec. 6).
+  // simulation of the final waveform at the simulator's default steps (README physics conventions sec. 6).
   const quick = { maxStepNs: DESIGN_DEFAULTS.tuningStepNs, maxEjStepGHz: DESIGN_DEFAULTS.tuningMaxEjStepGHz };
   const simulateWave = (traj: Trajectory, lindblad = false, estimate = false, scheme: 'blocks' | 'in-block' | 'quick-blocks' = 'blocks'): GateSimulation => {
     evaluations++;

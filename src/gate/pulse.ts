@@ -1,6 +1,6 @@
 /**
  * A CZ flux pulse: ramp up to the destination, hold, and the time-reversed ramp back
- * (../../shared/physics.md sec. 6), and its realisation as the waveform the lab receives:
+ * (README physics conventions sec. 6), and its realisation as the waveform the lab receives:
  * samples at the AWG rate (joined piecewise-linearly by the simulator, so the exported file is
  * exactly what was simulated) and, optionally, the flux line's Gaussian low-pass filter.
  *

@@ -81,7 +81,7 @@ export interface QubitLayout {
 export interface CouplingLayout {
   a: string;
   b: string;
-  /** 01-10 exchange coupling with both qubits at maximum frequency (../shared/physics.md sec. 2). */
+  /** 01-10 exchange coupling with both qubits at maximum frequency (README physics conventions sec. 2). */
   gGHz: number;
   source: SourceRef;
 }

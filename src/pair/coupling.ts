@@ -1,5 +1,5 @@
 /**
- * Capacitive coupling of two transmons (../../shared/physics.md sec. 2):
+ * Capacitive coupling of two transmons (README physics conventions sec. 2):
  *
  *     H_c = G n_A n_B,     g(Phi_A, Phi_B) = G |<0|n|1>_A(Phi_A)| |<0|n|1>_B(Phi_B)|.
  *

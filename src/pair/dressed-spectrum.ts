@@ -1,5 +1,5 @@
 /**
- * Dressed spectrum of two capacitively coupled transmons (../../shared/physics.md sec. 2):
+ * Dressed spectrum of two capacitively coupled transmons (README physics conventions sec. 2):
  *
  *     H = H_A (x) 1 + 1 (x) H_B + G n_A (x) n_B
  *

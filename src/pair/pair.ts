@@ -1,6 +1,6 @@
 /**
  * `CoupledPair`: two transmons with a capacitive coupling, the pair stage's main API
- * (../../shared/physics.md sec. 2). Built once per edge; answers dressed spectra, static ZZ and
+ * (README physics conventions sec. 2). Built once per edge; answers dressed spectra, static ZZ and
  * exchange couplings at any pair of fluxes, reusing each transmon's eigenbasis when its flux
  * repeats (so a sweep of one qubit computes the other's levels once).
  *

@@ -1,6 +1,6 @@
 /**
  * Product basis of several transmons and the coupled Hamiltonian in it
- * (../shared/physics.md sec. 2, extended to any number of capacitively coupled transmons):
+ * (README physics conventions sec. 2, extended to any number of capacitively coupled transmons):
  *
  *     H = sum_i H_i + sum_(i,j) G_ij n_i n_j,
  *

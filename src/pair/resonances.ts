@@ -1,5 +1,5 @@
 /**
- * Where a moving transmon meets its static partner (../../shared/physics.md sec. 2): the mover's
+ * Where a moving transmon meets its static partner (README physics conventions sec. 2): the mover's
  * flux and f01 at the bare-frequency resonances
  *
  *     01-10:  f01_mover = f01_partner

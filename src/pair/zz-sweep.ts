@@ -1,6 +1,6 @@
 /**
  * Static ZZ of a pair against the mover's frequency across its tunable range, with the partner
- * parked (../../shared/physics.md secs. 2 and 6). Points are uniform in the mover's f01 from its
+ * parked (README physics conventions secs. 2 and 6). Points are uniform in the mover's f01 from its
  * f_min to its f_max (ends included); each frequency is mapped to the mover's flux on
  * 0 <= Phi <= 1/2 and the exact dressed ZZ and exchange coupling g are evaluated there. The
  * partner's eigenbasis is computed once (CoupledPair caches it).

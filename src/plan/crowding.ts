@@ -1,6 +1,6 @@
 /**
  * Crowding: how much room each qubit has. A qubit's margin is its smallest distance to any
- * collision condition minus that condition's threshold (../../shared/physics.md sec. 5):
+ * collision condition minus that condition's threshold (README physics conventions sec. 5):
  *
  *   idle margin   the smallest |f - f_c| - threshold over the idle detuning conditions (01-01,
  *                 01-12 both ways, next-01-01, tls beyond its width, readout) with the exact

@@ -1,6 +1,6 @@
 /**
  * Landau-Zener transfer through a swept avoided crossing (Landau, Phys. Z. Sowjetunion 2, 46
- * (1932); Zener, Proc. R. Soc. A 137, 696 (1932); ../../shared/physics.md sec. 5).
+ * (1932); Zener, Proc. R. Soc. A 137, 696 (1932); README physics conventions sec. 5).
  *
  * Two diabatic states whose frequency difference changes at the constant rate v (GHz/ns, i.e.
  * 1e18 Hz/s) and which are coupled by g (GHz; the gap at the crossing is 2g) end up swapped with

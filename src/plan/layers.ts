@@ -1,6 +1,6 @@
 /**
  * Parallel gate layers: two CZs may run at the same time only when no condition of
- * ../../shared/physics.md sec. 5 couples them. Gates conflict when
+ * README physics conventions sec. 5 couples them. Gates conflict when
  *   (a) they share a qubit: mover, partner or a spectator parked for either;
  *   (b) a qubit one gate moves (its mover, or a spectator it parks) is coupled to a qubit the
  *       other gate moves, and the two excursions come within spectatorDetuning of a 01-01, 11-20

@@ -12,7 +12,7 @@
  * from them they are below 1e-3 of the total. What remains has exactly two poles:
  * f01_B = f12_A (11-20) and f01_A = f12_B (11-02). In the
  * RWA and with sqrt2-scaled matrix elements this reduces to the dispersive formula of
- * ../../shared/physics.md sec. 2, zeta ~ 2 g^2 [1/(Delta - alpha_B) - 1/(Delta + alpha_A)].
+ * README physics conventions sec. 2, zeta ~ 2 g^2 [1/(Delta - alpha_B) - 1/(Delta + alpha_A)].
  *
  * This is the planner's fast estimate inside the parking search only; the planner's final check
  * and `fluxlane verify` use the exact dressed ZZ of CoupledPair (src/pair/pair.ts), and the search

@@ -1,5 +1,5 @@
 /**
- * Decoherence of a simulated gate (../shared/physics.md sec. 4).
+ * Decoherence of a simulated gate (README physics conventions sec. 4).
  *
  * Model: per transmon i, Lindblad operators sqrt(1/T1_i) b_i and sqrt(2/T_phi,i(Phi)) b_i^dag b_i
  * with b_i = sum_m sqrt(m) |m-1><m| in that transmon's instantaneous eigenbasis (harmonic-ladder

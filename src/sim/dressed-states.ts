@@ -1,6 +1,6 @@
 /**
  * Dressed eigenstates of every kept frame state at one value of the mover's E_J (the
- * computational and leakage states at parking, physics.md secs. 2-3): eigenvectors of the
+ * computational and leakage states at parking, README physics conventions secs. 2-3): eigenvectors of the
  * frame's manifold blocks of E(u), labelled inside each block by matching the energy order to
  * the order of the bare product energies (levels keep their order as the coupling is switched
  * on; src/pair/dressed-spectrum.ts uses the same rule), with the component on their own bare

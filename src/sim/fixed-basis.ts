@@ -1,6 +1,6 @@
 /**
  * The fixed-basis reference propagator: slow, simple, and the test oracle for the adiabatic-frame
- * scheme (../shared/physics.md sec. 7).
+ * scheme.
  *
  * Basis: the mover's lowest K eigenstates at the parking flux, product with the static
  * transmons' eigenstates. With u = E_J of the mover,
@@ -190,7 +190,7 @@ export function fixedBasisBlock(model: SimModel, traj: Trajectory, options: Fixe
 }
 
 /**
- * The lab-frame block M (physics.md sec. 3) from the final fixed-basis vectors of the four
+ * The lab-frame block M (README physics conventions sec. 3) from the final fixed-basis vectors of the four
  * computational inputs (`labels`, order 00, 01, 10, 11, spectator levels appended) after a
  * trajectory of duration T: projections on the dressed states at parking, rotated by the
  * lab-frame phases of the computational energies.

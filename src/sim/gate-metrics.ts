@@ -1,5 +1,5 @@
 /**
- * Gate metrics of a two-qubit block M (../shared/physics.md sec. 3): M is the 4 x 4 block of the
+ * Gate metrics of a two-qubit block M (README physics conventions sec. 3): M is the 4 x 4 block of the
  * propagator on the dressed computational states |00>, |01>, |10>, |11> (order |AB>, row-major,
  * M[r*4 + c] = <r|U|c>) in the lab frame (each qubit rotating at its dressed idle frequency).
  *

@@ -1,7 +1,7 @@
 /**
  * The dressed-manifold frame of a mover-plus-static-transmons model: precomputed once per model
  * and range of the mover's Josephson energy, reused by every simulation inside that range
- * (../shared/physics.md sec. 7: work per pair, not per simulation).
+ * (work per pair, not per simulation: the frame is built once and reused by every simulation of the edge).
  *
  * Model (a Galerkin model on a moving basis, exact as the level cutoffs grow): the mover is kept
  * through its K_0 lowest instantaneous eigenstates |m(u)>, u = E_J of the mover, so that in the

@@ -1,5 +1,5 @@
 /**
- * The physical model the simulator solves (../shared/physics.md sec. 2 and 4):
+ * The physical model the simulator solves (README physics conventions sec. 2 and 4):
  *
  *     H(t) = H_0(E_J(Phi(t))) + sum_{i>0} H_i + sum_(i,j) G_ij n_i n_j,
  *     H_i = 4 E_C,i n_i^2 - E_J,i cos(phi_i)   (charge basis |n| <= N, n_g = 0),

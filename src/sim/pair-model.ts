@@ -1,6 +1,6 @@
 /**
  * The simulator's model for one edge of a chip, from the transmon stage's `Transmon` objects
- * (../shared/physics.md secs. 2, 4, 6): the mover (transmon 0), its static partner (1) and any
+ * (README physics conventions secs. 2, 4, 6): the mover (transmon 0), its static partner (1) and any
  * spectators (2, ...), each coupled capacitively with G from the layout's g (both transmons at
  * Phi = 0: g = G |<0|n|1>_a| |<0|n|1>_b|).
  *

@@ -1,6 +1,6 @@
 /**
  * Simulate one two-qubit gate trajectory: the coherent propagator's computational block and its
- * metrics (../shared/physics.md sec. 3), and with noise the Lindblad channel's average gate
+ * metrics (README physics conventions sec. 3), and with noise the Lindblad channel's average gate
  * fidelity and the first-order (weak-noise) estimate (src/sim/decoherence.ts).
  *
  * The trajectory starts and ends at the parking point (its first sample). Computational states
@@ -243,7 +243,7 @@ class FirstOrderEstimate {
 
 /**
  * The Lindblad channel on the computational inputs and its average gate fidelity
- * (physics.md sec. 3: F = [sum_c Tr_P E(|c><c|) + sum_kl <k|V^dag E(|k><l|) V|l>] / 20).
+ * (README physics conventions sec. 3: F = [sum_c Tr_P E(|c><c|) + sum_kl <k|V^dag E(|k><l|) V|l>] / 20).
  */
 export function lindbladChannel(
   frame: ManifoldFrame,

@@ -1,6 +1,6 @@
 /**
  * Flux trajectories of the mover: samples (t_k, Phi_k) joined piecewise-linearly
- * (../shared/physics.md sec. 6: the metrics of a design are those of its samples, joined
+ * (README physics conventions sec. 6: the metrics of a design are those of its samples, joined
  * piecewise-linearly, so anyone can re-simulate the file).
  *
  * CSV form: a header `time_ns,flux` and one sample per line (time in ns, flux of the mover in

@@ -1,5 +1,5 @@
 /**
- * Coherence times of one transmon against flux (../../shared/physics.md sec. 4).
+ * Coherence times of one transmon against flux (README physics conventions sec. 4).
  *
  * T1 is the layout's value (flux-independent in this model). Pure dephasing has a white part
  * (the layout's `tphi`) and a part from 1/f flux noise, first order in the flux slope

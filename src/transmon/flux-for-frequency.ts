@@ -1,5 +1,5 @@
 /**
- * Inverse of the flux map on the working branch 0 <= Phi <= 1/2 (../../shared/physics.md
+ * Inverse of the flux map on the working branch 0 <= Phi <= 1/2 (README physics conventions
  * sec. 1): the flux at which a transmon's f01 (or f12) takes a target value.
  *
  * Method: on 0 <= Phi <= 1/2, E_J(Phi) falls monotonically from E_JS to d E_JS, and f01 (f12)

@@ -1,6 +1,6 @@
 /**
  * Convert every way a layout gives a transmon (src/layout/types.ts TransmonSpec) into circuit
- * parameters (E_C, E_JS, d) (../../shared/physics.md sec. 1).
+ * parameters (E_C, E_JS, d) (README physics conventions sec. 1).
  *
  * - `energies`: (E_C, E_JS = ejMax, d) directly.
  * - `frequencies`: (f_max, alpha at f_max, d or f_min), solved on the EXACT charge-basis spectrum.

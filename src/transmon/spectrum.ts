@@ -1,6 +1,6 @@
 /**
  * The spectrum of one flux-tunable transmon at one flux: f01, f12, anharmonicity and the flux
- * slopes of f01 and f12 (../../shared/physics.md sec. 1; Koch et al., Phys. Rev. A 76, 042319
+ * slopes of f01 and f12 (README physics conventions sec. 1; Koch et al., Phys. Rev. A 76, 042319
  * (2007)).
  *
  *     f01 = E1 - E0,   f12 = E2 - E1,   alpha = E2 - 2 E1 + E0   (GHz; alpha < 0)

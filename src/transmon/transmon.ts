@@ -1,6 +1,6 @@
 /**
  * `Transmon`: one flux-tunable transmon with its parameters resolved once, answering everything
- * later stages ask about it (../../shared/physics.md secs. 1 and 4). This is the transmon
+ * later stages ask about it (README physics conventions secs. 1 and 4). This is the transmon
  * stage's main API; the planner, the pair stage and the simulator call it.
  *
  *     const q = Transmon.fromLayout(layout.qubits[0]);   // resolves the TransmonSpec (InputError on bad physics)

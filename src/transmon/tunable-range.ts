@@ -1,5 +1,5 @@
 /**
- * Tunable range of a flux-tunable transmon (../../shared/physics.md sec. 1): f01 is largest at
+ * Tunable range of a flux-tunable transmon (README physics conventions sec. 1): f01 is largest at
  * the upper sweet spot Phi = 0 (E_J = E_JS) and smallest at Phi = 1/2 (E_J = d E_JS), and falls
  * monotonically in between because f01 grows with E_J at fixed E_C (Koch et al., Phys. Rev. A
  * 76, 042319 (2007)).

@@ -1,7 +1,7 @@
 /**
  * `fluxlane pair` end to end on the demo chip: the JSON contract of issue 3 in SI units, values
  * equal to the pair library (checked against NumPy and perturbation theory in test/pair/), the
- * conventions of physics.md sec. 6 (A moves unless --mover; g at the evaluated fluxes; null
+ * conventions of README physics conventions sec. 6 (A moves unless --mover; g at the evaluated fluxes; null
  * resonances outside the mover range), --sweep, and bad input exiting 2.
  */
 import { describe, expect, it } from 'vitest';

@@ -1,6 +1,6 @@
 /**
  * The CZ designer on a demo edge (Bowline-5 Q1-Q0) and on hand-set cases, against the issue's
- * acceptance criteria and physics: two-level Rabi timing (physics.md sec. 2), the first-order
+ * acceptance criteria and physics: two-level Rabi timing (README physics conventions sec. 2), the first-order
  * decoherence estimate against the Lindblad result, determinism.
  */
 import { describe, expect, it } from 'vitest';
@@ -38,7 +38,7 @@ describe('designCzGate', () => {
     expect((1 - d.untuned.fidelity) / (1 - d.fidelity)).toBeGreaterThan(100);
   });
 
-  it('the speed limit is 1/(2 sqrt2 g) and the gap is close to 2 sqrt2 g (physics.md sec. 2)', () => {
+  it('the speed limit is 1/(2 sqrt2 g) and the gap is close to 2 sqrt2 g (README physics conventions sec. 2)', () => {
     const d = designs.get('erf')!;
     const g = 1 / (2 * Math.SQRT2 * d.speedLimitNs);
     expect(d.gapGHz / (2 * Math.SQRT2 * g)).toBeGreaterThan(0.9);

@@ -2,7 +2,7 @@
  * The demo layouts are meant for planning: plausible parameters (E_C 0.18-0.26 GHz, f_max
  * 4.5-7 GHz, common practice for tunable transmons) and room for a planner, i.e. coupled
  * neighbours' maximum frequencies a few hundred MHz apart, and each pair's CZ point (the higher
- * qubit moved down to about f_low + |alpha_high|, physics.md sec. 2: the 11-20 crossing) inside
+ * qubit moved down to about f_low + |alpha_high|, README physics conventions sec. 2: the 11-20 crossing) inside
  * the higher qubit's tunable range. Checked on the exact spectrum (src/transmon).
  */
 import { describe, expect, it } from 'vitest';

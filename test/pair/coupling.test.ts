@@ -1,5 +1,5 @@
 /**
- * Exchange coupling g(Phi_A, Phi_B) = G |n01_A| |n01_B| (physics.md sec. 2), checked against
+ * Exchange coupling g(Phi_A, Phi_B) = G |n01_A| |n01_B| (README physics conventions sec. 2), checked against
  * (1) the dressed splitting at the 01-10 resonance, which the two-level Rabi formula puts at 2 g
  *     (corrections of relative order g/(f01_A + f01_B) and g/alpha from other states: < 2% here);
  * (2) Koch et al. 2007 Eq. 3.4, |n01| ~ (E_J / 8 E_C)^(1/4) / sqrt2, so g(Phi_A, 0) / g(0, 0)

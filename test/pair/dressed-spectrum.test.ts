@@ -7,7 +7,7 @@
  * - full second-order perturbation theory in G over all product states of 12 levels each,
  *   with exact charge matrix elements and counter-rotating terms (same script, "pt2", written
  *   independently of the code under test): within 1%;
- * - the simple dispersive formula of physics.md sec. 2 (derived, common practice),
+ * - the simple dispersive formula of README physics conventions sec. 2 (derived, common practice),
  *   zeta ~ 2 g^2 [1/(Delta - alpha_B) - 1/(Delta + alpha_A)]: within 6%;
  * - convergence in the level cutoff K; label continuity through the 11-20 and 11-02 crossings.
  */

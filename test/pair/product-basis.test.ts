@@ -1,7 +1,7 @@
 /**
  * Product basis (src/pair/product-basis.ts): productHamiltonian against the same Hamiltonian
  * built with numpy.kron (test/reference/product_hamiltonian.py) for two and three transmons;
- * index/label round trips; parity sectors that block-diagonalise H (physics.md sec. 2).
+ * index/label round trips; parity sectors that block-diagonalise H (README physics conventions sec. 2).
  */
 import { describe, expect, it } from 'vitest';
 import { paritySectors, productHamiltonian, productIndex, productLabel, productLevels, productSpace, subMatrix } from '../../src/pair/product-basis.js';

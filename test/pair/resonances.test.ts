@@ -1,5 +1,5 @@
 /**
- * Mover resonances against a static partner (physics.md sec. 2): the returned fluxes satisfy the
+ * Mover resonances against a static partner (README physics conventions sec. 2): the returned fluxes satisfy the
  * bare conditions f01_m = f01_p, f12_m = f01_p, f01_m = f12_p; the dressed splitting at each
  * equals twice the reported coupling (two-level Rabi formula, within 3%); the 11-20 coupling is
  * ~ sqrt2 g (harmonic ladder, Koch 2007: n12/n01 -> sqrt2, corrections O(sqrt(E_C/E_J)));
@@ -24,7 +24,7 @@ describe('pairResonances(mover, partner, partnerFlux, G)', () => {
     expectClose(qa.f01(r['01-10']!.moverFlux), sb.f01GHz, 1e-10, '01-10');
     expectClose(qa.spectrum(r['11-20']!.moverFlux).f12GHz, sb.f01GHz, 1e-10, '11-20');
     expectClose(qa.f01(r['11-02']!.moverFlux), sb.f12GHz, 1e-10, '11-02');
-    // physics.md: 11-20 has the mover above the partner by |alpha_mover|, 11-02 below by |alpha_partner|.
+    // README physics conventions: 11-20 has the mover above the partner by |alpha_mover|, 11-02 below by |alpha_partner|.
     const alphaM = qa.spectrum(r['11-20']!.moverFlux).anharmonicityGHz;
     expectClose(r['11-20']!.moverF01GHz, sb.f01GHz - alphaM, 1e-10, 'f01_A = f01_B - alpha_A');
     expectClose(r['11-02']!.moverF01GHz, sb.f01GHz + sb.anharmonicityGHz, 1e-10, 'f01_A = f01_B + alpha_B');

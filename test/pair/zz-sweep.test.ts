@@ -1,7 +1,7 @@
 /**
  * ZZ sweep across the mover's range: uniform in f01 from f_min to f_max, each point equal to the
  * pair's exact ZZ at the mapped flux, and sign changes only at the 11-20 / 11-02 crossings found
- * independently by pairResonances (physics.md sec. 2).
+ * independently by pairResonances (README physics conventions sec. 2).
  */
 import { describe, expect, it } from 'vitest';
 import { Transmon } from '../../src/transmon/transmon.js';

@@ -1,6 +1,6 @@
 /**
  * Crowding (src/plan/crowding.ts): a qubit's margin is its distance to the nearest collision
- * condition minus that condition's threshold (physics.md sec. 5), in MHz and in fabrication
+ * condition minus that condition's threshold (README physics conventions sec. 5), in MHz and in fabrication
  * spreads sigma_f = |df01/d ln E_J| * resistanceSpread (Ambegaokar-Baratoff: E_J ~ 1/R_n, common
  * practice). Checked against the exact transmon stage and a central finite difference in E_J.
  */

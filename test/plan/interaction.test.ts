@@ -2,7 +2,7 @@
  * Interaction plans (src/plan/interaction/*) on hand-built chips: a spectator parked exactly on
  * the interaction frequency is detected and moved out of the way (spectator parking) or, when it
  * cannot move, reported naming it; the interaction frequency is the exact 11-20 crossing of the
- * pair stage (src/pair/resonances.ts: f12 of the mover = f01 of the partner, physics.md sec. 2);
+ * pair stage (src/pair/resonances.ts: f12 of the mover = f01 of the partner, README physics conventions sec. 2);
  * swept crossings use the Landau-Zener formula (src/plan/landau-zener.ts, tested against SciPy).
  */
 import { describe, expect, it } from 'vitest';

@@ -3,7 +3,7 @@
  * a three-qubit line whose middle qubit must be parked away from its neighbours, a window that
  * two coupled qubits cannot share (explained with the conflicting qubits and rules), fixed park
  * values and windows kept, and determinism. Rules checked with the exact transmon and pair stages
- * (CoupledPair's dressed ZZ; physics.md sec. 2), thresholds from shared/rules.json (common practice).
+ * (CoupledPair's dressed ZZ; README physics conventions sec. 2), thresholds from shared/rules.json (common practice).
  */
 import { describe, expect, it } from 'vitest';
 import { planChip } from '../../src/plan/plan.js';

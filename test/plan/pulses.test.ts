@@ -1,7 +1,7 @@
 /**
  * Per-edge CZ design through the gate stage (src/plan/pulses.ts, src/plan/gate-seam.ts): the
  * request carries the plan's mover, crossing and parking fluxes; the designed waveform starts and
- * ends at the parking point (physics.md sec. 6); the designed gate is re-checked at its own
+ * ends at the parking point (README physics conventions sec. 6); the designed gate is re-checked at its own
  * destination and at the waveform's real sweep rates (Landau-Zener, tested against SciPy in
  * test/plan/landau-zener.test.ts); the worst spectator is the one with the largest g / Delta.
  */

@@ -2,7 +2,7 @@
  * The parking search's ZZ estimate (src/plan/zz-second-order.ts) against full second-order
  * perturbation theory over all product states of 6 levels each (test/reference/pair_reference.py
  * "pt2", NumPy, written independently), against the exact dressed ZZ of CoupledPair, and against
- * the dispersive formula of ../shared/physics.md sec. 2 (derived, common practice).
+ * the dispersive formula of README physics conventions sec. 2 (derived, common practice).
  */
 import { describe, expect, it } from 'vitest';
 import { Transmon } from '../../src/transmon/transmon.js';
@@ -43,7 +43,7 @@ describe('secondOrderZz', () => {
     cases.forEach((c, k) => expect(Math.abs(c.est / c.exact - 1), `point ${k}: ${c.est} vs exact ${c.exact}`).toBeLessThan(0.03));
   });
 
-  it('reduces to 2 g^2 [1/(Delta - alpha_B) - 1/(Delta + alpha_A)] within 8% (dispersive formula, physics.md)', () => {
+  it('reduces to 2 g^2 [1/(Delta - alpha_B) - 1/(Delta + alpha_A)] within 8% (dispersive formula, README physics conventions)', () => {
     for (const c of cases) {
       const g = c.pair.exchangeCoupling(qa.fluxForF01(c.fa), qb.fluxForF01(c.fb));
       const delta = c.fa - c.fb;

@@ -1,5 +1,5 @@
 /**
- * Decoherence of simulated gates (physics.md sec. 4): the weak-noise idle formula
+ * Decoherence of simulated gates (README physics conventions sec. 4): the weak-noise idle formula
  * 1 - F ~ (2/5) t sum_q (1/T1_q + 1/T_phi_q) (derived from the process fidelity of amplitude
  * damping and dephasing and F_avg = (d F_pro + 1)/(d + 1), d = 4), and the first-order estimate
  * against the Lindblad channel.

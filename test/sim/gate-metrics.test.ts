@@ -105,7 +105,7 @@ function mubStates(): { re: number[]; im: number[] }[] {
   return states;
 }
 
-describe('gate metrics (physics.md sec. 3)', () => {
+describe('gate metrics (README physics conventions sec. 3)', () => {
   it('CZ itself has phi_c = pi, no leakage, fidelity 1', () => {
     const m = diag([0, 0, 0, Math.PI]);
     const g = gateMetrics(m);

@@ -5,7 +5,7 @@
  *  - the fixed-basis integration with many mover levels (src/sim/fixed-basis.ts: a different
  *    basis and a different integrator, Chebyshev exponentials),
  *  - the pair stage's dressed spectrum (src/pair, written independently),
- *  - the two-level Rabi formula (physics.md sec. 2).
+ *  - the two-level Rabi formula (README physics conventions sec. 2).
  */
 import { describe, expect, it } from 'vitest';
 import { buildManifoldFrame, evaluateFrame } from '../../src/sim/manifold-frame.js';
@@ -123,7 +123,7 @@ describe('propagation in the frame', () => {
 
   it('a near-sudden jump to the 11-20 crossing held for 1/gap returns |11> with a phase close to pi (two-level Rabi formula)', () => {
     // Locate the exact minimum 11-20 splitting on the mover's flux (golden-section search on
-    // the dressed manifold-2 block), physics.md sec. 2: gap ~ 2 sqrt(2) g.
+    // the dressed manifold-2 block), README physics conventions sec. 2: gap ~ 2 sqrt(2) g.
     const model = pairModel(6, 4);
     const lo = XC - 0.01;
     const hi = XC + 0.01;

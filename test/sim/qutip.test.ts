@@ -170,7 +170,7 @@ describe('QuTiP cross-check', () => {
         rho0.push([a.map((x) => b.map((y) => x * y)), zeros()]);
       }
     const out = runPython<{ re: number[][]; im: number[][] }>('qutip_mesolve.py', { ops, cops, segments, rho0, atol: 1e-12, rtol: 1e-10 }, { timeoutMs: 600_000 });
-    // Post-processing identical to the simulator's (physics.md sec. 3).
+    // Post-processing identical to the simulator's (README physics conventions sec. 3).
     const e = idx.map((p) => dr.energies[p]);
     const eLoc = labels.map(([i, j]) => e[0] + i * (e[2] - e[0]) + j * (e[1] - e[0]));
     // E(|k><l|) for k > l is E(|l><k|)^dag

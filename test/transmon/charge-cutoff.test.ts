@@ -2,7 +2,7 @@
  * Convergence of the transmon levels in the charge cutoff N, against a large-cutoff (N = 80)
  * LAPACK solution of the same Hamiltonian (scipy.linalg.eigh_tridiagonal via
  * test/reference/transmon_mathieu.py), and the cutoff rule chargeCutoffFor(E_J/E_C).
- * physics.md sec. 1: N = 20 converges to better than 1e-10 GHz for E_J/E_C up to ~150.
+ * README physics conventions sec. 1: N = 20 converges to better than 1e-10 GHz for E_J/E_C up to ~150.
  */
 import { describe, expect, it } from 'vitest';
 import { chargeCutoffFor } from '../../src/transmon/charge-cutoff.js';

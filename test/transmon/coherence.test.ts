@@ -72,7 +72,7 @@ describe('fluxNoiseDephasingRate(df01/dPhi, A_Phi)', () => {
 });
 
 describe('coherenceFor(spec, slope)', () => {
-  it('1/T2 = 1/(2 T1) + 1/T_phi with 1/T_phi = 1/T_phi,white + Gamma_1/f (physics.md sec. 4)', () => {
+  it('1/T2 = 1/(2 T1) + 1/T_phi with 1/T_phi = 1/T_phi,white + Gamma_1/f (README physics conventions sec. 4)', () => {
     const spec = { t1Ns: 60_000, tphiNs: 90_000, fluxNoisePhi0: 2.5e-6 };
     const c = coherenceFor(spec, 7.5);
     const g = fluxNoiseDephasingRate(7.5, 2.5e-6);

@@ -4,7 +4,7 @@
  * design one edge's CZ pulse (src/gate/design.ts) and print the design.
  *
  * The mover parks at its layout `park` frequency (else its upper sweet spot, Phi = 0); the static
- * qubit at --static-flux, else its `park`, else its maximum frequency (physics.md sec. 6).
+ * qubit at --static-flux, else its `park`, else its maximum frequency (README physics conventions sec. 6).
  * --waveform writes the designed waveform in the CSV form `fluxlane simulate` reads, so the
  * design can be re-simulated independently (same metrics).
  *

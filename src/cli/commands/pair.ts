@@ -1,9 +1,9 @@
 /**
  * `fluxlane pair LAYOUT --edge A-B [--mover A|B] [--flux-a F] [--flux-b F] [--sweep] [--points N]
  * [--levels K] [--json]`: a coupled pair's dressed levels, static ZZ, exchange coupling and the
- * mover's resonances (../../../shared/physics.md secs. 2 and 6).
+ * mover's resonances (README physics conventions secs. 2 and 6).
  *
- * Conventions (physics.md sec. 6): A is the mover unless --mover names B; the partner is static.
+ * Conventions (README physics conventions sec. 6): A is the mover unless --mover names B; the partner is static.
  * Fluxes default to each qubit's fixed parking frequency from the layout (`park`) when it has one,
  * else to its upper sweet spot Phi = 0. `g` is the exchange coupling at the fluxes evaluated.
  * Levels are labelled in edge order |AB> (as written in --edge). Resonance names are

@@ -1,7 +1,7 @@
 /**
  * `fluxlane simulate LAYOUT --edge A-B [--mover A] --trajectory FILE.csv [--static-flux F]
  * [--levels K] [--spectator ID ...] [--noise] [--json]`: simulate one CZ trajectory of an edge
- * (../../../shared/physics.md secs. 2-4 and 6) and report its gate metrics.
+ * (README physics conventions secs. 2-4 and 6) and report its gate metrics.
  *
  * The trajectory file is the mover's flux against time (header `time_ns,flux`, samples joined
  * piecewise-linearly, first flux = last flux = the parking point). The static qubit sits at

@@ -1,6 +1,6 @@
 /**
  * `fluxlane spectrum LAYOUT --qubit Q [--flux F ...] [--points N] [--json]`: one qubit's
- * spectrum against flux (../../../shared/physics.md secs. 1 and 4): f01, f12, anharmonicity,
+ * spectrum against flux (README physics conventions secs. 1 and 4): f01, f12, anharmonicity,
  * df01/dPhi and the coherence times T1, T_phi, T2 at each flux. Without --flux, a sweep of
  * N points (default 51) uniform in flux over the tunable branch 0 <= Phi <= 1/2.
  *

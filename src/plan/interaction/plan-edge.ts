@@ -1,7 +1,7 @@
 /**
  * The interaction plan of one coupled pair: which qubit moves (the mover), to which crossing
  * (11-20: the mover's f12 meets the partner's f01, mover above by |alpha_A|; or 11-02: the
- * mover's f01 meets the partner's f12, mover below by |alpha_B|; ../../../shared/physics.md
+ * mover's f01 meets the partner's f12, mover below by |alpha_B|; README physics conventions
  * sec. 2), the interaction (destination) frequency = the mover's f01 at that crossing against the
  * partner at its parking frequency (exact: src/pair/resonances.ts), the path (a monotone sweep
  * from parking to there and back), and the spectators moved out of the way.
@@ -11,7 +11,7 @@
  * (./spectator-parking.ts), up to three rounds. Among the options that then break no rule the
  * one with the smallest estimated error wins:
  *
- *     err = (2/5) t_CZ sum_{q = A, B} (1/T1_q + 1/T_phi,q)     (idle-like decoherence, physics.md sec. 4;
+ *     err = (2/5) t_CZ sum_{q = A, B} (1/T1_q + 1/T_phi,q)     (idle-like decoherence, README physics conventions sec. 4;
  *                                                              T_phi of the mover at the interaction point)
  *         + (1/4) t_hold / T1 of the qubit lifted to |2>     (|2> decays about twice as fast)
  *         + (2/5) t_CZ sum_{parked S} 1/T_phi,S(x_S) + 1e-4 per parked spectator
@@ -73,7 +73,7 @@ export interface EdgePlan {
   /** Bare coupling of the crossing and the speed limit 1/(2 g_c). */
   crossingCouplingGHz: number;
   speedLimitNs: number;
-  /** Exchange coupling g at the interaction point (physics.md sec. 6). */
+  /** Exchange coupling g at the interaction point (README physics conventions sec. 6). */
   gAtInteractionGHz: number;
   durationNs: number;
   rampNs: number;

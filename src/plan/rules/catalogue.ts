@@ -1,5 +1,5 @@
 /**
- * The collision rules of fluxlane as data (../../../shared/physics.md sec. 5; common practice,
+ * The collision rules of fluxlane as data (README physics conventions sec. 5; common practice,
  * thresholds configurable in the layout's `rules:` with defaults in shared/rules.json).
  *
  * Each rule is named after the transitions it compares: "01-01" is f01 of one qubit against f01
@@ -86,9 +86,9 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
   rule({ name: 'readout', scope: 'idle', transitions: 'f01 vs its readout resonator', threshold: 'readoutDetuningGHz', compare: 'min', quantity: 'frequency',
     doc: 'A qubit parks at least readoutDetuning away from its readout resonator.', source: 'common practice' }),
   rule({ name: 'cz-range', scope: 'cz', transitions: 'the mover f01 at the 11-20 or 11-02 crossing vs its tunable range', threshold: null, compare: 'none', quantity: 'frequency',
-    doc: 'The interaction frequency of the chosen crossing lies inside the mover\'s planning range, at least one bare splitting 2 g_c from its far end (room to tune the destination past the crossing; our choice, src/plan/rules/tuning-room.ts).', source: '../shared/physics.md sec. 2' }),
+    doc: 'The interaction frequency of the chosen crossing lies inside the mover\'s planning range, at least one bare splitting 2 g_c from its far end (room to tune the destination past the crossing; our choice, src/plan/rules/tuning-room.ts).', source: 'README physics conventions sec. 2' }),
   rule({ name: 'cz-duration', scope: 'cz', transitions: '1/(2 g_c) at the crossing plus ramps', threshold: 'maxGateNs', compare: 'max', quantity: 'time',
-    doc: 'The shortest CZ on the crossing (one full 11 -> 20 -> 11 cycle, 1/(2 g_c), plus ramps in and out, the flux line\'s settling and the sample grid, plus the ramps of any spectator moved out of the way) fits in maxGate.', source: '../shared/physics.md sec. 2 (two-level Rabi formula)' }),
+    doc: 'The shortest CZ on the crossing (one full 11 -> 20 -> 11 cycle, 1/(2 g_c), plus ramps in and out, the flux line\'s settling and the sample grid, plus the ramps of any spectator moved out of the way) fits in maxGate.', source: 'README physics conventions sec. 2 (two-level Rabi formula)' }),
   rule({ name: 'cz-spectator-01-01', scope: 'cz', transitions: 'mover f01 at the interaction point vs spectator f01', threshold: 'spectatorDetuningGHz', compare: 'min', quantity: 'frequency',
     doc: 'During a CZ the interaction frequency stays spectatorDetuning away from the f01 of every other neighbour of the mover.', source: 'common practice' }),
   rule({ name: 'cz-spectator-11-20', scope: 'cz', transitions: 'mover f12 at the interaction point vs spectator f01 (f01_S - alpha_A)', threshold: 'spectatorDetuningGHz', compare: 'min', quantity: 'frequency',
@@ -102,7 +102,7 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
   rule({ name: 'cz-readout', scope: 'cz', transitions: 'the band the mover sweeps vs its readout resonator', threshold: 'readoutDetuningGHz', compare: 'min', quantity: 'frequency',
     doc: 'The whole excursion of the mover keeps readoutDetuning from its readout resonator.', source: 'common practice' }),
   rule({ name: 'cz-swept-01-01', scope: 'cz', transitions: 'a moving qubit\'s f01 sweeping through a coupled qubit\'s f01', threshold: 'sweptTransferLimit', compare: 'max', quantity: 'probability',
-    doc: 'Landau-Zener transfer 1 - exp(-4 pi^2 g^2 / v) through each 01-10 crossing passed on the way to the interaction point (g = exchange coupling there, v = sweep rate).', source: 'Landau 1932, Zener 1932; ../shared/physics.md sec. 5' }),
+    doc: 'Landau-Zener transfer 1 - exp(-4 pi^2 g^2 / v) through each 01-10 crossing passed on the way to the interaction point (g = exchange coupling there, v = sweep rate).', source: 'Landau 1932, Zener 1932; README physics conventions sec. 5' }),
   rule({ name: 'cz-swept-11-20', scope: 'cz', transitions: 'a moving qubit\'s f12 sweeping through a coupled qubit\'s f01', threshold: 'sweptTransferLimit', compare: 'max', quantity: 'probability',
     doc: 'Landau-Zener transfer through each 11-20 crossing passed on the way (coupling G |n12| |n01|, about sqrt2 g).', source: 'Landau 1932, Zener 1932' }),
   rule({ name: 'cz-swept-11-02', scope: 'cz', transitions: 'a moving qubit\'s f01 sweeping through a coupled qubit\'s f12', threshold: 'sweptTransferLimit', compare: 'max', quantity: 'probability',
@@ -126,7 +126,7 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
   rule({ name: 'cz-crossing', scope: 'plan', transitions: 'the plan\'s interaction frequency vs the crossing recomputed from the parking frequencies', threshold: null, compare: 'none', quantity: 'frequency',
     doc: 'In a plan read back by `fluxlane verify`, each edge\'s interaction frequency minus its crossing offset matches the crossing at the plan\'s parking frequencies within 10 kHz (otherwise the gate was designed for another parking point).', source: 'fluxlane plan contract' }),
   rule({ name: 'layer-conflict', scope: 'plan', transitions: 'two gates in one layer', threshold: null, compare: 'none', quantity: 'none',
-    doc: 'Gates in one parallel layer share no qubit (mover, partner or parked spectator) and no cz condition couples them (src/plan/layers.ts).', source: '../shared/physics.md sec. 5' }),
+    doc: 'Gates in one parallel layer share no qubit (mover, partner or parked spectator) and no cz condition couples them (src/plan/layers.ts).', source: 'README physics conventions sec. 5' }),
   rule({ name: 'margin', scope: 'crowding', transitions: 'smallest distance to any collision condition, in fabrication spreads', threshold: 'marginFlagSpreads', compare: 'min', quantity: 'spreads',
     doc: 'Flag (not a violation): a qubit whose smallest margin is below marginFlagSpreads expected frequency spreads (src/plan/crowding.ts).', source: 'common practice' }),
 ]);

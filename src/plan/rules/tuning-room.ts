@@ -4,7 +4,7 @@
  * (src/gate/design.ts, DESIGN_DEFAULTS.offsetWindow); a crossing at the very end of the mover's
  * range (typically the bottom sweet spot, where the parking cost's dephasing term vanishes)
  * leaves no room past it, and the huge excursion to it makes every ramp leak more. So a crossing
- * counts as reachable only when it lies at least one bare splitting 2 g_c (physics.md sec. 2)
+ * counts as reachable only when it lies at least one bare splitting 2 g_c (README physics conventions sec. 2)
  * inside the mover's range on the far side of its excursion: above the range's bottom for a
  * mover that moves down, below its top for one that moves up. Our choice, matched to the gate
  * stage's offset window.
