@@ -93,7 +93,7 @@ const scaled = (v: unknown, factor: number, digits: number): number | null => {
 const ghz = (v: unknown) => scaled(v, 1e-9, 8);
 const mhz = (v: unknown) => scaled(v, 1e-6, 6);
 const khz = (v: unknown) => scaled(v, 1e-3, 6);
-const nsOf = (v: unknown) => scaled(v, 1e9, 6);
+const nsOf = (v: unknown) => scaled(v, 1e9, 7);
 const usOf = (v: unknown) => scaled(v, 1e6, 6);
 const plain = (v: unknown, digits = 6) => scaled(v, 1, digits);
 
@@ -142,9 +142,16 @@ function explanation(v: unknown): ReportExplanation | null {
   };
 }
 
-/** The predicted error of an edge and where it comes from (see ErrorSource). */
-export function predictedError(gate: ReportGate | null, plannerEstimate: number | null): { value: number; source: ErrorSource } | null {
-  if (gate?.budget) return { value: gate.budget.total, source: 'budget' };
+/**
+ * The predicted error of an edge and where it comes from: the error budget's total, else
+ * 1 - fidelity with decoherence, else 1 - coherent fidelity (from the plan's unrounded numbers),
+ * else the planner's estimate for the option it chose (no pulse designed).
+ */
+export function predictedError(
+  gate: { budgetTotal?: number | null; fidelityNoisy?: number | null; fidelity?: number | null } | null,
+  plannerEstimate: number | null,
+): { value: number; source: ErrorSource } | null {
+  if (gate?.budgetTotal != null) return { value: roundSignificant(gate.budgetTotal, 5), source: 'budget' };
   if (gate?.fidelityNoisy != null) return { value: roundSignificant(1 - gate.fidelityNoisy, 5), source: 'noisy' };
   if (gate?.fidelity != null) return { value: roundSignificant(1 - gate.fidelity, 5), source: 'coherent' };
   if (plannerEstimate !== null) return { value: roundSignificant(plannerEstimate, 5), source: 'planner' };
@@ -310,7 +317,10 @@ export function buildReportDocument(inputs: ReportInputs, options: ReportOptions
       spectatorMoves,
       swept,
       gate,
-      error: predictedError(gate, chosen ? finite(chosen.estimatedError) : null),
+      error: predictedError(
+        isObject(e.gate) ? { budgetTotal: gate?.budget?.total ?? null, fidelityNoisy: finite(e.gate.fidelityNoisy), fidelity: finite(e.gate.fidelity) } : null,
+        chosen ? finite(chosen.estimatedError) : null,
+      ),
       waveform,
       waveformNote: inputs.missingWaveforms?.get(key) ?? null,
       violations: violationsByEdge.get(key) ?? 0,
@@ -326,7 +336,7 @@ export function buildReportDocument(inputs: ReportInputs, options: ReportOptions
     return { index: finite(l.index) ?? k, edges: keys, durationNs: known.length > 0 ? Math.max(...known) : null };
   });
   const layeredNs = layers.length > 0 && layers.every((l) => l.durationNs !== null)
-    ? roundSignificant(layers.reduce((s, l) => s + (l.durationNs as number), 0), 6)
+    ? roundSignificant(layers.reduce((s, l) => s + (l.durationNs as number), 0), 8)
     : null;
 
   const cycle: ReportCycle | null = isObject(plan.cycle)

@@ -1,6 +1,6 @@
 /**
  * Build step of `npm run build` (and `prepare`, so `npm ci`): bundles the report page's browser
- * code (./browser/, with its d3 modules) into dist/report/html/page-script.js, beside this
+ * code (./browser/, with its d3 modules) into dist/report/html/report-page.iife.js, beside this
  * module's compiled file. Run as `node dist/report/html/build-page-script.js` after tsc.
  */
 import { writeFileSync } from 'node:fs';

@@ -3,7 +3,7 @@
  * into one classic script that is inlined into every report, so the page needs no network.
  *
  * `npm run build` (and so `npm ci`, through `prepare`) writes the bundle once, beside this
- * module's compiled file: dist/report/html/page-script.js (./build-page-script.ts). Running from
+ * module's compiled file: dist/report/html/report-page.iife.js (./build-page-script.ts). Running from
  * the sources (tsx, vitest) there is no such file, and the bundle is built on first use with
  * esbuild (a development dependency) and kept for the process. The bundle is the same bytes
  * either way (same esbuild version and options).
@@ -15,7 +15,7 @@ import { fileURLToPath } from 'node:url';
 const HERE = dirname(fileURLToPath(import.meta.url));
 
 /** File name of the prebuilt bundle, beside the compiled page-script module. */
-export const PAGE_SCRIPT_FILE = 'page-script.js';
+export const PAGE_SCRIPT_FILE = 'report-page.iife.js';
 
 /** The d3 modules bundled into the page (their licence asks for the notice in copies). */
 export const BUNDLED_MODULES = ['d3-array', 'd3-axis', 'd3-color', 'd3-format', 'd3-interpolate', 'd3-scale', 'd3-selection', 'd3-shape', 'd3-path', 'd3-time', 'd3-time-format', 'internmap'] as const;

@@ -45,9 +45,9 @@ section.card h3 { font-size: 0.98rem; margin: 10px 0 4px; }
 .focus-ring, .edge-focus { visibility: hidden; fill: none; pointer-events: none; }
 .qubit.selected .core { stroke: var(--ink); stroke-width: 3px; }
 .edge.selected .edge-line { stroke-width: 7px; }
-.dim { opacity: 0.18; }
+.dim { opacity: 0.28; }
 .qubit.dim { opacity: 1; }
-.qubit.dim .core, .qubit.dim .flag-ring, .qubit.dim .violation-ring, .qubit.dim .qlabel { opacity: 0.22; }
+.qubit.dim .core, .qubit.dim .flag-ring, .qubit.dim .violation-ring, .qubit.dim .qlabel { opacity: 0.35; }
 .qlabel { font-size: 11px; font-weight: 600; pointer-events: none; paint-order: stroke; stroke: rgba(255,255,255,0.85); stroke-width: 3px; fill: var(--ink); }
 #details { position: sticky; top: 10px; max-height: calc(100vh - 20px); overflow: auto; }
 #details dl { display: grid; grid-template-columns: auto 1fr; gap: 2px 12px; margin: 4px 0 8px; font-size: 0.9rem; }

@@ -136,7 +136,23 @@ export function drawChipMap(container: HTMLElement, model: ReportModel, store: S
       })
       .attr('stroke-width', width)
       .attr('stroke-linecap', 'round');
-  line('edge-hit', Math.max(12, g.radius * 1.2)).attr('stroke', 'transparent');
+  // The hit area: a filled band around the line (a band, unlike a stroke, has an area even for a
+  // horizontal or vertical edge, so pointer and automation tools find it).
+  const half = Math.max(6, g.radius * 0.6);
+  edges
+    .append('path')
+    .attr('class', 'edge-hit')
+    .attr('fill', 'transparent')
+    .attr('d', (e) => {
+      const p = ends(e);
+      const dx = p.x2 - p.x1;
+      const dy = p.y2 - p.y1;
+      const len = Math.sqrt(dx * dx + dy * dy) || 1;
+      const nx = (-dy / len) * half;
+      const ny = (dx / len) * half;
+      const pt = (x: number, y: number) => `${x.toFixed(1)} ${y.toFixed(1)}`;
+      return `M${pt(p.x1 + nx, p.y1 + ny)}L${pt(p.x2 + nx, p.y2 + ny)}L${pt(p.x2 - nx, p.y2 - ny)}L${pt(p.x1 - nx, p.y1 - ny)}Z`;
+    });
   line('edge-halo', g.lineWidth + 5)
     .attr('stroke', VIOLATION_COLOUR)
     .attr('stroke-dasharray', '4 3')

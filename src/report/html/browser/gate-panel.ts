@@ -116,7 +116,7 @@ export function drawGatePanel(node: HTMLElement, model: ReportModel, store: Stor
   node.append(
     el('p', {}, el('b', {}, `Edge ${e.key}`), ': ', e.mover ? selectButton(store, { kind: 'qubit', id: e.mover }, e.mover) : '-', ` moves to ${ghz(e.interactionGHz)}`,
       e.crossing ? ` (${e.crossing} crossing with ${e.partner ?? '-'})` : '', `, ${ns(e.durationNs)}`, g?.family ? `, ${g.family} ramps of ${ns(g.rampNs)}, hold ${ns(g.holdNs)}` : '',
-      g ? `, fidelity ${fixed(g.fidelity, 5)}${g.fidelityNoisy !== null ? ` (${fixed(g.fidelityNoisy, 5)} with decoherence)` : ''}, leakage ${err(g.leakage)}.` : '.',
+      g ? `, fidelity ${fixed(g.fidelity, 6)}${g.fidelityNoisy !== null ? ` (${fixed(g.fidelityNoisy, 6)} with decoherence)` : ''}, leakage ${err(g.leakage)}.` : '.',
       ' ', el('span', { class: 'hint' }, 'Select another edge in the map, the timeline or the table below.')),
   );
   const w = e.waveform;

@@ -44,7 +44,7 @@ export function drawWeakest(node: HTMLElement, model: ReportModel, store: Store)
   }
   const sources = new Set(rows.map((e) => e.error!.source));
   node.append(el('p', { class: 'hint' }, `The ${plural(rows.length, 'gate')} with the largest predicted error (${[...sources].map((s) => ERROR_SOURCE_TEXT[s]).join('; ')}).`));
-  const head = el('tr', {}, ...['edge', 'layer', 'mover', 'crossing', 'interaction', 'duration', 'fidelity', 'leakage', 'predicted error'].map((h) => el('th', { scope: 'col' }, h)));
+  const head = el('tr', {}, ...['edge', 'layer', 'mover', 'crossing', 'interaction', 'duration', 'fidelity (with decoherence)', 'leakage', 'predicted error'].map((h) => el('th', { scope: 'col' }, h)));
   const body = rows.map((e) =>
     el('tr', { 'data-edge-row': e.key },
       el('td', {}, selectButton(store, { kind: 'edge', key: e.key }, e.key)),
@@ -53,7 +53,7 @@ export function drawWeakest(node: HTMLElement, model: ReportModel, store: Store)
       el('td', {}, e.crossing ?? '-'),
       el('td', {}, ghz(e.interactionGHz)),
       el('td', {}, ns(e.durationNs)),
-      el('td', {}, fixed(e.gate?.fidelityNoisy ?? e.gate?.fidelity ?? null, 5)),
+      el('td', {}, fixed(e.gate?.fidelityNoisy ?? e.gate?.fidelity ?? null, 6)),
       el('td', {}, err(e.gate?.leakage ?? null)),
       el('td', {}, err(e.error!.value)),
     ),
