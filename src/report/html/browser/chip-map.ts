@@ -153,9 +153,12 @@ export function drawChipMap(container: HTMLElement, model: ReportModel, store: S
       const pt = (x: number, y: number) => `${x.toFixed(1)} ${y.toFixed(1)}`;
       return `M${pt(p.x1 + nx, p.y1 + ny)}L${pt(p.x2 + nx, p.y2 + ny)}L${pt(p.x2 - nx, p.y2 - ny)}L${pt(p.x1 - nx, p.y1 - ny)}Z`;
     });
-  line('edge-halo', g.lineWidth + 5)
+  // Marks scale with the drawing (a 1,000-qubit map has small dots).
+  const ring = Math.max(1.2, Math.min(3, 0.3 * g.radius));
+  const gap = Math.max(1.2, Math.min(3, 0.25 * g.radius));
+  line('edge-halo', g.lineWidth + 2 * ring)
     .attr('stroke', VIOLATION_COLOUR)
-    .attr('stroke-dasharray', '4 3')
+    .attr('stroke-dasharray', `${2 * ring} ${1.5 * ring}`)
     .attr('visibility', (e) => (e.violations > 0 || !e.feasible ? 'visible' : 'hidden'));
   const edgeLines = line('edge-line', g.lineWidth);
   line('edge-focus', g.lineWidth + 6);
@@ -175,7 +178,7 @@ export function drawChipMap(container: HTMLElement, model: ReportModel, store: S
   qubits
     .append('circle')
     .attr('class', 'moved-ring')
-    .attr('r', r + 4)
+    .attr('r', r + gap + ring)
     .attr('fill', 'none')
     .attr('stroke', '#1f6f78')
     .attr('stroke-width', 2)
@@ -185,19 +188,19 @@ export function drawChipMap(container: HTMLElement, model: ReportModel, store: S
     .filter((q) => q.flags > 0)
     .append('circle')
     .attr('class', 'flag-ring')
-    .attr('r', (q) => r + (q.violations > 0 ? 6.5 : 3))
+    .attr('r', (q) => r + gap + (q.violations > 0 ? 2 * ring + 0.5 : 0.5 * ring))
     .attr('fill', 'none')
     .attr('stroke', FLAG_COLOUR)
-    .attr('stroke-width', 2)
-    .attr('stroke-dasharray', '3 2.5');
+    .attr('stroke-width', 0.8 * ring)
+    .attr('stroke-dasharray', `${1.2 * ring} ${ring}`);
   qubits
     .filter((q) => q.violations > 0)
     .append('circle')
     .attr('class', 'violation-ring')
-    .attr('r', r + 3)
+    .attr('r', r + gap + 0.5 * ring)
     .attr('fill', 'none')
     .attr('stroke', VIOLATION_COLOUR)
-    .attr('stroke-width', 2.5);
+    .attr('stroke-width', ring);
   qubits.append('circle').attr('class', 'backing').attr('r', r).attr('fill', '#fbfaf7');
   qubits
     .append('circle')

@@ -54,6 +54,9 @@ export function drawFindings(node: HTMLElement, model: ReportModel, store: Store
   );
   if (explanations.length > 0) {
     node.append(el('h3', {}, `What cannot be planned, and why (${explanations.length})`));
+    // Many explanations (a large chip) stay folded until asked for.
+    const holder = explanations.length <= 12 ? node : el('details', { 'data-explanations': String(explanations.length) }, el('summary', {}, `Show all ${explanations.length} explanations`));
+    if (holder !== node) node.append(holder);
     for (const x of explanations) {
       const box = el('div', { class: 'explanation' });
       append(
@@ -61,7 +64,7 @@ export function drawFindings(node: HTMLElement, model: ReportModel, store: Store
         el('p', {}, el('span', { class: 'tag bad' }, x.kind === 'parking' ? 'cannot park' : 'cannot plan the CZ'), ...x.qubits.flatMap((q) => (model.qubit.has(q) ? [selectButton(store, { kind: 'qubit', id: q }, q), ' '] : [`${q} `])), ': ', x.message),
         x.lines.length > 0 ? el('pre', {}, x.lines.join('\n')) : null,
       );
-      node.append(box);
+      holder.append(box);
     }
   }
   if (crowdedBands.length > 0) {

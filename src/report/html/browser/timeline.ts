@@ -53,7 +53,7 @@ export function drawTimeline(wrap: HTMLElement, hint: HTMLElement, model: Report
       .attr('aria-label', `layer ${layer.index}: ${plural(layer.edges.length, 'gate')}, ${ns(layer.durationNs)}`)
       .attr('x', x0 + 1).attr('y', 4).attr('width', Math.max(2, x1 - x0 - 2)).attr('height', top - 8).attr('rx', 3).attr('fill', colour);
     g.append('text').attr('x', x0 + 6).attr('y', top - 12).attr('font-size', 11).attr('fill', '#fff').attr('pointer-events', 'none')
-      .text(x1 - x0 > 80 ? `L${layer.index} \u00b7 ${layer.edges.length} \u00b7 ${ns(layer.durationNs)}` : `L${layer.index}`);
+      .text(x1 - x0 > 150 ? `L${layer.index} \u00b7 ${plural(layer.edges.length, 'gate')} \u00b7 ${ns(layer.durationNs)}` : x1 - x0 > 95 ? `L${layer.index} \u00b7 ${ns(layer.durationNs)}` : `L${layer.index}`);
     const edges = layer.edges.map((key) => model.edge.get(key)).filter((e) => e !== undefined).sort((a, b) => (b!.durationNs ?? 0) - (a!.durationNs ?? 0) || a!.key.localeCompare(b!.key));
     const span = (d: number | null) => (known && d !== null ? x(d) - x(0) : x1 - x0 - 2);
     if (barH > 0) {
