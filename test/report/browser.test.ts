@@ -10,7 +10,7 @@
  * README shows: test/report/screenshots/clove-17.png, written here.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -42,6 +42,7 @@ interface Planned {
 
 let browser: Browser;
 const planned = new Map<string, Planned>();
+const dirs = new Map<string, string>();
 const work = mkdtempSync(join(tmpdir(), 'fluxlane-browser-'));
 
 beforeAll(async () => {
@@ -51,6 +52,7 @@ beforeAll(async () => {
     // The layout path as a user types it from the repository root (the page shows it).
     const r = await runFluxlane(['plan', `layouts/${demo.name}.yaml`, ...(demo.pulses ? [] : ['--no-pulses']), '-o', out]);
     expect(r.code, r.err).toBeLessThanOrEqual(1);
+    dirs.set(demo.name, out);
     planned.set(demo.name, { html: join(out, 'report.html'), plan: JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8')), code: r.code });
   }
 }, 90_000);
@@ -87,6 +89,21 @@ function pixelStats(png: Buffer): { width: number; height: number; colours: numb
   }
   const mean = sum / n;
   return { width: img.width, height: img.height, colours: colours.size, lumaStd: Math.sqrt(Math.max(0, sum2 / n - mean * mean)), nonBackground: nonBackground / n };
+}
+
+/** A page opened offline; its console and page errors collected. */
+async function openOffline(html: string): Promise<{ page: import('playwright-core').Page; problems: string[]; close: () => Promise<void> }> {
+  const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+  await context.route('**/*', (route) => (route.request().url().startsWith('file:') ? route.continue() : route.abort()));
+  const page = await context.newPage();
+  const problems: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error' || m.type() === 'warning') problems.push(`console ${m.type()}: ${m.text()}`);
+  });
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  await page.goto(pathToFileURL(html).href);
+  await page.waitForSelector('html[data-drawn="true"]', { timeout: 30_000 });
+  return { page, problems, close: () => context.close() };
 }
 
 describe('the chip report in chromium (offline, from a file URL)', () => {
@@ -223,5 +240,36 @@ describe('the chip report in chromium (offline, from a file URL)', () => {
     expect(aborted).toEqual([]);
     expect(requested.filter((u) => !u.startsWith('file:') && !u.startsWith('data:'))).toEqual([]);
     await context.close();
+  });
+  it('shows the error budget, idle budgets and cycle when the plan carries them (Bowline-5 plan with the fields added)', async () => {
+    const dir = dirs.get('bowline-5')!;
+    const plan = JSON.parse(readFileSync(join(dir, 'plan.json'), 'utf8'));
+    // Fields of the error-budget work, values chosen for this check only.
+    const parts = { coherent: 2e-5, t1: 4e-3, whiteDephasing: 1e-3, fluxNoise: 3e-3, spectators: 5e-4, sweptCrossings: 1e-5, spectatorMoves: 0 };
+    const total = Object.values(parts).reduce((x, y) => x + y, 0);
+    plan.edges[0].gate.budget = { ...parts, total };
+    plan.qubits[plan.edges[0].mover].idle = { t1: 1e-3, dephasing: 2e-3, zz: 1e-4, thermal: 5e-5, total: 3.15e-3 };
+    plan.cycle = { duration: 4.2e-7, error: 0.071, gates: 0.05, idles: 0.021 };
+    writeFileSync(join(dir, 'with-budget.json'), JSON.stringify(plan));
+    const r = await runFluxlane(['report', join(dir, 'with-budget.json'), '--layout', 'layouts/bowline-5.yaml', '-o', join(dir, 'with-budget.html')]);
+    expect(r.code, r.err).toBe(0);
+    const { page, problems, close } = await openOffline(join(dir, 'with-budget.html'));
+    const key = plan.edges[0].qubits.join('-');
+    await page.locator(`#chip-map [data-edge="${key}"] path.edge-hit`).click();
+    const ed = page.locator(`#details-body [data-kind="edge"][data-id="${key}"]`);
+    expect(numberIn(await ed.locator('[data-field="budget-total"]').textContent())).toBeCloseTo(total, 6);
+    expect(await ed.locator('[data-field="error"]').textContent()).toMatch(/error budget total/);
+    // The split bar: one part per non-zero cause, widths in proportion.
+    const widths = await page.evaluate<Record<string, number>>(`Object.fromEntries([...document.querySelectorAll('#gate-body rect.budget-part')].map((e) => [e.getAttribute('data-part'), Number(e.getAttribute('width'))]))`);
+    expect(Object.keys(widths).sort()).toEqual(Object.entries(parts).filter(([, v]) => v > 0).map(([k]) => k).sort());
+    expect(widths.t1 / widths.fluxNoise).toBeCloseTo(parts.t1 / parts.fluxNoise, 6);
+    await page.locator(`#chip-map [data-qubit="${plan.edges[0].mover}"] circle.core`).click();
+    const qd = page.locator(`#details-body [data-kind="qubit"][data-id="${plan.edges[0].mover}"]`);
+    expect(numberIn(await qd.locator('[data-field="idleBudget"]').textContent())).toBeCloseTo(3.15e-3, 8);
+    expect(numberIn(await qd.locator('[data-field="idle-dephasing"]').textContent())).toBeCloseTo(2e-3, 8);
+    expect(await page.locator('[data-stat="cycle"]').textContent()).toMatch(/cycle 420\.0 ns/);
+    expect(await page.locator('[data-stat="cycle error"]').textContent()).toMatch(/7\.10e-2/);
+    expect(problems).toEqual([]);
+    await close();
   });
 });
