@@ -176,6 +176,9 @@ describe('the chip report in chromium (offline, from a file URL)', () => {
     if (plan.qubits[qubit].t2 !== null) expect(Math.abs(numberIn(await field(qd, 't2')) - plan.qubits[qubit].t2 * 1e6) / (plan.qubits[qubit].t2 * 1e6)).toBeLessThan(6e-3);
     expect(await field(qd, 'margin')).toMatch(/MHz \(-?\d+\.\d\d spreads\)|^-$/);
     expect(await page.locator('#chip-map [data-qubit].selected').count()).toBe(1);
+    // Hover shows a one-line summary.
+    await page.locator(`#chip-map [data-qubit="${qubit}"] circle.core`).hover();
+    expect(await page.locator('#tooltip').textContent()).toMatch(new RegExp(`^${qubit}, parks at \\d\\.\\d{4} GHz`));
 
     // Click an edge (the first of the plan): mover, crossing, layer and interaction as planned.
     const edge = plan.edges[0];
