@@ -12,7 +12,8 @@
  * Method: warm up for ~0.3 s (JIT), then time batches of calls (each batch >= ~10 ms) for
  * ~1.5 s or at least 7 batches; report the median and the minimum of the per-call times over
  * batches. Long benchmarks (whole-chip plans, seconds per call) set `runs` instead: `warmup`
- * untimed calls (default 1), then exactly `runs` timed calls, median and minimum over those. Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
+ * untimed calls (default 1), then exactly `runs` timed calls, median and minimum over those; their
+ * `run`, `setup` and `report` may return promises (awaited: e.g. a browser drawing a page). Arguments: substrings filter benchmarks by name or file; `--json` prints JSON;
  * `--strict` exits 1 when a median misses its target (timings on a shared machine vary ~2x, so
  * the default exit code is 0). Each file runs in a fresh Node process of its own (same loader
  * flags), so one file's heap and compiled code do not slow down the next one's.
@@ -26,14 +27,15 @@ export interface Benchmark {
   name: string;
   /** Upper limit for the median time per call (microseconds). */
   target?: number;
-  setup?: () => void;
+  setup?: () => void | Promise<void>;
+  /** One call; a promise is awaited (then `runs` must be set: fixed runs only). */
   run: () => unknown;
   /** Fixed number of timed calls (for calls that take seconds); default: adaptive batches. */
   runs?: number;
   /** Untimed calls before the timed ones when `runs` is set (default 1). */
   warmup?: number;
   /** Extra measured facts printed after the timing (accuracy, ratios to other tools ...). */
-  report?: () => string;
+  report?: () => string | Promise<string>;
 }
 
 export interface BenchResult {
@@ -62,8 +64,8 @@ function now(): number {
 
 let sink: unknown;
 
-export function measure(b: Benchmark): { medianUs: number; minUs: number; calls: number } {
-  b.setup?.();
+export async function measure(b: Benchmark): Promise<{ medianUs: number; minUs: number; calls: number }> {
+  await b.setup?.();
   if (b.runs !== undefined) return measureFixed(b, b.runs, b.warmup ?? 1);
   // Warm-up, and a first estimate of the time per call.
   let calls = 0;
@@ -90,13 +92,13 @@ export function measure(b: Benchmark): { medianUs: number; minUs: number; calls:
   return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: total };
 }
 
-/** `warmup` untimed calls, then `runs` timed calls one by one. */
-function measureFixed(b: Benchmark, runs: number, warmup: number): { medianUs: number; minUs: number; calls: number } {
-  for (let i = 0; i < warmup; i++) sink = b.run();
+/** `warmup` untimed calls, then `runs` timed calls one by one (a returned promise is awaited). */
+async function measureFixed(b: Benchmark, runs: number, warmup: number): Promise<{ medianUs: number; minUs: number; calls: number }> {
+  for (let i = 0; i < warmup; i++) sink = await b.run();
   const samples: number[] = [];
   for (let i = 0; i < Math.max(1, runs); i++) {
     const s = now();
-    sink = b.run();
+    sink = await b.run();
     samples.push(now() - s);
   }
   samples.sort((x, y) => x - y);
@@ -118,13 +120,13 @@ async function runFile(dir: string, file: string, filters: string[]): Promise<Be
   const results: BenchResult[] = [];
   for (const b of Object.values(mod).filter(isBenchmark)) {
     if (filters.length > 0 && !filters.some((f) => b.name.includes(f) || file.includes(f))) continue;
-    const m = measure(b);
+    const m = await measure(b);
     const r: BenchResult = { file, name: b.name, ...m };
     if (b.target !== undefined) {
       r.target = b.target;
       r.underTarget = m.medianUs < b.target;
     }
-    if (b.report) r.note = b.report();
+    if (b.report) r.note = await b.report();
     results.push(r);
   }
   return results;

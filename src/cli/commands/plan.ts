@@ -4,7 +4,8 @@
  * --no-pulses) a CZ design per edge from the gate stage (src/plan/pulses.ts). With -o it writes
  * DIR/plan.json (schema: shared/plan.schema.json), DIR/gates.csv (one row per edge),
  * DIR/gates.txt (the same table for people) and DIR/waveforms/A-B.csv (time_ns,flux of each
- * designed gate). Exit 1 when a rule is broken (the files are still complete and say so).
+ * designed gate) and DIR/report.html (the chip report, src/report/html). Exit 1 when a rule is
+ * broken (the files are still complete and say so).
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
@@ -17,6 +18,7 @@ import { designPulses, designPulsesInParallel, type PulseOptions } from '../../p
 import { loadGateDesigner } from '../../plan/gate-seam.js';
 import { defaultDesignThreads } from '../../gate/design-pool.js';
 import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
+import { planReportFile } from '../../report/html/chip-report.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome, OutputFile } from '../outcome.js';
@@ -100,6 +102,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(json) });
     files.push({ path: `${dir}/gates.txt`, contents: gateTableText(plan) });
     files.push(...waveformFiles(plan, dir));
+    files.push(await ctx.profiler.timeAsync('report', () => planReportFile(dir, json, layout, plan)));
   }
   const written = files.length > 0 ? `\nwrote ${files.map((f) => f.path).join(', ')}` : '';
   return {
@@ -116,7 +119,7 @@ export function registerPlan(program: Command, io: CliIo): void {
       .command('plan')
       .description('plan parking and interaction frequencies, spectator moves, CZ pulses and parallel layers for a chip (model estimates: verify on hardware)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder')
+      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt, waveforms/A-B.csv and report.html to this folder')
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
       .option('--family <name>', 'CZ ramp family for every edge (default: the gate stage\'s best-performing one)')
