@@ -1,5 +1,5 @@
 /**
- * Reading a plan.json back (for `fluxlane verify`): JSON syntax errors and schema problems become
+ * Reading a plan.json back (for `fluxlane verify`; written by src/report/plan-json.ts): JSON syntax errors and schema problems become
  * an InputError naming file:line:column, what was expected and what was found. Only the fields
  * verify needs are required (a plan edited by hand may drop the derived ones); unknown fields are
  * kept. Positions of schema problems come from the yaml package's source map of the same text
@@ -10,7 +10,10 @@ import { DiagnosticCollector, type Path } from '../layout/diagnostics.js';
 import { readYamlSource } from '../layout/yaml-source.js';
 import { InputError } from '../util/errors.js';
 import type { ChipLayout } from '../layout/types.js';
-import { PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
+
+/** The plan file's format name and version (plan.json's `format` and `version`). */
+export const PLAN_FORMAT = 'fluxlane-plan';
+export const PLAN_VERSION = 1;
 
 const hz = z.number({ error: () => 'a frequency in Hz (a number)' }).positive({ error: () => 'a positive frequency in Hz' });
 

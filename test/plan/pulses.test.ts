@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { planChip } from '../../src/plan/plan.js';
 import { checkDesign, designPulses, designPulsesInParallel, gateRequest, worstSpectator } from '../../src/plan/pulses.js';
 import { loadGateDesigner, type GateDesign } from '../../src/plan/gate-seam.js';
-import { planJson } from '../../src/plan/plan-json.js';
+import { planJson } from '../../src/report/plan-json.js';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { landauZenerTransfer } from '../../src/plan/landau-zener.js';
 import { handChip } from '../support/plan-chips.js';

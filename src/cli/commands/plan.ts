@@ -2,9 +2,10 @@
  * `fluxlane plan LAYOUT [-o DIR] [--json]`: the whole planner (src/plan/plan.ts): parking,
  * interaction plan per edge with spectator handling, parallel layers, crowding, and (unless
  * --no-pulses) a CZ design per edge from the gate stage (src/plan/pulses.ts). With -o it writes
- * DIR/plan.json (schema: shared/plan.schema.json), DIR/gates.csv (one row per edge),
- * DIR/gates.txt (the same table for people) and DIR/waveforms/A-B.csv (time_ns,flux of each
- * designed gate). Exit 1 when a rule is broken (the files are still complete and say so).
+ * the files of src/report/plan-files.ts: DIR/plan.json (schema: shared/plan.schema.json),
+ * DIR/gates.csv (one row per edge), DIR/gates.txt (the same table for people) and
+ * DIR/waveforms/A-B.csv (time_ns,flux of each designed gate). Exit 1 when a rule is broken (the
+ * files are still complete and say so).
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
@@ -16,7 +17,9 @@ import { planChip } from '../../plan/plan.js';
 import { designPulses, designPulsesInParallel, type PulseOptions } from '../../plan/pulses.js';
 import { loadGateDesigner } from '../../plan/gate-seam.js';
 import { defaultDesignThreads } from '../../gate/design-pool.js';
-import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
+import { planJson } from '../../report/plan-json.js';
+import { planText } from '../../report/plan-text.js';
+import { planFiles } from '../../report/plan-files.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome, OutputFile } from '../outcome.js';
@@ -96,10 +99,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   const files: OutputFile[] = [];
   if (o.outputDir !== undefined) {
     const dir = o.outputDir.replace(/\/+$/, '') || '.';
-    files.push({ path: `${dir}/plan.json`, contents: `${JSON.stringify(json, null, 2)}\n` });
-    files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(json) });
-    files.push({ path: `${dir}/gates.txt`, contents: gateTableText(plan) });
-    files.push(...waveformFiles(plan, dir));
+    files.push(...planFiles(plan, json, dir));
   }
   const written = files.length > 0 ? `\nwrote ${files.map((f) => f.path).join(', ')}` : '';
   return {

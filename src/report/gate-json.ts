@@ -1,0 +1,43 @@
+/**
+ * One gate design as JSON (SI units: s, Hz, rad): the `gate` object of each edge in plan.json.
+ * NaN and infinite numbers (a design that failed has them) become null.
+ */
+import { plain, toHz, toSeconds } from '../plan/format.js';
+import type { GateDesign } from '../plan/gate-seam.js';
+
+/** NaN and infinite numbers become null (JSON has no NaN; a design that failed has none). */
+export function nanToNull(x: unknown): unknown {
+  if (typeof x === 'number') return Number.isFinite(x) ? x : null;
+  if (Array.isArray(x)) return x.map(nanToNull);
+  if (x && typeof x === 'object' && !(x instanceof Float64Array)) return Object.fromEntries(Object.entries(x).map(([k, v]) => [k, nanToNull(v)]));
+  return x;
+}
+
+/** `fluxlane gate`'s JSON fields (SI) for a design. */
+export function gateJson(edge: [string, string], d: GateDesign, waveform: string | null): Record<string, unknown> {
+  const out: Record<string, unknown> = nanToNull({
+    edge,
+    mover: d.mover,
+    family: d.family,
+    rampTime: toSeconds(d.rampNs),
+    holdTime: toSeconds(d.holdNs),
+    duration: toSeconds(d.durationNs),
+    interactionFrequency: toHz(d.interactionFrequencyGHz),
+    crossingOffset: toHz(d.crossingOffsetGHz),
+    conditionalPhase: plain(d.conditionalPhase),
+    leakage: plain(d.leakage),
+    fidelity: plain(d.fidelity),
+    fidelityNoisy: d.fidelityNoisy === undefined ? null : plain(d.fidelityNoisy),
+    fidelityNoisyMethod: d.fidelityNoisyMethod ?? null,
+    virtualZ: { a: plain(d.virtualZ.a), b: plain(d.virtualZ.b) },
+    speedLimit: toSeconds(d.speedLimitNs),
+    untuned: { conditionalPhase: plain(d.untuned.conditionalPhase), leakage: plain(d.untuned.leakage), fidelity: plain(d.untuned.fidelity) },
+    feasible: d.feasible,
+  }) as Record<string, unknown>;
+  if (d.decoherenceEstimate !== undefined) out.decoherenceEstimate = plain(d.decoherenceEstimate);
+  if (Number.isFinite(d.crossingFrequencyGHz)) out.exactCrossingFrequency = toHz(d.crossingFrequencyGHz);
+  if (Number.isFinite(d.gapGHz)) out.gap = toHz(d.gapGHz);
+  if (d.reason !== undefined) out.reason = d.reason;
+  if (waveform !== null) out.waveform = waveform;
+  return out;
+}
