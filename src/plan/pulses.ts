@@ -23,6 +23,7 @@ import { parkSpectators, type EdgePlan, type ParkedSpectator } from './interacti
 import { planLayers } from './layers.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
+import { spectatorMovesNs } from './rules/cz-duration.js';
 import { band, ghz, mhz, prob, ns } from './format.js';
 import type { PooledDesign } from '../gate/design-pool.js';
 
@@ -140,7 +141,7 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     crossing: e.crossing,
     // Spectators moved for the gate take two of the plan's ramps out of the time budget (the
     // designer itself keeps the waveform's rounding to the sample grid inside the limit).
-    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - (e.parked.length > 0 ? 2 * e.rampNs : 0) },
+    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - spectatorMovesNs(e.parked.length > 0, e.rampNs, ctx.rules) },
     noise: options.noise ?? true,
     decoherence: options.lindblad ? 'lindblad' : 'estimate',
   };
@@ -224,10 +225,11 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
     const { blame: _b, ...rest } = f;
     out.push(rest);
   }
-  const total = design.durationNs + (parkedInfo.length > 0 ? 2 * e.rampNs : 0);
+  const moves = spectatorMovesNs(parkedInfo.length > 0, e.rampNs, ctx.rules);
+  const total = design.durationNs + moves;
   if (total > ctx.rules.maxGateNs + 1e-9) {
     out.push({ rule: 'cz-duration', qubits: [id[e.mover], id[e.partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
-      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${parkedInfo.length > 0 ? ` plus ${ns(2 * e.rampNs)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
+      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${moves > 0 ? ` plus ${ns(moves)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
   }
   out.push(...waveformSweepFindings(plan.ctx, e.mover, key, ev.swept, design.waveform));
   const edge: EdgePlan = {

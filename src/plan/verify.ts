@@ -26,6 +26,7 @@ import { evaluateGate, type DuringGate, type GateScenario } from './rules/cz-eva
 import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
 import { tuningRoomShortfall } from './rules/tuning-room.js';
+import { slotNs } from './rules/cz-duration.js';
 
 export const VERIFY_DEFAULTS = Object.freeze({ crossingToleranceGHz: 1e-5 });
 
@@ -130,7 +131,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
         message: `the plan's CZ design for ${key} is marked infeasible${pe.gate.reason ? `: ${pe.gate.reason}` : ''}` });
     }
     if (pe.gate?.duration != null) {
-      const total = pe.gate.duration * 1e9 + (parked.size > 0 ? 2 * spectatorRampNs : 0);
+      const total = slotNs(pe.gate.duration * 1e9, parked.size > 0, spectatorRampNs, ctx.rules);
       if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns with its spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
     }
     edgePlans[edge.index] = {

@@ -241,7 +241,9 @@ function evaluateOption(
   const unmovable = resolved.unmovable;
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   const feasible = ev.findings.length === 0;
-  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs);
+  // t_CZ of the error estimate (banner): the duration model's slot plus the two planning ramps,
+  // which the error estimate counts on top of the speed limit
+  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs + 2 * rampNs);
   const report: OptionReport = {
     mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
     note: feasible
