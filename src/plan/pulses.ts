@@ -47,7 +47,7 @@ export function designPulses(plan: ChipPlan, designer: GateDesigner, options: Pu
     progress?.(++done, plan.edges.length);
     return d;
   });
-  applyDesigns(plan, designs);
+  applyDesigns(plan, designs, options.targetPhase);
 }
 
 /**
@@ -96,7 +96,7 @@ export async function designPulsesInParallel(
     });
     if (!pooled) progress?.(skipped + j + 1, plan.edges.length);
   });
-  applyDesigns(plan, designs);
+  applyDesigns(plan, designs, options.targetPhase);
   return fallback === undefined ? {} : { fallback };
 }
 
@@ -112,14 +112,16 @@ function designOrFailure(plan: ChipPlan, e: EdgePlan, design: () => GateDesign):
 }
 
 /** Check each edge's design where it really goes, then layers, crowding and findings again. */
-function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[]): void {
+function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[], targetPhase?: number): void {
   const { ctx } = plan;
   plan.gates = plan.edges.map((e, k) => {
     const design = designs[k];
     if (!design) return null;
     const { findings, edge } = checkDesign(plan, e, design);
     plan.edges[k] = edge;
-    return { design, findings } as PlannedGate;
+    const planned: PlannedGate = { design, findings };
+    if (targetPhase !== undefined) planned.targetPhase = targetPhase;
+    return planned;
   });
   // Destinations and spectator moves may have changed: layers and crowding again.
   const f12 = plan.states.map((s) => s.f12GHz);

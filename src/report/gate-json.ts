@@ -13,8 +13,13 @@ export function nanToNull(x: unknown): unknown {
   return x;
 }
 
-/** `fluxlane gate`'s JSON fields (SI) for a design. */
-export function gateJson(edge: [string, string], d: GateDesign, waveform: string | null): Record<string, unknown> {
+/**
+ * A design's JSON fields (SI): `waveform` the file of the flux the mover sees (what `fluxlane
+ * simulate` reads) and `awgProgram` the AWG program of the slot, both relative to the plan's
+ * folder and present only when the files are written; `targetPhase` the conditional phase the
+ * design aimed at.
+ */
+export function gateJson(edge: [string, string], d: GateDesign, files: { qubit: string; awg: string } | null, targetPhase = Math.PI): Record<string, unknown> {
   const out: Record<string, unknown> = nanToNull({
     edge,
     mover: d.mover,
@@ -24,6 +29,7 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
     duration: toSeconds(d.durationNs),
     interactionFrequency: toHz(d.interactionFrequencyGHz),
     crossingOffset: toHz(d.crossingOffsetGHz),
+    targetPhase: plain(targetPhase),
     conditionalPhase: plain(d.conditionalPhase),
     leakage: plain(d.leakage),
     fidelity: plain(d.fidelity),
@@ -38,6 +44,9 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
   if (Number.isFinite(d.crossingFrequencyGHz)) out.exactCrossingFrequency = toHz(d.crossingFrequencyGHz);
   if (Number.isFinite(d.gapGHz)) out.gap = toHz(d.gapGHz);
   if (d.reason !== undefined) out.reason = d.reason;
-  if (waveform !== null) out.waveform = waveform;
+  if (files !== null) {
+    out.waveform = files.qubit;
+    out.awgProgram = files.awg;
+  }
   return out;
 }

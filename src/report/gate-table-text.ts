@@ -1,34 +1,21 @@
-/** The gate table for people (gates.txt and the `gates:` block of `fluxlane plan`): units printed. */
-import type { ChipPlan } from '../plan/plan.js';
-import { ghz, khz, ns } from '../plan/format.js';
+/**
+ * The gate table for people (gates.txt and the `gates:` block of `fluxlane plan`): the columns
+ * of ./gate-columns.ts that have a title, read from plan.json, units printed and chosen by size.
+ */
+import { fieldOf, GATE_COLUMNS, textValue } from './gate-columns.js';
 
-/** The gate table for people (units printed). */
-export function gateTableText(plan: ChipPlan): string {
-  const { ctx } = plan;
-  const id = ctx.ids;
-  const head = ['edge', 'mover', 'crossing', 'interaction', 'layer', 'spectators parked', 'ZZ idle', 'ramp', 'duration', 'family', 'fidelity', 'noisy', 'ok'];
-  const rows: string[][] = plan.edges.map((e, k) => {
-    const gate = plan.gates?.[k] ?? null;
-    const d = gate?.design;
-    const dest = e.interactionGHz;
-    const ok = (gate ? gate.findings : e.findings).length === 0;
-    return [
-      ctx.edges[e.edge].key,
-      id[e.mover],
-      e.crossing,
-      Number.isFinite(dest) ? ghz(dest, 4) : '-',
-      String(plan.layers.layerOf[k]),
-      e.parked.length > 0 ? e.parked.map((p) => `${id[p.qubit]}@${ghz(p.fGHz)}`).join(' ') : '-',
-      khz(plan.parking.idle.zzGHz[e.edge]),
-      ns(d && Number.isFinite(d.rampNs) ? d.rampNs : e.rampNs),
-      Number.isFinite(d ? d.durationNs : e.durationNs) ? ns(d ? d.durationNs : e.durationNs) : '-',
-      d ? d.family : '-',
-      d && Number.isFinite(d.fidelity) ? d.fidelity.toFixed(5) : '-',
-      d && d.fidelityNoisy !== undefined && Number.isFinite(d.fidelityNoisy) ? d.fidelityNoisy.toFixed(5) : '-',
-      ok ? 'yes' : 'NO',
-    ];
-  });
+/** The gate table (aligned columns). */
+export function gateTableText(json: Record<string, unknown>): string {
+  const columns = GATE_COLUMNS.filter((c) => c.title !== null);
+  const head = columns.map((c) => c.title!);
+  const rows = (json.edges as Record<string, unknown>[]).map((e) => columns.map((c) => textValue(c, fieldOf(e, c.json))));
   const widths = head.map((h, c) => Math.max(h.length, ...rows.map((r) => r[c].length)));
   const line = (r: string[]) => r.map((x, c) => x.padEnd(widths[c])).join('  ').trimEnd();
   return [line(head), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line)].join('\n') + '\n';
+}
+
+/** gates.txt: the table and what each column is. */
+export function gateTableFile(json: Record<string, unknown>): string {
+  const legend = GATE_COLUMNS.filter((c) => c.title !== null).map((c) => `  ${c.title!.padEnd(17)} ${c.doc}`);
+  return `${gateTableText(json)}\ncolumns:\n${legend.join('\n')}\nModel estimates: verify on hardware, and respect the flux-line current limits of your wiring.\n`;
 }

@@ -8,7 +8,9 @@ import { plain, toHz, toSeconds } from '../plan/format.js';
 import { toFindingJson } from '../plan/rules/findings.js';
 import { PLAN_FORMAT, PLAN_VERSION } from '../plan/plan-read.js';
 import { gateJson } from './gate-json.js';
-import { waveformPath } from './waveform-files.js';
+import { waveformPaths, writesWaveforms } from './waveform-files.js';
+import { deviceJson } from './device-json.js';
+import { slotNs } from '../plan/rules/cz-duration.js';
 
 const nullable = (x: number, f: (v: number) => number) => (Number.isFinite(x) ? f(x) : null);
 
@@ -39,6 +41,7 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
       t1: toSeconds(s.t1Ns),
       tphi: nullable(s.tphiNs, toSeconds),
       t2: nullable(s.t2Ns, toSeconds),
+      device: deviceJson(ctx, i),
     };
   });
   const edges = plan.edges.map((e, k) => {
@@ -62,8 +65,9 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
       crossingCoupling: nullable(e.crossingCouplingGHz, toHz),
       g: nullable(e.gAtInteractionGHz, toHz),
       speedLimit: nullable(e.speedLimitNs, toSeconds),
-      duration: nullable(designed ? designed.durationNs + (e.parked.length > 0 ? 2 * e.rampNs : 0) : e.durationNs, toSeconds),
+      slotDuration: nullable(designed ? slotNs(designed.durationNs, e.parked.length > 0, e.rampNs, ctx.rules) : e.durationNs, toSeconds),
       rampTime: toSeconds(e.rampNs),
+      gMax: toHz(edge.gGHz),
       spectatorParking,
       spectatorParkingFlux,
       layer: plan.layers.layerOf[k],
@@ -87,7 +91,7 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
         interactionFrequency: o.interactionGHz === null ? null : toHz(o.interactionGHz),
         note: o.note,
       })),
-      gate: designed ? gateJson([id[edge.a], id[edge.b]], designed, designed.waveform.timeNs.length > 0 ? waveformPath(edge.key) : null) : null,
+      gate: designed ? gateJson([id[edge.a], id[edge.b]], designed, writesWaveforms(plan, k) ? waveformPaths(edge.key) : null, gate!.targetPhase) : null,
     };
   });
   const layers = plan.layers.layers.map((list, index) => ({ index, edges: list.map((k) => [id[ctx.edges[k].a], id[ctx.edges[k].b]]) }));

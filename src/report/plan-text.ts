@@ -5,7 +5,7 @@ import { ghz, mhz } from '../plan/format.js';
 import { gateTableText } from './gate-table-text.js';
 
 /** The human summary of a plan. */
-export function planText(plan: ChipPlan, file: string): string {
+export function planText(plan: ChipPlan, json: Record<string, unknown>, file: string): string {
   const { ctx } = plan;
   const lines: string[] = [];
   lines.push(`${ctx.layout.chip} (${file}): ${ctx.n} qubits, ${ctx.edges.length} couplings`);
@@ -17,7 +17,7 @@ export function planText(plan: ChipPlan, file: string): string {
     lines.push(`  ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${s.flux.toFixed(4)}  f12 ${ghz(s.f12GHz)}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`);
   });
   lines.push('gates:');
-  for (const row of gateTableText(plan).trimEnd().split('\n')) lines.push(`  ${row}`);
+  for (const row of gateTableText(json).trimEnd().split('\n')) lines.push(`  ${row}`);
   lines.push(`layers: ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound}, the largest degree)`);
   plan.layers.layers.forEach((list, k) => lines.push(`  ${k}: ${list.map((e) => ctx.edges[e].key).join(' ')}`));
   for (const b of plan.crowding.bands) lines.push(`crowded band ${bandText(b)}`);

@@ -40,7 +40,7 @@ describe('designPulses with the gate stage', () => {
     expect(Math.abs(g.design.interactionFrequencyGHz - e.interactionGHz)).toBeLessThan(0.05);
     const json = planJson(plan, { file: 'pulses.yaml', seed: 1, pulses: true });
     const edge = (json.edges as any[])[0];
-    expect(edge.gate).toMatchObject({ edge: ['A', 'B'], mover: 'A', feasible: true, waveform: 'waveforms/A-B.csv' });
+    expect(edge.gate).toMatchObject({ edge: ['A', 'B'], mover: 'A', feasible: true, waveform: 'waveforms/A-B.qubit.csv', awgProgram: 'waveforms/A-B.awg.csv' });
     expect(edge.interactionFrequency).toBeCloseTo(g.design.interactionFrequencyGHz * 1e9, 0);
     expect(plan.violations).toEqual(g.findings);
   });

@@ -8,7 +8,7 @@ import { loadLayoutFile } from '../../src/layout/load.js';
 import { planFiles } from '../../src/report/plan-files.js';
 import { planJson } from '../../src/report/plan-json.js';
 import { gateTableCsv } from '../../src/report/gate-table-csv.js';
-import { gateTableText } from '../../src/report/gate-table-text.js';
+import { gateTableFile } from '../../src/report/gate-table-text.js';
 
 describe('planFiles', () => {
   it('lists plan.json, gates.csv and gates.txt (no waveforms without pulse design) built from the same plan', () => {
@@ -19,6 +19,6 @@ describe('planFiles', () => {
     expect(JSON.parse(files[0].contents)).toEqual(JSON.parse(JSON.stringify(json)));
     expect(files[0].contents.endsWith('}\n')).toBe(true);
     expect(files[1].contents).toBe(gateTableCsv(json));
-    expect(files[2].contents).toBe(gateTableText(plan));
+    expect(files[2].contents).toBe(gateTableFile(json));
   });
 });

@@ -104,7 +104,7 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   const written = files.length > 0 ? `\nwrote ${files.map((f) => f.path).join(', ')}` : '';
   return {
     data: json,
-    text: `${planText(plan, layout.file)}${written}`,
+    text: `${planText(plan, json, layout.file)}${written}`,
     exitCode: plan.violations.length === 0 ? 0 : 1,
     files: files.length > 0 ? files : undefined,
   };
