@@ -1,5 +1,6 @@
 /**
- * Reading a plan.json back (for `fluxlane verify`; written by src/report/plan-json.ts): JSON syntax errors and schema problems become
+ * Reading a plan.json back (for `fluxlane verify`, the per-edge commands' `--plan` and
+ * `fluxlane plan --from`; written by src/report/plan-json.ts): JSON syntax errors and schema problems become
  * an InputError naming file:line:column, what was expected and what was found. Only the fields
  * verify needs are required (a plan edited by hand may drop the derived ones); unknown fields are
  * kept. Positions of schema problems come from the yaml package's source map of the same text
@@ -18,10 +19,14 @@ export const PLAN_VERSION = 1;
 const hz = z.number({ error: () => 'a frequency in Hz (a number)' }).positive({ error: () => 'a positive frequency in Hz' });
 
 const GateSchema = z.looseObject({
+  family: z.string({ error: () => 'a ramp family name' }).optional(),
   crossingOffset: z.number({ error: () => 'a frequency offset in Hz (a number)' }).nullable().optional(),
   rampTime: z.number({ error: () => 'a ramp time in s (a number)' }).positive().nullable().optional(),
   duration: z.number({ error: () => 'a duration in s (a number)' }).positive().nullable().optional(),
+  targetPhase: z.number({ error: () => 'a phase in rad (a number)' }).nullable().optional(),
   waveform: z.string().optional(),
+  awgProgram: z.string().optional(),
+  fidelityNoisyMethod: z.enum(['lindblad', 'estimate']).nullable().optional(),
   feasible: z.boolean().optional(),
   reason: z.string().optional(),
 });
@@ -33,6 +38,7 @@ const EdgeSchema = z.looseObject({
   interactionFrequency: hz.nullable(),
   crossingFrequency: hz.nullable().optional(),
   spectatorParking: z.record(z.string(), hz, { error: () => 'an object from qubit id to frequency in Hz' }).default({}),
+  spectatorParkingFlux: z.record(z.string(), z.number(), { error: () => 'an object from qubit id to flux in Phi0' }).optional(),
   layer: z.number({ error: () => 'a layer index (an integer >= 0)' }).int({ error: () => 'a layer index (an integer >= 0)' }).min(0, { error: () => 'a layer index (an integer >= 0)' }),
   rampTime: z.number({ error: () => 'a ramp time in s (a number)' }).positive({ error: () => 'a positive ramp time in s' }),
   gate: GateSchema.nullable().optional(),
@@ -41,7 +47,7 @@ const EdgeSchema = z.looseObject({
 const PlanSchema = z.looseObject({
   format: z.literal(PLAN_FORMAT, { error: () => `"${PLAN_FORMAT}"` }),
   version: z.literal(PLAN_VERSION, { error: () => `version ${PLAN_VERSION}` }),
-  qubits: z.record(z.string(), z.looseObject({ parkingFrequency: hz }), { error: () => 'an object from qubit id to { parkingFrequency }' }),
+  qubits: z.record(z.string(), z.looseObject({ parkingFrequency: hz, parkingFlux: z.number({ error: () => 'a flux in Phi0 (a number)' }).optional() }), { error: () => 'an object from qubit id to { parkingFrequency }' }),
   edges: z.array(EdgeSchema, { error: () => 'a list of edges' }),
 });
 

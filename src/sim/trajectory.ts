@@ -49,6 +49,19 @@ export function fluxAt(t: Trajectory, tNs: number): number {
   return t.flux[lo] + f * (t.flux[hi] - t.flux[lo]);
 }
 
+/**
+ * The same piecewise-linear trajectory with each run of equal samples reduced to its two ends
+ * (a plateau is one constant segment: the simulator then takes it as one exact hold instead of
+ * many short ones; the flux at every time is unchanged).
+ */
+export function mergePlateaus(t: Trajectory): Trajectory {
+  const n = t.timeNs.length;
+  const keep: number[] = [];
+  for (let j = 0; j < n; j++) if (j === 0 || j === n - 1 || t.flux[j] !== t.flux[j - 1] || t.flux[j] !== t.flux[j + 1]) keep.push(j);
+  if (keep.length === n) return t;
+  return { timeNs: Float64Array.from(keep, (j) => t.timeNs[j]), flux: Float64Array.from(keep, (j) => t.flux[j]) };
+}
+
 /** Tolerance for "starts and ends at the same flux". */
 export const SAME_FLUX_TOLERANCE = 1e-12;
 
