@@ -22,12 +22,13 @@ import { registerGate } from './commands/gate.js';
 import { registerSpectrum } from './commands/spectrum.js';
 import { registerPlan } from './commands/plan.js';
 import { registerVerify } from './commands/verify.js';
+import { registerDiff } from './commands/diff.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify];
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify, registerDiff];
 
 function packageVersion(): string {
   try {

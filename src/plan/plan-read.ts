@@ -100,6 +100,26 @@ export function readPlan(text: string, file: string, layout: ChipLayout): PlanIn
   return parsed.data!;
 }
 
+/**
+ * A plan.json as a plain document, without a layout to check it against (for `fluxlane diff`):
+ * JSON syntax errors with file:line:column, and the format and version checked.
+ */
+export function readPlanDocument(text: string, file: string): Record<string, unknown> {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    const { line, column } = jsonErrorPosition(text, message);
+    throw new InputError({ file, line, column, message: `expected JSON (a plan.json written by fluxlane plan), found a syntax error: ${message.replace(/ in JSON at position \d+.*$/, '').replace(/^JSON\.parse: /, '')}` });
+  }
+  const doc = raw as Record<string, unknown>;
+  if (!doc || typeof doc !== 'object' || Array.isArray(doc) || doc.format !== PLAN_FORMAT || doc.version !== PLAN_VERSION || typeof doc.qubits !== 'object' || !Array.isArray(doc.edges)) {
+    throw new InputError({ file, message: `expected a plan.json written by fluxlane plan (format "${PLAN_FORMAT}", version ${PLAN_VERSION}, with qubits and edges), found ${Array.isArray(raw) ? 'a list' : typeof raw === 'object' && raw !== null ? `format ${JSON.stringify(doc.format)}, version ${JSON.stringify(doc.version)}` : typeof raw}` });
+  }
+  return doc;
+}
+
 /** 1-based line and column of a JSON.parse error (V8 reports a character position or line/column). */
 export function jsonErrorPosition(text: string, message: string): { line: number; column: number } {
   const lc = /line (\d+) column (\d+)/.exec(message);

@@ -40,10 +40,14 @@ export interface PulseOptions {
   spectators?: boolean;
 }
 
-export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void): void {
+/**
+ * `given`: designs to use instead of designing (by edge index; re-planning keeps the designs of
+ * the edges it keeps, src/plan/replan/); they are checked where they go like the others.
+ */
+export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void, given?: readonly (GateDesign | null | undefined)[]): void {
   let done = 0;
-  const designs = plan.edges.map((e) => {
-    const d = Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
+  const designs = plan.edges.map((e, k) => {
+    const d = given?.[k] ? given[k]! : Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
     progress?.(++done, plan.edges.length);
     return d;
   });
@@ -70,9 +74,10 @@ export async function designPulsesInParallel(
   workers: { threads: number; minDesigns?: number },
   options: PulseOptions = {},
   progress?: (done: number, total: number) => void,
+  given?: readonly (GateDesign | null | undefined)[],
 ): Promise<{ fallback?: string }> {
   const { threads, minDesigns = MIN_DESIGNS_FOR_WORKERS } = workers;
-  const edges = plan.edges.map((e, k) => ({ e, k })).filter(({ e }) => Number.isFinite(e.interactionGHz));
+  const edges = plan.edges.map((e, k) => ({ e, k })).filter(({ e, k }) => Number.isFinite(e.interactionGHz) && !given?.[k]);
   const requests = edges.map(({ e }) => gateRequest(plan, e, options));
   const skipped = plan.edges.length - edges.length;
   let pooled: PooledDesign[] | null = null;
@@ -86,7 +91,7 @@ export async function designPulsesInParallel(
       fallback = err instanceof Error ? err.message.split('\n')[0] : String(err);
     }
   }
-  const designs: (GateDesign | null)[] = plan.edges.map(() => null);
+  const designs: (GateDesign | null)[] = plan.edges.map((_, k) => given?.[k] ?? null);
   edges.forEach(({ e, k }, j) => {
     const p = pooled?.[j];
     designs[k] = designOrFailure(plan, e, () => {

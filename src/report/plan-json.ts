@@ -9,12 +9,12 @@ import { toFindingJson } from '../plan/rules/findings.js';
 import { PLAN_FORMAT, PLAN_VERSION } from '../plan/plan-read.js';
 import { gateJson } from './gate-json.js';
 import { waveformPaths, writesWaveforms } from './waveform-files.js';
-import { deviceJson } from './device-json.js';
+import { deviceJson, rulesJson } from './device-json.js';
 import { slotNs } from '../plan/rules/cz-duration.js';
 
 const nullable = (x: number, f: (v: number) => number) => (Number.isFinite(x) ? f(x) : null);
 
-export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pulses: boolean }): Record<string, unknown> {
+export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pulses: boolean; replan?: Record<string, unknown> }): Record<string, unknown> {
   const { ctx } = plan;
   const id = ctx.ids;
   const qubits: Record<string, unknown> = {};
@@ -104,6 +104,7 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     ok: plan.violations.length === 0,
     pulses: meta.pulses,
     note: 'Model estimates: verify every frequency, pulse and fidelity on the hardware and respect the flux-line current limits of your wiring.',
+    rules: rulesJson(ctx.rules),
     qubits,
     edges,
     layers,
@@ -115,5 +116,6 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     flags: plan.flags.map(toFindingJson),
     explanations: plan.explanations,
     search: plan.parking.stats,
+    ...(meta.replan ? { replan: meta.replan } : {}),
   };
 }

@@ -3,6 +3,7 @@ import type { ChipPlan } from '../plan/plan.js';
 import { bandText } from '../plan/crowding.js';
 import { ghz, mhz } from '../plan/format.js';
 import { gateTableText } from './gate-table-text.js';
+import { wrapLine } from '../util/wrap.js';
 
 /** The human summary of a plan. */
 export function planText(plan: ChipPlan, json: Record<string, unknown>, file: string): string {
@@ -20,10 +21,15 @@ export function planText(plan: ChipPlan, json: Record<string, unknown>, file: st
   for (const row of gateTableText(json).trimEnd().split('\n')) lines.push(`  ${row}`);
   lines.push(`layers: ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound}, the largest degree)`);
   plan.layers.layers.forEach((list, k) => lines.push(`  ${k}: ${list.map((e) => ctx.edges[e].key).join(' ')}`));
+  const replan = json.replan as { from: string; mode: string; keptEdges: number; keptDesigns: number; changes: { message: string }[] } | undefined;
+  if (replan) {
+    lines.push(`re-planned from ${replan.from}${replan.mode === 'edges' ? ' (named edges only)' : ''}: ${replan.keptEdges} of ${ctx.edges.length} edges kept (${replan.keptDesigns} designs), ${replan.changes.length} change(s):`);
+    for (const c of replan.changes) lines.push(wrapLine(`  ${c.message}`, '      '));
+  }
   for (const b of plan.crowding.bands) lines.push(`crowded band ${bandText(b)}`);
-  for (const x of plan.explanations) lines.push(`${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`);
-  for (const v of plan.violations) lines.push(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`);
-  for (const f of plan.flags) lines.push(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`);
+  for (const x of plan.explanations) lines.push(wrapLine(`${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`));
+  for (const v of plan.violations) lines.push(wrapLine(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`));
+  for (const f of plan.flags) lines.push(wrapLine(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`));
   lines.push(
     plan.violations.length === 0
       ? `ok: every rule holds; ${plan.flags.length} flag(s). Model estimates: verify on hardware, respect flux-line current limits.`
