@@ -6,6 +6,7 @@
  * measured differently.
  */
 import type { PlanContext } from './context.js';
+import type { TransmonSpec } from '../layout/types.js';
 
 export type DeviceKind = 'frequency' | 'time' | 'number';
 
@@ -18,17 +19,17 @@ export interface DeviceField {
   name: string;
   /** Its value for qubit i (internal units), undefined when the layout gives none. */
   of(ctx: PlanContext, i: number): number | undefined;
-  /** The transmon forms of the layout that give it directly (else it is derived from those that do). */
-  givenBy?: readonly ('energies' | 'frequencies' | 'resistance')[];
+  /** True when the layout gives it directly (else it follows from the values it does give); absent: always given. */
+  given?: (spec: TransmonSpec) => boolean;
 }
 
 export const DEVICE_FIELDS: readonly DeviceField[] = [
-  { key: 'fMax', kind: 'frequency', name: 'maximum frequency', of: (c, i) => c.transmons[i].fMaxGHz, givenBy: ['frequencies'] },
-  { key: 'fMin', kind: 'frequency', name: 'minimum frequency', of: (c, i) => c.transmons[i].fMinGHz, givenBy: ['frequencies'] },
-  { key: 'anharmonicity', kind: 'frequency', name: 'anharmonicity at the maximum', of: (c, i) => c.transmons[i].anharmonicityMaxGHz, givenBy: ['frequencies'] },
-  { key: 'ec', kind: 'frequency', name: 'E_C', of: (c, i) => c.transmons[i].ecGHz, givenBy: ['energies', 'resistance'] },
-  { key: 'ejMax', kind: 'frequency', name: 'E_J at zero flux', of: (c, i) => c.transmons[i].ejsGHz, givenBy: ['energies', 'resistance'] },
-  { key: 'asymmetry', kind: 'number', name: 'SQUID asymmetry', of: (c, i) => c.transmons[i].asymmetry, givenBy: ['energies', 'frequencies', 'resistance'] },
+  { key: 'fMax', kind: 'frequency', name: 'maximum frequency', of: (c, i) => c.transmons[i].fMaxGHz, given: (t) => t.kind === 'frequencies' },
+  { key: 'fMin', kind: 'frequency', name: 'minimum frequency', of: (c, i) => c.transmons[i].fMinGHz, given: (t) => t.kind === 'frequencies' && t.fMinGHz !== undefined },
+  { key: 'anharmonicity', kind: 'frequency', name: 'anharmonicity at the maximum', of: (c, i) => c.transmons[i].anharmonicityMaxGHz, given: (t) => t.kind === 'frequencies' },
+  { key: 'ec', kind: 'frequency', name: 'E_C', of: (c, i) => c.transmons[i].ecGHz, given: (t) => t.kind !== 'frequencies' },
+  { key: 'ejMax', kind: 'frequency', name: 'E_J at zero flux', of: (c, i) => c.transmons[i].ejsGHz, given: (t) => t.kind === 'energies' },
+  { key: 'asymmetry', kind: 'number', name: 'SQUID asymmetry', of: (c, i) => c.transmons[i].asymmetry, given: (t) => t.kind === 'energies' || t.asymmetry !== undefined },
   { key: 't1', kind: 'time', name: 'T1', of: (c, i) => c.qubits[i].t1Ns },
   { key: 'tphi', kind: 'time', name: 'white T_phi', of: (c, i) => c.qubits[i].tphiNs },
   { key: 'fluxNoise', kind: 'number', name: 'flux noise (Phi0/sqrt(Hz))', of: (c, i) => c.qubits[i].fluxNoisePhi0 },

@@ -37,14 +37,13 @@ function sized(value: number, ladder: readonly (readonly [number, string])[], si
     }
   }
   if (value === 0) k = Math.max(0, ladder.findIndex(([f]) => f === 1));
-  const text = (i: number): string => {
+  const text = (i: number, decimals?: number): string => {
     const x = value * ladder[i][0];
-    const decimals = x === 0 ? sig - 1 : Math.max(0, sig - 1 - Math.floor(Math.log10(Math.abs(x))));
-    return x.toFixed(decimals);
+    return x.toFixed(decimals ?? (x === 0 ? sig - 1 : Math.max(0, sig - 1 - Math.floor(Math.log10(Math.abs(x))))));
   };
   let s = text(k);
-  // rounding up to 1000 (999.96 MHz at 3 digits) reads better one unit up
-  if (k > 0 && Math.abs(Number(s)) >= 1000) s = text(--k);
+  // rounding up to 1000 (999.96 MHz at 3 digits) reads better one unit up, where it is 1.00
+  if (k > 0 && Math.abs(Number(s)) >= 1000) s = text(--k, sig - 1);
   return `${s} ${ladder[k][1]}`;
 }
 

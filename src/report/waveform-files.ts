@@ -16,10 +16,12 @@
  * AWG intervals), N_s = the plan's ramp on the AWG grid. Slot time 0 to d: everything parked;
  * d to d + N_s: spectators move out, linearly in frequency from parking to their temporary point
  * (the sweep rate the plan's rules assume); then the mover's program; then the spectators move
- * back in N_s; then d parked. The slot lasts gate duration + 2 N_s (the plan's slot duration),
- * and the qubit file's t = 0 is slot time N_s / f_s (the mover's program starts d later, which
- * the line model takes to respond). The spectators' filtered moves overlap the first and last d
- * of the mover's, where each is within the Gaussian's tails of its end points.
+ * back in N_s; then d parked. The slot lasts gate duration + 2 N_s (the plan's slot duration).
+ * The line model is a centred Gaussian (src/gate/pulse.ts): the qubit file's sample at t is its
+ * output for the slot program at slot time t + N_s / f_s (the mover's program starts d later,
+ * where the filtered ramp begins to move; a real line adds its own delay). The spectators'
+ * filtered moves overlap the first and last d of the mover's, where each is within the
+ * Gaussian's tails of its end points.
  */
 import type { ChipPlan } from '../plan/plan.js';
 import { formatTrajectoryCsv } from '../sim/trajectory.js';
@@ -116,7 +118,7 @@ export function qubitFluxCsv(plan: ChipPlan, k: number): string {
   const line = r.fluxBandwidthGHz ? `after the line model (Gaussian filter, -3 dB at ${number(r.fluxBandwidthGHz)} GHz)` : 'the AWG samples joined linearly (no line model)';
   const head = [
     `# fluxlane: flux ${ctx.ids[e.mover]} sees during the CZ on ${key}, ${line}`,
-    `# uniform grid ${number(rate)} GS/s, ${w.timeNs.length} samples; t = 0 is slot time ${number(offset)} ns of ${waveformPaths(key).awg}; flux in Phi0`,
+    `# uniform grid ${number(rate)} GS/s, ${w.timeNs.length} samples, flux in Phi0; the sample at t is the line model (a centred Gaussian) applied to ${waveformPaths(key).awg} at its time t + ${number(offset)} ns`,
     '# the plan\'s gate metrics are those of these samples joined piecewise-linearly (fluxlane simulate --plan reads this file)',
   ];
   return head.join('\n') + '\n' + formatTrajectoryCsv(w, 'flux_phi0');

@@ -6,6 +6,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { compareCheck, compareTables, planDemo, resimulateEveryEdge, type PlannedDemo } from '../support/one-plan.js';
 import { GATE_COLUMNS } from '../../src/report/gate-columns.js';
+import { planSchemaErrors } from '../support/plan-schema.js';
 
 let demo: PlannedDemo;
 beforeAll(async () => {
@@ -18,6 +19,10 @@ describe('one plan for every command: Bowline-5', () => {
     expect(r.simulated).toBe(demo.plan.edges.filter((e: any) => e.feasible).length);
     expect(r.simulated).toBe(4);
   }, 120_000);
+
+  it('the plan with its designs follows shared/plan.schema.json', () => {
+    expect(planSchemaErrors(demo.plan)).toBe('');
+  });
 
   it('gates.csv, gates.txt and plan.json carry the same numbers, field by field', () => {
     expect(compareTables(demo, GATE_COLUMNS)).toBeGreaterThan(demo.plan.edges.length * GATE_COLUMNS.length);

@@ -10,6 +10,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { runFluxlane } from '../support/cli.js';
+import { planSchemaErrors } from '../support/plan-schema.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'fluxlane-replan-'));
 const read = (p: string) => JSON.parse(readFileSync(join(dir, p), 'utf8'));
@@ -62,6 +63,7 @@ describe('plan MEASURED.yaml --from OLD/plan.json (Clove-17, D3 measured 40 MHz 
       a.forEach((row, j) => row.forEach((x, c) => expect(Math.abs(x - b[j][c]), `${e.gate.awgProgram} sample ${j}`).toBeLessThan(1e-9)));
     }
     expect(after.replan.keptEdges).toBe(22);
+    expect(planSchemaErrors(after)).toBe('');
     expect(after.replan.keptDesigns).toBe(22);
   });
 

@@ -50,7 +50,7 @@ export function measuredChanges(ctx: PlanContext, old: PlanInput): MeasuredChang
       const v = f.of(ctx, i);
       const to = v === undefined ? null : deviceToSi(f.kind, v);
       const from = typeof device[f.key] === 'number' ? (device[f.key] as number) : null;
-      const derived = f.givenBy !== undefined && !f.givenBy.includes(ctx.qubits[i].transmon.kind);
+      const derived = f.given !== undefined && !f.given(ctx.qubits[i].transmon);
       if (!same(from, to)) qubits[i].push({ subject: id, field: f.key, name: f.name, kind: f.kind, from, to, ...(derived ? { derived } : {}) });
     }
     const tls = (list: { at: number; width: number }[]) => list.map((d) => `${(d.at * 1e-9).toFixed(6)} GHz +- ${(d.width * 1e-6).toFixed(3)} MHz`).join(', ') || 'none';
