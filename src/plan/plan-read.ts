@@ -1,6 +1,7 @@
 /**
  * Reading a plan.json back (for `fluxlane verify`, the per-edge commands' `--plan` and
- * `fluxlane plan --from`; written by src/report/plan-json.ts): JSON syntax errors and schema problems become
+ * `fluxlane plan --from`; written by src/report/plan-json.ts): JSON syntax errors and schema
+ * problems become
  * an InputError naming file:line:column, what was expected and what was found. Only the fields
  * verify needs are required (a plan edited by hand may drop the derived ones); unknown fields are
  * kept. Positions of schema problems come from the yaml package's source map of the same text

@@ -196,6 +196,6 @@ export function registerGate(program: Command, io: CliIo): void {
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
       .option('--noise', 'add decoherence and report fidelityNoisy')
-      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux) for fluxlane simulate'),
+      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux_phi0: the flux the mover sees) for fluxlane simulate'),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => gateCommand(ctx, layout, options)));
 }

@@ -3,9 +3,12 @@
  * interaction plan per edge with spectator handling, parallel layers, crowding, and (unless
  * --no-pulses) a CZ design per edge from the gate stage (src/plan/pulses.ts). With -o it writes
  * the files of src/report/plan-files.ts: DIR/plan.json (schema: shared/plan.schema.json),
- * DIR/gates.csv (one row per edge), DIR/gates.txt (the same table for people) and
- * DIR/waveforms/A-B.csv (time_ns,flux of each designed gate). Exit 1 when a rule is broken (the
- * files are still complete and say so).
+ * DIR/gates.csv (one row per edge), DIR/gates.txt (the same table for people) and, per edge
+ * whose designed gate breaks no rule, DIR/waveforms/A-B.awg.csv (the AWG program of its slot) and
+ * DIR/waveforms/A-B.qubit.csv (the flux the mover sees). With --from OLD.json it re-plans from an
+ * earlier plan (src/plan/replan/replan.ts): only the --edges named, or, on a re-measured layout,
+ * everything that no longer holds. Exit 1 when a rule is broken (the files are still complete and
+ * say so).
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
@@ -130,7 +133,7 @@ export function registerPlan(program: Command, io: CliIo): void {
       .command('plan')
       .description('plan parking and interaction frequencies, spectator moves, CZ pulses and parallel layers for a chip (model estimates: verify on hardware)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder')
+      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and the waveform files (waveforms/A-B.awg.csv, A-B.qubit.csv) to this folder')
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
       .option('--family <name>', 'CZ ramp family for every edge (default: the gate stage\'s best-performing one)')

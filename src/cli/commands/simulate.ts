@@ -1,18 +1,23 @@
 /**
- * `fluxlane simulate LAYOUT --edge A-B [--mover A] --trajectory FILE.csv [--static-flux F]
- * [--levels K] [--spectator ID ...] [--noise] [--json]`: simulate one CZ trajectory of an edge
- * (README physics conventions secs. 2-4 and 6) and report its gate metrics.
+ * `fluxlane simulate LAYOUT --edge A-B [--plan PLAN.json] [--mover A] [--trajectory FILE.csv]
+ * [--static-flux F] [--levels K] [--spectator ID ...] [--noise [lindblad|estimate]] [--json]`:
+ * simulate one CZ trajectory of an edge (README physics conventions secs. 2-4 and 6) and report
+ * its gate metrics.
  *
- * The trajectory file is the mover's flux against time (header `time_ns,flux`, samples joined
- * piecewise-linearly, first flux = last flux = the parking point). The static qubit sits at
- * --static-flux, else at its layout `park` frequency, else at Phi = 0. Spectators (neighbours of
- * either edge qubit) can be added as third transmons at their park value (else Phi = 0); the
- * metrics are then those of the pair with the spectators in their ground state.
+ * The trajectory file is the mover's flux against time (header `time_ns,flux_phi0` or
+ * `time_ns,flux`, samples joined piecewise-linearly, first flux = last flux = the parking point;
+ * runs of equal samples are simulated as one exact hold). With --plan the mover, the static
+ * qubit's parking, the spectators' fluxes during the gate (their temporary point when the plan
+ * moves them), the target phase and, without --trajectory, the plan's own waveform of the gate
+ * (waveforms/A-B.qubit.csv) come from the plan; options override. Without a plan the static qubit
+ * sits at --static-flux, else at its layout `park` frequency, else at Phi = 0 (said to be
+ * assumed). Spectators (neighbours of either edge qubit) are third transmons in their ground
+ * state.
  *
- * JSON (SI: rad, s; flux in Phi0): { edge, mover, staticFlux, duration, levels, conditionalPhase,
- * leakage, fidelity, fidelityNoisy (with --noise), decoherenceEstimate (with --noise), virtualZ: {a, b},
- * M: 4 x 4 of [re, im] (order 00, 01, 10, 11 = |AB>, A the mover, lab frame), populations:
- * {"20", "02"}, steps }.
+ * JSON (SI: rad, s; flux in Phi0): { edge, mover, trajectory, staticFlux, fluxes, targetPhase,
+ * duration, levels, conditionalPhase, leakage, fidelity, fidelityNoisy, fidelityNoisyMethod and
+ * decoherenceEstimate (with --noise), virtualZ: {a, b}, M: 4 x 4 of [re, im] (order 00, 01, 10,
+ * 11 = |AB>, A the mover, lab frame), populations: {"20", "02"}, steps, plan? }.
  */
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
