@@ -16,7 +16,7 @@ import { parseTrajectoryCsv } from '../sim/trajectory.js';
 import { buildPlanContext, type PlanContext } from './context.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
-import { fromHz, ghz, khz } from './format.js';
+import { freq, fromHz, ghz } from './format.js';
 import type { EdgePlan, ParkedSpectator } from './interaction/plan-edge.js';
 import { gatesConflict, movedQubits } from './layers.js';
 import type { PlanInput } from './plan-read.js';
@@ -72,7 +72,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     const stated = pe.crossingFrequency != null ? fromHz(pe.crossingFrequency) : null;
     if (stated !== null && Math.abs(stated - crossing) > tol) {
       violations.push({ rule: 'cz-crossing', qubits: [pe.mover, ctx.ids[partner]], value: stated, threshold: crossing, edge: key,
-        message: `${key}: the plan's ${pe.crossing} crossing ${ghz(stated, 6)} no longer matches the parking frequencies (now ${ghz(crossing, 6)}, ${khz(stated - crossing)} off); re-plan this edge` });
+        message: `${key}: the plan's ${pe.crossing} crossing ${ghz(stated, 6)} no longer matches the parking frequencies (now ${ghz(crossing, 6)}, ${freq(stated - crossing)} off); re-plan this edge` });
     }
     // Without a designed gate the interaction point is the crossing itself; a designed gate sits
     // at its own offset from the exact (dressed) crossing, which the stated crossing pins down.

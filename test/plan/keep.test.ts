@@ -11,11 +11,11 @@ import { loadLayoutFile } from '../../src/layout/load.js';
 
 const layout = loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml');
 const base = planChip(layout);
-const parking = Object.fromEntries(base.ctx.ids.map((q, i) => [q, base.parking.parkingGHz[i]]));
+const parking: Record<string, number> = Object.fromEntries(base.ctx.ids.map((q, i) => [q, base.parking.parkingGHz[i]]));
 
 describe('keep: parking from an earlier plan', () => {
   it('pin: every kept frequency is the plan\'s parking, bit for bit, also one that breaks a rule (reported)', () => {
-    const moved = { ...parking, X1: parking.X3 + 0.005 }; // X1 and X3 share D2: 30 MHz needed (next-01-01)
+    const moved: Record<string, number> = { ...parking, X1: parking.X3 + 0.005 }; // X1 and X3 share D2: 30 MHz needed (next-01-01)
     const p = planChip(layout, { keep: { parkingGHz: moved, mode: 'pin' } });
     p.ctx.ids.forEach((q, i) => expect(p.parking.parkingGHz[i], q).toBe(moved[q]));
     expect(p.violations.some((v) => v.rule === 'next-01-01' && v.qubits.includes('X1') && v.qubits.includes('X3'))).toBe(true);
@@ -28,7 +28,7 @@ describe('keep: parking from an earlier plan', () => {
   });
 
   it('prefer: a kept frequency that breaks a rule gives way; every other qubit keeps its frequency', () => {
-    const moved = { ...parking, X1: parking.X3 + 0.005 };
+    const moved: Record<string, number> = { ...parking, X1: parking.X3 + 0.005 };
     const p = planChip(layout, { keep: { parkingGHz: moved, mode: 'prefer' } });
     const changed = p.ctx.ids.filter((q, i) => Math.abs(p.parking.parkingGHz[i] - moved[q]) > 1e-6);
     expect(changed.length).toBe(1);

@@ -31,6 +31,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { integerOption, parseOptions, withCommonOptions } from '../options.js';
 import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { freq } from '../../plan/format.js';
 import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption } from '../plan-option.js';
 
 export const PAIR_CLI_DEFAULTS = Object.freeze({ points: 201, levels: 6 });
@@ -146,9 +147,6 @@ function mapResonances<T>(r: PairResonances, f: (x: NonNullable<PairResonances['
   return out;
 }
 
-function khz(xGHz: number): string {
-  return `${(xGHz * 1e6).toFixed(3)} kHz`;
-}
 
 function pairText(
   qa: Transmon,
@@ -166,7 +164,7 @@ function pairText(
 ): string {
   const lines = [
     `${qa.id}-${qb.id} (mover ${mover.id}): ${qa.id} at ${fluxA.toFixed(4)} Phi0 (f01 ${f01A.toFixed(6)} GHz), ${qb.id} at ${fluxB.toFixed(4)} Phi0 (f01 ${f01B.toFixed(6)} GHz)`,
-    `  g = ${(gGHz * 1e3).toFixed(4)} MHz at these fluxes, static ZZ = ${khz(zzGHz)}`,
+    `  g = ${(gGHz * 1e3).toFixed(4)} MHz at these fluxes, static ZZ = ${freq(zzGHz, 4)}`,
     `  dressed levels |${qa.id} ${qb.id}> relative to |00>:`,
   ];
   for (const [i, j] of [[0, 1], [1, 0], [1, 1], [2, 0], [0, 2]] as const) lines.push(`    |${i}${j}>  ${level(i, j).toFixed(6)} GHz`);
