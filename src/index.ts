@@ -12,6 +12,7 @@ export * from './pair/index.js';
 export * from './sim/index.js';
 export * from './gate/index.js';
 export * from './plan/index.js';
+export * from './report/index.js';
 export * from './report/html/index.js';
 export { buildProgram, runCli, COMMANDS, type CommandRegistration } from './cli/main.js';
 export { memoryIo, processIo, type CliIo, type MemoryIo } from './cli/io.js';

@@ -23,12 +23,13 @@ import { registerSpectrum } from './commands/spectrum.js';
 import { registerPlan } from './commands/plan.js';
 import { registerVerify } from './commands/verify.js';
 import { registerReport } from './commands/report.js';
+import { registerDiff } from './commands/diff.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify,
+export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify, registerDiff,
   registerReport,
 ];
 

@@ -29,7 +29,7 @@ import type { CrossingName, EdgeContext } from './context.js';
 import { exactCrossing } from './crossing.js';
 import { RampInfeasible, rampFamily, RAMP_FAMILIES, type Ramp, type RampFamily } from './families/index.js';
 import { HoldScan } from './hold-scan.js';
-import { lineDelayNs, pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
+import { awgSamples, lineDelayNs, pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
 import { bestHold, HOLD_SCAN_DEFAULTS, phaseMiss, searchOffset, type HoldSolution } from './tune.js';
 import { TwoLevelTable } from './two-level-table.js';
 
@@ -97,6 +97,13 @@ export interface GateDesign {
   idleErrorEstimate: number;
   /** Simulations run while tuning (for profiling). */
   evaluations: number;
+  /**
+   * The AWG program the waveform comes from: samples at `sampleRateGHz` (flux in Phi0, the last
+   * at parking), what the generator plays before the line. `waveform` is this program through the
+   * line model, on its clock shifted by `lineDelayNs` (waveform time = AWG time + lineDelayNs).
+   * Empty when no design was made.
+   */
+  awg?: { sampleRateGHz: number; lineDelayNs: number; flux: Float64Array };
 }
 
 export const DEFAULT_FAMILY = 'fast-adiabatic';
@@ -241,6 +248,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     populations: { '20': NaN, '02': NaN },
     idleErrorEstimate: NaN,
     evaluations: 0,
+    awg: { sampleRateGHz: req.rules.sampleRateGHz, lineDelayNs: lineDelayNs(req.rules.sampleRateGHz, req.rules.fluxBandwidthGHz), flux: new Float64Array(0) },
   });
   // 1. Bare resonance on the mover's branch, oriented to the parking flux's sign.
   const res = pairResonances(mover, partner, req.partnerFlux, gCharge)[req.crossing];
@@ -401,7 +409,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     ({ hold, traj } = bestSeen);
     // the metrics of the waveform as exported: the full propagator
     sim = simulateWave(traj, false, !!req.noise);
-    return { hold, traj, sim, best };
+    return { hold, traj, sim, best, awg: awgSamples({ ...best.shape, holdNs: hold }, { sampleRateGHz: req.rules.sampleRateGHz, minIntervals: intervals }) };
   };
   let realised = realise(found);
   // The in-block tuning model leaves out the inter-manifold (squeezing) transitions; when the
@@ -448,6 +456,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     idleErrorEstimate: errorPerNs * (traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0]),
     ...common,
     evaluations,
+    awg: { sampleRateGHz: req.rules.sampleRateGHz, lineDelayNs: delayNs, flux: realised.awg },
   };
 }
 

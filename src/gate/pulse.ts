@@ -91,13 +91,34 @@ export interface WaveformOptions {
   fineGrid?: boolean;
 }
 
-/** The sampled (and filtered) waveform of a pulse. */
-export function sampleWaveform(p: PulseShape, o: WaveformOptions): Trajectory {
+/**
+ * The AWG program of a pulse: its samples x_k = flux(k / f_s), k = 0..N (the last at parking),
+ * what the generator plays before the line. sampleWaveform joins them and passes them through it.
+ */
+export function awgSamples(p: PulseShape, o: Pick<WaveformOptions, 'sampleRateGHz' | 'minIntervals'>): Float64Array {
   const fs = o.sampleRateGHz;
   const T = pulseDuration(p);
   const n = Math.max(1, Math.ceil(T * fs - 1e-9), o.minIntervals ?? 0);
   const x = new Float64Array(n + 1);
   for (let k = 0; k <= n; k++) x[k] = k === n ? p.parkFlux : pulseFlux(p, k / fs);
+  return x;
+}
+
+/**
+ * Sample rate of the waveform sampleWaveform returns (GHz): the filter's fine grid m f_s through
+ * a band-limited line (fine grid), else the AWG rate. Its samples all lie on this uniform grid
+ * (plateaus keep only their ends).
+ */
+export function waveformGridRateGHz(sampleRateGHz: number, bandwidthGHz?: number, fineGrid = true): number {
+  if (bandwidthGHz === undefined || !(bandwidthGHz > 0) || !fineGrid) return sampleRateGHz;
+  return Math.max(1, Math.ceil(FILTERED_GRID_MIN_RATE_GHZ / sampleRateGHz - 1e-9)) * sampleRateGHz;
+}
+
+/** The sampled (and filtered) waveform of a pulse. */
+export function sampleWaveform(p: PulseShape, o: WaveformOptions): Trajectory {
+  const fs = o.sampleRateGHz;
+  const x = awgSamples(p, o);
+  const n = x.length - 1;
   if (o.bandwidthGHz !== undefined && o.bandwidthGHz > 0) return filterThroughLine(x, fs, o.bandwidthGHz, p.parkFlux, p.parkFlux, o.fineGrid ?? true);
   const t = new Float64Array(x.length);
   for (let k = 0; k < x.length; k++) t[k] = k / fs;

@@ -12,6 +12,7 @@ import { ghz, mhz, plain, toHz } from './format.js';
 import { planChip, type ChipPlan } from './plan.js';
 import type { PlanOptionsInput } from './options.js';
 import { toFindingJson, type FindingJson } from './rules/findings.js';
+import { wrapLine } from '../util/wrap.js';
 
 export interface ChipCheck {
   plan: ChipPlan;
@@ -62,8 +63,14 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
     `  ${'interactions'.padEnd(20)} ${feasible} of ${edges.length} edges clear every CZ rule; ${parkedCount} spectator move(s)`,
     `  ${'layers'.padEnd(20)} ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound})`,
     `  ${'smallest margin'.padEnd(20)} ${worst.i >= 0 ? `${id[worst.i]} ${mhz(worst.margin)} (${plan.crowding.qubits[worst.i].marginSpreads.toFixed(1)} spreads)` : '-'}`,
+    `  parking found (f01, flux, f12, smallest margin):`,
+    ...ctx.ids.map((q, i) => {
+      const c = plan.crowding.qubits[i];
+      const margin = Number.isFinite(c.marginGHz) ? `margin ${mhz(c.marginGHz)} (${c.marginSpreads.toFixed(1)} spreads)` : 'margin -';
+      return `    ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${plan.states[i].flux.toFixed(4)}  f12 ${ghz(plan.states[i].f12GHz)}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`;
+    }),
     ...plan.crowding.bands.map((b) => `  crowded band ${bandText(b)}`),
-    ...plan.explanations.map((x) => `  ${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`),
+    ...plan.explanations.map((x) => wrapLine(`  ${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`, '      ')),
   ];
   return { plan, violations: plan.violations.map(toFindingJson), flags: plan.flags.map(toFindingJson), data, lines };
 }

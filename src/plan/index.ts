@@ -19,7 +19,6 @@ export { crowding, type Crowding } from './crowding.js';
 export { planChip, type ChipPlan } from './plan.js';
 export { designPulses, designPulsesInParallel, type PulseOptions } from './pulses.js';
 export { loadGateDesigner, type GateDesign, type GateDesignRequest, type GateDesigner } from './gate-seam.js';
-export { planJson, gateTableCsv, gateTableText, planText, PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
-export { readPlan, type PlanInput } from './plan-read.js';
+export { readPlan, PLAN_FORMAT, PLAN_VERSION, type PlanInput } from './plan-read.js';
 export { verifyPlan, type VerifyResult } from './verify.js';
 export { checkChip, type ChipCheck } from './check.js';

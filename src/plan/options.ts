@@ -3,6 +3,7 @@
  * estimated error over one reference cycle (see src/plan/parking/cost.ts for the formulas).
  */
 import { QUBIT_TABLE_DEFAULTS, type QubitTableOptions } from './qubit-table.js';
+import type { KeepParking } from './parking/keep.js';
 
 export interface CostWeights {
   /** Flux-noise dephasing away from the sweet spot: (t_cycle / 3) / T_phi,1/f. */
@@ -54,6 +55,8 @@ export interface PlanOptions {
   weights: CostWeights;
   search: ParkingSearchOptions;
   table: QubitTableOptions;
+  /** Parking (and edge options) kept from an earlier plan when re-planning (./parking/keep.ts); none by default. */
+  keep?: KeepParking;
 }
 
 export const PLAN_DEFAULTS: Readonly<PlanOptions> = Object.freeze({

@@ -1,5 +1,7 @@
 /**
- * Reading a plan.json back (for `fluxlane verify`): JSON syntax errors and schema problems become
+ * Reading a plan.json back (for `fluxlane verify`, the per-edge commands' `--plan` and
+ * `fluxlane plan --from`; written by src/report/plan-json.ts): JSON syntax errors and schema
+ * problems become
  * an InputError naming file:line:column, what was expected and what was found. Only the fields
  * verify needs are required (a plan edited by hand may drop the derived ones); unknown fields are
  * kept. Positions of schema problems come from the yaml package's source map of the same text
@@ -10,15 +12,22 @@ import { DiagnosticCollector, type Path } from '../layout/diagnostics.js';
 import { readYamlSource } from '../layout/yaml-source.js';
 import { InputError } from '../util/errors.js';
 import type { ChipLayout } from '../layout/types.js';
-import { PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
+
+/** The plan file's format name and version (plan.json's `format` and `version`). */
+export const PLAN_FORMAT = 'fluxlane-plan';
+export const PLAN_VERSION = 1;
 
 const hz = z.number({ error: () => 'a frequency in Hz (a number)' }).positive({ error: () => 'a positive frequency in Hz' });
 
 const GateSchema = z.looseObject({
+  family: z.string({ error: () => 'a ramp family name' }).optional(),
   crossingOffset: z.number({ error: () => 'a frequency offset in Hz (a number)' }).nullable().optional(),
   rampTime: z.number({ error: () => 'a ramp time in s (a number)' }).positive().nullable().optional(),
   duration: z.number({ error: () => 'a duration in s (a number)' }).positive().nullable().optional(),
+  targetPhase: z.number({ error: () => 'a phase in rad (a number)' }).nullable().optional(),
   waveform: z.string().optional(),
+  awgProgram: z.string().optional(),
+  fidelityNoisyMethod: z.enum(['lindblad', 'estimate']).nullable().optional(),
   feasible: z.boolean().optional(),
   reason: z.string().optional(),
 });
@@ -30,6 +39,7 @@ const EdgeSchema = z.looseObject({
   interactionFrequency: hz.nullable(),
   crossingFrequency: hz.nullable().optional(),
   spectatorParking: z.record(z.string(), hz, { error: () => 'an object from qubit id to frequency in Hz' }).default({}),
+  spectatorParkingFlux: z.record(z.string(), z.number(), { error: () => 'an object from qubit id to flux in Phi0' }).optional(),
   layer: z.number({ error: () => 'a layer index (an integer >= 0)' }).int({ error: () => 'a layer index (an integer >= 0)' }).min(0, { error: () => 'a layer index (an integer >= 0)' }),
   rampTime: z.number({ error: () => 'a ramp time in s (a number)' }).positive({ error: () => 'a positive ramp time in s' }),
   gate: GateSchema.nullable().optional(),
@@ -38,7 +48,7 @@ const EdgeSchema = z.looseObject({
 const PlanSchema = z.looseObject({
   format: z.literal(PLAN_FORMAT, { error: () => `"${PLAN_FORMAT}"` }),
   version: z.literal(PLAN_VERSION, { error: () => `version ${PLAN_VERSION}` }),
-  qubits: z.record(z.string(), z.looseObject({ parkingFrequency: hz }), { error: () => 'an object from qubit id to { parkingFrequency }' }),
+  qubits: z.record(z.string(), z.looseObject({ parkingFrequency: hz, parkingFlux: z.number({ error: () => 'a flux in Phi0 (a number)' }).optional() }), { error: () => 'an object from qubit id to { parkingFrequency }' }),
   edges: z.array(EdgeSchema, { error: () => 'a list of edges' }),
 });
 
@@ -89,6 +99,26 @@ export function readPlan(text: string, file: string, layout: ChipLayout): PlanIn
     located.throwIfAny();
   }
   return parsed.data!;
+}
+
+/**
+ * A plan.json as a plain document, without a layout to check it against (for `fluxlane diff`):
+ * JSON syntax errors with file:line:column, and the format and version checked.
+ */
+export function readPlanDocument(text: string, file: string): Record<string, unknown> {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    const { line, column } = jsonErrorPosition(text, message);
+    throw new InputError({ file, line, column, message: `expected JSON (a plan.json written by fluxlane plan), found a syntax error: ${message.replace(/ in JSON at position \d+.*$/, '').replace(/^JSON\.parse: /, '')}` });
+  }
+  const doc = raw as Record<string, unknown>;
+  if (!doc || typeof doc !== 'object' || Array.isArray(doc) || doc.format !== PLAN_FORMAT || doc.version !== PLAN_VERSION || typeof doc.qubits !== 'object' || !Array.isArray(doc.edges)) {
+    throw new InputError({ file, message: `expected a plan.json written by fluxlane plan (format "${PLAN_FORMAT}", version ${PLAN_VERSION}, with qubits and edges), found ${Array.isArray(raw) ? 'a list' : typeof raw === 'object' && raw !== null ? `format ${JSON.stringify(doc.format)}, version ${JSON.stringify(doc.version)}` : typeof raw}` });
+  }
+  return doc;
 }
 
 /** 1-based line and column of a JSON.parse error (V8 reports a character position or line/column). */

@@ -32,6 +32,8 @@ export interface PlannedGate {
   design: GateDesign;
   /** Findings on the designed gate (destination and waveform sweep), replacing the plan's estimate. */
   findings: Finding[];
+  /** The conditional phase the design aimed at (rad; default pi). */
+  targetPhase?: number;
 }
 
 export interface ChipPlan {

@@ -23,6 +23,7 @@ import { parkSpectators, type EdgePlan, type ParkedSpectator } from './interacti
 import { planLayers } from './layers.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
+import { spectatorMovesNs } from './rules/cz-duration.js';
 import { band, ghz, mhz, prob, ns } from './format.js';
 import type { PooledDesign } from '../gate/design-pool.js';
 
@@ -39,14 +40,18 @@ export interface PulseOptions {
   spectators?: boolean;
 }
 
-export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void): void {
+/**
+ * `given`: designs to use instead of designing (by edge index; re-planning keeps the designs of
+ * the edges it keeps, src/plan/replan/); they are checked where they go like the others.
+ */
+export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void, given?: readonly (GateDesign | null | undefined)[]): void {
   let done = 0;
-  const designs = plan.edges.map((e) => {
-    const d = Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
+  const designs = plan.edges.map((e, k) => {
+    const d = given?.[k] ? given[k]! : Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
     progress?.(++done, plan.edges.length);
     return d;
   });
-  applyDesigns(plan, designs);
+  applyDesigns(plan, designs, options.targetPhase);
 }
 
 /**
@@ -69,9 +74,10 @@ export async function designPulsesInParallel(
   workers: { threads: number; minDesigns?: number },
   options: PulseOptions = {},
   progress?: (done: number, total: number) => void,
+  given?: readonly (GateDesign | null | undefined)[],
 ): Promise<{ fallback?: string }> {
   const { threads, minDesigns = MIN_DESIGNS_FOR_WORKERS } = workers;
-  const edges = plan.edges.map((e, k) => ({ e, k })).filter(({ e }) => Number.isFinite(e.interactionGHz));
+  const edges = plan.edges.map((e, k) => ({ e, k })).filter(({ e, k }) => Number.isFinite(e.interactionGHz) && !given?.[k]);
   const requests = edges.map(({ e }) => gateRequest(plan, e, options));
   const skipped = plan.edges.length - edges.length;
   let pooled: PooledDesign[] | null = null;
@@ -85,7 +91,7 @@ export async function designPulsesInParallel(
       fallback = err instanceof Error ? err.message.split('\n')[0] : String(err);
     }
   }
-  const designs: (GateDesign | null)[] = plan.edges.map(() => null);
+  const designs: (GateDesign | null)[] = plan.edges.map((_, k) => given?.[k] ?? null);
   edges.forEach(({ e, k }, j) => {
     const p = pooled?.[j];
     designs[k] = designOrFailure(plan, e, () => {
@@ -95,7 +101,7 @@ export async function designPulsesInParallel(
     });
     if (!pooled) progress?.(skipped + j + 1, plan.edges.length);
   });
-  applyDesigns(plan, designs);
+  applyDesigns(plan, designs, options.targetPhase);
   return fallback === undefined ? {} : { fallback };
 }
 
@@ -111,14 +117,16 @@ function designOrFailure(plan: ChipPlan, e: EdgePlan, design: () => GateDesign):
 }
 
 /** Check each edge's design where it really goes, then layers, crowding and findings again. */
-function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[]): void {
+function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[], targetPhase?: number): void {
   const { ctx } = plan;
   plan.gates = plan.edges.map((e, k) => {
     const design = designs[k];
     if (!design) return null;
     const { findings, edge } = checkDesign(plan, e, design);
     plan.edges[k] = edge;
-    return { design, findings } as PlannedGate;
+    const planned: PlannedGate = { design, findings };
+    if (targetPhase !== undefined) planned.targetPhase = targetPhase;
+    return planned;
   });
   // Destinations and spectator moves may have changed: layers and crowding again.
   const f12 = plan.states.map((s) => s.f12GHz);
@@ -140,7 +148,7 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     crossing: e.crossing,
     // Spectators moved for the gate take two of the plan's ramps out of the time budget (the
     // designer itself keeps the waveform's rounding to the sample grid inside the limit).
-    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - (e.parked.length > 0 ? 2 * e.rampNs : 0) },
+    rules: { ...ctx.rules, maxGateNs: ctx.rules.maxGateNs - spectatorMovesNs(e.parked.length > 0, e.rampNs, ctx.rules) },
     noise: options.noise ?? true,
     decoherence: options.lindblad ? 'lindblad' : 'estimate',
   };
@@ -224,10 +232,11 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
     const { blame: _b, ...rest } = f;
     out.push(rest);
   }
-  const total = design.durationNs + (parkedInfo.length > 0 ? 2 * e.rampNs : 0);
+  const moves = spectatorMovesNs(parkedInfo.length > 0, e.rampNs, ctx.rules);
+  const total = design.durationNs + moves;
   if (total > ctx.rules.maxGateNs + 1e-9) {
     out.push({ rule: 'cz-duration', qubits: [id[e.mover], id[e.partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
-      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${parkedInfo.length > 0 ? ` plus ${ns(2 * e.rampNs)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
+      message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${moves > 0 ? ` plus ${ns(moves)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
   }
   out.push(...waveformSweepFindings(plan.ctx, e.mover, key, ev.swept, design.waveform));
   const edge: EdgePlan = {

@@ -16,7 +16,7 @@ import { parseTrajectoryCsv } from '../sim/trajectory.js';
 import { buildPlanContext, type PlanContext } from './context.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
-import { fromHz, ghz, khz } from './format.js';
+import { freq, fromHz, ghz } from './format.js';
 import type { EdgePlan, ParkedSpectator } from './interaction/plan-edge.js';
 import { gatesConflict, movedQubits } from './layers.js';
 import type { PlanInput } from './plan-read.js';
@@ -26,6 +26,7 @@ import { evaluateGate, type DuringGate, type GateScenario } from './rules/cz-eva
 import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
 import { tuningRoomShortfall } from './rules/tuning-room.js';
+import { slotNs } from './rules/cz-duration.js';
 
 export const VERIFY_DEFAULTS = Object.freeze({ crossingToleranceGHz: 1e-5 });
 
@@ -71,7 +72,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     const stated = pe.crossingFrequency != null ? fromHz(pe.crossingFrequency) : null;
     if (stated !== null && Math.abs(stated - crossing) > tol) {
       violations.push({ rule: 'cz-crossing', qubits: [pe.mover, ctx.ids[partner]], value: stated, threshold: crossing, edge: key,
-        message: `${key}: the plan's ${pe.crossing} crossing ${ghz(stated, 6)} no longer matches the parking frequencies (now ${ghz(crossing, 6)}, ${khz(stated - crossing)} off); re-plan this edge` });
+        message: `${key}: the plan's ${pe.crossing} crossing ${ghz(stated, 6)} no longer matches the parking frequencies (now ${ghz(crossing, 6)}, ${freq(stated - crossing)} off); re-plan this edge` });
     }
     // Without a designed gate the interaction point is the crossing itself; a designed gate sits
     // at its own offset from the exact (dressed) crossing, which the stated crossing pins down.
@@ -130,7 +131,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
         message: `the plan's CZ design for ${key} is marked infeasible${pe.gate.reason ? `: ${pe.gate.reason}` : ''}` });
     }
     if (pe.gate?.duration != null) {
-      const total = pe.gate.duration * 1e9 + (parked.size > 0 ? 2 * spectatorRampNs : 0);
+      const total = slotNs(pe.gate.duration * 1e9, parked.size > 0, spectatorRampNs, ctx.rules);
       if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns with its spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
     }
     edgePlans[edge.index] = {

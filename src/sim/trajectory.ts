@@ -3,8 +3,9 @@
  * (README physics conventions sec. 6: the metrics of a design are those of its samples, joined
  * piecewise-linearly, so anyone can re-simulate the file).
  *
- * CSV form: a header `time_ns,flux` and one sample per line (time in ns, flux of the mover in
- * Phi0); any spacing; the first and last flux are the parking point and must be equal.
+ * CSV form: a header `time_ns,flux_phi0` (or `time_ns,flux`) and one sample per line (time in
+ * ns, flux of the mover in Phi0); any spacing; the first and last flux are the parking point and
+ * must be equal. Lines starting with `#` are comments.
  */
 import { InputError, type Diagnostic } from '../util/errors.js';
 
@@ -46,6 +47,19 @@ export function fluxAt(t: Trajectory, tNs: number): number {
   }
   const f = (tNs - ts[lo]) / (ts[hi] - ts[lo]);
   return t.flux[lo] + f * (t.flux[hi] - t.flux[lo]);
+}
+
+/**
+ * The same piecewise-linear trajectory with each run of equal samples reduced to its two ends
+ * (a plateau is one constant segment: the simulator then takes it as one exact hold instead of
+ * many short ones; the flux at every time is unchanged).
+ */
+export function mergePlateaus(t: Trajectory): Trajectory {
+  const n = t.timeNs.length;
+  const keep: number[] = [];
+  for (let j = 0; j < n; j++) if (j === 0 || j === n - 1 || t.flux[j] !== t.flux[j - 1] || t.flux[j] !== t.flux[j + 1]) keep.push(j);
+  if (keep.length === n) return t;
+  return { timeNs: Float64Array.from(keep, (j) => t.timeNs[j]), flux: Float64Array.from(keep, (j) => t.flux[j]) };
 }
 
 /** Tolerance for "starts and ends at the same flux". */
@@ -93,6 +107,9 @@ export function assertTrajectory(t: Trajectory, where: { file?: string; lineOf?:
   if (problems.length > 0) throw new InputError(problems);
 }
 
+/** Names of the flux column the parser accepts (the unit-labelled one first). */
+export const TRAJECTORY_FLUX_COLUMNS: readonly string[] = ['flux_phi0', 'flux'];
+
 /** Parse the CSV form. Throws InputError naming file:line:column on any problem. */
 export function parseTrajectoryCsv(text: string, file = '<trajectory>'): Trajectory {
   const lines = text.split(/\r?\n/);
@@ -103,10 +120,11 @@ export function parseTrajectoryCsv(text: string, file = '<trajectory>'): Traject
     headerLine = i;
     break;
   }
-  if (headerLine < 0) throw new InputError({ file, line: 1, column: 1, message: 'expected a header `time_ns,flux`, found an empty file' });
+  if (headerLine < 0) throw new InputError({ file, line: 1, column: 1, message: 'expected a header `time_ns,flux_phi0`, found an empty file' });
   const header = lines[headerLine].split(',').map((s) => s.trim());
-  if (header.length !== 2 || header[0] !== 'time_ns' || header[1] !== 'flux') {
-    throw new InputError({ file, line: headerLine + 1, column: 1, message: `expected the header \`time_ns,flux\`, found \`${lines[headerLine].trim().slice(0, 60)}\`` });
+  if (header.length !== 2 || header[0] !== 'time_ns' || !TRAJECTORY_FLUX_COLUMNS.includes(header[1])) {
+    const awg = header[0] === 'sample' ? ' (this is an AWG program, before the flux line; simulate reads the flux the qubit sees, waveforms/A-B.qubit.csv of a plan)' : '';
+    throw new InputError({ file, line: headerLine + 1, column: 1, message: `expected the header \`time_ns,flux_phi0\`, found \`${lines[headerLine].trim().slice(0, 60)}\`${awg}` });
   }
   const times: number[] = [];
   const fluxes: number[] = [];
@@ -147,8 +165,8 @@ function parseNumberCell(cell: string): number | undefined {
  * The CSV form. Numbers are written with 17 significant digits trimmed of trailing zeros
  * (shortest round-trip form), so parsing the file gives back the same samples bit for bit.
  */
-export function formatTrajectoryCsv(t: Trajectory): string {
-  const rows = ['time_ns,flux'];
+export function formatTrajectoryCsv(t: Trajectory, fluxColumn = 'flux_phi0'): string {
+  const rows = [`time_ns,${fluxColumn}`];
   for (let k = 0; k < t.timeNs.length; k++) rows.push(`${formatNumber(t.timeNs[k])},${formatNumber(t.flux[k])}`);
   return rows.join('\n') + '\n';
 }

@@ -12,7 +12,7 @@ import { layoutToYaml } from '../../src/layout/write.js';
 import { parseLayoutText } from '../../src/layout/load.js';
 import type { ChipLayout } from '../../src/layout/types.js';
 import { planChip } from '../../src/plan/plan.js';
-import { planJson } from '../../src/plan/plan-json.js';
+import { planJson } from '../../src/report/plan-json.js';
 import { loadGateDesigner } from '../../src/plan/gate-seam.js';
 import { designPulses } from '../../src/plan/pulses.js';
 import { loadLayoutFile } from '../../src/layout/load.js';

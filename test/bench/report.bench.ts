@@ -23,7 +23,7 @@ import { layoutToYaml } from '../../src/layout/write.js';
 import { loadLayoutFile, parseLayoutText } from '../../src/layout/load.js';
 import type { ChipLayout } from '../../src/layout/types.js';
 import { planChip } from '../../src/plan/plan.js';
-import { planJson } from '../../src/plan/plan-json.js';
+import { planJson } from '../../src/report/plan-json.js';
 import { designPulses } from '../../src/plan/pulses.js';
 import { loadGateDesigner } from '../../src/plan/gate-seam.js';
 import { chipReportHtml } from '../../src/report/html/chip-report.js';

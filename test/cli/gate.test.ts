@@ -18,7 +18,7 @@ describe('fluxlane gate', () => {
     }
     expect(d.edge).toEqual(['Q1', 'Q0']);
     expect(d.rampTime).toBeCloseTo(8e-9, 15);
-    expect(readFileSync(wave, 'utf8').startsWith('time_ns,flux\n')).toBe(true);
+    expect(readFileSync(wave, 'utf8').startsWith('time_ns,flux_phi0\n')).toBe(true);
     const s = await runFluxlane(['simulate', LAYOUT, '--edge', 'Q1-Q0', '--trajectory', wave, '--json']);
     expect(s.code).toBe(0);
     const r = s.json();

@@ -6,6 +6,7 @@
  * swept crossings use the Landau-Zener formula (src/plan/landau-zener.ts, tested against SciPy).
  */
 import { describe, expect, it } from 'vitest';
+import { shortestGateNs, slotNs, spectatorMovesNs } from '../../src/plan/rules/cz-duration.js';
 import { planChip } from '../../src/plan/plan.js';
 import { buildPlanContext } from '../../src/plan/context.js';
 import { pairResonances } from '../../src/pair/resonances.js';
@@ -119,17 +120,27 @@ describe('room to tune past the crossing (src/plan/rules/tuning-room.ts, our cho
 });
 
 describe('cz-duration', () => {
-  it('counts the full 11-20 cycle 1/(2 g_c), both ramps, the flux line settling at both ends and two sample intervals (src/gate/pulse.ts)', async () => {
+  it('counts the full 11-20 cycle 1/(2 g_c) (the speed limit: the ramps add phase, so they are not added), the flux line settling at both ends and two sample intervals (src/gate/pulse.ts), plus the spectator moves', async () => {
     const { lineDelayNs } = await import('../../src/gate/pulse.js');
     const plan = planChip(probe);
     const ab = plan.edges[0];
     const r = probe.rules;
     const settle = 2 * lineDelayNs(r.sampleRateGHz, r.fluxBandwidthGHz) + 2 / r.sampleRateGHz;
     expect(settle).toBeGreaterThan(0);
-    expectClose(ab.durationNs, 1 / (2 * ab.crossingCouplingGHz) + 2 * ab.rampNs + settle, 1e-12, 'duration');
-    // a limit that the cycle and ramps alone would meet, but not with the settling: a violation
+    const moves = ab.parked.length > 0 ? 2 * Math.ceil(ab.rampNs * r.sampleRateGHz - 1e-9) / r.sampleRateGHz : 0;
+    expectClose(ab.durationNs, 1 / (2 * ab.crossingCouplingGHz) + settle + moves, 1e-12, 'duration');
+    expectClose(shortestGateNs(ab.crossingCouplingGHz, r), 1 / (2 * ab.crossingCouplingGHz) + settle, 1e-12, 'shortestGateNs');
+    // a limit that the cycle alone would meet, but not with the settling: a violation
     const limit = ab.durationNs - settle / 2;
     const tight = planChip(handChip('probe', { A: { fMax: '6.3 GHz', alpha: '-220 MHz' }, B: { fMax: '5.5 GHz', park: '5.5 GHz' }, S: { fMax: '6.0 GHz' } }, couplings, { zzLimit: '3 MHz', maxGate: `${limit.toFixed(4)} ns` }));
     expect(tight.violations.map((v) => v.rule)).toContain('cz-duration');
+  });
+
+  it('spectator moves take the plan ramp rounded up to the AWG grid, twice, and only when a spectator moves', () => {
+    const rules = { sampleRateGHz: 2.4 };
+    expectClose(spectatorMovesNs(true, 15, rules), 30, 1e-12, '15 ns is 36 samples');
+    expectClose(spectatorMovesNs(true, 10.1, rules), (2 * 25) / 2.4, 1e-12, '10.1 ns rounds up to 25 samples');
+    expect(spectatorMovesNs(false, 15, rules)).toBe(0);
+    expectClose(slotNs(40, true, 15, rules), 70, 1e-12, 'slot');
   });
 });

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { planChip } from '../../src/plan/plan.js';
 import { checkDesign, designPulses, designPulsesInParallel, gateRequest, worstSpectator } from '../../src/plan/pulses.js';
 import { loadGateDesigner, type GateDesign } from '../../src/plan/gate-seam.js';
-import { planJson } from '../../src/plan/plan-json.js';
+import { planJson } from '../../src/report/plan-json.js';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { landauZenerTransfer } from '../../src/plan/landau-zener.js';
 import { handChip } from '../support/plan-chips.js';
@@ -40,7 +40,7 @@ describe('designPulses with the gate stage', () => {
     expect(Math.abs(g.design.interactionFrequencyGHz - e.interactionGHz)).toBeLessThan(0.05);
     const json = planJson(plan, { file: 'pulses.yaml', seed: 1, pulses: true });
     const edge = (json.edges as any[])[0];
-    expect(edge.gate).toMatchObject({ edge: ['A', 'B'], mover: 'A', feasible: true, waveform: 'waveforms/A-B.csv' });
+    expect(edge.gate).toMatchObject({ edge: ['A', 'B'], mover: 'A', feasible: true, waveform: 'waveforms/A-B.qubit.csv', awgProgram: 'waveforms/A-B.awg.csv' });
     expect(edge.interactionFrequency).toBeCloseTo(g.design.interactionFrequencyGHz * 1e9, 0);
     expect(plan.violations).toEqual(g.findings);
   });

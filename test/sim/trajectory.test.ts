@@ -45,8 +45,8 @@ describe('trajectory CSV', () => {
   });
 
   it('refuses a wrong header and an empty file', () => {
-    expect(messages(() => parseTrajectoryCsv('t,phi\n0,0\n', 'e.csv'))).toEqual(['e.csv:1:1: expected the header `time_ns,flux`, found `t,phi`']);
-    expect(messages(() => parseTrajectoryCsv('', 'f.csv'))).toEqual(['f.csv:1:1: expected a header `time_ns,flux`, found an empty file']);
+    expect(messages(() => parseTrajectoryCsv('t,phi\n0,0\n', 'e.csv'))).toEqual(['e.csv:1:1: expected the header `time_ns,flux_phi0`, found `t,phi`']);
+    expect(messages(() => parseTrajectoryCsv('', 'f.csv'))).toEqual(['f.csv:1:1: expected a header `time_ns,flux_phi0`, found an empty file']);
   });
 
   it('assertTrajectory needs at least two samples', () => {

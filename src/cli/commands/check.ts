@@ -21,6 +21,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { withCommonOptions } from '../options.js';
 import { PLANNER_CHECK_STAGE } from './check-planner.js';
+import { wrapLine } from '../../util/wrap.js';
 
 /** One finding of a check stage. Numbers in `details` are SI (Hz, s, rad; flux in Phi0). */
 export interface CheckFinding {
@@ -115,8 +116,8 @@ function summaryText(layout: ChipLayout, s: ChipSummary, stages: readonly CheckS
     row('next-nearest pairs', String(s.nextNearestPairs)),
     ...(result.lines ?? []),
   ];
-  for (const v of result.violations) lines.push(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`);
-  for (const f of result.flags) lines.push(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`);
+  for (const v of result.violations) lines.push(wrapLine(`violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`));
+  for (const f of result.flags) lines.push(wrapLine(`flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`));
   const ran = stages.length > 0 ? `checks run: ${stages.map((st) => st.name).join(', ')}` : 'no collision checks registered yet';
   lines.push(
     result.violations.length === 0

@@ -3,7 +3,10 @@
  * [--crossing 11-20|11-02] [--static-flux F] [--noise] [--waveform FILE.csv] [--json]`:
  * design one edge's CZ pulse (src/gate/design.ts) and print the design.
  *
- * The mover parks at its layout `park` frequency (else its upper sweet spot, Phi = 0); the static
+ * With --plan PLAN.json the mover, the crossing, both parking fluxes, the family, ramp and target
+ * phase come from the plan's entry for the edge (options override; the time budget is maxGate less
+ * the plan's spectator moves, as in the plan). Without it the mover parks at its layout `park`
+ * frequency (else its upper sweet spot, Phi = 0, which the output says was assumed); the static
  * qubit at --static-flux, else its `park`, else its maximum frequency (README physics conventions sec. 6).
  * --waveform writes the designed waveform in the CSV form `fluxlane simulate` reads, so the
  * design can be re-simulated independently (same metrics).
@@ -26,11 +29,17 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { parseOptions, withCommonOptions } from '../options.js';
-import { defaultFlux, edgeRoles } from './pair.js';
+import { edgeRoles, parseEdge } from './pair.js';
 import { parseFluxValue, si } from './spectrum.js';
+import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption, spectatorRequest } from '../plan-option.js';
+import { spectatorMovesNs } from '../../plan/rules/cz-duration.js';
+
+
 
 const GateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
+  plan: z.string().optional(),
+  spectator: z.array(z.string()).optional(),
   mover: z.string().optional(),
   family: z.enum(RAMP_FAMILIES.map((f) => f.name) as [string, ...string[]], { error: () => `one of ${RAMP_FAMILIES.map((f) => f.name).join(', ')}` }).optional(),
   ramp: z.string().optional(),
@@ -70,15 +79,31 @@ function parsePhase(text: string): number {
 
 export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(GateOptions, raw);
-  const rampNs = o.ramp !== undefined ? parseRamp(o.ramp) : undefined;
-  const theta = o.phase !== undefined ? parsePhase(o.phase) : Math.PI;
+  const rampOpt = o.ramp !== undefined ? parseRamp(o.ramp) : undefined;
+  const phaseOpt = o.phase !== undefined ? parsePhase(o.phase) : undefined;
   const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
-  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
+  const [ea, eb] = parseEdge(layout, o.edge);
+  const planOpt = o.plan !== undefined ? ctx.profiler.time('plan', () => readPlanOption(ctx, o.plan!, layout)) : null;
+  const fromPlan = planEdge(planOpt, layout, ea.id, eb.id);
+  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover ?? fromPlan?.mover);
+  // the plan's crossing, family, ramp and phase describe its gate, with its mover
+  const samePlanGate = fromPlan !== null && fromPlan.mover === lm.id;
+  const planDesign = samePlanGate ? fromPlan.design : null;
+  const rampNs = rampOpt ?? planDesign?.rampNs;
+  const theta = phaseOpt ?? planDesign?.targetPhase ?? Math.PI;
+  const crossing = o.crossing ?? (samePlanGate ? fromPlan.crossing : '11-20');
+  const family = o.family ?? planDesign?.family;
   const mover = Transmon.fromLayout(lm);
   const partner = Transmon.fromLayout(ls);
-  const moverPark = defaultFlux(mover, lm);
-  const partnerFlux = staticFluxOpt ?? defaultFlux(partner, ls);
+  const moverChoice = chooseFlux(mover, lm, undefined, fromPlan?.parkingFlux.get(lm.id));
+  const partnerChoice = chooseFlux(partner, ls, staticFluxOpt, fromPlan?.parkingFlux.get(ls.id));
+  const moverPark = moverChoice.flux;
+  const partnerFlux = partnerChoice.flux;
+  const spectators = (o.spectator ?? []).map((id) => spectatorRequest(layout, id, lm, ls, fromPlan));
+  // a plan that moves spectators for this gate gives the designer its time budget minus their moves
+  const moves = samePlanGate ? spectatorMovesNs(fromPlan.moved.length > 0, fromPlan.planRampNs, layout.rules) : 0;
+  const rules = moves > 0 ? { ...layout.rules, maxGateNs: layout.rules.maxGateNs - moves } : layout.rules;
   const design = ctx.profiler.time('gate', () =>
     designCzGate({
       mover,
@@ -86,12 +111,13 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       gGHz,
       moverParkFlux: moverPark,
       partnerFlux,
-      crossing: o.crossing ?? '11-20',
-      family: o.family, // none: the designer's default family, with its fallback
+      crossing,
+      family, // none: the designer's default family, with its fallback
       rampNs,
       targetPhase: theta,
-      rules: layout.rules,
+      rules,
       noise: !!o.noise,
+      spectators: spectators.length > 0 ? spectators.map((x) => x.request) : undefined,
     }),
   );
   const data: Record<string, unknown> = {
@@ -110,14 +136,18 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
     speedLimit: si(design.speedLimitNs * 1e-9),
     untuned: { conditionalPhase: si(design.untuned.conditionalPhase), leakage: si(design.untuned.leakage), fidelity: si(design.untuned.fidelity) },
     feasible: design.feasible,
-    crossing: o.crossing ?? '11-20',
+    crossing,
     crossingFrequency: si(design.crossingFrequencyGHz * 1e9),
     gap: si(design.gapGHz * 1e9),
     targetPhase: si(theta),
     moverParkFlux: si(moverPark),
     staticFlux: si(partnerFlux),
     populations: { '20': si(design.populations['20']), '02': si(design.populations['02']) },
+    fluxes: fluxSourcesJson([moverChoice, partnerChoice, ...spectators.map((x) => x.choice)], si),
+    spectators: spectators.map((x) => x.choice.id),
+    maxGate: si(rules.maxGateNs * 1e-9),
   };
+  if (planOpt) data.plan = planOpt.file;
   if (design.reason) data.reason = design.reason;
   if (o.noise) {
     data.fidelityNoisy = si(design.fidelityNoisy ?? NaN);
@@ -126,7 +156,13 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const files = o.waveform !== undefined && design.feasible ? [{ path: ctx.resolvePath(o.waveform), contents: formatTrajectoryCsv(design.waveform) }] : undefined;
   if (o.waveform !== undefined && !design.feasible) data.waveform = null;
   const f = (x: number, d = 4): string => (Number.isFinite(x) ? x.toFixed(d) : 'n/a');
-  const lines = [`${layout.chip}: CZ on ${la.id}-${lb.id}, mover ${mover.id} (park ${f(mover.f01(moverPark), 4)} GHz), ${partner.id} static at ${f(partner.f01(partnerFlux), 4)} GHz, ${o.crossing ?? '11-20'} crossing`];
+  const lines = [
+    `${layout.chip}: CZ on ${la.id}-${lb.id}, mover ${mover.id}, ${crossing} crossing${planOpt ? ` (plan ${planOpt.file}${samePlanGate ? '' : `, whose mover is ${fromPlan!.mover}: only its parking is used`})` : ''}`,
+    `  ${fluxText(moverChoice, mover)}; ${partner.id} static: ${fluxText(partnerChoice, partner)}`,
+    ...spectators.map((x) => `  spectator ${fluxText(x.choice, x.request.transmon)}`),
+    ...(moves > 0 ? [`  time budget ${f(rules.maxGateNs, 1)} ns: maxGate less ${f(moves, 1)} ns of the plan's spectator moves`] : []),
+    ...assumedLine([moverChoice, partnerChoice, ...spectators.map((x) => x.choice)], planOpt !== null).map((l) => `  ${l}`),
+  ];
   if (!design.feasible) {
     lines.push(`no design: ${design.reason}`);
   } else {
@@ -151,13 +187,15 @@ export function registerGate(program: Command, io: CliIo): void {
       .description('design the CZ pulse of an edge: ramp family, tuned hold and destination, metrics, waveform')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .requiredOption('--edge <A-B>', 'the coupled pair, e.g. Q0-Q1 (A is the mover)')
-      .option('--mover <id>', 'the qubit that moves (default: A)')
-      .option('--family <name>', `ramp family: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default ${DEFAULT_FAMILY}, with ${FALLBACK_FAMILY} when it leaks above 1e-4)`)
-      .option('--ramp <time>', 'ramp time, e.g. "10 ns" (default per family)')
-      .option('--phase <theta>', 'target conditional phase (default pi), e.g. pi/2 or 90 deg')
-      .option('--crossing <name>', 'avoided crossing to use: 11-20 (mover to |2>) or 11-02 (default 11-20)')
-      .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its park frequency, else 0)')
+      .option('--plan <file>', 'plan.json of fluxlane plan: mover, crossing, both parking fluxes, family, ramp and phase from it (options override)')
+      .option('--mover <id>', 'the qubit that moves (default: the plan\'s, else A)')
+      .option('--family <name>', `ramp family: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default: the plan's, else ${DEFAULT_FAMILY}, with ${FALLBACK_FAMILY} when it leaks above 1e-4)`)
+      .option('--ramp <time>', 'ramp time, e.g. "10 ns" (default: the plan\'s design, else per family)')
+      .option('--phase <theta>', 'target conditional phase (default: the plan\'s, else pi), e.g. pi/2 or 90 deg')
+      .option('--crossing <name>', 'avoided crossing to use: 11-20 (mover to |2>) or 11-02 (default: the plan\'s, else 11-20)')
+      .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
+      .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
       .option('--noise', 'add decoherence and report fidelityNoisy')
-      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux) for fluxlane simulate'),
+      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux_phi0: the flux the mover sees) for fluxlane simulate'),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => gateCommand(ctx, layout, options)));
 }

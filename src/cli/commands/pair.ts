@@ -3,9 +3,10 @@
  * [--levels K] [--json]`: a coupled pair's dressed levels, static ZZ, exchange coupling and the
  * mover's resonances (README physics conventions secs. 2 and 6).
  *
- * Conventions (README physics conventions sec. 6): A is the mover unless --mover names B; the partner is static.
- * Fluxes default to each qubit's fixed parking frequency from the layout (`park`) when it has one,
- * else to its upper sweet spot Phi = 0. `g` is the exchange coupling at the fluxes evaluated.
+ * Conventions (README physics conventions sec. 6): A is the mover unless --mover names B (with
+ * --plan PLAN.json: the plan's mover); the partner is static. Fluxes default to each qubit's
+ * parking in the plan (--plan), else its fixed parking frequency from the layout (`park`), else
+ * its upper sweet spot Phi = 0 (the output says which were assumed). `g` is the exchange coupling at the fluxes evaluated.
  * Levels are labelled in edge order |AB> (as written in --edge). Resonance names are
  * (mover, partner) ordered ("11-20": the mover goes to |2>), each the mover's f01 at the bare
  * crossing, null when outside the mover's tunable range. --sweep adds ZZ against the mover's
@@ -30,12 +31,15 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { integerOption, parseOptions, withCommonOptions } from '../options.js';
 import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { freq } from '../../plan/format.js';
+import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption } from '../plan-option.js';
 
 export const PAIR_CLI_DEFAULTS = Object.freeze({ points: 201, levels: 6 });
 
 const PairOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
+  plan: z.string().optional(),
   fluxA: z.string().optional(),
   fluxB: z.string().optional(),
   sweep: z.boolean().optional(),
@@ -79,12 +83,6 @@ export function edgeRoles(layout: ChipLayout, edgeText: string, moverId: string 
   return { edge: [la, lb], mover, other, gGHz };
 }
 
-/** Default flux of a qubit: its layout parking frequency if fixed, else the upper sweet spot. */
-export function defaultFlux(q: Transmon, layoutQubit: QubitLayout): number {
-  if (layoutQubit.parkGHz === undefined) return 0;
-  return q.fluxForF01(layoutQubit.parkGHz, { file: layoutQubit.source.file, line: layoutQubit.source.line, column: layoutQubit.source.column, path: `${layoutQubit.source.path}.park` });
-}
-
 export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(PairOptions, raw);
   const fluxAOpt = o.fluxA !== undefined ? parseFluxValue(o.fluxA, '--flux-a') : undefined;
@@ -95,15 +93,20 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
   if (o.mover !== undefined && o.mover !== la.id && o.mover !== lb.id) {
     throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(o.mover)}` });
   }
-  const moverIsA = o.mover === undefined || o.mover === la.id;
+  const planOpt = o.plan !== undefined ? ctx.profiler.time('plan', () => readPlanOption(ctx, o.plan!, layout)) : null;
+  const fromPlan = planEdge(planOpt, layout, la.id, lb.id);
+  const moverId = o.mover ?? fromPlan?.mover;
+  const moverIsA = moverId === undefined || moverId === la.id;
   const levels = o.levels ?? PAIR_CLI_DEFAULTS.levels;
   const { qa, qb, pair } = ctx.profiler.time('transmon', () => {
     const qa = Transmon.fromLayout(la);
     const qb = Transmon.fromLayout(lb);
     return { qa, qb, pair: new CoupledPair(qa, qb, gGHz, { levels }) };
   });
-  const fluxA = fluxAOpt ?? defaultFlux(qa, la);
-  const fluxB = fluxBOpt ?? defaultFlux(qb, lb);
+  const choiceA = chooseFlux(qa, la, fluxAOpt, fromPlan?.parkingFlux.get(la.id));
+  const choiceB = chooseFlux(qb, lb, fluxBOpt, fromPlan?.parkingFlux.get(lb.id));
+  const fluxA = choiceA.flux;
+  const fluxB = choiceB.flux;
   const spectrum = ctx.profiler.time('pair', () => pair.spectrum(fluxA, fluxB));
   const [mover, partner, partnerFlux] = moverIsA ? [qa, qb, fluxB] : [qb, qa, fluxA];
   const resonances = ctx.profiler.time('resonances', () => pairResonances(mover, partner, partnerFlux, pair.gChargeGHz));
@@ -126,9 +129,13 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
     resonances: mapResonances(resonances, (r) => si(r.moverF01GHz * 1e9)),
     resonanceFlux: mapResonances(resonances, (r) => si(r.moverFlux)),
     resonanceCoupling: mapResonances(resonances, (r) => si(r.couplingGHz * 1e9)),
+    fluxes: fluxSourcesJson([choiceA, choiceB], si),
   };
+  if (planOpt) data.plan = planOpt.file;
   if (sweep) data.sweep = sweep.map((p) => ({ moverFlux: si(p.moverFlux), moverF01: si(p.moverF01GHz * 1e9), zz: si(p.zzGHz * 1e9), g: si(p.gGHz * 1e9) }));
-  return { data, text: pairText(qa, qb, mover, fluxA, fluxB, f01A, f01B, spectrum.gGHz, spectrum.zzGHz, (i, j) => spectrum.energy(i, j) - e00, resonances, sweep), exitCode: 0 };
+  const sources = [`  fluxes: ${fluxText(choiceA, qa)}; ${fluxText(choiceB, qb)}${planOpt ? ` (plan ${planOpt.file})` : ''}`, ...assumedLine([choiceA, choiceB], planOpt !== null).map((l) => `  ${l}`)];
+  const text = pairText(qa, qb, mover, fluxA, fluxB, f01A, f01B, spectrum.gGHz, spectrum.zzGHz, (i, j) => spectrum.energy(i, j) - e00, resonances, sweep).split('\n');
+  return { data, text: [text[0], ...sources, ...text.slice(1)].join('\n'), exitCode: 0 };
 }
 
 function mapResonances<T>(r: PairResonances, f: (x: NonNullable<PairResonances['01-10']>) => T): Record<string, T | null> {
@@ -140,9 +147,6 @@ function mapResonances<T>(r: PairResonances, f: (x: NonNullable<PairResonances['
   return out;
 }
 
-function khz(xGHz: number): string {
-  return `${(xGHz * 1e6).toFixed(3)} kHz`;
-}
 
 function pairText(
   qa: Transmon,
@@ -160,7 +164,7 @@ function pairText(
 ): string {
   const lines = [
     `${qa.id}-${qb.id} (mover ${mover.id}): ${qa.id} at ${fluxA.toFixed(4)} Phi0 (f01 ${f01A.toFixed(6)} GHz), ${qb.id} at ${fluxB.toFixed(4)} Phi0 (f01 ${f01B.toFixed(6)} GHz)`,
-    `  g = ${(gGHz * 1e3).toFixed(4)} MHz at these fluxes, static ZZ = ${khz(zzGHz)}`,
+    `  g = ${(gGHz * 1e3).toFixed(4)} MHz at these fluxes, static ZZ = ${freq(zzGHz, 4)}`,
     `  dressed levels |${qa.id} ${qb.id}> relative to |00>:`,
   ];
   for (const [i, j] of [[0, 1], [1, 0], [1, 1], [2, 0], [0, 2]] as const) lines.push(`    |${i}${j}>  ${level(i, j).toFixed(6)} GHz`);
@@ -184,9 +188,10 @@ export function registerPair(program: Command, io: CliIo): void {
       .description('a coupled pair: dressed levels, static ZZ, g and the mover resonances (01-10, 11-20, 11-02); --sweep for ZZ across the mover range')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .requiredOption('--edge <A-B>', 'the coupled pair, e.g. Q0-Q1 (A is the mover)')
-      .option('--mover <id>', 'the qubit that moves (default: A)')
-      .option('--flux-a <flux>', "A's flux in Phi0 (default: its park frequency, else 0)")
-      .option('--flux-b <flux>', "B's flux in Phi0 (default: its park frequency, else 0)")
+      .option('--plan <file>', 'plan.json of fluxlane plan: mover and both parking fluxes from it (options override)')
+      .option('--mover <id>', "the qubit that moves (default: the plan's, else A)")
+      .option('--flux-a <flux>', "A's flux in Phi0 (default: its plan parking, else its park frequency, else 0)")
+      .option('--flux-b <flux>', "B's flux in Phi0 (default: its plan parking, else its park frequency, else 0)")
       .option('--sweep', "add ZZ against the mover's frequency across its tunable range")
       .option('--points <n>', `points of the sweep (default ${PAIR_CLI_DEFAULTS.points})`)
       .option('--levels <k>', `levels per transmon, 4 to 12 (default ${PAIR_CLI_DEFAULTS.levels})`),

@@ -1,20 +1,26 @@
 /**
- * `fluxlane simulate LAYOUT --edge A-B [--mover A] --trajectory FILE.csv [--static-flux F]
- * [--levels K] [--spectator ID ...] [--noise] [--json]`: simulate one CZ trajectory of an edge
- * (README physics conventions secs. 2-4 and 6) and report its gate metrics.
+ * `fluxlane simulate LAYOUT --edge A-B [--plan PLAN.json] [--mover A] [--trajectory FILE.csv]
+ * [--static-flux F] [--levels K] [--spectator ID ...] [--noise [lindblad|estimate]] [--json]`:
+ * simulate one CZ trajectory of an edge (README physics conventions secs. 2-4 and 6) and report
+ * its gate metrics.
  *
- * The trajectory file is the mover's flux against time (header `time_ns,flux`, samples joined
- * piecewise-linearly, first flux = last flux = the parking point). The static qubit sits at
- * --static-flux, else at its layout `park` frequency, else at Phi = 0. Spectators (neighbours of
- * either edge qubit) can be added as third transmons at their park value (else Phi = 0); the
- * metrics are then those of the pair with the spectators in their ground state.
+ * The trajectory file is the mover's flux against time (header `time_ns,flux_phi0` or
+ * `time_ns,flux`, samples joined piecewise-linearly, first flux = last flux = the parking point;
+ * runs of equal samples are simulated as one exact hold). With --plan the mover, the static
+ * qubit's parking, the spectators' fluxes during the gate (their temporary point when the plan
+ * moves them), the target phase and, without --trajectory, the plan's own waveform of the gate
+ * (waveforms/A-B.qubit.csv) come from the plan; options override. Without a plan the static qubit
+ * sits at --static-flux, else at its layout `park` frequency, else at Phi = 0 (said to be
+ * assumed). Spectators (neighbours of either edge qubit) are third transmons in their ground
+ * state.
  *
- * JSON (SI: rad, s; flux in Phi0): { edge, mover, staticFlux, duration, levels, conditionalPhase,
- * leakage, fidelity, fidelityNoisy (with --noise), decoherenceEstimate (with --noise), virtualZ: {a, b},
- * M: 4 x 4 of [re, im] (order 00, 01, 10, 11 = |AB>, A the mover, lab frame), populations:
- * {"20", "02"}, steps }.
+ * JSON (SI: rad, s; flux in Phi0): { edge, mover, trajectory, staticFlux, fluxes, targetPhase,
+ * duration, levels, conditionalPhase, leakage, fidelity, fidelityNoisy, fidelityNoisyMethod and
+ * decoherenceEstimate (with --noise), virtualZ: {a, b}, M: 4 x 4 of [re, im] (order 00, 01, 10,
+ * 11 = |AB>, A the mover, lab frame), populations: {"20", "02"}, steps, plan? }.
  */
 import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
@@ -22,25 +28,27 @@ import { Transmon } from '../../transmon/transmon.js';
 import { buildManifoldFrame } from '../../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../../sim/pair-model.js';
 import { simulateGate } from '../../sim/simulate-gate.js';
-import { parseTrajectoryCsv, trajectoryDuration } from '../../sim/trajectory.js';
+import { mergePlateaus, parseTrajectoryCsv, trajectoryDuration } from '../../sim/trajectory.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { integerOption, parseOptions, withCommonOptions } from '../options.js';
-import { defaultFlux, edgeRoles } from './pair.js';
-import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { edgeRoles, parseEdge } from './pair.js';
+import { parseFluxValue, si } from './spectrum.js';
+import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption, spectatorRequest } from '../plan-option.js';
 
 export const SIMULATE_CLI_DEFAULTS = Object.freeze({ levels: 6 });
 
 const SimulateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
-  trajectory: z.string({ error: () => 'a trajectory CSV file' }),
+  plan: z.string().optional(),
+  trajectory: z.string({ error: () => 'a trajectory CSV file' }).optional(),
   staticFlux: z.string().optional(),
   levels: integerOption(4, 10).optional(),
   spectator: z.array(z.string()).optional(),
-  noise: z.boolean().optional(),
+  noise: z.union([z.boolean(), z.enum(['lindblad', 'estimate'])], { error: () => 'lindblad or estimate (or nothing: lindblad)' }).optional(),
 });
 
 function readText(path: string, shown: string): string {
@@ -55,23 +63,35 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const o = parseOptions(SimulateOptions, raw);
   const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
-  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
-  const traj = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(ctx.resolvePath(o.trajectory), o.trajectory), o.trajectory));
+  const [ea, eb] = parseEdge(layout, o.edge);
+  const planOpt = o.plan !== undefined ? ctx.profiler.time('plan', () => readPlanOption(ctx, o.plan!, layout)) : null;
+  const fromPlan = planEdge(planOpt, layout, ea.id, eb.id);
+  const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover ?? fromPlan?.mover);
+  const planDesign = fromPlan !== null && fromPlan.mover === lm.id ? fromPlan.design : null;
+  // the trajectory: the option's file, else the plan's waveform of this gate
+  let trajectoryFile = o.trajectory;
+  let trajectoryPath = trajectoryFile !== undefined ? ctx.resolvePath(trajectoryFile) : undefined;
+  if (trajectoryFile === undefined) {
+    if (!planOpt) throw new InputError({ message: 'option --trajectory: expected a trajectory CSV file (or --plan PLAN.json to simulate the plan\'s own waveform), found nothing' });
+    if (!planDesign?.waveform) {
+      throw new InputError({ file: planOpt.file, message: `option --trajectory: expected a waveform of ${la.id}-${lb.id} with mover ${lm.id} in the plan, found none (an infeasible edge, a plan made with --no-pulses, or another mover); give --trajectory` });
+    }
+    trajectoryFile = planDesign.waveform;
+    trajectoryPath = resolve(planOpt.dir, planDesign.waveform);
+  }
+  const file = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(trajectoryPath!, trajectoryFile!), trajectoryFile));
+  const traj = mergePlateaus(file);
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;
+  const targetPhase = planDesign?.targetPhase ?? Math.PI;
+  const method: 'lindblad' | 'estimate' | null = o.noise === undefined || o.noise === false ? null : o.noise === true ? (planOpt ? (planDesign?.noiseMethod ?? 'lindblad') : 'lindblad') : o.noise;
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
     const mover = Transmon.fromLayout(lm);
     const partner = Transmon.fromLayout(ls);
-    const spectators: EdgeSpectator[] = (o.spectator ?? []).map((id) => {
-      const lq = findQubit(layout, id, '--spectator');
-      if (id === lm.id || id === ls.id) throw new InputError({ message: `option --spectator: expected a qubit outside the edge, found ${id}` });
-      const c = layout.couplings.find((x) => (x.a === id || x.b === id) && (x.a === lm.id || x.b === lm.id || x.a === ls.id || x.b === ls.id));
-      if (!c) throw new InputError({ message: `option --spectator: expected a neighbour of ${lm.id} or ${ls.id}, found ${id}` });
-      const t = Transmon.fromLayout(lq);
-      return { transmon: t, coupledTo: c.a === lm.id || c.b === lm.id ? 'mover' : 'partner', gGHz: c.gGHz, flux: defaultFlux(t, lq) } as EdgeSpectator;
-    });
+    const spectators = (o.spectator ?? []).map((id) => spectatorRequest(layout, id, lm, ls, fromPlan));
     return { mover, partner, spectators };
   });
-  const staticFlux = staticFluxOpt ?? defaultFlux(partner, ls);
+  const staticChoice = chooseFlux(partner, ls, staticFluxOpt, fromPlan?.parkingFlux.get(ls.id));
+  const staticFlux = staticChoice.flux;
   const model = edgeSimModel({
     mover,
     partner,
@@ -79,20 +99,23 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     partnerFlux: staticFlux,
     moverLevels: levels,
     partnerLevels: Math.max(3, levels - 2),
-    noise: !!o.noise,
-    spectators,
+    noise: method !== null,
+    spectators: spectators.map((x) => x.request as EdgeSpectator),
   });
-  const range = moverEjRange(mover, traj, o.trajectory);
-  const frame = ctx.profiler.time('frame', () => buildManifoldFrame(model, { ...range, noiseOperators: !!o.noise }));
-  const sim = ctx.profiler.time('simulate', () => simulateGate(frame, traj, { lindblad: !!o.noise }));
+  const range = moverEjRange(mover, traj, trajectoryFile);
+  const frame = ctx.profiler.time('frame', () => buildManifoldFrame(model, { ...range, noiseOperators: method !== null }));
+  const sim = ctx.profiler.time('simulate', () => simulateGate(frame, traj, { lindblad: method === 'lindblad', targetPhase }));
   const m = Array.from({ length: 4 }, (_, r) => Array.from({ length: 4 }, (_, c) => [si(sim.m.re[r * 4 + c]), si(sim.m.im[r * 4 + c])]));
   const data: Record<string, unknown> = {
     edge: [la.id, lb.id],
     mover: lm.id,
+    trajectory: trajectoryFile,
     staticFlux: si(staticFlux),
+    fluxes: fluxSourcesJson([staticChoice, ...spectators.map((x) => x.choice)], si),
+    targetPhase: si(targetPhase),
     duration: si(trajectoryDuration(traj) * 1e-9),
     levels: { mover: levels, static: Math.max(3, levels - 2) },
-    spectators: spectators.map((s) => s.transmon.id),
+    spectators: spectators.map((x) => x.choice.id),
     conditionalPhase: si(sim.conditionalPhase),
     leakage: si(sim.leakage),
     fidelity: si(sim.fidelity),
@@ -101,19 +124,26 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     populations: { '20': si(sim.populations['20']), '02': si(sim.populations['02']) },
     steps: sim.steps,
   };
-  if (o.noise && sim.noisy) {
-    data.fidelityNoisy = si(sim.noisy.fidelity);
+  if (planOpt) data.plan = planOpt.file;
+  if (method !== null) {
+    data.fidelityNoisy = si(method === 'lindblad' ? sim.noisy!.fidelity : sim.fidelity - sim.decoherenceEstimate);
+    data.fidelityNoisyMethod = method;
     data.decoherenceEstimate = si(sim.decoherenceEstimate);
   }
   const lines = [
-    `${layout.chip}: edge ${la.id}-${lb.id}, mover ${lm.id}, ${ls.id} static at ${staticFlux.toFixed(4)} Phi0`,
-    `trajectory ${o.trajectory}: ${traj.timeNs.length} samples, ${trajectoryDuration(traj).toFixed(3)} ns`,
+    `${layout.chip}: edge ${la.id}-${lb.id}, mover ${lm.id} (parks at the trajectory's first sample, ${traj.flux[0].toFixed(4)} Phi0)${planOpt ? `, plan ${planOpt.file}` : ''}`,
+    `  ${ls.id} static: ${fluxText(staticChoice, partner)}`,
+    ...spectators.map((x) => `  spectator ${fluxText(x.choice, x.request.transmon)}`),
+    ...assumedLine([staticChoice, ...spectators.map((x) => x.choice)], planOpt !== null).map((l) => `  ${l}`),
+    `trajectory ${trajectoryFile}: ${file.timeNs.length} samples, ${trajectoryDuration(traj).toFixed(3)} ns`,
     `conditional phase  ${sim.conditionalPhase.toFixed(6)} rad (${((sim.conditionalPhase * 180) / Math.PI).toFixed(4)} deg)`,
     `leakage            ${sim.leakage.toExponential(3)}   (populations from 11: 20 ${sim.populations['20'].toExponential(3)}, 02 ${sim.populations['02'].toExponential(3)})`,
-    `fidelity           ${sim.fidelity.toFixed(8)} (coherent, to CZ after virtual Z)`,
+    `fidelity           ${sim.fidelity.toFixed(8)} (coherent, to ${Math.abs(targetPhase - Math.PI) < 1e-12 ? 'CZ' : `CPhase(${targetPhase.toFixed(4)})`} after virtual Z)`,
   ];
-  if (o.noise && sim.noisy) {
-    lines.push(`fidelity (noisy)   ${sim.noisy.fidelity.toFixed(8)} (Lindblad; first-order estimate of the decoherence error ${sim.decoherenceEstimate.toExponential(3)})`);
+  if (method === 'lindblad') {
+    lines.push(`fidelity (noisy)   ${sim.noisy!.fidelity.toFixed(8)} (Lindblad; first-order estimate of the decoherence error ${sim.decoherenceEstimate.toExponential(3)})`);
+  } else if (method === 'estimate') {
+    lines.push(`fidelity (noisy)   ${(sim.fidelity - sim.decoherenceEstimate).toFixed(8)} (coherent fidelity less the first-order decoherence estimate ${sim.decoherenceEstimate.toExponential(3)})`);
   }
   lines.push(`virtual Z          a (on ${lm.id}) ${sim.virtualZ.a.toFixed(6)} rad, b (on ${ls.id}) ${sim.virtualZ.b.toFixed(6)} rad (undo with -a, -b)`);
   lines.push('Model estimates: verify on hardware, and respect the flux-line current limits of your wiring.');
@@ -127,11 +157,12 @@ export function registerSimulate(program: Command, io: CliIo): void {
       .description('simulate a CZ flux trajectory of an edge: conditional phase, leakage, fidelity (and with --noise the Lindblad fidelity)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .requiredOption('--edge <A-B>', 'the coupled pair, e.g. Q0-Q1 (A is the mover)')
-      .option('--mover <id>', 'the qubit that moves (default: A)')
-      .requiredOption('--trajectory <file>', 'CSV with header time_ns,flux (the mover flux in Phi0)')
-      .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its park frequency, else 0)')
+      .option('--plan <file>', 'plan.json of fluxlane plan: mover, parking, spectators\' fluxes during the gate, target phase and (without --trajectory) the gate\'s waveform from it')
+      .option('--mover <id>', 'the qubit that moves (default: the plan\'s, else A)')
+      .option('--trajectory <file>', 'CSV with header time_ns,flux_phi0 (the flux the mover sees; default with --plan: the plan\'s waveforms/A-B.qubit.csv)')
+      .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--levels <k>', `levels of the mover, 4 to 10 (default ${SIMULATE_CLI_DEFAULTS.levels}; the static qubit keeps k - 2)`)
-      .option('--spectator <id...>', 'neighbours to simulate as third transmons')
-      .option('--noise', 'add decoherence (T1, T_phi from the layout) and report fidelityNoisy'),
+      .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
+      .option('--noise [method]', 'add decoherence (T1, T_phi from the layout): lindblad (default without --plan) or estimate (the first-order estimate; with --plan the plan\'s method)'),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => simulateCommand(ctx, layout, options)));
 }

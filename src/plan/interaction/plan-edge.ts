@@ -147,7 +147,10 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): E
       built.push(built1);
     }
   }
-  // Choose: feasible by score; else fewest problems, then score.
+  // Choose: feasible by score; else fewest problems, then score. When re-planning, an option
+  // kept from the earlier plan (options.keep.edgeOptions) goes before others of the same standing.
+  const kept = ec.options.keep?.edgeOptions?.[e.key];
+  const isKept = (r: OptionReport) => (kept !== undefined && ctx.ids[r.mover] === kept.mover && r.crossing === kept.crossing ? 0 : 1);
   const order = built
     .map((b, k) => ({ b, k }))
     .sort((x, y) => {
@@ -155,7 +158,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): E
       const fy = y.b.report.feasible ? 0 : 1;
       const px = x.b.scenario ? x.b.report.problems.length : 1e9;
       const py = y.b.scenario ? y.b.report.problems.length : 1e9;
-      return fx - fy || px - py || x.b.report.score - y.b.report.score || x.k - y.k;
+      return fx - fy || px - py || isKept(x.b.report) - isKept(y.b.report) || x.b.report.score - y.b.report.score || x.k - y.k;
     });
   const chosen = order[0].b;
   const partner = chosen.report.mover === e.a ? e.b : e.a;
@@ -241,7 +244,9 @@ function evaluateOption(
   const unmovable = resolved.unmovable;
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   const feasible = ev.findings.length === 0;
-  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs);
+  // t_CZ of the error estimate (banner): the duration model's slot plus the two planning ramps,
+  // which the error estimate counts on top of the speed limit
+  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs + 2 * rampNs);
   const report: OptionReport = {
     mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
     note: feasible

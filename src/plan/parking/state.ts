@@ -10,6 +10,7 @@ import type { PlanOptions } from '../options.js';
 import { emptyTableState, type TableState } from '../qubit-table.js';
 import { IdleBlockers, type Blocker, type FrequencyView } from '../rules/idle-blockers.js';
 import { ParkingCost, type CostParts } from './cost.js';
+import { KeptParking } from './keep.js';
 
 export class ParkingState implements FrequencyView {
   readonly freq: Float64Array;
@@ -19,6 +20,8 @@ export class ParkingState implements FrequencyView {
   zzLimitGHz: number;
   readonly blockers: IdleBlockers;
   readonly cost: ParkingCost;
+  /** Parking kept from an earlier plan (options.keep; ./keep.ts). */
+  readonly kept: KeptParking;
   private readonly scratch: Blocker[] = [];
 
   constructor(
@@ -33,6 +36,7 @@ export class ParkingState implements FrequencyView {
     this.zzLimitGHz = ctx.rules.zzLimitGHz * (1 - options.search.zzSafety);
     this.blockers = new IdleBlockers(ctx);
     this.cost = new ParkingCost(ctx, options);
+    this.kept = new KeptParking(ctx, options.keep);
     for (let i = 0; i < n; i++) this.set(i, this.startOf(i));
   }
 
@@ -40,6 +44,7 @@ export class ParkingState implements FrequencyView {
   startOf(i: number): number {
     const fixed = this.ctx.fixed[i];
     if (fixed !== undefined) return fixed;
+    if (!Number.isNaN(this.kept.of(i))) return this.kept.of(i);
     const d = this.ctx.domains[i];
     if (d) return d.hi;
     return this.fallbackOf(i);
@@ -55,7 +60,7 @@ export class ParkingState implements FrequencyView {
 
   /** True when the qubit may move (active, not fixed, with a domain). */
   movable(i: number): boolean {
-    return this.active[i] === 1 && this.ctx.fixed[i] === undefined && this.ctx.domains[i] !== null;
+    return this.active[i] === 1 && this.ctx.fixed[i] === undefined && this.ctx.domains[i] !== null && !this.kept.pinned(i);
   }
 
   /** Changes whenever a frequency or the set of active qubits changes (cost caches key on it). */
@@ -74,7 +79,9 @@ export class ParkingState implements FrequencyView {
   }
 
   costAt(i: number, f: number, blockers: readonly Blocker[]): CostParts {
-    return this.cost.at(i, f, blockers, this, this.stamp);
+    const c = this.cost.at(i, f, blockers, this, this.stamp);
+    const change = this.kept.costOf(i, f);
+    return change > 0 ? { violation: c.violation, soft: c.soft + change } : c;
   }
 
   /** Mark a change of the active set (invalidates cost caches). */
@@ -98,6 +105,7 @@ export class ParkingState implements FrequencyView {
     const d = this.ctx.domains[i];
     if (!d) return [this.freq[i]];
     const out: number[] = [this.freq[i]];
+    if (!Number.isNaN(this.kept.of(i))) out.push(this.kept.of(i));
     const allowed = this.allowed(i, blockers);
     const nudge = this.options.search.nudgeGHz;
     const sigma = this.sigmaAt(i, this.freq[i]);

@@ -18,8 +18,8 @@
  *   for each parked spectator P at its temporary frequency: cz-parked-01-01, -01-12,
  *     -next-01-01, -tls, -readout against the others (the mover excepted), and its own sweep from
  *     parking with the same cz-swept rules (the mover still at parking then).
- *   cz-duration: 1 / (2 g_c) + 2 rampNs + the line's settling and sample rounding (+ 2 spectatorRampNs
- *                when spectators move) <= maxGate.
+ *   cz-duration: the shared duration model (./cz-duration.ts): 1 / (2 g_c) + the line's settling
+ *                and the sample grid (+ the spectator moves) <= maxGate.
  *
  * Each finding names, in `blame`, the qubit whose temporary move could clear it (a spectator or
  * next-nearest neighbour), or none (the partner, a defect, the resonator: only another mover or
@@ -27,7 +27,6 @@
  * (transmon stage); crossing positions along a sweep come from the tabulated spectra (error below
  * 1 kHz, src/plan/qubit-table.ts).
  */
-import { lineDelayNs } from '../../gate/pulse.js';
 import type { PlanContext } from '../context.js';
 import { ghz, mhz, prob, band, ns } from '../format.js';
 import { landauZenerTransfer } from '../landau-zener.js';
@@ -35,6 +34,7 @@ import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
 import type { Finding } from './findings.js';
+import { shortestGateNs, slotNs } from './cz-duration.js';
 
 export type Crossing = '11-20' | '11-02';
 
@@ -184,13 +184,12 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
     sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add);
   }
-  // the realised waveform also holds the flux line's settling at both ends and is rounded up
-  // to the sample grid with one spare interval (src/gate/design.ts, src/gate/pulse.ts)
-  const settleNs = 2 * lineDelayNs(r.sampleRateGHz, r.fluxBandwidthGHz) + 2 / r.sampleRateGHz;
-  const durationNs = 1 / (2 * s.crossingCouplingGHz) + 2 * s.rampNs + settleNs + (s.parked.size > 0 ? 2 * (s.spectatorRampNs ?? s.rampNs) : 0);
+  // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
+  // the sample grid, plus the spectator moves
+  const durationNs = slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
-      message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus ramps, the flux line's settling and the sample grid${s.parked.size > 0 ? ' and spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
+      message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
   }
   return { findings, swept, durationNs };
 }

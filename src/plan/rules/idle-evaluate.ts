@@ -8,7 +8,7 @@
  */
 import type { PlanContext } from '../context.js';
 import { exactQubitState, type ExactQubitState } from '../exact-state.js';
-import { band, ghz, khz, mhz } from '../format.js';
+import { band, freq, ghz, mhz } from '../format.js';
 import type { Finding } from './findings.js';
 
 export interface IdleEvaluation {
@@ -107,7 +107,7 @@ export function evaluateIdle(ctx: PlanContext, parkingGHz: ArrayLike<number>, gi
     const z = zz[e.index];
     if (Math.abs(z) > r.zzLimitGHz) {
       out.push({ rule: 'zz', qubits: [A, B], value: Math.abs(z), threshold: r.zzLimitGHz, edge: e.key,
-        message: `${A}-${B} static ZZ is ${khz(z)} at ${ghz(a.f01GHz)} / ${ghz(b.f01GHz)}; the limit is ${khz(r.zzLimitGHz)}`,
+        message: `${A}-${B} static ZZ is ${freq(z)} at ${ghz(a.f01GHz)} / ${ghz(b.f01GHz)}; the limit is ${freq(r.zzLimitGHz)}`,
         details: { zzGHz: z } });
     }
   }

@@ -309,7 +309,7 @@ export function buildReportDocument(inputs: ReportInputs, options: ReportOptions
       crossingGHz: ghz(e.crossingFrequency),
       gMHz: mhz(e.g),
       layer: finite(e.layer),
-      durationNs: nsOf(e.duration) ?? gate?.durationNs ?? null,
+      durationNs: nsOf(e.slotDuration ?? e.duration) ?? gate?.durationNs ?? null,
       rampNs: nsOf(e.rampTime),
       zzKHz: khz(e.zz),
       feasible: e.feasible !== false,

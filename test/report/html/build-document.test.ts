@@ -13,7 +13,7 @@ import type { ChipLayout } from '../../../src/layout/types.js';
 import { planChip, type ChipPlan } from '../../../src/plan/plan.js';
 import { designPulses } from '../../../src/plan/pulses.js';
 import { loadGateDesigner } from '../../../src/plan/gate-seam.js';
-import { planJson } from '../../../src/plan/plan-json.js';
+import { planJson } from '../../../src/report/plan-json.js';
 import { buildReportDocument, pointsPerGate, predictedError, REPORT_DEFAULTS, type GateWaveform } from '../../../src/report/html/build-document.js';
 import { waveformsOfPlan } from '../../../src/report/html/plan-waveforms.js';
 import { Transmon } from '../../../src/transmon/transmon.js';
@@ -68,7 +68,7 @@ describe('buildReportDocument on the Bowline-5 plan', () => {
       expect(e.crossing).toBe(p.crossing);
       expect(e.interactionGHz).toBeCloseTo(p.interactionFrequency * 1e-9, 7);
       expect(e.layer).toBe(p.layer);
-      expect(e.durationNs).toBeCloseTo(p.duration * 1e9, 4);
+      expect(e.durationNs).toBeCloseTo(p.slotDuration * 1e9, 4);
       expect(e.gate!.fidelity).toBeCloseTo(p.gate.fidelity, 8);
       expect(e.gate!.budget).toBeNull();
       expect(e.error!.source).toBe('noisy');

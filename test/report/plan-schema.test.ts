@@ -1,13 +1,14 @@
 /**
- * shared/plan.schema.json (the documented plan.json schema) against the plans the planner writes
- * (validated with ajv, a general-purpose JSON Schema validator), and against broken plans.
+ * shared/plan.schema.json (the documented plan.json schema) against the plans
+ * src/report/plan-json.ts writes (validated with ajv, a general-purpose JSON Schema validator),
+ * and against broken plans.
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { Ajv2020 } from 'ajv/dist/2020.js';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
-import { planJson } from '../../src/plan/plan-json.js';
+import { planJson } from '../../src/report/plan-json.js';
 
 const schema = JSON.parse(readFileSync(new URL('../../shared/plan.schema.json', import.meta.url), 'utf8'));
 const ajv = new Ajv2020({ allErrors: true, strict: true });

@@ -1,0 +1,34 @@
+/**
+ * One plan for every command on Bowline-5 (test/support/one-plan.ts): every edge's own waveform
+ * re-simulated with `simulate --plan` gives the plan's metrics to 1e-6; gates.csv, gates.txt and
+ * plan.json agree field by field; `check` agrees with the plan edge by edge.
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { compareCheck, compareTables, planDemo, resimulateEveryEdge, type PlannedDemo } from '../support/one-plan.js';
+import { GATE_COLUMNS } from '../../src/report/gate-columns.js';
+import { planSchemaErrors } from '../support/plan-schema.js';
+
+let demo: PlannedDemo;
+beforeAll(async () => {
+  demo = await planDemo('layouts/bowline-5.yaml');
+}, 120_000);
+
+describe('one plan for every command: Bowline-5', () => {
+  it('simulate --plan of each edge\'s own waveform reproduces the plan\'s metrics to 1e-6', async () => {
+    const r = await resimulateEveryEdge(demo, 1e-6);
+    expect(r.simulated).toBe(demo.plan.edges.filter((e: any) => e.feasible).length);
+    expect(r.simulated).toBe(4);
+  }, 120_000);
+
+  it('the plan with its designs follows shared/plan.schema.json', () => {
+    expect(planSchemaErrors(demo.plan)).toBe('');
+  });
+
+  it('gates.csv, gates.txt and plan.json carry the same numbers, field by field', () => {
+    expect(compareTables(demo, GATE_COLUMNS)).toBeGreaterThan(demo.plan.edges.length * GATE_COLUMNS.length);
+  });
+
+  it('check and plan agree on feasibility and the rules broken, edge by edge', async () => {
+    expect(await compareCheck(demo)).toBe(4);
+  }, 60_000);
+});
