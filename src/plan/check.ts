@@ -12,6 +12,7 @@ import { ghz, mhz, plain, toHz } from './format.js';
 import { planChip, type ChipPlan } from './plan.js';
 import type { PlanOptionsInput } from './options.js';
 import { toFindingJson, type FindingJson } from './rules/findings.js';
+import { idRecord } from '../util/own.js';
 
 export interface ChipCheck {
   plan: ChipPlan;
@@ -25,7 +26,7 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
   const plan = planChip(layout, options, hooks, graph);
   const { ctx } = plan;
   const id = ctx.ids;
-  const parking: Record<string, unknown> = {};
+  const parking = idRecord<unknown>();
   ctx.ids.forEach((q, i) => {
     const c = plan.crowding.qubits[i];
     parking[q] = {

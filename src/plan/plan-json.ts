@@ -11,6 +11,7 @@ import { ghz, mhz, khz, ns, plain, toHz, toSeconds } from './format.js';
 import { toFindingJson } from './rules/findings.js';
 import type { GateDesign } from './gate-seam.js';
 import { bandText } from './crowding.js';
+import { idRecord } from '../util/own.js';
 
 export const PLAN_FORMAT = 'fluxlane-plan';
 export const PLAN_VERSION = 1;
@@ -62,7 +63,7 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
 export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pulses: boolean }): Record<string, unknown> {
   const { ctx } = plan;
   const id = ctx.ids;
-  const qubits: Record<string, unknown> = {};
+  const qubits = idRecord<unknown>();
   ctx.ids.forEach((q, i) => {
     const s = plan.states[i];
     const c = plan.crowding.qubits[i];
@@ -92,8 +93,8 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     const edge = ctx.edges[e.edge];
     const gate = plan.gates?.[k] ?? null;
     const designed = gate?.design;
-    const spectatorParking: Record<string, number> = {};
-    const spectatorParkingFlux: Record<string, number> = {};
+    const spectatorParking = idRecord<number>();
+    const spectatorParkingFlux = idRecord<number>();
     for (const p of e.parked) {
       spectatorParking[id[p.qubit]] = toHz(p.fGHz);
       spectatorParkingFlux[id[p.qubit]] = plain(p.flux);

@@ -16,63 +16,34 @@
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
-import { parseQuantity } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { designCzGate, DEFAULT_FAMILY, FALLBACK_FAMILY } from '../../gate/design.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import { formatTrajectoryCsv } from '../../sim/trajectory.js';
-import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { parseOptions, withCommonOptions } from '../options.js';
+import { familyOption, fluxOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
 import { defaultFlux, edgeRoles } from './pair.js';
-import { parseFluxValue, si } from './spectrum.js';
+import { si } from './spectrum.js';
 
 const GateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
-  family: z.enum(RAMP_FAMILIES.map((f) => f.name) as [string, ...string[]], { error: () => `one of ${RAMP_FAMILIES.map((f) => f.name).join(', ')}` }).optional(),
-  ramp: z.string().optional(),
-  phase: z.string().optional(),
+  family: familyOption(RAMP_FAMILIES.map((f) => f.name)).optional(),
+  ramp: rampOption().optional(),
+  phase: phaseOption().optional(),
   crossing: z.enum(['11-20', '11-02'], { error: () => '11-20 or 11-02' }).optional(),
-  staticFlux: z.string().optional(),
+  staticFlux: fluxOption().optional(),
   noise: z.boolean().optional(),
-  waveform: z.string().optional(),
+  waveform: z.string().min(1, { error: () => 'a file name' }).optional(),
 });
-
-/** A ramp time: "12 ns", "0.012 us" or a bare number of ns. */
-function parseRamp(text: string): number {
-  const bare = /^\s*\d+(\.\d+)?\s*$/.test(text);
-  let ns = NaN;
-  if (bare) ns = Number(text);
-  else {
-    const r = parseQuantity(text, 'time');
-    if (r.ok) ns = r.value;
-  }
-  if (!(ns > 0 && ns <= 1000)) throw new InputError({ message: `option --ramp: expected a ramp time such as "10 ns" (0 to 1000 ns), found ${JSON.stringify(text)}` });
-  return ns;
-}
-
-/** A target phase: "pi", "pi/2", "3.14159", "90 deg". */
-function parsePhase(text: string): number {
-  const t = text.trim().toLowerCase();
-  let v = NaN;
-  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)?)\s*\*?\s*pi(?:\s*\/\s*(\d+(?:\.\d+)?))?$/.exec(t);
-  if (m) v = (m[1] === '' || m[1] === '+' ? 1 : m[1] === '-' ? -1 : Number(m[1])) * Math.PI / (m[2] ? Number(m[2]) : 1);
-  else if (/^[-+]?(\d+\.?\d*|\.\d+)\s*deg$/.test(t)) v = (Number(t.replace('deg', '')) * Math.PI) / 180;
-  else if (/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/.test(t)) v = Number(t);
-  if (!Number.isFinite(v) || Math.abs(v) > Math.PI + 1e-12 || v === 0) {
-    throw new InputError({ message: `option --phase: expected a conditional phase in (-pi, pi], not 0, such as pi, pi/2, 1.5 or 90 deg, found ${JSON.stringify(text)}` });
-  }
-  return v;
-}
 
 export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(GateOptions, raw);
-  const rampNs = o.ramp !== undefined ? parseRamp(o.ramp) : undefined;
-  const theta = o.phase !== undefined ? parsePhase(o.phase) : Math.PI;
-  const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
+  const rampNs = o.ramp;
+  const theta = o.phase ?? Math.PI;
+  const staticFluxOpt = o.staticFlux;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const mover = Transmon.fromLayout(lm);

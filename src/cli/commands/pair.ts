@@ -28,16 +28,16 @@ import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
-import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { fluxOption, integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { findQubit, si } from './spectrum.js';
 
 export const PAIR_CLI_DEFAULTS = Object.freeze({ points: 201, levels: 6 });
 
 const PairOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
-  fluxA: z.string().optional(),
-  fluxB: z.string().optional(),
+  fluxA: fluxOption().optional(),
+  fluxB: fluxOption().optional(),
   sweep: z.boolean().optional(),
   points: integerOption(2, 10_001).optional(),
   levels: integerOption(4, 12).optional(),
@@ -87,8 +87,8 @@ export function defaultFlux(q: Transmon, layoutQubit: QubitLayout): number {
 
 export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(PairOptions, raw);
-  const fluxAOpt = o.fluxA !== undefined ? parseFluxValue(o.fluxA, '--flux-a') : undefined;
-  const fluxBOpt = o.fluxB !== undefined ? parseFluxValue(o.fluxB, '--flux-b') : undefined;
+  const fluxAOpt = o.fluxA;
+  const fluxBOpt = o.fluxB;
   if (o.points !== undefined && !o.sweep) throw new InputError({ message: 'option --points: expected together with --sweep, found it alone' });
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
   const [la, lb, gGHz] = parseEdge(layout, o.edge);

@@ -10,7 +10,6 @@ import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
 import { buildChipGraph } from '../../chip/graph.js';
-import { parseQuantity } from '../../layout/units.js';
 import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';
 import { designPulses, designPulsesInParallel, type PulseOptions } from '../../plan/pulses.js';
@@ -20,24 +19,23 @@ import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome, OutputFile } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { familyOption, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
+import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import type { Progress } from '../progress.js';
 
 const PlanOptionsSchema = z.object({
-  seed: integerOption(0, 0xffffffff),
+  seed: seedOption(),
   outputDir: z.string().min(1, { error: () => 'a folder name' }).optional(),
   pulses: z.boolean().default(true),
   noise: z.boolean().default(true),
   lindblad: z.boolean().optional(),
   spectators: z.boolean().optional(),
-  family: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, { error: () => 'a ramp family name' }).optional(),
-  ramp: z.string().optional(),
-  threads: integerOption(1, 64).optional(),
-  phase: z
-    .string({ error: () => 'a phase in rad' })
-    .regex(/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/, { error: () => 'a phase in rad (a number)' })
-    .transform(Number)
-    .optional(),
+  family: familyOption(RAMP_FAMILIES.map((f) => f.name)).optional(),
+  ramp: rampOption().optional(),
+  threads: threadsOption().optional(),
+  phase: phaseOption().optional(),
+  force: z.boolean().optional(),
+  maxSeconds: maxSecondsOption().optional(),
 });
 
 /** Draws one progress bar per stage of a long computation (terminal only). */
@@ -65,12 +63,7 @@ export function stageProgress(ctx: CommandContext): { update: (stage: string, do
 
 export async function planCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): Promise<CommandOutcome> {
   const o = parseOptions(PlanOptionsSchema, raw);
-  let rampNs: number | undefined;
-  if (o.ramp !== undefined) {
-    const q = parseQuantity(o.ramp, 'time');
-    if (!q.ok || !(q.value > 0)) throw new InputError({ message: `option --ramp: expected a ramp time such as "12 ns", found ${JSON.stringify(o.ramp)}` });
-    rampNs = q.value;
-  }
+  const rampNs = o.ramp;
   const designer = o.pulses ? await ctx.profiler.timeAsync('gate stage', () => loadGateDesigner()) : null;
   if (o.pulses && !designer) {
     throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
@@ -119,9 +112,9 @@ export function registerPlan(program: Command, io: CliIo): void {
       .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder')
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
-      .option('--family <name>', 'CZ ramp family for every edge (default: the gate stage\'s best-performing one)')
+      .option('--family <name>', `CZ ramp family for every edge: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default: the gate stage's best-performing one)`)
       .option('--ramp <time>', 'ramp time for every CZ, e.g. "12 ns" (default: the ramp the plan chose per edge)')
-      .option('--phase <rad>', 'target conditional phase in rad (default pi)')
+      .option('--phase <theta>', 'target conditional phase (default pi), e.g. pi/2, 1.5 or 90 deg')
       .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
       .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)')
       .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)')

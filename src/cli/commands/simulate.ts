@@ -27,9 +27,9 @@ import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { fluxOption, integerOption, parseOptions, withCommonOptions } from '../options.js';
 import { defaultFlux, edgeRoles } from './pair.js';
-import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { findQubit, si } from './spectrum.js';
 
 export const SIMULATE_CLI_DEFAULTS = Object.freeze({ levels: 6 });
 
@@ -37,7 +37,7 @@ const SimulateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
   trajectory: z.string({ error: () => 'a trajectory CSV file' }),
-  staticFlux: z.string().optional(),
+  staticFlux: fluxOption().optional(),
   levels: integerOption(4, 10).optional(),
   spectator: z.array(z.string()).optional(),
   noise: z.boolean().optional(),
@@ -53,7 +53,7 @@ function readText(path: string, shown: string): string {
 
 export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(SimulateOptions, raw);
-  const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
+  const staticFluxOpt = o.staticFlux;
   const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const traj = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(ctx.resolvePath(o.trajectory), o.trajectory), o.trajectory));
