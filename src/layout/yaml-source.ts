@@ -38,10 +38,17 @@ export interface SourceTree {
   locate(path: Path, anchor: Anchor): Position | undefined;
 }
 
-/** Decode a file's bytes as UTF-8 (a leading byte-order mark is dropped); undefined on bad bytes. */
-export function decodeUtf8(bytes: Uint8Array, collector: DiagnosticCollector): string | undefined {
-  if (bytes.length > YAML_LIMITS.maxBytes) {
-    collector.addAt(undefined, `expected a layout file of at most ${YAML_LIMITS.maxBytes} bytes, found ${bytes.length} bytes`);
+/**
+ * Decode a file's bytes as UTF-8 (a leading byte-order mark is dropped); undefined on bad bytes or
+ * a file over `kind.maxBytes`. `kind` names the file in messages (default: a YAML layout).
+ */
+export function decodeUtf8(
+  bytes: Uint8Array,
+  collector: DiagnosticCollector,
+  kind: { noun: string; format: string; maxBytes: number } = { noun: 'a layout file', format: 'YAML', maxBytes: YAML_LIMITS.maxBytes },
+): string | undefined {
+  if (bytes.length > kind.maxBytes) {
+    collector.addAt(undefined, `expected ${kind.noun} of at most ${kind.maxBytes} bytes, found ${bytes.length} bytes`);
     return undefined;
   }
   try {
@@ -53,7 +60,7 @@ export function decodeUtf8(bytes: Uint8Array, collector: DiagnosticCollector): s
     const before = lossy.slice(0, Math.max(0, at));
     const line = before.split('\n').length;
     const column = at - before.lastIndexOf('\n');
-    collector.addAt({ line, column }, 'expected UTF-8 text, found bytes that are not UTF-8 (is this a YAML file?)');
+    collector.addAt({ line, column }, `expected UTF-8 text, found bytes that are not UTF-8 (is this a ${kind.format} file?)`);
     return undefined;
   }
 }

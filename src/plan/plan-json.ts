@@ -57,6 +57,8 @@ export function gateJson(edge: [string, string], d: GateDesign, waveform: string
   if (Number.isFinite(d.gapGHz)) out.gap = toHz(d.gapGHz);
   if (d.reason !== undefined) out.reason = d.reason;
   if (waveform !== null) out.waveform = waveform;
+  if (d.targetPhase !== undefined) out.targetPhase = plain(d.targetPhase);
+  if (d.simulatedSpectators && d.simulatedSpectators.length > 0) out.simulatedSpectators = d.simulatedSpectators.map((s) => ({ qubit: s.qubit, flux: s.flux }));
   return out;
 }
 
