@@ -11,7 +11,6 @@
 
 import { Argument, type Command } from 'commander';
 import type { ChipLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { buildChipGraph, type ChipGraph } from '../../chip/graph.js';
 import { nextNearestPairs } from '../../chip/neighbourhood.js';
 import { connectedComponents, degreeStats } from '../../chip/stats.js';
@@ -127,7 +126,7 @@ function summaryText(layout: ChipLayout, s: ChipSummary, stages: readonly CheckS
 }
 
 export async function checkLayout(ctx: CommandContext, layoutPath: string, stages: readonly CheckStage[] = CHECK_STAGES): Promise<CommandOutcome> {
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const summary = ctx.profiler.time('summary', () => summariseChip(layout, graph));
   const result = await runCheckStages({ layout, graph, profiler: ctx.profiler, progress: ctx.progress }, stages);

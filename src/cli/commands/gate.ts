@@ -15,7 +15,6 @@
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { designCzGate, DEFAULT_FAMILY, FALLBACK_FAMILY } from '../../gate/design.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
@@ -23,6 +22,7 @@ import { formatTrajectoryCsv } from '../../sim/trajectory.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
+import { checkOutputFile } from '../output-write.js';
 import { familyOption, fluxOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
 import { defaultFlux, edgeRoles } from './pair.js';
 import { si } from './spectrum.js';
@@ -44,7 +44,8 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const rampNs = o.ramp;
   const theta = o.phase ?? Math.PI;
   const staticFluxOpt = o.staticFlux;
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  if (o.waveform !== undefined) checkOutputFile(o.waveform, ctx.io.cwd, '--waveform');
+  const layout = ctx.loadLayout(layoutPath);
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const mover = Transmon.fromLayout(lm);
   const partner = Transmon.fromLayout(ls);

@@ -19,7 +19,6 @@
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { CoupledPair } from '../../pair/pair.js';
 import { pairResonances, RESONANCE_NAMES, type PairResonances } from '../../pair/resonances.js';
@@ -90,7 +89,7 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const fluxAOpt = o.fluxA;
   const fluxBOpt = o.fluxB;
   if (o.points !== undefined && !o.sweep) throw new InputError({ message: 'option --points: expected together with --sweep, found it alone' });
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const [la, lb, gGHz] = parseEdge(layout, o.edge);
   if (o.mover !== undefined && o.mover !== la.id && o.mover !== lb.id) {
     throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(o.mover)}` });

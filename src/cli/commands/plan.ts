@@ -8,7 +8,6 @@
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
 import { buildChipGraph } from '../../chip/graph.js';
 import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';
@@ -18,7 +17,8 @@ import { defaultDesignThreads } from '../../gate/design-pool.js';
 import { gateTableCsv, gateTableText, planJson, planText, waveformFiles } from '../../plan/plan-json.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
-import type { CommandOutcome, OutputFile } from '../outcome.js';
+import type { CommandOutcome, OutputFile, OutputFolder } from '../outcome.js';
+import { checkOutputFolder } from '../output-write.js';
 import { familyOption, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import type { Progress } from '../progress.js';
@@ -64,11 +64,12 @@ export function stageProgress(ctx: CommandContext): { update: (stage: string, do
 export async function planCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): Promise<CommandOutcome> {
   const o = parseOptions(PlanOptionsSchema, raw);
   const rampNs = o.ramp;
+  if (o.outputDir !== undefined) checkOutputFolder(o.outputDir, ctx.io.cwd, o.force ?? false);
   const designer = o.pulses ? await ctx.profiler.timeAsync('gate stage', () => loadGateDesigner()) : null;
   if (o.pulses && !designer) {
     throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
   }
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const progress = stageProgress(ctx);
   const plan = planChip(layout, { seed: o.seed }, { profiler: ctx.profiler, progress: progress.update }, graph);
@@ -86,20 +87,23 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   }
   progress.finish();
   const json = ctx.profiler.time('output', () => planJson(plan, { file: layout.file, seed: o.seed, pulses: designer !== null }));
-  const files: OutputFile[] = [];
+  let folder: OutputFolder | undefined;
   if (o.outputDir !== undefined) {
     const dir = o.outputDir.replace(/\/+$/, '') || '.';
-    files.push({ path: `${dir}/plan.json`, contents: `${JSON.stringify(json, null, 2)}\n` });
-    files.push({ path: `${dir}/gates.csv`, contents: gateTableCsv(json) });
-    files.push({ path: `${dir}/gates.txt`, contents: gateTableText(plan) });
-    files.push(...waveformFiles(plan, dir));
+    const files: OutputFile[] = [
+      { path: 'plan.json', contents: `${JSON.stringify(json, null, 2)}\n` },
+      { path: 'gates.csv', contents: gateTableCsv(json) },
+      { path: 'gates.txt', contents: gateTableText(plan) },
+      ...waveformFiles(plan, '.').map((f) => ({ ...f, path: f.path.replace(/^\.\//, '') })),
+    ];
+    folder = { path: dir, command: 'plan', files, force: o.force ?? false };
   }
-  const written = files.length > 0 ? `\nwrote ${files.map((f) => f.path).join(', ')}` : '';
+  const written = folder ? `\nwrote ${folder.path}/: ${folder.files.map((f) => f.path).join(', ')}` : '';
   return {
     data: json,
     text: `${planText(plan, layout.file)}${written}`,
     exitCode: plan.violations.length === 0 ? 0 : 1,
-    files: files.length > 0 ? files : undefined,
+    folder,
   };
 }
 
@@ -109,7 +113,8 @@ export function registerPlan(program: Command, io: CliIo): void {
       .command('plan')
       .description('plan parking and interaction frequencies, spectator moves, CZ pulses and parallel layers for a chip (model estimates: verify on hardware)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder')
+      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder (replaced whole; a folder holding other files only with --force)')
+      .option('--force', 'replace the output folder even when it holds files fluxlane did not write')
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
       .option('--family <name>', `CZ ramp family for every edge: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default: the gate stage's best-performing one)`)

@@ -17,7 +17,6 @@
 import { readFileSync } from 'node:fs';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { buildManifoldFrame } from '../../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../../sim/pair-model.js';
@@ -54,7 +53,7 @@ function readText(path: string, shown: string): string {
 export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(SimulateOptions, raw);
   const staticFluxOpt = o.staticFlux;
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
   const traj = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(ctx.resolvePath(o.trajectory), o.trajectory), o.trajectory));
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;

@@ -11,7 +11,6 @@
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { roundSignificant } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { InputError } from '../../util/errors.js';
@@ -82,7 +81,7 @@ export function spectrumCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const o = parseOptions(SpectrumOptions, raw);
   if (o.flux !== undefined && o.points !== undefined) throw new InputError({ message: 'options --flux and --points: expected one of them (fluxes to evaluate, or a sweep of N points), found both' });
   const fluxes = o.flux !== undefined ? o.flux : sweepFluxes(o.points ?? SPECTRUM_CLI_DEFAULTS.points);
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const qubit = findQubit(layout, o.qubit, '--qubit');
   const q = ctx.profiler.time('transmon', () => Transmon.fromLayout(qubit));
   const rows = ctx.profiler.time('spectrum', () => spectrumRows(q, fluxes));

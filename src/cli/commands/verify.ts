@@ -7,7 +7,6 @@
  */
 import { dirname } from 'node:path';
 import { Argument, type Command } from 'commander';
-import { loadLayoutFile } from '../../layout/load.js';
 import { readPlanFile } from '../../plan/plan-read.js';
 import { verifyPlan } from '../../plan/verify.js';
 import { toFindingJson } from '../../plan/rules/findings.js';
@@ -17,7 +16,7 @@ import type { CommandOutcome } from '../outcome.js';
 import { withCommonOptions } from '../options.js';
 
 export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath: string): CommandOutcome {
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const full = ctx.resolvePath(planPath);
   const plan = ctx.profiler.time('read plan', () => readPlanFile(full, planPath, layout));
   const result = ctx.profiler.time('verify', () => verifyPlan(layout, plan, { dir: dirname(full), shownDir: dirname(planPath) }));
