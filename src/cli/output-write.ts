@@ -54,12 +54,15 @@ export function withSignalsHeld<T>(write: () => T): T {
   try {
     return write();
   } finally {
-    // A signal that arrived during the synchronous write is delivered when the event loop turns;
-    // keep holding until then (removing the last listener would drop it), then act on it.
-    setImmediate(() => {
-      for (const s of HELD_SIGNALS) process.off(s, hold);
-      if (received.length > 0) reraise(received[0], had.get(received[0]) ?? 0);
-    });
+    // A signal that arrived during the synchronous write is delivered in the poll phase of the
+    // event loop; keep holding until a poll phase has passed (removing the last listener earlier
+    // would drop it): the second check phase from now comes after one. Then act on it.
+    setImmediate(() =>
+      setImmediate(() => {
+        for (const s of HELD_SIGNALS) process.off(s, hold);
+        if (received.length > 0) reraise(received[0], had.get(received[0]) ?? 0);
+      }),
+    );
   }
 }
 
