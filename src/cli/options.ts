@@ -124,6 +124,9 @@ export function threadsOption() {
 /** Largest --max-seconds accepted (one day). */
 export const MAX_SECONDS_LIMIT = 86_400;
 
+/** --help text of --max-seconds. */
+export const MAX_SECONDS_HELP = 'refuse up front work estimated to take longer than this (default 300 s; see README "Guarantees and limits")';
+
 /** `--max-seconds`: the work a command may take before it is refused up front (see src/cli/work-limits.ts). */
 export function maxSecondsOption() {
   const phrase = `a number of seconds above 0, at most ${MAX_SECONDS_LIMIT}`;

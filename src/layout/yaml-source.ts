@@ -22,8 +22,8 @@ import { DiagnosticCollector, type Anchor, type Path, type Position } from './di
 export const YAML_LIMITS = Object.freeze({
   /** Deepest nesting of lists and maps accepted. */
   maxDepth: 32,
-  /** Largest file accepted. */
-  maxBytes: 32 * 1024 * 1024,
+  /** Largest file accepted (a 10,000-qubit layout is about 2.4 MB and takes about 4 s to read). */
+  maxBytes: 8 * 1024 * 1024,
   /**
    * Most values (scalars, lists, maps) once aliases are expanded. A layout of 10,000 qubits
    * (the largest `check` accepts, src/cli/work-limits.ts) has about 300,000.

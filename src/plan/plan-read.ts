@@ -14,7 +14,8 @@ import { readFileSync, statSync } from 'node:fs';
 import { isAbsolute, join, resolve, sep } from 'node:path';
 import { DiagnosticCollector, describeFound, type Path, type Position } from '../layout/diagnostics.js';
 import { decodeUtf8 } from '../layout/yaml-source.js';
-import { parseTrajectoryCsv, type Trajectory } from '../sim/trajectory.js';
+import type { Trajectory } from '../sim/trajectory.js';
+import { readTrajectoryFile } from '../sim/trajectory-file.js';
 import { InputError } from '../util/errors.js';
 import { hasOwn } from '../util/own.js';
 import type { ChipLayout } from '../layout/types.js';
@@ -24,8 +25,6 @@ import { PLAN_FORMAT, PLAN_VERSION } from './plan-json.js';
 export const PLAN_READ_LIMITS = Object.freeze({
   /** Largest plan.json accepted (a 10,000-qubit plan without pulses is about 60 MB). */
   maxBytes: 256 * 1024 * 1024,
-  /** Largest waveform file accepted. */
-  maxWaveformBytes: 64 * 1024 * 1024,
 });
 
 export type CrossingName = '11-20' | '11-02';
@@ -364,19 +363,25 @@ export function readPlanWaveform(planDir: string, edge: PlanEdgeInput, shownDir 
   if (!(full === planDir || full.startsWith(planDir.endsWith(sep) ? planDir : planDir + sep))) {
     throw new InputError({ file: name, message: 'expected a waveform file inside the plan\'s folder, found a path outside it' });
   }
-  let bytes: Uint8Array;
   try {
-    const st = statSync(full);
-    if (!st.isFile()) return { missing: name };
-    if (st.size > PLAN_READ_LIMITS.maxWaveformBytes) throw new InputError({ file: name, message: `expected a waveform file of at most ${PLAN_READ_LIMITS.maxWaveformBytes} bytes, found ${st.size} bytes` });
-    bytes = readFileSync(full);
+    if (!statSync(full).isFile()) return { missing: name };
   } catch (err) {
-    if (err instanceof InputError) throw err;
     if ((err as NodeJS.ErrnoException).code === 'ENOENT') return { missing: name };
-    throw new InputError({ file: name, message: `expected a readable waveform file, found ${(err as NodeJS.ErrnoException).code ?? String(err)}` });
   }
-  const collector = new DiagnosticCollector(name);
-  const text = decodeUtf8(bytes, collector, { noun: 'a waveform file', format: 'CSV', maxBytes: PLAN_READ_LIMITS.maxWaveformBytes });
-  collector.throwIfAny();
-  return { file: name, trajectory: parseTrajectoryCsv(text ?? '', name) };
+  return { file: name, trajectory: readTrajectoryFile(full, name, 'waveform') };
+}
+
+/** Total bytes of the waveform files a plan names that are there (for verify's work estimate). */
+export function planWaveformBytes(planDir: string, plan: PlanInput): number {
+  let bytes = 0;
+  for (const e of plan.edges) {
+    const rel = e.gate?.waveform;
+    if (!rel) continue;
+    try {
+      bytes += statSync(resolve(planDir, rel)).size;
+    } catch {
+      // missing: reported by verify
+    }
+  }
+  return bytes;
 }

@@ -66,7 +66,7 @@ export function trajectoryProblems(t: Trajectory, where: { file?: string; lineOf
     return out;
   }
   if (n < 2) {
-    out.push({ file: where.file, message: `expected at least two samples, found ${n}` });
+    out.push({ ...at(Math.max(0, n - 1)), message: `expected at least two samples, found ${n}` });
     return out;
   }
   for (let k = 0; k < n; k++) {
@@ -95,7 +95,7 @@ export function assertTrajectory(t: Trajectory, where: { file?: string; lineOf?:
 
 /** Parse the CSV form. Throws InputError naming file:line:column on any problem. */
 export function parseTrajectoryCsv(text: string, file = '<trajectory>'): Trajectory {
-  const lines = text.split(/\r?\n/);
+  const lines = text.split(/\r\n|\r|\n/);
   const problems: Diagnostic[] = [];
   let headerLine = -1;
   for (let i = 0; i < lines.length; i++) {

@@ -23,7 +23,8 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { checkOutputFile } from '../output-write.js';
-import { familyOption, fluxOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
+import { designSeconds, enforceWork } from '../work-limits.js';
+import { familyOption, fluxOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
 import { defaultFlux, edgeRoles } from './pair.js';
 import { si } from './spectrum.js';
 
@@ -37,6 +38,7 @@ const GateOptions = z.object({
   staticFlux: fluxOption().optional(),
   noise: z.boolean().optional(),
   waveform: z.string().min(1, { error: () => 'a file name' }).optional(),
+  maxSeconds: maxSecondsOption().optional(),
 });
 
 export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
@@ -47,6 +49,9 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   if (o.waveform !== undefined) checkOutputFile(o.waveform, ctx.io.cwd, '--waveform');
   const layout = ctx.loadLayout(layoutPath);
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
+  // a design without a named family may design the fallback family too
+  const seconds = designSeconds(layout.rules, gGHz, { lindblad: !!o.noise }) * (o.family === undefined ? 2 : 1);
+  enforceWork({ seconds, what: `a CZ design of ${la.id}-${lb.id}${o.noise ? ' with Lindblad noise' : ''}` }, o.maxSeconds, 'gate');
   const mover = Transmon.fromLayout(lm);
   const partner = Transmon.fromLayout(ls);
   const moverPark = defaultFlux(mover, lm);
@@ -130,6 +135,7 @@ export function registerGate(program: Command, io: CliIo): void {
       .option('--crossing <name>', 'avoided crossing to use: 11-20 (mover to |2>) or 11-02 (default 11-20)')
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its park frequency, else 0)')
       .option('--noise', 'add decoherence and report fidelityNoisy')
-      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux) for fluxlane simulate'),
+      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux) for fluxlane simulate')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => gateCommand(ctx, layout, options)));
 }

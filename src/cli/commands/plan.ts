@@ -19,7 +19,8 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome, OutputFile, OutputFolder } from '../outcome.js';
 import { checkOutputFolder } from '../output-write.js';
-import { familyOption, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
+import { enforceChipLimits, enforceWork, planWork } from '../work-limits.js';
+import { familyOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import type { Progress } from '../progress.js';
 
@@ -70,6 +71,9 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
   }
   const layout = ctx.loadLayout(layoutPath);
+  const threads = o.threads ?? defaultDesignThreads();
+  enforceChipLimits(layout, 'plan');
+  enforceWork(planWork(layout, o.pulses ? { lindblad: o.lindblad, spectators: o.spectators, threads } : null), o.maxSeconds, 'plan');
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const progress = stageProgress(ctx);
   const plan = planChip(layout, { seed: o.seed }, { profiler: ctx.profiler, progress: progress.update }, graph);
@@ -78,7 +82,6 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     if (o.family !== undefined) pulses.family = o.family;
     if (rampNs !== undefined) pulses.rampNs = rampNs;
     if (o.phase !== undefined) pulses.targetPhase = o.phase;
-    const threads = o.threads ?? defaultDesignThreads();
     const onDone = (done: number, total: number): void => progress.update('designing CZ pulses', done, total);
     if (threads > 1) {
       const r = await ctx.profiler.timeAsync('pulses', () => designPulsesInParallel(plan, designer, { threads }, pulses, onDone));
@@ -115,6 +118,7 @@ export function registerPlan(program: Command, io: CliIo): void {
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and waveforms/A-B.csv to this folder (replaced whole; a folder holding other files only with --force)')
       .option('--force', 'replace the output folder even when it holds files fluxlane did not write')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP)
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
       .option('--family <name>', `CZ ramp family for every edge: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default: the gate stage's best-performing one)`)

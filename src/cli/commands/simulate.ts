@@ -14,19 +14,20 @@
  * M: 4 x 4 of [re, im] (order 00, 01, 10, 11 = |AB>, A the mover, lab frame), populations:
  * {"20", "02"}, steps }.
  */
-import { readFileSync } from 'node:fs';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import { Transmon } from '../../transmon/transmon.js';
 import { buildManifoldFrame } from '../../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../../sim/pair-model.js';
 import { simulateGate } from '../../sim/simulate-gate.js';
-import { parseTrajectoryCsv, trajectoryDuration } from '../../sim/trajectory.js';
+import { trajectoryDuration } from '../../sim/trajectory.js';
+import { readTrajectoryFile } from '../../sim/trajectory-file.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { fluxOption, integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { fluxOption, integerOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
+import { enforceWork, simulateWork } from '../work-limits.js';
 import { defaultFlux, edgeRoles } from './pair.js';
 import { findQubit, si } from './spectrum.js';
 
@@ -40,23 +41,20 @@ const SimulateOptions = z.object({
   levels: integerOption(4, 10).optional(),
   spectator: z.array(z.string()).optional(),
   noise: z.boolean().optional(),
+  maxSeconds: maxSecondsOption().optional(),
 });
-
-function readText(path: string, shown: string): string {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    throw new InputError({ file: shown, message: `expected a readable trajectory file, found ${(e as NodeJS.ErrnoException).code ?? 'an error'}` });
-  }
-}
 
 export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(SimulateOptions, raw);
   const staticFluxOpt = o.staticFlux;
   const layout = ctx.loadLayout(layoutPath);
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover);
-  const traj = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(ctx.resolvePath(o.trajectory), o.trajectory), o.trajectory));
+  const traj = ctx.profiler.time('trajectory', () => readTrajectoryFile(ctx.resolvePath(o.trajectory), o.trajectory));
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;
+  {
+    const moverT = Transmon.fromLayout(lm);
+    enforceWork(simulateWork(traj.timeNs, (k) => moverT.ejGHz(traj.flux[k]), { levels, noise: !!o.noise, spectators: o.spectator?.length ?? 0 }), o.maxSeconds, 'simulate');
+  }
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
     const mover = Transmon.fromLayout(lm);
     const partner = Transmon.fromLayout(ls);
@@ -131,6 +129,7 @@ export function registerSimulate(program: Command, io: CliIo): void {
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its park frequency, else 0)')
       .option('--levels <k>', `levels of the mover, 4 to 10 (default ${SIMULATE_CLI_DEFAULTS.levels}; the static qubit keeps k - 2)`)
       .option('--spectator <id...>', 'neighbours to simulate as third transmons')
-      .option('--noise', 'add decoherence (T1, T_phi from the layout) and report fidelityNoisy'),
+      .option('--noise', 'add decoherence (T1, T_phi from the layout) and report fidelityNoisy')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => simulateCommand(ctx, layout, options)));
 }

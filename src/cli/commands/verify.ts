@@ -7,18 +7,25 @@
  */
 import { dirname } from 'node:path';
 import { Argument, type Command } from 'commander';
-import { readPlanFile } from '../../plan/plan-read.js';
+import { planWaveformBytes, readPlanFile } from '../../plan/plan-read.js';
 import { verifyPlan } from '../../plan/verify.js';
 import { toFindingJson } from '../../plan/rules/findings.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { withCommonOptions } from '../options.js';
+import { MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
+import { enforceChipLimits, enforceWork, verifyWork } from '../work-limits.js';
+import { z } from 'zod';
 
-export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath: string): CommandOutcome {
+const VerifyOptions = z.object({ maxSeconds: maxSecondsOption().optional() });
+
+export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath: string, raw: Record<string, unknown> = {}): CommandOutcome {
+  const o = parseOptions(VerifyOptions, raw);
   const layout = ctx.loadLayout(layoutPath);
+  enforceChipLimits(layout, 'verify');
   const full = ctx.resolvePath(planPath);
   const plan = ctx.profiler.time('read plan', () => readPlanFile(full, planPath, layout));
+  enforceWork(verifyWork(layout, planWaveformBytes(dirname(full), plan)), o.maxSeconds, 'verify');
   const result = ctx.profiler.time('verify', () => verifyPlan(layout, plan, { dir: dirname(full), shownDir: dirname(planPath) }));
   const lines = [
     `${layout.chip}: plan ${planPath} against ${layout.file}`,
@@ -49,6 +56,7 @@ export function registerVerify(program: Command, io: CliIo): void {
       .command('verify')
       .description('recompute every rule and claim of a plan.json from the layout and the waveform files it names (for example a plan edited by hand) and say which does not hold')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .addArgument(new Argument('<plan>', 'plan.json written by fluxlane plan')),
-  ).action(commandAction<[string, string]>(io, (ctx, layoutPath, planPath) => verifyCommand(ctx, layoutPath, planPath)));
+      .addArgument(new Argument('<plan>', 'plan.json written by fluxlane plan'))
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
+  ).action(commandAction<[string, string]>(io, (ctx, layoutPath, planPath, options) => verifyCommand(ctx, layoutPath, planPath, options)));
 }
