@@ -23,6 +23,7 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { checkOutputFile } from '../output-write.js';
+import { FigureGuard, guardDesign } from '../figure-guard.js';
 import { designSeconds, enforceWork } from '../work-limits.js';
 import { familyOption, fluxOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
 import { defaultFlux, edgeRoles } from './pair.js';
@@ -71,6 +72,9 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       noise: !!o.noise,
     }),
   );
+  const guard = new FigureGuard(layout);
+  guardDesign(guard, design, [la.id, lb.id]);
+  guard.throwIfAny();
   const data: Record<string, unknown> = {
     edge: [la.id, lb.id],
     mover: design.mover,

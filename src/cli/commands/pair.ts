@@ -29,6 +29,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { fluxOption, integerOption, parseOptions, withCommonOptions } from '../options.js';
 import { findQubit, si } from './spectrum.js';
+import { FigureGuard } from '../figure-guard.js';
 
 export const PAIR_CLI_DEFAULTS = Object.freeze({ points: 201, levels: 6 });
 
@@ -108,6 +109,12 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const resonances = ctx.profiler.time('resonances', () => pairResonances(mover, partner, partnerFlux, pair.gChargeGHz));
   const sweep = o.sweep ? ctx.profiler.time('sweep', () => zzSweep(pair, moverIsA ? 'a' : 'b', partnerFlux, { points: o.points ?? PAIR_CLI_DEFAULTS.points })) : undefined;
 
+  const guard = new FigureGuard(layout);
+  const edgeIds: [string, string] = [qa.id, qb.id];
+  guard.finite(spectrum.zzGHz, 'the static ZZ', { edge: edgeIds });
+  for (const [i, j] of [[0, 0], [0, 1], [1, 0], [1, 1], [2, 0], [0, 2]] as const) guard.finite(spectrum.energy(i, j), `the dressed level ${i}${j}`, { edge: edgeIds });
+  for (const p of sweep ?? []) guard.finite(p.zzGHz, `the static ZZ at mover flux ${p.moverFlux}`, { edge: edgeIds });
+  guard.throwIfAny();
   const e00 = spectrum.energy(0, 0);
   const rel = (i: number, j: number) => si((spectrum.energy(i, j) - e00) * 1e9);
   const f01A = qa.f01(fluxA);

@@ -19,6 +19,7 @@ import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome, OutputFile, OutputFolder } from '../outcome.js';
 import { checkOutputFolder } from '../output-write.js';
+import { FigureGuard, guardPlan } from '../figure-guard.js';
 import { enforceChipLimits, enforceWork, planWork } from '../work-limits.js';
 import { familyOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
@@ -89,6 +90,9 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     } else ctx.profiler.time('pulses', () => designPulses(plan, designer, pulses, onDone));
   }
   progress.finish();
+  const guard = new FigureGuard(layout);
+  guardPlan(guard, plan);
+  guard.throwIfAny();
   const json = ctx.profiler.time('output', () => planJson(plan, { file: layout.file, seed: o.seed, pulses: designer !== null }));
   let folder: OutputFolder | undefined;
   if (o.outputDir !== undefined) {

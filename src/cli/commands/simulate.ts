@@ -28,6 +28,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { fluxOption, integerOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
 import { enforceWork, simulateWork } from '../work-limits.js';
+import { FigureGuard } from '../figure-guard.js';
 import { defaultFlux, edgeRoles } from './pair.js';
 import { findQubit, si } from './spectrum.js';
 
@@ -82,6 +83,16 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const range = moverEjRange(mover, traj, o.trajectory);
   const frame = ctx.profiler.time('frame', () => buildManifoldFrame(model, { ...range, noiseOperators: !!o.noise }));
   const sim = ctx.profiler.time('simulate', () => simulateGate(frame, traj, { lindblad: !!o.noise }));
+  const guard = new FigureGuard(layout);
+  const edgeIds: [string, string] = [la.id, lb.id];
+  guard.probability(sim.fidelity, 'the coherent fidelity', { edge: edgeIds }, 'the trajectory');
+  guard.probability(sim.leakage, 'the leakage', { edge: edgeIds }, 'the trajectory');
+  guard.finite(sim.conditionalPhase, 'the conditional phase', { edge: edgeIds });
+  if (o.noise && sim.noisy) {
+    guard.probability(sim.noisy.fidelity, 'the fidelity with decoherence', { edge: edgeIds }, 'the coherence times against the trajectory');
+    guard.probability(sim.decoherenceEstimate, 'the decoherence error estimate', { edge: edgeIds }, 'the coherence times against the trajectory');
+  }
+  guard.throwIfAny();
   const m = Array.from({ length: 4 }, (_, r) => Array.from({ length: 4 }, (_, c) => [si(sim.m.re[r * 4 + c]), si(sim.m.im[r * 4 + c])]));
   const data: Record<string, unknown> = {
     edge: [la.id, lb.id],

@@ -15,6 +15,7 @@ import { roundSignificant } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
+import { FigureGuard } from '../figure-guard.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { FLUX_PHRASE, fluxOption, integerOption, parseFluxText, parseOptions, withCommonOptions } from '../options.js';
@@ -85,6 +86,13 @@ export function spectrumCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const qubit = findQubit(layout, o.qubit, '--qubit');
   const q = ctx.profiler.time('transmon', () => Transmon.fromLayout(qubit));
   const rows = ctx.profiler.time('spectrum', () => spectrumRows(q, fluxes));
+  const guard = new FigureGuard(layout);
+  for (const r of rows) {
+    guard.finite(r.f01GHz, `f01 at flux ${r.flux}`, { qubit: q.id });
+    guard.finite(r.f12GHz, `f12 at flux ${r.flux}`, { qubit: q.id });
+    guard.range(r.t1Ns, 0, Infinity, `T1 at flux ${r.flux} (ns)`, { qubit: q.id }, 'the layout\'s t1');
+  }
+  guard.throwIfAny();
   const data = {
     qubit: q.id,
     ec: si(q.ecGHz * 1e9),
