@@ -85,7 +85,7 @@ export function enforceChipLimits(layout: ChipLayout, command: string): void {
     const q = layout.qubits.find((x) => x.id === worst![0])!;
     throw new InputError({
       file: layout.file, line: q.source.line || undefined, column: q.source.column || undefined, path: q.source.path,
-      message: `${command}: expected at most ${MAX_DEGREE} couplings per qubit (planar chips with fixed couplers have 2 to 6; the parking search grows too steeply beyond), found ${worst[1]} on ${worst[0]}`,
+      message: `expected at most ${MAX_DEGREE} couplings per qubit (planar chips with fixed couplers have 2 to 6; the parking search grows too steeply beyond), found ${worst[1]} on ${worst[0]}`,
     });
   }
 }

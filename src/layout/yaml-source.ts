@@ -113,6 +113,7 @@ export function readYamlSource(text: string, collector: DiagnosticCollector): So
   // 3. Walk the tree into plain values, keeping each value's position.
   const valuePositions = new Map<string, Position>();
   const keyPositions = new Map<string, Position>();
+  if (doc.contents === null) valuePositions.set(pathKey([]), { line: 1, column: 1 }); // an empty document
   const walker = new Walker(doc, at, collector, valuePositions, keyPositions);
   const value = doc.contents === null ? null : walker.walk(doc.contents as Node, [], 0);
   if (walker.failed) return undefined;

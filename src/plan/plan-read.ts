@@ -311,6 +311,7 @@ export function describeJson(v: unknown): string {
   if (typeof v === 'number' && !Number.isFinite(v)) return 'a number too large to represent';
   if (typeof v === 'string') return JSON.stringify(v.length > 40 ? `${v.slice(0, 40)}...` : v);
   if (v === null) return 'null';
+  if (typeof v === 'number' || typeof v === 'boolean') return String(v);
   if (isObject(v)) {
     const keys = Object.keys(v);
     return keys.length === 0 ? 'an empty object' : `an object (keys ${keys.slice(0, 4).join(', ')}${keys.length > 4 ? ', ...' : ''})`;
