@@ -16,6 +16,7 @@
 import { availableParallelism } from 'node:os';
 import type { ChipLayout, Rules } from '../layout/types.js';
 import { InputError } from '../util/errors.js';
+import { MAX_SCHEDULE_STEPS, scheduleTooLong } from '../sim/propagate-frame.js';
 
 /** Seconds of work a command may plan for without --max-seconds. */
 export const DEFAULT_MAX_SECONDS = 300;
@@ -143,13 +144,16 @@ export function planWork(layout: ChipLayout, pulses: { lindblad?: boolean; spect
 }
 
 /** `simulate`: the frame propagator over a trajectory (steps of at most 0.2 ns and 0.25 GHz of E_J). */
-export function simulateWork(timeNs: ArrayLike<number>, ejGHz: (k: number) => number, options: { levels: number; noise: boolean; spectators: number }): WorkEstimate {
+export function simulateWork(timeNs: ArrayLike<number>, flux: ArrayLike<number>, ejGHz: (k: number) => number, options: { levels: number; noise: boolean; spectators: number; file?: string }): WorkEstimate {
+  // as src/sim/propagate-frame.ts stepSchedule counts them: a segment of constant flux is one exact
+  // step (0.25 ns pieces with noise), any other at most 0.2 ns and 0.25 GHz of E_J per step
   let steps = 0;
   for (let k = 1; k < timeNs.length; k++) {
-    const dEj = Math.abs(ejGHz(k) - ejGHz(k - 1));
-    if (dEj === 0) continue; // a hold is an exact phase
-    steps += Math.max(1, Math.ceil((timeNs[k] - timeNs[k - 1]) / 0.2), Math.ceil(dEj / 0.25));
+    const dt = timeNs[k] - timeNs[k - 1];
+    if (flux[k] === flux[k - 1]) steps += options.noise ? Math.max(1, Math.ceil(dt / 0.25)) : 1;
+    else steps += Math.max(1, Math.ceil(dt / 0.2), Math.ceil(Math.abs(ejGHz(k) - ejGHz(k - 1)) / 0.25));
   }
+  if (steps > MAX_SCHEDULE_STEPS) throw scheduleTooLong(steps, timeNs[timeNs.length - 1] - timeNs[0], options.file);
   let s = steps * WORK_MODEL.stepSeconds * (options.levels / 6) ** 3 * WORK_MODEL.spectatorFactor ** options.spectators;
   if (options.noise) s *= WORK_MODEL.noisyStepFactor;
   return { seconds: s, what: `a trajectory of ${timeNs.length} samples needing about ${steps.toExponential(2)} propagator steps${options.noise ? ' with Lindblad noise' : ''}` };

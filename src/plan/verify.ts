@@ -220,7 +220,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
       input: pe, index: edge.index, mover, partner, interactionGHz: to, interactionFlux: toFlux, parkedCount: parked.size,
       waveform, waveformFile, noisyMethod,
       simulation: waveform
-        ? () => (cached ??= resimulate(ctx, pe, mover, partner, states, waveform!, noisyMethod))
+        ? () => (cached ??= resimulateFile(ctx, pe, mover, partner, states, waveform!, noisyMethod, waveformFile!))
         : null,
     });
   }
@@ -302,6 +302,16 @@ export function plateauSample(wf: Trajectory, f01: (flux: number) => number): nu
     }
   }
   return best;
+}
+
+/** resimulate, with the waveform's file named in an InputError (a waveform too long to simulate). */
+function resimulateFile(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null, file: string): GateSimulation {
+  try {
+    return resimulate(ctx, pe, mover, partner, states, waveform, noisyMethod);
+  } catch (err) {
+    if (err instanceof InputError) throw new InputError(err.diagnostics.map((d) => ({ ...d, file: d.file ?? file })));
+    throw err;
+  }
 }
 
 /** The gate's waveform simulated on the model its designer used (src/gate/design.ts). */

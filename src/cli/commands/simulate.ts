@@ -54,7 +54,7 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;
   {
     const moverT = Transmon.fromLayout(lm);
-    enforceWork(simulateWork(traj.timeNs, (k) => moverT.ejGHz(traj.flux[k]), { levels, noise: !!o.noise, spectators: o.spectator?.length ?? 0 }), o.maxSeconds, 'simulate');
+    enforceWork(simulateWork(traj.timeNs, traj.flux, (k) => moverT.ejGHz(traj.flux[k]), { levels, noise: !!o.noise, spectators: o.spectator?.length ?? 0, file: o.trajectory }), o.maxSeconds, 'simulate');
   }
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
     const mover = Transmon.fromLayout(lm);
