@@ -10,7 +10,7 @@ import { z } from 'zod';
 import type { Rules } from './types.js';
 import { parseQuantity, type QuantityKind } from './units.js';
 import { describeFound } from './diagnostics.js';
-import { judgeRange, type PlausibleRange } from './plausible.js';
+import { judgeRange, rangeText, type PlausibleRange } from './plausible.js';
 
 export type RuleKind = 'frequency' | 'time' | 'number';
 export type RuleRange = 'positive' | 'nonNegative' | 'fraction';
@@ -151,11 +151,13 @@ export function ruleSpecByKey(key: string): RuleSpec | undefined {
 /** The README's rules table (Markdown), generated from shared/rules.json. */
 export function rulesTableMarkdown(): string {
   const lines = [
-    '| key | default | kind | meaning | source |',
-    '|---|---|---|---|---|',
+    '| key | default | kind | meaning | source | error outside | warning outside |',
+    '|---|---|---|---|---|---|---|',
     ...RULE_SPECS.map((s) => {
       const shown = s.default === null ? 'none' : String(s.default);
-      return `| \`${s.key}\` | ${shown} | ${s.kind} | ${s.doc.replace(/\|/g, '\\|')} | ${s.source} |`;
+      const range = plausibleRangeOf(s);
+      const ranges = range ? `${rangeText(range, 'hard')} | ${rangeText(range, 'usual')}` : '- | -';
+      return `| \`${s.key}\` | ${shown} | ${s.kind} | ${s.doc.replace(/\|/g, '\\|')} | ${s.source} | ${ranges} |`;
     }),
   ];
   return lines.join('\n');

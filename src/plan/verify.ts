@@ -37,7 +37,7 @@ import { evaluateGate, type DuringGate, type GateScenario } from './rules/cz-eva
 import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
 import { tuningRoomShortfall } from './rules/tuning-room.js';
-import { CLAIMS, claimHolds, formatClaimValue, type Claim, type ClaimEnv } from './verify-claims.js';
+import { CLAIMS, claimHolds, formatClaimValue, shortNumber, type Claim, type ClaimEnv } from './verify-claims.js';
 
 export const VERIFY_DEFAULTS = Object.freeze({
   crossingToleranceGHz: 1e-5,
@@ -243,7 +243,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
     if (recomputed === undefined) return;
     claims++;
     if (claimHolds(claim, stated, recomputed)) return;
-    const tol = claim.tolerance.rel ? `${formatClaimValue(claim.tolerance.abs, claim.unit)} + ${claim.tolerance.rel} relative` : formatClaimValue(claim.tolerance.abs, claim.unit);
+    const tol = claim.tolerance.rel ? `${formatClaimValue(claim.tolerance.abs, claim.unit)} + ${shortNumber(claim.tolerance.rel, 3)} relative` : formatClaimValue(claim.tolerance.abs, claim.unit);
     const at = plan.locate(path);
     violations.push({
       rule: 'plan-claim', qubits, value: stated, threshold: recomputed, edge,
