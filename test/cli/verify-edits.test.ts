@@ -49,6 +49,23 @@ describe('fluxlane verify catches hand edits of a plan with pulses', () => {
     expect(r.json.checked.claims).toBeGreaterThan(80);
   });
 
+  it('a plan designed for pi/2 with a spectator simulated re-simulates on the same model and holds', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fluxlane-edits-'));
+    const p = await runFluxlane(['plan', LAYOUT, '-o', 'p', '--phase', 'pi/2', '--spectators', '--threads', '1'], { cwd: dir });
+    expect(p.code).toBe(0);
+    const plan = JSON.parse(readFileSync(join(dir, 'p/plan.json'), 'utf8'));
+    expect(plan.edges[0].gate.targetPhase).toBeCloseTo(Math.PI / 2, 10); // 12 significant digits in plan.json
+    expect(plan.edges[0].gate.simulatedSpectators).toHaveLength(1);
+    const v = await runFluxlane(['verify', LAYOUT, join(dir, 'p/plan.json'), '--json']);
+    expect(v.code).toBe(0);
+    // without the record of the spectator the re-simulation differs from the claims
+    delete plan.edges[0].gate.simulatedSpectators;
+    writeFileSync(join(dir, 'p/plan.json'), JSON.stringify(plan));
+    const w = await runFluxlane(['verify', LAYOUT, join(dir, 'p/plan.json'), '--json']);
+    expect(w.code).toBe(1);
+    expect(claims(w.json()).some((c) => c.startsWith('edges[0].gate.'))).toBe(true);
+  }, 60_000);
+
   it.each([50e6, 500e6])('an interaction frequency moved by %d Hz', async (shift) => {
     const r = await verifyEdited((_, plan) => {
       plan.edges[0].interactionFrequency += shift;
