@@ -23,7 +23,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { closeSync, existsSync, lstatSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { basename, dirname, join, resolve } from 'node:path';
+import { basename, dirname, join, resolve, sep } from 'node:path';
 import { InputError } from '../util/errors.js';
 import type { OutputFile, OutputFolder } from './outcome.js';
 
@@ -245,9 +245,13 @@ function startsWithPlanFormat(file: string): boolean {
  * made) a folder, and what is there is absent, empty or fluxlane output (any other non-empty
  * folder only with `force`). Throws InputError naming the folder and what to do.
  */
-export function checkOutputFolder(path: string, cwd: string, force: boolean, flag = '--output-dir'): void {
+export function checkOutputFolder(path: string, cwd: string, force: boolean, flag = '--output-dir', inputs: readonly string[] = []): void {
   const target = resolve(cwd, path);
   if (target === dirname(target)) throw new InputError({ file: path, message: `option ${flag}: expected a folder to write into, found the root of the file system` });
+  const inside = (p: string): boolean => p === target || p.startsWith(target.endsWith(sep) ? target : target + sep);
+  if (inside(resolve(cwd))) throw new InputError({ file: path, message: `option ${flag}: expected a folder apart from the current one, found the current folder or one above it (it would be replaced whole)` });
+  const held = inputs.find((f) => inside(resolve(cwd, f)));
+  if (held !== undefined) throw new InputError({ file: path, message: `option ${flag}: expected a folder that holds none of the inputs, found ${held} inside it (it would be replaced whole)` });
   const state = folderState(target);
   if (state === 'file') throw new InputError({ file: path, message: `option ${flag}: expected a folder, found a file (remove it or choose another folder)` });
   if (state === 'foreign' && !force) {

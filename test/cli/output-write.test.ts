@@ -48,6 +48,10 @@ describe('output writing', () => {
     expect(() => checkOutputFolder('foreign', dir, false)).toThrow(/add --force to replace it/);
     expect(() => checkOutputFolder('foreign', dir, true)).not.toThrow();
     expect(() => checkOutputFolder('old/plan.json', dir, true)).toThrow(/expected a folder, found a file/);
+    // never the current folder, one above it, or one holding an input, even with --force
+    expect(() => checkOutputFolder('.', join(dir, 'foreign'), true)).toThrow(/found the current folder or one above it/);
+    expect(() => checkOutputFolder('..', join(dir, 'foreign'), true)).toThrow(/found the current folder or one above it/);
+    expect(() => checkOutputFolder('foreign', dir, true, '--output-dir', ['foreign/chip.yaml'])).toThrow(/found foreign\/chip\.yaml inside it/);
   });
 
   it('writeOutputFolder replaces a fluxlane folder whole (files of the old one gone) and leaves nothing beside it', () => {

@@ -66,7 +66,7 @@ export function stageProgress(ctx: CommandContext): { update: (stage: string, do
 export async function planCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): Promise<CommandOutcome> {
   const o = parseOptions(PlanOptionsSchema, raw);
   const rampNs = o.ramp;
-  if (o.outputDir !== undefined) checkOutputFolder(o.outputDir, ctx.io.cwd, o.force ?? false);
+  if (o.outputDir !== undefined) checkOutputFolder(o.outputDir, ctx.io.cwd, o.force ?? false, '--output-dir', [layoutPath]);
   const designer = o.pulses ? await ctx.profiler.timeAsync('gate stage', () => loadGateDesigner()) : null;
   if (o.pulses && !designer) {
     throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
