@@ -4,12 +4,12 @@
  * check for mediated exchange and drive crosstalk (README physics conventions, section 5).
  */
 
-import type { ChipGraph } from './graph.js';
+import { idOfNode, nodeKey, type ChipGraph } from './graph.js';
 
 /** Neighbours of a qubit, in the order of the layout's qubit list. */
 export function neighbours(graph: ChipGraph, id: string): string[] {
-  const list = graph.neighbors(id);
-  return list.sort((a, b) => graph.getNodeAttribute(a, 'index') - graph.getNodeAttribute(b, 'index'));
+  const list = graph.neighbors(nodeKey(id));
+  return list.sort((a, b) => graph.getNodeAttribute(a, 'index') - graph.getNodeAttribute(b, 'index')).map((k) => idOfNode(graph, k));
 }
 
 export interface NextNearestPair {
@@ -35,9 +35,9 @@ export const NEXT_NEAREST_DEFAULTS: Readonly<NextNearestOptions> = Object.freeze
  */
 export function nextNearestPairs(graph: ChipGraph, options: Partial<NextNearestOptions> = {}): NextNearestPair[] {
   const { includeCoupled } = { ...NEXT_NEAREST_DEFAULTS, ...options };
-  const index = (id: string) => graph.getNodeAttribute(id, 'index');
+  const index = (id: string) => graph.getNodeAttribute(nodeKey(id), 'index');
   const byPair = new Map<string, NextNearestPair>();
-  const ordered = graph.nodes().sort((x, y) => index(x) - index(y));
+  const ordered = graph.nodes().map((k) => idOfNode(graph, k)).sort((x, y) => index(x) - index(y));
   for (const middle of ordered) {
     const around = neighbours(graph, middle);
     for (let i = 0; i < around.length; i++) {
@@ -46,7 +46,7 @@ export function nextNearestPairs(graph: ChipGraph, options: Partial<NextNearestO
         const key = `${a}\u0000${b}`;
         let pair = byPair.get(key);
         if (!pair) {
-          const coupled = graph.hasEdge(a, b);
+          const coupled = graph.hasEdge(nodeKey(a), nodeKey(b));
           if (coupled && !includeCoupled) continue;
           pair = { a, b, via: [], coupled };
           byPair.set(key, pair);

@@ -4,7 +4,7 @@
  * (compute-then-assign, as graphology's own metrics do).
  */
 
-import type { ChipGraph } from './graph.js';
+import { idOfNode, nodeKey, type ChipGraph } from './graph.js';
 
 export interface DegreeStats {
   min: number;
@@ -33,10 +33,10 @@ export function degreeStats(graph: ChipGraph): DegreeStats {
  * layout order, and each lists its qubits in layout order.
  */
 export function connectedComponents(graph: ChipGraph): string[][] {
-  const index = (id: string) => graph.getNodeAttribute(id, 'index');
+  const index = (id: string) => graph.getNodeAttribute(nodeKey(id), 'index');
   const seen = new Set<string>();
   const components: string[][] = [];
-  const ordered = graph.nodes().sort((a, b) => index(a) - index(b));
+  const ordered = graph.nodes().map((k) => idOfNode(graph, k)).sort((a, b) => index(a) - index(b));
   for (const start of ordered) {
     if (seen.has(start)) continue;
     const members: string[] = [];
@@ -45,7 +45,8 @@ export function connectedComponents(graph: ChipGraph): string[][] {
     for (let head = 0; head < queue.length; head++) {
       const id = queue[head];
       members.push(id);
-      graph.forEachNeighbor(id, (next) => {
+      graph.forEachNeighbor(nodeKey(id), (key) => {
+        const next = idOfNode(graph, key);
         if (!seen.has(next)) {
           seen.add(next);
           queue.push(next);
@@ -61,7 +62,7 @@ export function connectedComponents(graph: ChipGraph): string[][] {
 connectedComponents.assign = function assign(graph: ChipGraph): string[][] {
   const components = connectedComponents(graph);
   components.forEach((members, c) => {
-    for (const id of members) graph.setNodeAttribute(id, 'component', c);
+    for (const id of members) graph.setNodeAttribute(nodeKey(id), 'component', c);
   });
   return components;
 };

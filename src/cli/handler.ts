@@ -7,19 +7,27 @@
  *   2  bad input (InputError: one stderr line per diagnostic) or usage (commander, see main.ts)
  *   70 internal error: one line asking for a report; the stack only with FLUXLANE_DEBUG=1
  *
- * Output files are written to a temporary file in the same folder and renamed into place, so a
- * failure never leaves a partial file.
+ * Output files are written to a temporary file in the same folder and renamed into place, and an
+ * output folder is written whole beside the old one and swapped in (src/cli/output-write.ts), with
+ * SIGINT, SIGTERM and SIGHUP held meanwhile: a failure or an interrupt never leaves a partial file
+ * or a mix of old and new files.
+ *
+ * Warnings (unusual layout values, src/layout/plausible.ts) gathered while the command ran go to
+ * stderr, one line each, and into the JSON output as "warnings"; they never change the exit code.
  */
 
-import { randomBytes } from 'node:crypto';
-import { mkdirSync, renameSync, rmSync, writeFileSync } from 'node:fs';
-import { basename, dirname, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import type { Command } from 'commander';
-import { formatDiagnostic, InputError } from '../util/errors.js';
+import { loadLayoutFile } from '../layout/load.js';
+import type { ChipLayout } from '../layout/types.js';
+import { formatDiagnostic, InputError, type Diagnostic } from '../util/errors.js';
 import { StageProfiler } from '../util/profile.js';
 import type { CliIo } from './io.js';
-import type { CommandOutcome, OutputFile } from './outcome.js';
+import type { CommandOutcome } from './outcome.js';
+import { withSignalsHeld, writeOutputFiles, writeOutputFolder } from './output-write.js';
 import { startProgress, type Progress } from './progress.js';
+
+export { writeOutputFiles } from './output-write.js';
 
 export const EXIT = Object.freeze({ ok: 0, violations: 1, input: 2, internal: 70 });
 
@@ -33,6 +41,10 @@ export interface CommandContext {
   resolvePath(path: string): string;
   /** A progress bar on stderr (drawn only on a terminal). */
   progress(label: string, total: number): Progress;
+  /** Read a layout named by the user (stage 'layout' of the profile); its warnings are kept for the output. */
+  loadLayout(path: string): ChipLayout;
+  /** Add a warning (printed on stderr and under "warnings" in --json; the exit code stays). */
+  warn(warning: Diagnostic): void;
 }
 
 export interface CommonFlags {
@@ -48,43 +60,59 @@ export async function runCommand(
 ): Promise<number> {
   const json = Boolean(flags.json);
   const profiler = new StageProfiler(Boolean(flags.profile));
+  const warnings: Diagnostic[] = [];
   const ctx: CommandContext = {
     io,
     profiler,
     json,
     resolvePath: (p) => resolve(io.cwd, p),
     progress: (label, total) => startProgress(io, label, total),
+    loadLayout: (p) => {
+      const layout = profiler.time('layout', () => loadLayoutFile(resolve(io.cwd, p), p));
+      warnings.push(...(layout.warnings ?? []));
+      return layout;
+    },
+    warn: (w) => void warnings.push(w),
   };
   const started = process.hrtime.bigint();
   let code: number;
   try {
     const outcome = await body(ctx);
-    if (outcome.files && outcome.files.length > 0) {
-      const files = outcome.files;
-      profiler.time('write', () => writeOutputFiles(files, io.cwd));
+    const { files, folder } = outcome;
+    if ((files && files.length > 0) || folder) {
+      profiler.time('write', () =>
+        withSignalsHeld(() => {
+          if (files && files.length > 0) writeOutputFiles(files, io.cwd, io.env);
+          if (folder) writeOutputFolder(folder, io.cwd, io.env);
+        }),
+      );
     }
+    for (const w of warnings) io.stderr(`${formatDiagnostic(w)}\n`);
     const profile = flags.profile
       ? { ...profiler.report(), total: Number(process.hrtime.bigint() - started) * 1e-9 }
       : undefined;
     if (json) {
-      io.stdout(`${JSON.stringify(profile ? { ...outcome.data, profile } : outcome.data, null, 2)}\n`);
+      const data = warnings.length > 0 ? { ...outcome.data, warnings } : outcome.data;
+      io.stdout(`${JSON.stringify(profile ? { ...data, profile } : data, null, 2)}\n`);
     } else {
       if (outcome.text !== '') io.stdout(outcome.text.endsWith('\n') ? outcome.text : `${outcome.text}\n`);
       if (profile) io.stderr(formatProfile(profile));
     }
     code = outcome.exitCode;
   } catch (err) {
-    code = reportError(io, err, json);
+    for (const w of warnings) io.stderr(`${formatDiagnostic(w)}\n`);
+    code = reportError(io, err, json, warnings);
   }
   io.exitCode = code;
   return code;
 }
 
 /** Print a thrown error the way the CLI promises; returns the exit code. */
-export function reportError(io: CliIo, err: unknown, json: boolean): number {
+export function reportError(io: CliIo, err: unknown, json: boolean, warnings: readonly Diagnostic[] = []): number {
   if (err instanceof InputError) {
     for (const d of err.diagnostics) io.stderr(`${formatDiagnostic(d)}\n`);
-    if (json) io.stdout(`${JSON.stringify({ ok: false, error: 'input', diagnostics: err.diagnostics }, null, 2)}\n`);
+    const extra = warnings.length > 0 ? { warnings } : {};
+    if (json) io.stdout(`${JSON.stringify({ ok: false, error: 'input', diagnostics: err.diagnostics, ...extra }, null, 2)}\n`);
     return EXIT.input;
   }
   const message = err instanceof Error ? err.message.split('\n')[0] : String(err);
@@ -98,56 +126,6 @@ export function reportError(io: CliIo, err: unknown, json: boolean): number {
 export function formatProfile(profile: Record<string, number>): string {
   const parts = Object.entries(profile).map(([stage, s]) => `${stage} ${s.toFixed(4)}`);
   return `profile (s): ${parts.join(', ')}\n`;
-}
-
-/**
- * Write every file to `<dir>/.<name>.<random>.tmp`, then rename all into place. If any write
- * fails, the temporary files are removed and an InputError names the file; nothing is left half
- * written.
- */
-export function writeOutputFiles(files: readonly OutputFile[], cwd: string): void {
-  const staged: { tmp: string; target: string; shown: string }[] = [];
-  try {
-    for (const file of files) {
-      const target = resolve(cwd, file.path);
-      const tmp = resolve(dirname(target), `.${basename(target)}.${randomBytes(6).toString('hex')}.tmp`);
-      try {
-        mkdirSync(dirname(target), { recursive: true });
-        writeFileSync(tmp, file.contents, { flag: 'wx' });
-      } catch (err) {
-        removeQuietly(tmp);
-        throw new InputError({ file: file.path, message: `expected a writable output path, found ${errnoText(err)}` });
-      }
-      staged.push({ tmp, target, shown: file.path });
-    }
-    for (const s of staged) {
-      try {
-        renameSync(s.tmp, s.target);
-      } catch (err) {
-        throw new InputError({ file: s.shown, message: `expected a writable output path, found ${errnoText(err)}` });
-      }
-    }
-  } finally {
-    for (const s of staged) removeQuietly(s.tmp);
-  }
-}
-
-/** Remove a temporary file if it is there; never throws (the path may not even be a folder's child). */
-function removeQuietly(path: string): void {
-  try {
-    rmSync(path, { force: true });
-  } catch {
-    // nothing was written there
-  }
-}
-
-function errnoText(err: unknown): string {
-  const code = (err as NodeJS.ErrnoException).code;
-  if (code === 'ENOENT') return 'a folder that does not exist';
-  if (code === 'EACCES' || code === 'EPERM') return 'no permission to write there';
-  if (code === 'EISDIR') return 'a folder';
-  if (code === 'ENOTDIR' || code === 'EEXIST') return 'a file where a folder should be';
-  return err instanceof Error ? err.message : String(err);
 }
 
 /**

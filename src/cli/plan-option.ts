@@ -9,7 +9,7 @@ import { dirname } from 'node:path';
 import type { ChipLayout, QubitLayout } from '../layout/types.js';
 import { Transmon } from '../transmon/transmon.js';
 import { findQubit } from './commands/spectrum.js';
-import { readPlan, type PlanInput } from '../plan/plan-read.js';
+import { planDocument, readPlanFile, type PlanDocument as PlanInput } from '../plan/plan-read.js';
 import { edgeFromPlan, type EdgeFromPlan } from '../plan/edge-from-plan.js';
 import { InputError } from '../util/errors.js';
 import type { CommandContext } from './handler.js';
@@ -25,14 +25,8 @@ export interface PlanOption {
 /** Read and check `--plan` against the layout (JSON and schema problems are InputErrors with positions). */
 export function readPlanOption(ctx: CommandContext, file: string, layout: ChipLayout): PlanOption {
   const full = ctx.resolvePath(file);
-  let text: string;
-  try {
-    text = readFileSync(full, 'utf8');
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    throw new InputError({ file, message: `expected a readable plan file (option --plan), found ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'a folder' : String(code ?? err)}` });
-  }
-  return { plan: readPlan(text, file, layout), file, dir: dirname(full) };
+  // the one plan reader (UTF-8, positions, the layout's qubits and couplings), then its choices as typed objects
+  return { plan: planDocument(readPlanFile(full, file, layout)), file, dir: dirname(full) };
 }
 
 /** The plan's view of the edge a-b, or null without --plan. */

@@ -104,6 +104,10 @@ export interface GateDesign {
    * Empty when no design was made.
    */
   awg?: { sampleRateGHz: number; lineDelayNs: number; flux: Float64Array };
+  /** The conditional phase the design aimed at (rad; the request's, default pi; set by designCzGate). */
+  targetPhase?: number;
+  /** Spectators simulated as third transmons (ids and their static fluxes), as requested (set by designCzGate). */
+  simulatedSpectators?: { qubit: string; flux: number }[];
 }
 
 export const DEFAULT_FAMILY = 'fast-adiabatic';
@@ -147,6 +151,13 @@ export const DESIGN_DEFAULTS = Object.freeze({
  * one is kept.
  */
 export function designCzGate(req: GateDesignRequest): GateDesign {
+  const d = designBest(req);
+  d.targetPhase = req.targetPhase ?? Math.PI;
+  d.simulatedSpectators = (req.spectators ?? []).map((s) => ({ qubit: s.transmon.id, flux: s.flux }));
+  return d;
+}
+
+function designBest(req: GateDesignRequest): GateDesign {
   const best = designWithFamily(req);
   // No family asked for and the default one misses the goals (or fails): try the fallback family,
   // whose schedule slows down wherever any of the crossings it watches is near.

@@ -7,7 +7,7 @@
  */
 
 import type { ChipLayout, CouplingLayout, QubitLayout, Rules, SourceRef, TlsDefect, TransmonSpec } from './types.js';
-import { describeFound, formatPath, type DiagnosticCollector, type Path } from './diagnostics.js';
+import { describeFound, DiagnosticCollector, formatPath, type Path } from './diagnostics.js';
 import { parseQuantity, formatQuantity, type QuantityKind } from './units.js';
 import {
   COUPLING_KEYS, CouplingListSchema, CouplingMapSchema, LayoutTopSchema, QUBIT_ID_PATTERN, QUBIT_KEYS,
@@ -17,6 +17,7 @@ import { DEFAULT_RULES, parseRuleValue, ruleSpecByKey } from './rules.js';
 import { defaultPhrase, reportZodIssues, unknownKeyMessage } from './zod-issues.js';
 import { didYouMean } from './suggest.js';
 import type { SourceTree } from './yaml-source.js';
+import { judgePlausible } from './plausible.js';
 
 type Sign = 'positive' | 'negative';
 
@@ -24,7 +25,12 @@ const isMap = (v: unknown): v is Record<string, unknown> => v !== null && typeof
 
 const TRANSMON_FORMS = 'ec + ejMax (+ asymmetry), fMax + anharmonicity (+ asymmetry or fMin), or ec + rn (+ asymmetry)';
 
-export function convertLayout(tree: SourceTree, file: string, collector: DiagnosticCollector): ChipLayout | undefined {
+/**
+ * Convert a parsed layout; problems go to `collector`, warnings about unusual values (plausible.ts)
+ * to `warnings` (default: a collector nobody reads).
+ */
+export function convertLayout(tree: SourceTree, file: string, collector: DiagnosticCollector, warnings: DiagnosticCollector = new DiagnosticCollector(file, tree.locate)): ChipLayout | undefined {
+  judge = { warnings };
   const root = tree.value;
   const ref = (path: Path): SourceRef => {
     const p = tree.locate(path, 'key');
@@ -123,6 +129,7 @@ export function convertLayout(tree: SourceTree, file: string, collector: Diagnos
         continue;
       }
       const r = parseRuleValue(spec, raw);
+      if (r.ok && r.warning) warnings.add(['rules', key], `warning: ${r.warning}`);
       if (!r.ok) collector.add(['rules', key], r.message);
       else if (r.value === undefined) delete (rules as Partial<Rules>)[spec.field];
       else (rules as unknown as Record<string, number>)[spec.field] = r.value;
@@ -140,13 +147,20 @@ export function convertLayout(tree: SourceTree, file: string, collector: Diagnos
   };
 }
 
-/** Read one quantity field; report and return undefined when it is wrong. */
+/** Where warnings of the conversion in progress go (set by convertLayout; conversion is synchronous). */
+let judge: { warnings: DiagnosticCollector } | undefined;
+
+/**
+ * Read one quantity field; report and return undefined when it is wrong. `plausible` names its
+ * entry in plausible.ts: outside the hard range an error, outside the usual range a warning.
+ */
 function readQuantity(
   value: unknown,
   kind: QuantityKind,
   path: Path,
   collector: DiagnosticCollector,
   sign: Sign = 'positive',
+  plausible?: string,
 ): number | undefined {
   if (value === undefined) return undefined;
   const q = parseQuantity(value, kind);
@@ -162,6 +176,14 @@ function readQuantity(
   if (sign === 'negative' && !(q.value < 0)) {
     collector.add(path, `expected a negative frequency (transmon anharmonicity f12 - f01 is below zero, e.g. "-210 MHz"), found ${shown}`);
     return undefined;
+  }
+  if (plausible !== undefined) {
+    const verdict = judgePlausible(plausible, q.value, shown);
+    if (verdict.level === 'error') {
+      collector.add(path, verdict.message);
+      return undefined;
+    }
+    if (verdict.level === 'warning') judge?.warnings.add(path, `warning: ${verdict.message}`);
   }
   return q.value;
 }
@@ -181,15 +203,15 @@ function convertQubit(
   const before = collector.count;
   const at = (...rel: (string | number)[]): Path => [...base, ...rel];
   const f = (key: keyof QubitInput, sign: Sign = 'positive') =>
-    readQuantity(input[key], 'frequency', at(key), collector, sign);
+    readQuantity(input[key], 'frequency', at(key), collector, sign, key);
 
   // Transmon model.
   const transmon = convertTransmon(input, present, at, collector, f);
 
   // Coherence.
-  const t1Ns = readQuantity(input.t1, 'time', at('t1'), collector);
-  const tphiNs = readQuantity(input.tphi, 'time', at('tphi'), collector);
-  const fluxNoisePhi0 = readQuantity(input.fluxNoise, 'fluxNoise', at('fluxNoise'), collector);
+  const t1Ns = readQuantity(input.t1, 'time', at('t1'), collector, 'positive', 't1');
+  const tphiNs = readQuantity(input.tphi, 'time', at('tphi'), collector, 'positive', 'tphi');
+  const fluxNoisePhi0 = readQuantity(input.fluxNoise, 'fluxNoise', at('fluxNoise'), collector, 'positive', 'fluxNoise');
   if (!present.has('tphi') && !present.has('fluxNoise')) {
     collector.add(base, 'missing dephasing: expected tphi (white dephasing time) or fluxNoise (1/f flux-noise amplitude), or both', 'key');
   }
@@ -197,8 +219,8 @@ function convertQubit(
   // Planning constraints.
   let windowGHz: [number, number] | undefined;
   if (input.window) {
-    const lo = readQuantity(input.window[0], 'frequency', at('window', 0), collector);
-    const hi = readQuantity(input.window[1], 'frequency', at('window', 1), collector);
+    const lo = readQuantity(input.window[0], 'frequency', at('window', 0), collector, 'positive', 'window');
+    const hi = readQuantity(input.window[1], 'frequency', at('window', 1), collector, 'positive', 'window');
     if (lo !== undefined && hi !== undefined) {
       if (lo >= hi) {
         collector.add(at('window'), `expected a window [lo, hi] with lo < hi, found [${formatQuantity(lo, 'frequency')}, ${formatQuantity(hi, 'frequency')}]`);
@@ -221,8 +243,8 @@ function convertQubit(
   }
   const tls: TlsDefect[] = [];
   (input.tls ?? []).forEach((defect, i) => {
-    const atGHz = readQuantity(defect.at, 'frequency', at('tls', i, 'at'), collector);
-    const widthGHz = readQuantity(defect.width, 'frequency', at('tls', i, 'width'), collector);
+    const atGHz = readQuantity(defect.at, 'frequency', at('tls', i, 'at'), collector, 'positive', 'tls.at');
+    const widthGHz = readQuantity(defect.width, 'frequency', at('tls', i, 'width'), collector, 'positive', 'tls.width');
     if (atGHz !== undefined && widthGHz !== undefined) tls.push({ atGHz, widthGHz });
   });
   const readoutGHz = f('readout');
@@ -323,15 +345,15 @@ function convertTransmon(
   const rn = input.rn;
   let rnKOhm: number | [number, number] | undefined;
   if (Array.isArray(rn)) {
-    const r1 = readQuantity(rn[0], 'resistance', at('rn', 0), collector);
-    const r2 = readQuantity(rn[1], 'resistance', at('rn', 1), collector);
+    const r1 = readQuantity(rn[0], 'resistance', at('rn', 0), collector, 'positive', 'rn');
+    const r2 = readQuantity(rn[1], 'resistance', at('rn', 1), collector, 'positive', 'rn');
     if (has('asymmetry')) {
       collector.add(at('asymmetry'), 'expected no asymmetry with two junction resistances (it follows from them), found asymmetry', 'key');
       return undefined;
     }
     if (r1 !== undefined && r2 !== undefined) rnKOhm = [r1, r2];
   } else {
-    rnKOhm = readQuantity(rn, 'resistance', at('rn'), collector);
+    rnKOhm = readQuantity(rn, 'resistance', at('rn'), collector, 'positive', 'rn');
   }
   if (ecGHz === undefined || rnKOhm === undefined || (has('asymmetry') && asymmetry === undefined)) return undefined;
   const spec: TransmonSpec = { kind: 'resistance', ecGHz, rnKOhm };
@@ -358,7 +380,7 @@ function convertCoupling(raw: unknown, base: Path, collector: DiagnosticCollecto
       reportZodIssues(parsed.error.issues, raw, base, collector, () => COUPLING_KEYS);
       return undefined;
     }
-    const gGHz = readQuantity(parsed.data[2], 'frequency', [...base, 2], collector);
+    const gGHz = readQuantity(parsed.data[2], 'frequency', [...base, 2], collector, 'positive', 'g');
     if (gGHz === undefined) return undefined;
     return { a: idText(parsed.data[0]), b: idText(parsed.data[1]), gGHz, idPath: (w) => [w] };
   }
@@ -368,7 +390,7 @@ function convertCoupling(raw: unknown, base: Path, collector: DiagnosticCollecto
       reportZodIssues(parsed.error.issues, raw, base, collector, () => COUPLING_KEYS);
       return undefined;
     }
-    const gGHz = readQuantity(parsed.data.g, 'frequency', [...base, 'g'], collector);
+    const gGHz = readQuantity(parsed.data.g, 'frequency', [...base, 'g'], collector, 'positive', 'g');
     if (gGHz === undefined) return undefined;
     return { a: idText(parsed.data.qubits[0]), b: idText(parsed.data.qubits[1]), gGHz, idPath: (w) => ['qubits', w] };
   }

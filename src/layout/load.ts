@@ -20,9 +20,11 @@ export function parseLayoutText(text: string, file: string): ChipLayout {
   bootstrap.throwIfAny();
   if (!tree) throw new InputError({ file, message: 'expected a YAML layout, found unreadable text' });
   const collector = new DiagnosticCollector(file, tree.locate);
-  const layout = convertLayout(tree, file, collector);
+  const warnings = new DiagnosticCollector(file, tree.locate);
+  const layout = convertLayout(tree, file, collector, warnings);
   collector.throwIfAny();
   if (!layout) throw new InputError({ file, message: 'expected a layout, found none' });
+  if (warnings.count > 0) layout.warnings = [...warnings.diagnostics].sort((a, b) => (a.line ?? 0) - (b.line ?? 0) || (a.column ?? 0) - (b.column ?? 0));
   return layout;
 }
 

@@ -10,6 +10,7 @@ import { z } from 'zod';
 import type { Rules } from './types.js';
 import { parseQuantity, type QuantityKind } from './units.js';
 import { describeFound } from './diagnostics.js';
+import { judgeRange, rangeText, type PlausibleRange } from './plausible.js';
 
 export type RuleKind = 'frequency' | 'time' | 'number';
 export type RuleRange = 'positive' | 'nonNegative' | 'fraction';
@@ -25,7 +26,11 @@ export interface RuleSpec {
   range: RuleRange;
   doc: string;
   source: string;
+  /** Hard range (outside: error) and usual range (outside: warning) of an override, as written in rules.json. */
+  plausible?: { hard: [string | number, string | number]; usual: [string | number, string | number]; source: string };
 }
+
+const BoundSchema = z.union([z.string(), z.number()]);
 
 const RuleSpecSchema = z.strictObject({
   key: z.string().regex(/^[a-z][A-Za-z0-9]*$/),
@@ -35,6 +40,7 @@ const RuleSpecSchema = z.strictObject({
   range: z.enum(['positive', 'nonNegative', 'fraction']),
   doc: z.string().min(1),
   source: z.string().min(1),
+  plausible: z.strictObject({ hard: z.tuple([BoundSchema, BoundSchema]), usual: z.tuple([BoundSchema, BoundSchema]), source: z.string().min(1) }).optional(),
 });
 
 const RulesFileSchema = z.strictObject({
@@ -69,7 +75,7 @@ function loadRuleSpecs(): readonly RuleSpec[] {
 /** The rules table of shared/rules.json, in file order. */
 export const RULE_SPECS: readonly RuleSpec[] = loadRuleSpecs();
 
-export type RuleValueResult = { ok: true; value: number | undefined } | { ok: false; message: string };
+export type RuleValueResult = { ok: true; value: number | undefined; warning?: string } | { ok: false; message: string };
 
 /** Convert one rule value (from rules.json or a layout) to its internal unit and check its range. */
 export function parseRuleValue(spec: RuleSpec, input: unknown): RuleValueResult {
@@ -98,7 +104,27 @@ export function parseRuleValue(spec: RuleSpec, input: unknown): RuleValueResult 
   if (spec.range === 'fraction' && !(value > 0 && value < 1)) {
     return { ok: false, message: `expected ${ruleNoun(spec)} between 0 and 1 (exclusive), found ${shown}` };
   }
+  const range = plausibleRangeOf(spec);
+  if (range) {
+    const verdict = judgeRange(range, value, shown);
+    if (verdict.level === 'error') return { ok: false, message: verdict.message };
+    if (verdict.level === 'warning') return { ok: true, value, warning: verdict.message };
+  }
   return { ok: true, value };
+}
+
+/** A rule's `plausible` entry in internal units (null when it has none). */
+export function plausibleRangeOf(spec: RuleSpec): PlausibleRange | null {
+  const p = spec.plausible;
+  if (!p) return null;
+  const kind: QuantityKind | null = spec.kind === 'number' ? null : (spec.kind as QuantityKind);
+  const bound = (b: string | number): number => {
+    if (typeof b === 'number') return b;
+    const q = parseQuantity(b, kind ?? 'frequency');
+    if (!q.ok) throw new Error(`shared/rules.json: ${spec.key}: plausible bound ${b}: ${q.message}`);
+    return q.value;
+  };
+  return { kind: kind ?? 'number', noun: `${spec.key}`, hard: [bound(p.hard[0]), bound(p.hard[1])], usual: [bound(p.usual[0]), bound(p.usual[1])] };
 }
 
 function ruleNoun(spec: RuleSpec): string {
@@ -125,11 +151,13 @@ export function ruleSpecByKey(key: string): RuleSpec | undefined {
 /** The README's rules table (Markdown), generated from shared/rules.json. */
 export function rulesTableMarkdown(): string {
   const lines = [
-    '| key | default | kind | meaning | source |',
-    '|---|---|---|---|---|',
+    '| key | default | kind | meaning | source | error outside | warning outside |',
+    '|---|---|---|---|---|---|---|',
     ...RULE_SPECS.map((s) => {
       const shown = s.default === null ? 'none' : String(s.default);
-      return `| \`${s.key}\` | ${shown} | ${s.kind} | ${s.doc.replace(/\|/g, '\\|')} | ${s.source} |`;
+      const range = plausibleRangeOf(s);
+      const ranges = range ? `${rangeText(range, 'hard')} | ${rangeText(range, 'usual')}` : '- | -';
+      return `| \`${s.key}\` | ${shown} | ${s.kind} | ${s.doc.replace(/\|/g, '\\|')} | ${s.source} | ${ranges} |`;
     }),
   ];
   return lines.join('\n');

@@ -130,4 +130,19 @@ export interface ChipLayout {
   couplings: CouplingLayout[];
   /** Defaults merged with the layout's overrides. */
   rules: Rules;
+  /**
+   * Values that are valid but unusual (src/layout/plausible.ts), e.g. a g of 0.3 GHz: one
+   * diagnostic each (file:line:column: path: warning: ...). The CLI prints them on stderr and
+   * under "warnings" in --json output; they never change the exit code.
+   */
+  warnings?: LayoutWarning[];
+}
+
+/** A warning about a layout value: where it is and what is unusual about it. */
+export interface LayoutWarning {
+  file?: string;
+  line?: number;
+  column?: number;
+  path?: string;
+  message: string;
 }

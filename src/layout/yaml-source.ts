@@ -7,21 +7,28 @@
  * Parsing is done by the `yaml` package (YAML 1.2 core schema, with `<<` merge keys). We walk its
  * syntax tree ourselves instead of calling `toJS`, so that every value keeps the position it came
  * from and every problem becomes a located diagnostic, never an exception. The alias-expansion
- * guard is the package's own: `toJS({ maxAliasCount })` is run once as a check before the walk.
+ * guard counts what the aliases expand to (`expandedSize`, before the walk): a layout whose
+ * qubits share defaults through `<<: *defaults` is a few values per use and passes, while a
+ * "billion laughs" document, whose size multiplies with every level of aliases, is refused
+ * without being expanded.
+ *
+ * Line breaks: YAML 1.2 allows CR alone as a line break; the yaml package reads only LF and
+ * CR LF, so a lone CR is turned into LF first (one character for one: positions stay the same).
  */
 
 import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
 import { DiagnosticCollector, type Anchor, type Path, type Position } from './diagnostics.js';
 
 export const YAML_LIMITS = Object.freeze({
-  /** The yaml package's alias budget (aliases times the nodes they expand to). */
-  maxAliasCount: 100,
   /** Deepest nesting of lists and maps accepted. */
   maxDepth: 32,
-  /** Largest file accepted. */
-  maxBytes: 32 * 1024 * 1024,
-  /** Most values (scalars, lists, maps) after alias expansion. */
-  maxNodes: 2_000_000,
+  /** Largest file accepted (a 10,000-qubit layout is about 2.4 MB and takes about 4 s to read). */
+  maxBytes: 8 * 1024 * 1024,
+  /**
+   * Most values (scalars, lists, maps) once aliases are expanded. A layout of 10,000 qubits
+   * (the largest `check` accepts, src/cli/work-limits.ts) has about 300,000.
+   */
+  maxNodes: 1_000_000,
 });
 
 export interface SourceTree {
@@ -31,10 +38,17 @@ export interface SourceTree {
   locate(path: Path, anchor: Anchor): Position | undefined;
 }
 
-/** Decode a file's bytes as UTF-8 (a leading byte-order mark is dropped); undefined on bad bytes. */
-export function decodeUtf8(bytes: Uint8Array, collector: DiagnosticCollector): string | undefined {
-  if (bytes.length > YAML_LIMITS.maxBytes) {
-    collector.addAt(undefined, `expected a layout file of at most ${YAML_LIMITS.maxBytes} bytes, found ${bytes.length} bytes`);
+/**
+ * Decode a file's bytes as UTF-8 (a leading byte-order mark is dropped); undefined on bad bytes or
+ * a file over `kind.maxBytes`. `kind` names the file in messages (default: a YAML layout).
+ */
+export function decodeUtf8(
+  bytes: Uint8Array,
+  collector: DiagnosticCollector,
+  kind: { noun: string; format: string; maxBytes: number } = { noun: 'a layout file', format: 'YAML', maxBytes: YAML_LIMITS.maxBytes },
+): string | undefined {
+  if (bytes.length > kind.maxBytes) {
+    collector.addAt(undefined, `expected ${kind.noun} of at most ${kind.maxBytes} bytes, found ${bytes.length} bytes`);
     return undefined;
   }
   try {
@@ -46,7 +60,7 @@ export function decodeUtf8(bytes: Uint8Array, collector: DiagnosticCollector): s
     const before = lossy.slice(0, Math.max(0, at));
     const line = before.split('\n').length;
     const column = at - before.lastIndexOf('\n');
-    collector.addAt({ line, column }, 'expected UTF-8 text, found bytes that are not UTF-8 (is this a YAML file?)');
+    collector.addAt({ line, column }, `expected UTF-8 text, found bytes that are not UTF-8 (is this a ${kind.format} file?)`);
     return undefined;
   }
 }
@@ -56,7 +70,7 @@ const pathKey = (path: Path): string => JSON.stringify(path);
 /** Parse YAML text; problems go to `collector` and make the result undefined. */
 export function readYamlSource(text: string, collector: DiagnosticCollector): SourceTree | undefined {
   const lineCounter = new LineCounter();
-  const doc = parseDocument(text, {
+  const doc = parseDocument(text.replace(/\r(?!\n)/g, '\n'), {
     lineCounter,
     prettyErrors: false,
     uniqueKeys: false, // duplicates are reported by the walk below, with both positions
@@ -88,24 +102,18 @@ export function readYamlSource(text: string, collector: DiagnosticCollector): So
   }
   if (syntaxProblems > 0) return undefined;
 
-  // 2. Alias bombs: the yaml package's budget, applied before we expand anything.
-  try {
-    doc.toJS({ maxAliasCount: YAML_LIMITS.maxAliasCount, mapAsMap: true });
-  } catch (err) {
-    const message = err instanceof Error ? err.message : String(err);
-    if (/excessive alias count/i.test(message)) {
-      collector.addAt(
-        undefined,
-        `expected at most ${YAML_LIMITS.maxAliasCount} alias expansions, found more (YAML alias bombs are refused)`,
-      );
-      return undefined;
-    }
-    // Anything else (unknown anchors, bad merges, cycles) is reported with a position by the walk.
+  // 2. Alias bombs: the size the aliases expand to, counted before anything is expanded.
+  const size = doc.contents === null ? 0 : expandedSize(doc, doc.contents as Node);
+  if (size > YAML_LIMITS.maxNodes) {
+    const found = Number.isFinite(size) && size < 1e15 ? String(size) : 'far more';
+    collector.addAt(undefined, `expected at most ${YAML_LIMITS.maxNodes} values once aliases are expanded, found ${found} (YAML alias bombs are refused)`);
+    return undefined;
   }
 
   // 3. Walk the tree into plain values, keeping each value's position.
   const valuePositions = new Map<string, Position>();
   const keyPositions = new Map<string, Position>();
+  if (doc.contents === null) valuePositions.set(pathKey([]), { line: 1, column: 1 }); // an empty document
   const walker = new Walker(doc, at, collector, valuePositions, keyPositions);
   const value = doc.contents === null ? null : walker.walk(doc.contents as Node, [], 0);
   if (walker.failed) return undefined;
@@ -114,6 +122,39 @@ export function readYamlSource(text: string, collector: DiagnosticCollector): So
     locate: (path, anchor) =>
       (anchor === 'key' ? keyPositions.get(pathKey(path)) : undefined) ?? valuePositions.get(pathKey(path)),
   };
+}
+
+/**
+ * The number of values (scalars, lists, maps) `node` stands for once every alias is expanded,
+ * computed once per node (memoised), so a billion-laughs document is sized in the time of its
+ * text. Aliases to unknown anchors and alias cycles count as one value (the walk reports them);
+ * nesting beyond the depth limit is not counted further (the walk reports it).
+ */
+export function expandedSize(doc: Document, root: Node): number {
+  const memo = new Map<Node, number>();
+  const open = new Set<Node>();
+  const size = (node: Node | null, depth: number): number => {
+    if (node === null || depth > YAML_LIMITS.maxDepth + 2) return 1;
+    const known = memo.get(node);
+    if (known !== undefined) return known;
+    if (open.has(node)) return 1;
+    open.add(node);
+    let n = 1;
+    if (isAlias(node)) {
+      const target = node.resolve(doc);
+      n = target ? size(target as Node, depth + 1) : 1;
+    } else if (isSeq(node)) {
+      for (const item of node.items) n += size(item as Node | null, depth + 1);
+    } else if (isMap(node)) {
+      for (const pair of node.items) {
+        n += size(pair.key as Node | null, depth + 1) + size(pair.value as Node | null, depth + 1);
+      }
+    }
+    open.delete(node);
+    memo.set(node, n);
+    return n;
+  };
+  return size(root, 0);
 }
 
 class Walker {

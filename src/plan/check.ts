@@ -13,6 +13,7 @@ import { planChip, type ChipPlan } from './plan.js';
 import type { PlanOptionsInput } from './options.js';
 import { toFindingJson, type FindingJson } from './rules/findings.js';
 import { wrapLine } from '../util/wrap.js';
+import { idRecord } from '../util/own.js';
 
 export interface ChipCheck {
   plan: ChipPlan;
@@ -26,7 +27,7 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
   const plan = planChip(layout, options, hooks, graph);
   const { ctx } = plan;
   const id = ctx.ids;
-  const parking: Record<string, unknown> = {};
+  const parking = idRecord<unknown>();
   ctx.ids.forEach((q, i) => {
     const c = plan.crowding.qubits[i];
     parking[q] = {

@@ -9,7 +9,7 @@
 import type { ChipLayout } from '../layout/types.js';
 import { Transmon } from '../transmon/transmon.js';
 import { InputError } from '../util/errors.js';
-import type { PlanEdgeInput, PlanInput } from './plan-read.js';
+import type { PlanDocumentEdge as PlanEdgeInput, PlanDocument as PlanInput } from './plan-read.js';
 
 export interface EdgeFromPlan {
   mover: string;

@@ -85,22 +85,25 @@ export function gatesConflict(ctx: PlanContext, g1: EdgePlan, m1: readonly Moved
   return false;
 }
 
-export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): LayerPlan {
+/**
+ * Every pair of gates that cannot share a layer (indices into `plans`, each pair once, first <
+ * second in the order found): the conflict graph's edges. Used by planLayers and by verify.
+ */
+export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): [number, number][] {
   const moved = plans.map((p) => movedQubits(ctx, p, parkingF12, parkingGHz));
   const touching: number[][] = Array.from({ length: ctx.n }, () => []);
   plans.forEach((p, k) => {
     for (const q of touchedQubits(p)) touching[q].push(k);
   });
-  const graph = new UndirectedGraph();
-  for (const p of plans) graph.addNode(ctx.edges[p.edge].key);
-  let conflicts = 0;
+  const seen = new Set<number>();
+  const pairs: [number, number][] = [];
+  const m = plans.length;
   const link = (k1: number, k2: number) => {
     if (k1 === k2) return;
-    const a = ctx.edges[plans[k1].edge].key;
-    const b = ctx.edges[plans[k2].edge].key;
-    if (!graph.hasEdge(a, b)) {
-      graph.addEdge(a, b);
-      conflicts++;
+    const key = Math.min(k1, k2) * m + Math.max(k1, k2);
+    if (!seen.has(key)) {
+      seen.add(key);
+      pairs.push([k1, k2]);
     }
   };
   // (a) shared qubits
@@ -118,6 +121,15 @@ export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parking
       }
     }
   });
+  return pairs;
+}
+
+export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): LayerPlan {
+  const graph = new UndirectedGraph();
+  for (const p of plans) graph.addNode(ctx.edges[p.edge].key);
+  const pairs = conflictingPairs(ctx, plans, parkingF12, parkingGHz);
+  for (const [k1, k2] of pairs) graph.addEdge(ctx.edges[plans[k1].edge].key, ctx.edges[plans[k2].edge].key);
+  const conflicts = pairs.length;
   const colours = dsaturColouring(graph);
   const layerOf = plans.map((p) => colours.get(ctx.edges[p.edge].key)!);
   const count = plans.length === 0 ? 0 : Math.max(...layerOf) + 1;

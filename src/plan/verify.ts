@@ -1,25 +1,36 @@
 /**
- * `verifyPlan`: recompute every rule from scratch on a plan read back from plan.json (for plans
- * edited by hand): the exact idle rules at the plan's parking frequencies, each edge's crossing
- * recomputed from those (it must match the plan's crossing frequency, and the interaction
- * frequency, when no gate was designed, must be that crossing, within 10 kHz: rule cz-crossing), every
- * cz rule at the plan's interaction frequency with the plan's spectator parking and ramp time
- * (with the waveform file's real sweep rates when the gate has one next to the plan), conflicts
- * between gates that share a layer, and the crowding flags. Nothing the plan claims about its
- * own rule results is trusted.
+ * `verifyPlan`: recompute everything a plan claims from the layout and the files it names, and
+ * say which claim does not hold. Nothing the plan states about its own results is trusted.
+ *
+ *   - rules: the exact idle rules at the plan's parking frequencies; each edge's crossing
+ *     recomputed from those (it must match the plan's crossing frequency and, without a designed
+ *     gate, be its interaction frequency within 10 kHz: rule cz-crossing); every cz rule where the
+ *     gate really goes (a designed gate: its waveform's plateau) with the plan's spectator parking
+ *     and ramp time, the mover's sweeps at the waveform's own rates, the duration from the
+ *     waveform's samples against maxGate; conflicts between gates that share a layer; crowding;
+ *   - claims (./verify-claims.ts): every number of the table CLAIMS, recomputed (a designed
+ *     gate's metrics by re-simulating its waveform file), against its tolerance: rule plan-claim;
+ *   - the files: a waveform the plan names must be there and start at the mover's parking point;
+ *   - layers: each edge's layer index lies in 0 .. L-1 with no empty layer, the top-level
+ *     `layers` list agrees with the edges' `layer`, and `layerSummary` with what was recomputed
+ *     (rule layer-index).
  */
-import { existsSync, readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
 import type { ChipLayout } from '../layout/types.js';
 import { pairResonances } from '../pair/resonances.js';
-import { parseTrajectoryCsv } from '../sim/trajectory.js';
+import { buildManifoldFrame } from '../sim/manifold-frame.js';
+import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../sim/pair-model.js';
+import { simulateGate, type GateSimulation } from '../sim/simulate-gate.js';
+import { trajectoryDuration, type Trajectory } from '../sim/trajectory.js';
+import { formatPath, type Path } from '../layout/diagnostics.js';
+import { InputError, type Diagnostic } from '../util/errors.js';
+import { hasOwn } from '../util/own.js';
 import { buildPlanContext, type PlanContext } from './context.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
 import { freq, fromHz, ghz } from './format.js';
 import type { EdgePlan, ParkedSpectator } from './interaction/plan-edge.js';
-import { gatesConflict, movedQubits } from './layers.js';
-import type { PlanInput } from './plan-read.js';
+import { conflictingPairs } from './layers.js';
+import { readPlanWaveform, type PlanEdgeInput, type PlanInput } from './plan-read.js';
 import { waveformSweepFindings } from './pulses.js';
 import { COLLISION_RULES } from './rules/catalogue.js';
 import { evaluateGate, type DuringGate, type GateScenario } from './rules/cz-evaluate.js';
@@ -27,38 +38,66 @@ import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
 import { tuningRoomShortfall } from './rules/tuning-room.js';
 import { slotNs } from './rules/cz-duration.js';
+import { CLAIMS, claimHolds, formatClaimValue, shortNumber, type Claim, type ClaimEnv } from './verify-claims.js';
 
-export const VERIFY_DEFAULTS = Object.freeze({ crossingToleranceGHz: 1e-5 });
+export const VERIFY_DEFAULTS = Object.freeze({
+  crossingToleranceGHz: 1e-5,
+  /** A waveform must start within this of the mover's parking frequency (GHz). */
+  waveformStartToleranceGHz: 1e-5,
+});
 
 export interface VerifyResult {
   ok: boolean;
   violations: Finding[];
   flags: Finding[];
-  checked: { qubits: number; edges: number; layers: number; waveforms: number };
-  /** Waveform files named by the plan that were not found (their sweeps checked with the ramp estimate). */
+  checked: { qubits: number; edges: number; layers: number; waveforms: number; claims: number };
+  /** Waveform files named by the plan that were not found. */
   missingWaveforms: string[];
 }
 
-export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: string }): VerifyResult {
+export interface VerifyWhere {
+  /** The plan's folder (waveform paths are relative to it). */
+  dir: string;
+  /** The same folder as the user wrote it (for messages); default `dir`. */
+  shownDir?: string;
+}
+
+interface GateRecord {
+  input: PlanEdgeInput;
+  index: number;
+  mover: number;
+  partner: number;
+  interactionGHz: number;
+  interactionFlux: number;
+  parkedCount: number;
+  waveform: Trajectory | null;
+  waveformFile: string | null;
+  simulation: (() => GateSimulation) | null;
+  noisyMethod: 'estimate' | 'lindblad' | null;
+}
+
+export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhere): VerifyResult {
   const ctx = buildPlanContext(layout);
-  const parking = Float64Array.from(ctx.ids, (q) => fromHz(plan.qubits[q].parkingFrequency));
+  const parking = Float64Array.from(ctx.ids, (q) => fromHz(plan.qubits.get(q)!.parkingFrequency));
   const idle = evaluateIdle(ctx, parking);
   const violations: Finding[] = [...idle.violations];
   const states: ExactQubitState[] = idle.states.map((s, i) => s ?? exactQubitState(ctx.transmons[i], Math.min(ctx.transmons[i].fMaxGHz, Math.max(ctx.transmons[i].fMinGHz, parking[i])), ctx.rules.resistanceSpread));
   const edgePlans: EdgePlan[] = [];
   const layerOf: number[] = [];
+  const records: GateRecord[] = [];
   let waveforms = 0;
   const missing: string[] = [];
   const byPair = new Map(ctx.edges.map((e) => [pairKey(ctx.ids[e.a], ctx.ids[e.b]), e.index]));
   const planEdges = [...plan.edges].sort((x, y) => byPair.get(pairKey(...x.qubits))! - byPair.get(pairKey(...y.qubits))!);
+  const shownDir = where.shownDir ?? where.dir;
   for (const pe of planEdges) {
     const edge = ctx.edges[byPair.get(pairKey(...pe.qubits))!];
     const mover = ctx.index.get(pe.mover)!;
     const partner = mover === edge.a ? edge.b : edge.a;
     const key = edge.key;
+    layerOf[edge.index] = pe.layer;
     const res = pairResonances(ctx.transmons[mover], ctx.transmons[partner], states[partner].flux, edge.gChargeGHz)[pe.crossing];
     const range = ctx.ranges[mover];
-    layerOf[edge.index] = pe.layer;
     const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
     if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
       const why = short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : '';
@@ -74,22 +113,56 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
       violations.push({ rule: 'cz-crossing', qubits: [pe.mover, ctx.ids[partner]], value: stated, threshold: crossing, edge: key,
         message: `${key}: the plan's ${pe.crossing} crossing ${ghz(stated, 6)} no longer matches the parking frequencies (now ${ghz(crossing, 6)}, ${freq(stated - crossing)} off); re-plan this edge` });
     }
+
+    // The waveform the plan names: where the gate really goes, how long it takes, how fast it sweeps.
+    let waveform: Trajectory | null = null;
+    let waveformFile: string | null = null;
+    const wf = readPlanWaveform(where.dir, pe, shownDir);
+    if (wf && 'missing' in wf) {
+      missing.push(wf.missing);
+      violations.push({ rule: 'plan-claim', qubits: [pe.mover, ctx.ids[partner]], value: null, threshold: null, edge: key,
+        message: `${key}: the plan names the waveform ${wf.missing}, which is not there; the gate's duration, sweeps, interaction point and metrics cannot be checked`,
+        details: { claim: formatPath(['edges', pe.index, 'gate', 'waveform']) } });
+    } else if (wf) {
+      waveform = wf.trajectory;
+      waveformFile = wf.file;
+      waveforms++;
+    }
+    const moverT = ctx.transmons[mover];
+    let to: number;
+    let toFluxFromWave: number | null = null;
+    if (waveform) {
+      const start = moverT.f01(waveform.flux[0]);
+      if (Math.abs(start - parking[mover]) > VERIFY_DEFAULTS.waveformStartToleranceGHz) {
+        violations.push({ rule: 'plan-claim', qubits: [pe.mover], value: start, threshold: parking[mover], edge: key,
+          message: `${key}: the waveform ${waveformFile} starts at flux ${waveform.flux[0]} (${pe.mover} at ${ghz(start, 6)}), not at ${pe.mover}'s parking frequency ${ghz(parking[mover], 6)}`,
+          details: { claim: formatPath(['qubits', pe.mover, 'parkingFrequency']) } });
+      }
+      const plateau = plateauSample(waveform, (x) => moverT.f01(x));
+      to = moverT.f01(plateau);
+      toFluxFromWave = plateau;
+    } else {
+      to = pe.interactionFrequency !== null ? fromHz(pe.interactionFrequency) : crossing;
+    }
     // Without a designed gate the interaction point is the crossing itself; a designed gate sits
-    // at its own offset from the exact (dressed) crossing, which the stated crossing pins down.
-    const to = pe.interactionFrequency !== null ? fromHz(pe.interactionFrequency) : crossing;
+    // at its own offset from the exact (dressed) crossing (its claims are checked on the waveform).
     if (!pe.gate && Math.abs(to - crossing) > tol) {
       violations.push({ rule: 'cz-crossing', qubits: [pe.mover, ctx.ids[partner]], value: to, threshold: crossing, edge: key,
         message: `${key}: the interaction frequency ${ghz(to, 6)} is not the ${pe.crossing} crossing at the parking frequencies (${ghz(crossing, 6)})` });
     }
-    const toFlux = ctx.transmons[mover].fluxForF01OrNull(to);
-    if (toFlux === null) {
-      violations.push({ rule: 'cz-range', qubits: [pe.mover], value: to, threshold: null, edge: key, message: `${pe.mover} cannot reach the interaction frequency ${ghz(to)}` });
+    if (pe.gate && waveform && Math.abs(to - crossing) > designWindowGHz(res.couplingGHz)) {
+      violations.push({ rule: 'cz-crossing', qubits: [pe.mover, ctx.ids[partner]], value: to, threshold: crossing, edge: key,
+        message: `${key}: the waveform ${waveformFile} takes ${pe.mover} to ${ghz(to, 6)}, ${freq(to - crossing)} from the ${pe.crossing} crossing at ${ghz(crossing, 6)}; a CZ design stays within a few splittings of it` });
+    }
+    const toFlux = toFluxFromWave !== null ? Math.abs(toFluxFromWave) : moverT.fluxForF01OrNull(to);
+    if (toFlux === null || to < ctx.ranges[mover].lo - 1e-9) {
+      violations.push({ rule: 'cz-range', qubits: [pe.mover], value: to, threshold: null, edge: key, message: `${pe.mover} cannot reach the interaction frequency ${ghz(to)} inside its planning range` });
       edgePlans[edge.index] = stubPlan(edge.index, mover, partner, pe.crossing);
       continue;
     }
     const parked = new Map<number, DuringGate>();
     const parkedInfo: ParkedSpectator[] = [];
-    for (const [s, fHz] of Object.entries(pe.spectatorParking).sort((a, b) => ctx.index.get(a[0])! - ctx.index.get(b[0])!)) {
+    for (const [s, fHz] of [...pe.spectatorParking].sort((a, b) => ctx.index.get(a[0])! - ctx.index.get(b[0])!)) {
       const q = ctx.index.get(s)!;
       const f = fromHz(fHz);
       const t = ctx.transmons[q];
@@ -106,22 +179,13 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
     const spectatorRampNs = pe.rampTime * 1e9;
     const scenario: GateScenario = {
       edge: edge.index, mover, partner, crossing: pe.crossing,
-      fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: ctx.transmons[mover].spectrum(toFlux).f12GHz,
+      fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: moverT.spectrum(toFlux).f12GHz,
       crossingCouplingGHz: res.couplingGHz, rampNs, spectatorRampNs, parking: states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })), parked,
     };
     const ev = evaluateGate(ctx, scenario);
-    const wfPath = pe.gate?.waveform;
-    let waveform: { timeNs: Float64Array; flux: Float64Array } | null = null;
-    if (wfPath) {
-      const full = resolve(where.dir, wfPath);
-      if (existsSync(full)) {
-        waveform = parseTrajectoryCsv(readFileSync(full, 'utf8'), wfPath);
-        waveforms++;
-      } else missing.push(wfPath);
-    }
     for (const f of ev.findings) {
       if (waveform && f.rule.startsWith('cz-swept-') && f.qubits[0] === pe.mover) continue;
-      if (pe.gate?.duration != null && f.rule === 'cz-duration') continue;
+      if ((waveform || pe.gate?.duration != null) && f.rule === 'cz-duration') continue;
       const { blame: _b, ...rest } = f;
       violations.push(rest);
     }
@@ -130,9 +194,15 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
       violations.push({ rule: 'cz-design', qubits: [pe.mover, ctx.ids[partner]], value: null, threshold: null, edge: key,
         message: `the plan's CZ design for ${key} is marked infeasible${pe.gate.reason ? `: ${pe.gate.reason}` : ''}` });
     }
-    if (pe.gate?.duration != null) {
-      const total = slotNs(pe.gate.duration * 1e9, parked.size > 0, spectatorRampNs, ctx.rules);
-      if (total > ctx.rules.maxGateNs + 1e-9) violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key, message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns with its spectator moves; the limit is ${ctx.rules.maxGateNs} ns` });
+    // Duration: the waveform's samples when there are any, else what the plan states; the slot
+    // adds the spectator moves on the AWG grid (src/plan/rules/cz-duration.ts).
+    const gateNs = waveform ? trajectoryDuration(waveform) : pe.gate?.duration != null ? pe.gate.duration * 1e9 : null;
+    if (gateNs !== null) {
+      const total = slotNs(gateNs, parked.size > 0, spectatorRampNs, ctx.rules);
+      if (total > ctx.rules.maxGateNs + 1e-9) {
+        violations.push({ rule: 'cz-duration', qubits: [pe.mover, ctx.ids[partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
+          message: `the designed CZ on ${key} takes ${total.toFixed(1)} ns${waveform ? ` (the samples of ${waveformFile})` : ''}${parked.size > 0 ? ' with its spectator moves' : ''}; the limit is ${ctx.rules.maxGateNs} ns` });
+      }
     }
     edgePlans[edge.index] = {
       ...stubPlan(edge.index, mover, partner, pe.crossing),
@@ -146,33 +216,213 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: { dir: st
       parked: parkedInfo,
       swept: ev.swept,
     };
+    const noisyMethod = pe.gate?.fidelityNoisyMethod ?? (statedNumber(plan, ['edges', pe.index, 'gate', 'fidelityNoisy']) !== null ? 'estimate' : null);
+    let cached: GateSimulation | null = null;
+    records.push({
+      input: pe, index: edge.index, mover, partner, interactionGHz: to, interactionFlux: toFlux, parkedCount: parked.size,
+      waveform, waveformFile, noisyMethod,
+      simulation: waveform
+        ? () => (cached ??= resimulateFile(ctx, pe, mover, partner, states, waveform!, noisyMethod, waveformFile!))
+        : null,
+    });
   }
-  // Layers: gates sharing one must not conflict.
+
+  // Layers: indices in range and contiguous, the top-level list agrees, conflicts recomputed.
   const f12 = states.map((s) => s.f12GHz);
-  const moved = edgePlans.map((p) => movedQubits(ctx, p, f12, parking));
-  const layerIds = [...new Set(layerOf)].sort((a, b) => a - b);
-  for (const layer of layerIds) {
-    const members = edgePlans.map((_, k) => k).filter((k) => layerOf[k] === layer);
-    for (let i = 0; i < members.length; i++) {
-      for (let j = i + 1; j < members.length; j++) {
-        const [a, b] = [members[i], members[j]];
-        if (gatesConflict(ctx, edgePlans[a], moved[a], edgePlans[b], moved[b])) {
-          violations.push({ rule: 'layer-conflict', qubits: [ctx.ids[edgePlans[a].mover], ctx.ids[edgePlans[b].mover]], value: null, threshold: null, edge: ctx.edges[a].key,
-            message: `layer ${layer}: the gates on ${ctx.edges[a].key} and ${ctx.edges[b].key} share a qubit or a crossing and cannot run at the same time` });
-        }
-      }
+  const pairs = conflictingPairs(ctx, edgePlans, f12, parking);
+  violations.push(...layerFindings(ctx, plan, layerOf, edgePlans, pairs));
+  const crowd = crowding(ctx, parking, states, calibratedZzScale(ctx, parking, idle.zzGHz), edgePlans);
+
+  // Claims.
+  const env: ClaimEnv = { ctx, plan, states, zzGHz: idle.zzGHz, crowding: crowd.qubits };
+  let claims = 0;
+  const problems: Diagnostic[] = [];
+  const check = (claim: Claim, scoped: ClaimEnv, base: Path, qubits: string[], edge?: string): void => {
+    const path = [...base, ...claim.path];
+    const stated = statedNumber(plan, path, problems);
+    if (stated === undefined) return;
+    const recomputed = claim.recompute(scoped);
+    if (recomputed === undefined) return;
+    claims++;
+    if (claimHolds(claim, stated, recomputed)) return;
+    const tol = claim.tolerance.rel ? `${formatClaimValue(claim.tolerance.abs, claim.unit)} + ${shortNumber(claim.tolerance.rel, 3)} relative` : formatClaimValue(claim.tolerance.abs, claim.unit);
+    const at = plan.locate(path);
+    violations.push({
+      rule: 'plan-claim', qubits, value: stated, threshold: recomputed, edge,
+      message: `${formatPath(path)}${at ? ` (${plan.file}:${at.line}:${at.column})` : ''}: the plan claims ${claim.what} ${formatClaimValue(stated, claim.unit)}; ${claim.from} gives ${formatClaimValue(recomputed, claim.unit)} (tolerance ${tol})`,
+      details: { claim: formatPath(path), stated, recomputed, unit: claim.unit, tolerance: claim.tolerance.abs, relativeTolerance: claim.tolerance.rel ?? 0 },
+    });
+  };
+  for (const claim of CLAIMS) {
+    if (claim.scope === 'plan') check(claim, env, [], []);
+    else if (claim.scope === 'qubit') ctx.ids.forEach((id, i) => check(claim, { ...env, qubit: i }, ['qubits', id], [id]));
+  }
+  for (const r of records) {
+    const edgeEnv: ClaimEnv = { ...env, edge: { input: r.input, index: r.index, mover: r.mover, partner: r.partner, interactionGHz: r.interactionGHz, interactionFlux: r.interactionFlux, parkedCount: r.parkedCount } };
+    if (r.waveform && r.simulation) edgeEnv.gate = { waveform: r.waveform, durationNs: trajectoryDuration(r.waveform), simulation: r.simulation, noisyMethod: r.noisyMethod };
+    const qs = [ctx.ids[r.mover], ctx.ids[r.partner]];
+    const key = ctx.edges[r.index].key;
+    for (const claim of CLAIMS) {
+      if (claim.scope === 'edge') check(claim, edgeEnv, ['edges', r.input.index], qs, key);
+      else if (claim.scope === 'gate' && edgeEnv.gate) check(claim, edgeEnv, ['edges', r.input.index, 'gate'], qs, key);
     }
   }
-  const crowd = crowding(ctx, parking, states, calibratedZzScale(ctx, parking, idle.zzGHz), edgePlans);
+  if (problems.length > 0) throw new InputError(problems);
+
   const order = COLLISION_RULES.map((r) => r.name);
   const v = sortFindings(violations, order);
   return {
     ok: v.length === 0,
     violations: v,
     flags: sortFindings(crowd.flags, order),
-    checked: { qubits: ctx.n, edges: edgePlans.length, layers: layerIds.length, waveforms },
+    checked: { qubits: ctx.n, edges: edgePlans.length, layers: new Set(layerOf).size, waveforms, claims },
     missingWaveforms: missing,
   };
+}
+
+/**
+ * How far from the bare crossing a designed destination may sit (GHz): the designer searches
+ * offsets of -1 to +3 minimum splittings from the exact crossing (src/gate/design.ts
+ * DESIGN_DEFAULTS.offsetWindow), and the exact crossing lies within about a splitting of the bare
+ * one; 5 splittings of the bare coupling (splitting = 2 g_c) bound both with room.
+ */
+function designWindowGHz(couplingGHz: number): number {
+  return 5 * 2 * couplingGHz;
+}
+
+/** The sample of a waveform farthest (in the mover's f01) from its first: the plateau. */
+export function plateauSample(wf: Trajectory, f01: (flux: number) => number): number {
+  const f0 = f01(wf.flux[0]);
+  let best = wf.flux[0];
+  let dist = 0;
+  for (let k = 1; k < wf.flux.length; k++) {
+    if (wf.flux[k] === wf.flux[k - 1] && k > 1) continue;
+    const d = Math.abs(f01(wf.flux[k]) - f0);
+    if (d > dist) {
+      dist = d;
+      best = wf.flux[k];
+    }
+  }
+  return best;
+}
+
+/** resimulate, with the waveform's file named in an InputError (a waveform too long to simulate). */
+function resimulateFile(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null, file: string): GateSimulation {
+  try {
+    return resimulate(ctx, pe, mover, partner, states, waveform, noisyMethod);
+  } catch (err) {
+    if (err instanceof InputError) throw new InputError(err.diagnostics.map((d) => ({ ...d, file: d.file ?? file })));
+    throw err;
+  }
+}
+
+/** The gate's waveform simulated on the model its designer used (src/gate/design.ts). */
+function resimulate(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null): GateSimulation {
+  const edge = ctx.edges[ctx.edgeBetween(mover, partner)];
+  const spectators: EdgeSpectator[] = (pe.gate?.simulatedSpectators ?? []).map((s) => {
+    const q = ctx.index.get(s.qubit)!;
+    const toMover = ctx.edgeBetween(mover, q);
+    const k = toMover >= 0 ? toMover : ctx.edgeBetween(partner, q);
+    return { transmon: ctx.transmons[q], coupledTo: toMover >= 0 ? 'mover' : 'partner', gGHz: ctx.edges[k].gGHz, flux: s.flux };
+  });
+  const noise = noisyMethod !== null;
+  const model = edgeSimModel({ mover: ctx.transmons[mover], partner: ctx.transmons[partner], gGHz: edge.gGHz, partnerFlux: states[partner].flux, noise, spectators });
+  const frame = buildManifoldFrame(model, { ...moverEjRange(ctx.transmons[mover], waveform), noiseOperators: noise });
+  return simulateGate(frame, waveform, { targetPhase: pe.gate?.targetPhase ?? Math.PI, lindblad: noisyMethod === 'lindblad', estimate: noise, scheme: 'blocks' });
+}
+
+/** Layer indices, the top-level layers list and the layer summary against the edges. */
+function layerFindings(ctx: PlanContext, plan: PlanInput, layerOf: readonly number[], edgePlans: readonly EdgePlan[], pairs: readonly [number, number][]): Finding[] {
+  const out: Finding[] = [];
+  const m = ctx.edges.length;
+  const used = [...new Set(layerOf)].sort((a, b) => a - b);
+  const count = used.length;
+  const byEdge = new Map(plan.edges.map((e) => [pairKey(...e.qubits), e]));
+  const pe = (k: number): PlanEdgeInput => byEdge.get(pairKey(ctx.ids[ctx.edges[k].a], ctx.ids[ctx.edges[k].b]))!;
+  // every index in 0 .. L-1, no gap
+  for (let k = 0; k < m; k++) {
+    const l = layerOf[k];
+    if (l >= count) {
+      out.push({ rule: 'layer-index', qubits: [ctx.ids[ctx.edges[k].a], ctx.ids[ctx.edges[k].b]], value: l, threshold: count - 1, edge: ctx.edges[k].key,
+        message: `edges[${pe(k).index}].layer: ${ctx.edges[k].key} is in layer ${l}, but the plan's gates fill ${count} layer(s), so the layers run from 0 to ${count - 1}${used.length > 1 ? ` (used: ${used.slice(0, 6).join(', ')}${used.length > 6 ? ', ...' : ''})` : ''}`,
+        details: { claim: formatPath(['edges', pe(k).index, 'layer']) } });
+    }
+  }
+  // the top-level list: layers[i].index = i, each edge once, in the layer its edge says
+  if (plan.layers) {
+    const listed = new Map<string, number>();
+    plan.layers.forEach((l, i) => {
+      if (l.index !== i) {
+        out.push({ rule: 'layer-index', qubits: [], value: l.index, threshold: i,
+          message: `layers[${i}].index: the plan numbers this layer ${l.index}; its position in the list is ${i}`, details: { claim: `layers[${i}].index` } });
+      }
+      for (const p of l.edges) {
+        const key = pairKey(...p);
+        if (listed.has(key)) {
+          out.push({ rule: 'layer-index', qubits: [...p], value: i, threshold: listed.get(key)!,
+            message: `layers[${i}]: ${p.join('-')} is listed again (first in layers[${listed.get(key)}])`, details: { claim: `layers[${i}].edges` } });
+          continue;
+        }
+        listed.set(key, i);
+        const e = byEdge.get(key);
+        if (e && e.layer !== i) {
+          out.push({ rule: 'layer-index', qubits: [...p], value: i, threshold: e.layer, edge: `${e.qubits[0]}-${e.qubits[1]}`,
+            message: `layers[${i}] lists ${p.join('-')}, but edges[${e.index}].layer puts it in layer ${e.layer}`, details: { claim: `layers[${i}].edges` } });
+        }
+      }
+    });
+    for (const e of plan.edges) {
+      if (!listed.has(pairKey(...e.qubits))) {
+        out.push({ rule: 'layer-index', qubits: [...e.qubits], value: e.layer, threshold: null, edge: `${e.qubits[0]}-${e.qubits[1]}`,
+          message: `layers: ${e.qubits.join('-')} is in no layer of the list (edges[${e.index}].layer says ${e.layer})`, details: { claim: 'layers' } });
+      }
+    }
+    // gates the list puts together must not conflict either
+    const listLayer = (k: number): number | undefined => listed.get(pairKey(ctx.ids[ctx.edges[k].a], ctx.ids[ctx.edges[k].b]));
+    for (const [a, b] of pairs) {
+      const la = listLayer(edgePlans[a].edge);
+      if (la !== undefined && la === listLayer(edgePlans[b].edge) && layerOf[edgePlans[a].edge] !== layerOf[edgePlans[b].edge]) {
+        out.push(conflictFinding(ctx, edgePlans, a, b, `layers[${la}]`));
+      }
+    }
+  }
+  for (const [a, b] of pairs) {
+    if (layerOf[edgePlans[a].edge] === layerOf[edgePlans[b].edge]) out.push(conflictFinding(ctx, edgePlans, a, b, `layer ${layerOf[edgePlans[a].edge]}`));
+  }
+  if (plan.layerSummary) {
+    const lowerBound = ctx.edgesOf.reduce((mx, list) => Math.max(mx, list.length), 0);
+    const rows: [string, number | null, number][] = [['count', plan.layerSummary.count, count], ['lowerBound', plan.layerSummary.lowerBound, lowerBound], ['conflicts', plan.layerSummary.conflicts, pairs.length]];
+    for (const [key, stated, actual] of rows) {
+      if (stated !== null && stated !== actual) {
+        out.push({ rule: 'layer-index', qubits: [], value: stated, threshold: actual,
+          message: `layerSummary.${key}: the plan claims ${stated}; recomputed from its edges ${actual}`, details: { claim: `layerSummary.${key}` } });
+      }
+    }
+  }
+  return out;
+}
+
+function conflictFinding(ctx: PlanContext, edgePlans: readonly EdgePlan[], a: number, b: number, where: string): Finding {
+  const [ea, eb] = [edgePlans[a].edge, edgePlans[b].edge];
+  return { rule: 'layer-conflict', qubits: [ctx.ids[edgePlans[a].mover], ctx.ids[edgePlans[b].mover]], value: null, threshold: null, edge: ctx.edges[ea].key,
+    message: `${where}: the gates on ${ctx.edges[ea].key} and ${ctx.edges[eb].key} share a qubit or a crossing and cannot run at the same time` };
+}
+
+/**
+ * The number a plan states at `path`: a finite number, null, or undefined when absent. Anything
+ * else is bad input, added to `problems` with its position.
+ */
+function statedNumber(plan: PlanInput, path: Path, problems?: Diagnostic[]): number | null | undefined {
+  let v: unknown = plan.raw;
+  for (const p of path) {
+    if (v === null || typeof v !== 'object' || !hasOwn(v as object, String(p))) return undefined;
+    v = (v as Record<string, unknown>)[p as string];
+  }
+  if (v === null) return null;
+  if (typeof v === 'number' && Number.isFinite(v)) return v;
+  const at = plan.locate(path);
+  problems?.push({ file: plan.file, line: at?.line, column: at?.column, path: formatPath(path), message: `expected a number or null, found ${typeof v === 'number' ? 'a number too large to represent' : JSON.stringify(v)?.slice(0, 40) ?? String(v)}` });
+  return undefined;
 }
 
 function pairKey(a: string, b: string): string {

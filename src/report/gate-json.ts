@@ -48,5 +48,6 @@ export function gateJson(edge: [string, string], d: GateDesign, files: { qubit: 
     out.waveform = files.qubit;
     out.awgProgram = files.awg;
   }
+  if (d.simulatedSpectators && d.simulatedSpectators.length > 0) out.simulatedSpectators = d.simulatedSpectators.map((s) => ({ qubit: s.qubit, flux: s.flux }));
   return out;
 }

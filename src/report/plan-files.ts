@@ -1,6 +1,6 @@
 /**
  * Every file `fluxlane plan -o DIR` writes, in a fixed order: DIR/plan.json, DIR/gates.csv,
- * DIR/gates.txt and, per edge with a designed gate that breaks no rule, DIR/waveforms/A-B.awg.csv
+ * DIR/gates.txt and, per edge with a designed gate (src/report/waveform-files.ts), DIR/waveforms/A-B.awg.csv
  * and DIR/waveforms/A-B.qubit.csv (./waveform-files.ts). The list is complete: nothing else
  * belongs to a plan's folder.
  */

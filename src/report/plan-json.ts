@@ -4,6 +4,7 @@
  * order, so the same plan gives the same bytes. Read back by src/plan/plan-read.ts.
  */
 import type { ChipPlan } from '../plan/plan.js';
+import { idRecord } from '../util/own.js';
 import { plain, toHz, toSeconds } from '../plan/format.js';
 import { toFindingJson } from '../plan/rules/findings.js';
 import { PLAN_FORMAT, PLAN_VERSION } from '../plan/plan-read.js';
@@ -17,7 +18,7 @@ const nullable = (x: number, f: (v: number) => number) => (Number.isFinite(x) ? 
 export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pulses: boolean; replan?: Record<string, unknown> }): Record<string, unknown> {
   const { ctx } = plan;
   const id = ctx.ids;
-  const qubits: Record<string, unknown> = {};
+  const qubits = idRecord<unknown>();
   ctx.ids.forEach((q, i) => {
     const s = plan.states[i];
     const c = plan.crowding.qubits[i];
@@ -48,8 +49,8 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     const edge = ctx.edges[e.edge];
     const gate = plan.gates?.[k] ?? null;
     const designed = gate?.design;
-    const spectatorParking: Record<string, number> = {};
-    const spectatorParkingFlux: Record<string, number> = {};
+    const spectatorParking = idRecord<number>();
+    const spectatorParkingFlux = idRecord<number>();
     for (const p of e.parked) {
       spectatorParking[id[p.qubit]] = toHz(p.fGHz);
       spectatorParkingFlux[id[p.qubit]] = plain(p.flux);

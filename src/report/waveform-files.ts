@@ -1,6 +1,6 @@
 /**
- * The per-edge waveform files of a plan, for every edge whose gate was designed and breaks no
- * rule (none for an infeasible edge):
+ * The per-edge waveform files of a plan, for every edge whose gate was designed (none for an edge
+ * without a design; a design that breaks a rule says so in its AWG file's first line):
  *
  *   waveforms/A-B.awg.csv    the AWG program of the gate's slot on the AWG's uniform grid: what
  *                            the generators play, before the line; one column per flux line that
@@ -35,10 +35,14 @@ export function waveformPaths(edgeKey: string): { qubit: string; awg: string } {
   return { qubit: `waveforms/${edgeKey}.qubit.csv`, awg: `waveforms/${edgeKey}.awg.csv` };
 }
 
-/** True when edge k (by plan order) gets waveform files: a feasible design on an edge that breaks no rule. */
+/**
+ * True when edge k (by plan order) gets waveform files: a feasible design (the gate stage found a
+ * CZ). A design that breaks a rule gets them too, so what the plan's findings were computed on can
+ * be read, re-simulated and verified; its AWG file says in its first line that it breaks a rule.
+ */
 export function writesWaveforms(plan: ChipPlan, k: number): boolean {
   const g = plan.gates?.[k];
-  return !!g && g.findings.length === 0 && g.design.feasible && g.design.waveform.timeNs.length > 0 && (g.design.awg?.flux.length ?? 0) > 0;
+  return !!g && g.design.feasible && g.design.waveform.timeNs.length > 0 && (g.design.awg?.flux.length ?? 0) > 0;
 }
 
 /** The slot program of edge k: AWG samples per moving qubit on one time base. */
@@ -95,7 +99,9 @@ export function awgProgramCsv(plan: ChipPlan, k: number): string {
   const fs = s.sampleRateGHz;
   const n = s.columns[0].flux.length;
   const moved = s.columns.slice(1).map((c) => c.qubit);
+  const broken = [...new Set((plan.gates?.[k]?.findings ?? []).map((f) => f.rule))];
   const rows = [
+    ...(broken.length > 0 ? [`# WARNING: this gate breaks ${broken.join(', ')} (see plan.json); do not play it as it is`] : []),
     `# fluxlane: AWG program of the CZ on ${key} (mover ${s.columns[0].qubit}${moved.length > 0 ? `; spectators ${moved.join(', ')} moved out and back` : ''}), before the flux line`,
     `# ${n} samples at ${number(fs)} GS/s (${number((n - 1) / fs)} ns, the gate's slot); flux in Phi0; ${s.columns[0].qubit}'s program starts at sample ${s.moverStart}`,
     '# model estimate: verify on hardware, pre-distort for your line, and respect your flux-line current limits',

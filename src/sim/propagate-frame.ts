@@ -24,6 +24,7 @@
  * (test/sim/propagate-frame.test.ts measures the order). The default scheme handles each
  * manifold block this way and the inter-manifold coupling by src/sim/block-stepper.ts.
  */
+import { InputError } from '../util/errors.js';
 import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
@@ -228,6 +229,21 @@ export interface FrameStep {
  * times): holds are split into pieces of at most maxHoldStepNs; ramp segments into equal steps
  * obeying maxStepNs, maxAngle (largest |A| of any sector) and maxEjStepGHz.
  */
+/**
+ * Most steps a schedule may hold (each step is kept in memory: about 100 bytes, so 4e6 steps are
+ * about 400 MB, and 4 minutes of propagation here). A longer schedule is refused before it is
+ * built (InputError): the trajectory is too long for the simulator (e.g. 2e9 ns of ramps).
+ */
+export const MAX_SCHEDULE_STEPS = 4_000_000;
+
+/** The InputError of a schedule over MAX_SCHEDULE_STEPS. */
+export function scheduleTooLong(steps: number, durationNs: number, file?: string): InputError {
+  return new InputError({
+    file,
+    message: `expected a trajectory the simulator can step through in at most ${MAX_SCHEDULE_STEPS} steps (0.2 ns each on ramps), found one of ${durationNs.toPrecision(4)} ns that needs at least ${steps.toPrecision(3)} steps`,
+  });
+}
+
 export function stepSchedule(frame: ManifoldFrame, traj: Trajectory, options: FramePropagationOptions & { maxHoldStepNs?: number } = {}): FrameStep[] {
   const o = { ...FRAME_PROPAGATION_DEFAULTS, maxHoldStepNs: Infinity, ...options };
   const mover = frame.model.transmons[0];
@@ -242,6 +258,7 @@ export function stepSchedule(frame: ManifoldFrame, traj: Trajectory, options: Fr
     const x1 = xs[k + 1];
     if (x1 === x0) {
       const n = Number.isFinite(o.maxHoldStepNs) ? Math.max(1, Math.ceil(dt / o.maxHoldStepNs - 1e-9)) : 1;
+      if (!(out.length + n <= MAX_SCHEDULE_STEPS)) throw scheduleTooLong(out.length + n, ts[ts.length - 1] - ts[0]);
       for (let q = 0; q < n; q++) out.push({ hold: true, t0: ts[k] + (q * dt) / n, h: dt / n, x0, v: 0 });
       continue;
     }
@@ -256,6 +273,7 @@ export function stepSchedule(frame: ManifoldFrame, traj: Trajectory, options: Fr
     const rate = Math.abs(v) * slopeMax;
     let n = Math.ceil(dt / o.maxStepNs - 1e-9);
     n = Math.max(n, 1, Math.ceil((rate * dt * aMax) / o.maxAngle - 1e-9), Math.ceil((rate * dt) / o.maxEjStepGHz - 1e-9));
+    if (!(out.length + n <= MAX_SCHEDULE_STEPS)) throw scheduleTooLong(out.length + n, ts[ts.length - 1] - ts[0]);
     const h = dt / n;
     for (let q = 0; q < n; q++) out.push({ hold: false, t0: ts[k] + q * h, h, x0: x0 + v * q * h, v });
   }

@@ -80,7 +80,7 @@ export function trajectoryProblems(t: Trajectory, where: { file?: string; lineOf
     return out;
   }
   if (n < 2) {
-    out.push({ file: where.file, message: `expected at least two samples, found ${n}` });
+    out.push({ ...at(Math.max(0, n - 1)), message: `expected at least two samples, found ${n}` });
     return out;
   }
   for (let k = 0; k < n; k++) {
@@ -112,7 +112,7 @@ export const TRAJECTORY_FLUX_COLUMNS: readonly string[] = ['flux_phi0', 'flux'];
 
 /** Parse the CSV form. Throws InputError naming file:line:column on any problem. */
 export function parseTrajectoryCsv(text: string, file = '<trajectory>'): Trajectory {
-  const lines = text.split(/\r?\n/);
+  const lines = text.split(/\r\n|\r|\n/);
   const problems: Diagnostic[] = [];
   let headerLine = -1;
   for (let i = 0; i < lines.length; i++) {

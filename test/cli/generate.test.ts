@@ -74,7 +74,7 @@ describe('fluxlane generate', () => {
     expect(readFileSync(join(dir, 'sub/dir/g.yaml'), 'utf8')).toMatch(/^# Synthetic square chip/);
     const bad = await runFluxlane(['generate', 'square', '--rows', '2', '--cols', '2', '-o', 'sub/dir/g.yaml/x.yaml'], { cwd: dir });
     expect(bad.code).toBe(2);
-    expect(bad.err).toBe('sub/dir/g.yaml/x.yaml: expected a writable output path, found a file where a folder should be\n');
+    expect(bad.err).toBe(`sub/dir/g.yaml/x.yaml: expected a writable output path, found a file where a folder should be (${join(dir, 'sub/dir/g.yaml')})\n`);
     expect(readdirSync(join(dir, 'sub/dir'))).toEqual(['g.yaml']);
   });
 });

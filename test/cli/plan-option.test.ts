@@ -78,6 +78,6 @@ describe('simulate --plan', () => {
     expect(awg.err).toMatch(/this is an AWG program, before the flux line; simulate reads the flux the qubit sees/);
     const bad = await runFluxlane(['simulate', LAYOUT, '--edge', 'Q0-Q3', '--plan', join(dir, 'nope.json')]);
     expect(bad.code).toBe(2);
-    expect(bad.err).toMatch(/nope\.json: expected a readable plan file \(option --plan\), found no such file/);
+    expect(bad.err).toMatch(/nope\.json: expected a readable plan file, found no such file/);
   });
 });

@@ -92,7 +92,7 @@ describe('fluxlane plan --no-pulses', () => {
     expect(r.err).toMatch(/option --seed: expected an integer/);
     const ramp = await runFluxlane(['plan', 'layouts/bowline-5.yaml', '--ramp', '5 GHz']);
     expect(ramp.code).toBe(2);
-    expect(ramp.err).toMatch(/option --ramp: expected a ramp time such as "12 ns"/);
+    expect(ramp.err).toMatch(/option --ramp: expected a ramp time such as "10 ns"/);
   });
 });
 

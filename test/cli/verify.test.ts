@@ -63,7 +63,7 @@ describe('fluxlane verify', () => {
     writeFileSync(join(dir, 'plan.json'), '{\n  "format": "fluxlane-plan",\n  "version": 1,\n  "qubits": { , }\n}\n');
     const r = await runFluxlane(['verify', resolve('layouts/bowline-5.yaml'), 'plan.json'], { cwd: dir });
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/^plan\.json:4:15: expected JSON \(a plan\.json written by fluxlane plan\), found a syntax error: /);
+    expect(r.err).toBe('plan.json:4:15: JSON syntax: expected a key in double quotes, found ","\n');
   });
 
   it('schema problems exit 2 with the position and path of each, and a plan for another chip is refused', async () => {
@@ -75,7 +75,7 @@ describe('fluxlane verify', () => {
     const r = await runFluxlane(['verify', 'layouts/bowline-5.yaml', path]);
     expect(r.code).toBe(2);
     const lines = r.err.trimEnd().split('\n');
-    expect(lines.some((l) => /plan\.json:\d+:\d+: qubits\.Q2\.parkingFrequency: expected a frequency in Hz \(a number\), found nothing/.test(l))).toBe(true);
+    expect(lines.some((l) => /plan\.json:\d+:\d+: qubits\.Q2: missing key "parkingFrequency": expected a parking frequency in Hz \(a positive number\)$/.test(l))).toBe(true);
     expect(lines.some((l) => /plan\.json:\d+:\d+: edges\[1\]\.crossing: expected "11-20" or "11-02", found "11-21"/.test(l))).toBe(true);
     const other = await runFluxlane(['verify', 'layouts/clove-17.yaml', join(dir, 'intact.json')]);
     expect(other.code).toBe(2);

@@ -22,13 +22,35 @@ describe('readYamlSource: guards', () => {
       'c: &c [*b, *b, *b, *b, *b, *b, *b, *b, *b]',
       'd: &d [*c, *c, *c, *c, *c, *c, *c, *c, *c]',
       'e: &e [*d, *d, *d, *d, *d, *d, *d, *d, *d]',
-      'f: [*e, *e, *e, *e, *e, *e, *e, *e, *e]',
+      'f: &f [*e, *e, *e, *e, *e, *e, *e, *e, *e]',
+      'g: [*f, *f, *f, *f, *f, *f, *f, *f, *f]',
     ].join('\n');
-    const started = performance.now();
+    // counted without expanding: a = 1 + 9 = 10 values, each level 1 + 9 x the one below
+    // (b 91, c 820, d 7381, e 66430, f 597871, g 5380840), plus the 7 keys and the root map
     expect(messages(bomb)).toEqual([
-      `y.yaml: expected at most ${YAML_LIMITS.maxAliasCount} alias expansions, found more (YAML alias bombs are refused)`,
+      `y.yaml: expected at most ${YAML_LIMITS.maxNodes} values once aliases are expanded, found 6053451 (YAML alias bombs are refused)`,
     ]);
-    expect(performance.now() - started).toBeLessThan(2000);
+    const deeper = `${bomb.replace('g: [', 'g: &g [')}\n${'hijklmnopqrstuvwxyz'.split('').map((k, i) => `${k}${i}: &${k}${i} [${Array(9).fill(i === 0 ? '*g' : `*${'hijklmnopqrstuvwxyz'[i - 1]}${i - 1}`).join(', ')}]`).join('\n')}`;
+    expect(messages(deeper)).toEqual([
+      `y.yaml: expected at most ${YAML_LIMITS.maxNodes} values once aliases are expanded, found far more (YAML alias bombs are refused)`,
+    ]);
+  });
+
+  it('accepts 150 qubits sharing their defaults through <<: *defaults (the expanded size counts, not the uses)', () => {
+    const first = '  Q0: &defaults { fMax: 6.1 GHz, anharmonicity: -210 MHz, asymmetry: 0.3, t1: 60 us, tphi: 80 us, fluxNoise: 3 uPhi0, readout: 7.2 GHz, pos: [0, 0] }';
+    const rest = Array.from({ length: 149 }, (_, k) => `  Q${k + 1}: { <<: *defaults, pos: [${k + 1}, 0] }`);
+    const layout = parseLayoutText(['chip: Shared', 'qubits:', first, ...rest, ''].join('\n'), 'shared.yaml');
+    expect(layout.qubits).toHaveLength(150);
+    expect(layout.qubits[149].pos).toEqual([149, 0]);
+    expect(layout.qubits[149].t1Ns).toBe(60000);
+  });
+
+  it('reads CR-only line endings like LF (YAML 1.2 line breaks), with the same positions', () => {
+    const lf = 'chip: X\nqubits:\n  Q1:\n    pos: [0, 0]\n    fMax: 6 GHz\n    anharmonicity: -210 MHz\n    t1: 5 GHz\n    tphi: 50 us\n';
+    const cr = lf.replace(/\n/g, '\r');
+    expect(messages(cr)).toEqual(messages(lf));
+    expect(messages(cr)).toEqual(['y.yaml:7:9: qubits.Q1.t1: expected a time, found 5 GHz']);
+    expect(parseLayoutText(cr.replace('5 GHz', '50 us'), 'y.yaml').qubits[0].t1Ns).toBe(50000);
   });
 
   it('refuses an alias to an unknown anchor, with its position', () => {

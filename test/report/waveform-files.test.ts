@@ -74,13 +74,18 @@ describe('waveform files of Clove-17 D6-X1', () => {
     d.timeNs.forEach((t, j) => expect(at.get(t)).toBe(d.flux[j]));
   });
 
-  it('two files for a gate that breaks no rule, none once it breaks one', () => {
+  it('two files for a designed gate; one that breaks a rule says so in its AWG file; none without a design', () => {
     expect(writesWaveforms(plan, k)).toBe(true);
     expect(waveformFiles(plan, 'out').map((f) => f.path)).toEqual(['out/waveforms/D6-X1.awg.csv', 'out/waveforms/D6-X1.qubit.csv']);
     const g = plan.gates![k]!;
     g.findings = [{ rule: 'cz-duration', qubits: ['D6', 'X1'], value: 101, threshold: 100, message: 'too long' }];
+    expect(writesWaveforms(plan, k)).toBe(true);
+    expect(awgProgramCsv(plan, k).split('\n')[0]).toBe('# WARNING: this gate breaks cz-duration (see plan.json); do not play it as it is');
+    const feasible = g.design.feasible;
+    g.design.feasible = false;
     expect(writesWaveforms(plan, k)).toBe(false);
     expect(waveformFiles(plan, 'out')).toEqual([]);
+    g.design.feasible = feasible;
     g.findings = [];
   });
 });

@@ -6,6 +6,7 @@
  */
 import { checkChip } from '../../plan/check.js';
 import type { CheckStage } from './check.js';
+import { FigureGuard, guardPlan } from '../figure-guard.js';
 
 export const PLANNER_CHECK_STAGE: CheckStage = {
   name: 'collisions',
@@ -29,6 +30,9 @@ export const PLANNER_CHECK_STAGE: CheckStage = {
       },
     });
     bar?.done();
+    const guard = new FigureGuard(input.layout);
+    guardPlan(guard, result.plan);
+    guard.throwIfAny();
     return { violations: result.violations, flags: result.flags, data: result.data, lines: result.lines };
   },
 };

@@ -11,7 +11,6 @@
 
 import { Argument, type Command } from 'commander';
 import type { ChipLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { buildChipGraph, type ChipGraph } from '../../chip/graph.js';
 import { nextNearestPairs } from '../../chip/neighbourhood.js';
 import { connectedComponents, degreeStats } from '../../chip/stats.js';
@@ -19,7 +18,9 @@ import type { StageProfiler } from '../../util/profile.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { withCommonOptions } from '../options.js';
+import { MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
+import { enforceChipLimits, enforceWork, plannerWork } from '../work-limits.js';
+import { z } from 'zod';
 import { PLANNER_CHECK_STAGE } from './check-planner.js';
 import { wrapLine } from '../../util/wrap.js';
 
@@ -127,8 +128,15 @@ function summaryText(layout: ChipLayout, s: ChipSummary, stages: readonly CheckS
   return lines.join('\n');
 }
 
-export async function checkLayout(ctx: CommandContext, layoutPath: string, stages: readonly CheckStage[] = CHECK_STAGES): Promise<CommandOutcome> {
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+const CheckOptions = z.object({ maxSeconds: maxSecondsOption().optional() });
+
+export async function checkLayout(ctx: CommandContext, layoutPath: string, stages: readonly CheckStage[] = CHECK_STAGES, raw: Record<string, unknown> = {}): Promise<CommandOutcome> {
+  const o = parseOptions(CheckOptions, raw);
+  const layout = ctx.loadLayout(layoutPath);
+  if (stages.length > 0) {
+    enforceChipLimits(layout, 'check');
+    enforceWork(plannerWork(layout), o.maxSeconds, 'check');
+  }
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const summary = ctx.profiler.time('summary', () => summariseChip(layout, graph));
   const result = await runCheckStages({ layout, graph, profiler: ctx.profiler, progress: ctx.progress }, stages);
@@ -145,6 +153,7 @@ export function registerCheck(program: Command, io: CliIo, stages: readonly Chec
     program
       .command('check')
       .description('validate a chip layout, summarise it, and check every collision rule at the best parking assignment, the CZ feasibility of every edge and the crowding margins (no pulse design; exit 1 on any violation)')
-      .addArgument(new Argument('<layout>', 'layout YAML file')),
-  ).action(commandAction<[string]>(io, (ctx, layoutPath) => checkLayout(ctx, layoutPath, stages)));
+      .addArgument(new Argument('<layout>', 'layout YAML file'))
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
+  ).action(commandAction<[string]>(io, (ctx, layoutPath, options) => checkLayout(ctx, layoutPath, stages, options)));
 }

@@ -18,71 +18,44 @@
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
-import { parseQuantity } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { designCzGate, DEFAULT_FAMILY, FALLBACK_FAMILY } from '../../gate/design.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import { formatTrajectoryCsv } from '../../sim/trajectory.js';
-import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { parseOptions, withCommonOptions } from '../options.js';
 import { edgeRoles, parseEdge } from './pair.js';
-import { parseFluxValue, si } from './spectrum.js';
+import { si } from './spectrum.js';
 import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption, spectatorRequest } from '../plan-option.js';
 import { spectatorMovesNs } from '../../plan/rules/cz-duration.js';
-
-
+import { checkOutputFile } from '../output-write.js';
+import { FigureGuard, guardDesign } from '../figure-guard.js';
+import { designSeconds, enforceWork } from '../work-limits.js';
+import { familyOption, fluxOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
 
 const GateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   plan: z.string().optional(),
   spectator: z.array(z.string()).optional(),
   mover: z.string().optional(),
-  family: z.enum(RAMP_FAMILIES.map((f) => f.name) as [string, ...string[]], { error: () => `one of ${RAMP_FAMILIES.map((f) => f.name).join(', ')}` }).optional(),
-  ramp: z.string().optional(),
-  phase: z.string().optional(),
+  family: familyOption(RAMP_FAMILIES.map((f) => f.name)).optional(),
+  ramp: rampOption().optional(),
+  phase: phaseOption().optional(),
   crossing: z.enum(['11-20', '11-02'], { error: () => '11-20 or 11-02' }).optional(),
-  staticFlux: z.string().optional(),
+  staticFlux: fluxOption().optional(),
   noise: z.boolean().optional(),
-  waveform: z.string().optional(),
+  waveform: z.string().min(1, { error: () => 'a file name' }).optional(),
+  maxSeconds: maxSecondsOption().optional(),
 });
-
-/** A ramp time: "12 ns", "0.012 us" or a bare number of ns. */
-function parseRamp(text: string): number {
-  const bare = /^\s*\d+(\.\d+)?\s*$/.test(text);
-  let ns = NaN;
-  if (bare) ns = Number(text);
-  else {
-    const r = parseQuantity(text, 'time');
-    if (r.ok) ns = r.value;
-  }
-  if (!(ns > 0 && ns <= 1000)) throw new InputError({ message: `option --ramp: expected a ramp time such as "10 ns" (0 to 1000 ns), found ${JSON.stringify(text)}` });
-  return ns;
-}
-
-/** A target phase: "pi", "pi/2", "3.14159", "90 deg". */
-function parsePhase(text: string): number {
-  const t = text.trim().toLowerCase();
-  let v = NaN;
-  const m = /^([-+]?(?:\d+\.?\d*|\.\d+)?)\s*\*?\s*pi(?:\s*\/\s*(\d+(?:\.\d+)?))?$/.exec(t);
-  if (m) v = (m[1] === '' || m[1] === '+' ? 1 : m[1] === '-' ? -1 : Number(m[1])) * Math.PI / (m[2] ? Number(m[2]) : 1);
-  else if (/^[-+]?(\d+\.?\d*|\.\d+)\s*deg$/.test(t)) v = (Number(t.replace('deg', '')) * Math.PI) / 180;
-  else if (/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/.test(t)) v = Number(t);
-  if (!Number.isFinite(v) || Math.abs(v) > Math.PI + 1e-12 || v === 0) {
-    throw new InputError({ message: `option --phase: expected a conditional phase in (-pi, pi], not 0, such as pi, pi/2, 1.5 or 90 deg, found ${JSON.stringify(text)}` });
-  }
-  return v;
-}
 
 export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(GateOptions, raw);
-  const rampOpt = o.ramp !== undefined ? parseRamp(o.ramp) : undefined;
-  const phaseOpt = o.phase !== undefined ? parsePhase(o.phase) : undefined;
-  const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const rampOpt = o.ramp;
+  const phaseOpt = o.phase;
+  const staticFluxOpt = o.staticFlux;
+  if (o.waveform !== undefined) checkOutputFile(o.waveform, ctx.io.cwd, '--waveform');
+  const layout = ctx.loadLayout(layoutPath);
   const [ea, eb] = parseEdge(layout, o.edge);
   const planOpt = o.plan !== undefined ? ctx.profiler.time('plan', () => readPlanOption(ctx, o.plan!, layout)) : null;
   const fromPlan = planEdge(planOpt, layout, ea.id, eb.id);
@@ -94,6 +67,9 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const theta = phaseOpt ?? planDesign?.targetPhase ?? Math.PI;
   const crossing = o.crossing ?? (samePlanGate ? fromPlan.crossing : '11-20');
   const family = o.family ?? planDesign?.family;
+  // a design without a named family may design the fallback family too
+  const seconds = designSeconds(layout.rules, gGHz, { lindblad: !!o.noise }) * (family === undefined ? 2 : 1);
+  enforceWork({ seconds, what: `a CZ design of ${la.id}-${lb.id}${o.noise ? ' with Lindblad noise' : ''}` }, o.maxSeconds, 'gate');
   const mover = Transmon.fromLayout(lm);
   const partner = Transmon.fromLayout(ls);
   const moverChoice = chooseFlux(mover, lm, undefined, fromPlan?.parkingFlux.get(lm.id));
@@ -120,6 +96,9 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       spectators: spectators.length > 0 ? spectators.map((x) => x.request) : undefined,
     }),
   );
+  const guard = new FigureGuard(layout);
+  guardDesign(guard, design, [la.id, lb.id]);
+  guard.throwIfAny();
   const data: Record<string, unknown> = {
     edge: [la.id, lb.id],
     mover: design.mover,
@@ -196,6 +175,7 @@ export function registerGate(program: Command, io: CliIo): void {
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
       .option('--noise', 'add decoherence and report fidelityNoisy')
-      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux_phi0: the flux the mover sees) for fluxlane simulate'),
+      .option('--waveform <file>', 'write the waveform CSV (time_ns,flux_phi0: the flux the mover sees) for fluxlane simulate')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => gateCommand(ctx, layout, options)));
 }

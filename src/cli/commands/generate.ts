@@ -13,6 +13,7 @@ import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
+import { checkOutputFile } from '../output-write.js';
 import { integerOption, parseOptions, withCommonOptions } from '../options.js';
 
 export const LATTICES: readonly LatticeKind[] = ['square', 'heavy-hex'];
@@ -31,6 +32,7 @@ const GenerateOptionsSchema = z.object({
 
 export function generateCommand(ctx: CommandContext, lattice: LatticeKind, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(GenerateOptionsSchema, raw);
+  if (o.output !== undefined) checkOutputFile(o.output, ctx.io.cwd, '--output');
   if (o.rows * o.cols > GENERATE_LIMITS.maxCells) {
     throw new InputError({
       message: `options --rows and --cols: expected at most ${GENERATE_LIMITS.maxCells} cells in all, found ${o.rows} x ${o.cols} = ${o.rows * o.cols}`,

@@ -20,7 +20,6 @@
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { CoupledPair } from '../../pair/pair.js';
 import { pairResonances, RESONANCE_NAMES, type PairResonances } from '../../pair/resonances.js';
@@ -29,8 +28,9 @@ import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
-import { findQubit, parseFluxValue, si } from './spectrum.js';
+import { fluxOption, integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { findQubit, si } from './spectrum.js';
+import { FigureGuard } from '../figure-guard.js';
 import { freq } from '../../plan/format.js';
 import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption } from '../plan-option.js';
 
@@ -40,8 +40,8 @@ const PairOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
   mover: z.string().optional(),
   plan: z.string().optional(),
-  fluxA: z.string().optional(),
-  fluxB: z.string().optional(),
+  fluxA: fluxOption().optional(),
+  fluxB: fluxOption().optional(),
   sweep: z.boolean().optional(),
   points: integerOption(2, 10_001).optional(),
   levels: integerOption(4, 12).optional(),
@@ -85,10 +85,10 @@ export function edgeRoles(layout: ChipLayout, edgeText: string, moverId: string 
 
 export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(PairOptions, raw);
-  const fluxAOpt = o.fluxA !== undefined ? parseFluxValue(o.fluxA, '--flux-a') : undefined;
-  const fluxBOpt = o.fluxB !== undefined ? parseFluxValue(o.fluxB, '--flux-b') : undefined;
+  const fluxAOpt = o.fluxA;
+  const fluxBOpt = o.fluxB;
   if (o.points !== undefined && !o.sweep) throw new InputError({ message: 'option --points: expected together with --sweep, found it alone' });
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
   const [la, lb, gGHz] = parseEdge(layout, o.edge);
   if (o.mover !== undefined && o.mover !== la.id && o.mover !== lb.id) {
     throw new InputError({ message: `option --mover: expected ${la.id} or ${lb.id} (a qubit of the edge), found ${JSON.stringify(o.mover)}` });
@@ -112,6 +112,12 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const resonances = ctx.profiler.time('resonances', () => pairResonances(mover, partner, partnerFlux, pair.gChargeGHz));
   const sweep = o.sweep ? ctx.profiler.time('sweep', () => zzSweep(pair, moverIsA ? 'a' : 'b', partnerFlux, { points: o.points ?? PAIR_CLI_DEFAULTS.points })) : undefined;
 
+  const guard = new FigureGuard(layout);
+  const edgeIds: [string, string] = [qa.id, qb.id];
+  guard.finite(spectrum.zzGHz, 'the static ZZ', { edge: edgeIds });
+  for (const [i, j] of [[0, 0], [0, 1], [1, 0], [1, 1], [2, 0], [0, 2]] as const) guard.finite(spectrum.energy(i, j), `the dressed level ${i}${j}`, { edge: edgeIds });
+  for (const p of sweep ?? []) guard.finite(p.zzGHz, `the static ZZ at mover flux ${p.moverFlux}`, { edge: edgeIds });
+  guard.throwIfAny();
   const e00 = spectrum.energy(0, 0);
   const rel = (i: number, j: number) => si((spectrum.energy(i, j) - e00) * 1e9);
   const f01A = qa.f01(fluxA);

@@ -4,7 +4,7 @@
  * --no-pulses) a CZ design per edge from the gate stage (src/plan/pulses.ts). With -o it writes
  * the files of src/report/plan-files.ts: DIR/plan.json (schema: shared/plan.schema.json),
  * DIR/gates.csv (one row per edge), DIR/gates.txt (the same table for people) and, per edge
- * whose designed gate breaks no rule, DIR/waveforms/A-B.awg.csv (the AWG program of its slot) and
+ * with a designed gate, DIR/waveforms/A-B.awg.csv (the AWG program of its slot) and
  * DIR/waveforms/A-B.qubit.csv (the flux the mover sees). With --from OLD.json it re-plans from an
  * earlier plan (src/plan/replan/replan.ts): only the --edges named, or, on a re-measured layout,
  * everything that no longer holds. Exit 1 when a rule is broken (the files are still complete and
@@ -12,9 +12,7 @@
  */
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
 import { buildChipGraph } from '../../chip/graph.js';
-import { parseQuantity } from '../../layout/units.js';
 import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';
 import { finishReplan, replanChip, replanJson } from '../../plan/replan/replan.js';
@@ -29,27 +27,31 @@ import { planFiles } from '../../report/plan-files.js';
 import { planReportFile } from '../../report/html/chip-report.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
-import type { CommandOutcome, OutputFile } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import type { CommandOutcome, OutputFile, OutputFolder } from '../outcome.js';
+import { checkOutputFolder } from '../output-write.js';
+import { FigureGuard, guardPlan } from '../figure-guard.js';
+import { enforceChipLimits, enforceWork, planWork } from '../work-limits.js';
+import { familyOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, seedOption, threadsOption, withCommonOptions } from '../options.js';
+import { RAMP_FAMILIES } from '../../gate/families/index.js';
 import type { Progress } from '../progress.js';
 
 const PlanOptionsSchema = z.object({
-  seed: integerOption(0, 0xffffffff),
+  seed: seedOption(),
   outputDir: z.string().min(1, { error: () => 'a folder name' }).optional(),
   pulses: z.boolean().default(true),
   noise: z.boolean().default(true),
   lindblad: z.boolean().optional(),
   spectators: z.boolean().optional(),
-  family: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, { error: () => 'a ramp family name' }).optional(),
-  ramp: z.string().optional(),
-  threads: integerOption(1, 64).optional(),
+  family: familyOption(RAMP_FAMILIES.map((f) => f.name)).optional(),
+  ramp: rampOption().optional(),
+  threads: threadsOption().optional(),
   from: z.string().min(1, { error: () => 'a plan.json file' }).optional(),
   edges: z.string().min(1, { error: () => 'edges A-B,C-D' }).optional(),
-  phase: z
-    .string({ error: () => 'a phase in rad' })
-    .regex(/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/, { error: () => 'a phase in rad (a number)' })
-    .transform(Number)
-    .optional(),
+  phase: phaseOption().optional(),
+  force: z.boolean().optional(),
+  maxSeconds: maxSecondsOption().optional(),
+  /** Internal (fluxlane report LAYOUT): return the chip report page instead of writing a folder. */
+  reportPage: z.boolean().optional(),
 });
 
 /** Draws one progress bar per stage of a long computation (terminal only). */
@@ -77,18 +79,17 @@ export function stageProgress(ctx: CommandContext): { update: (stage: string, do
 
 export async function planCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): Promise<CommandOutcome> {
   const o = parseOptions(PlanOptionsSchema, raw);
-  let rampNs: number | undefined;
-  if (o.ramp !== undefined) {
-    const q = parseQuantity(o.ramp, 'time');
-    if (!q.ok || !(q.value > 0)) throw new InputError({ message: `option --ramp: expected a ramp time such as "12 ns", found ${JSON.stringify(o.ramp)}` });
-    rampNs = q.value;
-  }
+  const rampNs = o.ramp;
+  if (o.outputDir !== undefined) checkOutputFolder(o.outputDir, ctx.io.cwd, o.force ?? false, '--output-dir', [layoutPath]);
   const designer = o.pulses ? await ctx.profiler.timeAsync('gate stage', () => loadGateDesigner()) : null;
   if (o.pulses && !designer) {
     throw new InputError({ message: 'expected the CZ pulse designer of the gate stage (src/gate/design.ts), found none in this build; run with --no-pulses' });
   }
   if (o.edges !== undefined && o.from === undefined) throw new InputError({ message: 'option --edges: expected together with --from OLD_PLAN.json (the plan whose other edges are kept), found it alone' });
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const layout = ctx.loadLayout(layoutPath);
+  const threads = o.threads ?? defaultDesignThreads();
+  enforceChipLimits(layout, 'plan');
+  enforceWork(planWork(layout, o.pulses ? { lindblad: o.lindblad, spectators: o.spectators, threads } : null), o.maxSeconds, 'plan');
   const graph = ctx.profiler.time('chip', () => buildChipGraph(layout));
   const progress = stageProgress(ctx);
   const earlier = o.from !== undefined ? ctx.profiler.time('read plan', () => readPlanOption(ctx, o.from!, layout)) : null;
@@ -101,7 +102,6 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
     if (o.family !== undefined) pulses.family = o.family;
     if (rampNs !== undefined) pulses.rampNs = rampNs;
     if (o.phase !== undefined) pulses.targetPhase = o.phase;
-    const threads = o.threads ?? defaultDesignThreads();
     const onDone = (done: number, total: number): void => progress.update('designing CZ pulses', done, total);
     const given = replan?.keptDesigns;
     if (threads > 1) {
@@ -111,21 +111,31 @@ export async function planCommand(ctx: CommandContext, layoutPath: string, raw: 
   }
   if (replan) finishReplan(replan);
   progress.finish();
+  const guard = new FigureGuard(layout);
+  guardPlan(guard, plan);
+  guard.throwIfAny();
   const json = ctx.profiler.time('output', () =>
     planJson(plan, { file: layout.file, seed: o.seed, pulses: designer !== null, replan: replan && earlier ? replanJson(replan, earlier.file) : undefined }),
   );
-  const files: OutputFile[] = [];
+  let folder: OutputFolder | undefined;
+  let page: OutputFile | undefined;
+  if (o.outputDir !== undefined || o.reportPage) {
+    const report = await ctx.profiler.timeAsync('report', () => planReportFile('.', json, layout, plan));
+    page = { ...report, path: 'report.html' };
+  }
   if (o.outputDir !== undefined) {
     const dir = o.outputDir.replace(/\/+$/, '') || '.';
-    files.push(...planFiles(plan, json, dir));
-    files.push(await ctx.profiler.timeAsync('report', () => planReportFile(dir, json, layout, plan)));
+    // every file of a plan folder (src/report/plan-files.ts), relative to it, and the chip report
+    const files: OutputFile[] = [...planFiles(plan, json, '.').map((f) => ({ ...f, path: f.path.replace(/^\.\//, '') })), page!];
+    folder = { path: dir, command: 'plan', files, force: o.force ?? false };
   }
-  const written = files.length > 0 ? `\n${writtenLine(files)}` : '';
+  const written = folder ? `\n${writtenLine(folder.files.map((f) => ({ ...f, path: `${folder!.path}/${f.path}` })))}` : '';
   return {
     data: json,
     text: `${planText(plan, json, layout.file)}${written}`,
     exitCode: plan.violations.length === 0 ? 0 : 1,
-    files: files.length > 0 ? files : undefined,
+    folder,
+    ...(o.reportPage && page ? { page } : {}),
   };
 }
 
@@ -135,12 +145,14 @@ export function registerPlan(program: Command, io: CliIo): void {
       .command('plan')
       .description('plan parking and interaction frequencies, spectator moves, CZ pulses and parallel layers for a chip (model estimates: verify on hardware)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt and the waveform files (waveforms/A-B.awg.csv, A-B.qubit.csv) and report.html to this folder')
+      .option('-o, --output-dir <dir>', 'write plan.json, gates.csv, gates.txt, the waveform files (waveforms/A-B.awg.csv, A-B.qubit.csv) and report.html to this folder (replaced whole; a folder holding other files only with --force)')
+      .option('--force', 'replace the output folder even when it holds files fluxlane did not write')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP)
       .option('--seed <n>', 'seed of the parking search (same seed, same plan)', '1')
       .option('--no-pulses', 'skip the per-edge CZ pulse design (parking, interactions, layers and crowding only)')
-      .option('--family <name>', 'CZ ramp family for every edge (default: the gate stage\'s best-performing one)')
+      .option('--family <name>', `CZ ramp family for every edge: ${RAMP_FAMILIES.map((f) => f.name).join(', ')} (default: the gate stage's best-performing one)`)
       .option('--ramp <time>', 'ramp time for every CZ, e.g. "12 ns" (default: the ramp the plan chose per edge)')
-      .option('--phase <rad>', 'target conditional phase in rad (default pi)')
+      .option('--phase <theta>', 'target conditional phase (default pi), e.g. pi/2, 1.5 or 90 deg')
       .option('--spectators', 'simulate the worst spectator of each gate as a third transmon')
       .option('--no-noise', 'design without decoherence (fidelityNoisy is then absent)')
       .option('--lindblad', 'fidelityNoisy from the Lindblad equation (default: the first-order estimate, within ~2 %)')

@@ -54,10 +54,10 @@ export async function reportCommand(ctx: CommandContext, input: string, raw: Rec
     if (o.layout !== undefined) {
       throw new InputError({ message: `option --layout: expected only with a plan.json input, found it with the layout ${input} (a layout is planned as it is)` });
     }
-    // The same run as `fluxlane plan LAYOUT -o DIR`, whose files include DIR/report.html.
-    const planned = await planCommand(ctx, input, { ...raw, seed: raw.seed ?? '1', outputDir: '.' });
-    const page = planned.files?.find((f) => f.path === './report.html');
-    if (!page || typeof page.contents !== 'string') throw new Error('the plan command wrote no report.html');
+    // The same run as `fluxlane plan LAYOUT -o DIR`, whose DIR/report.html this page is.
+    const planned = await planCommand(ctx, input, { ...raw, seed: raw.seed ?? '1', reportPage: true });
+    const page = planned.page;
+    if (!page || typeof page.contents !== 'string') throw new Error('the plan command made no report page');
     html = page.contents;
     plan = planned.data;
     layoutShown = input;

@@ -19,23 +19,24 @@
  * decoherenceEstimate (with --noise), virtualZ: {a, b}, M: 4 x 4 of [re, im] (order 00, 01, 10,
  * 11 = |AB>, A the mover, lab frame), populations: {"20", "02"}, steps, plan? }.
  */
-import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
-import { loadLayoutFile } from '../../layout/load.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { buildManifoldFrame } from '../../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../../sim/pair-model.js';
 import { simulateGate } from '../../sim/simulate-gate.js';
-import { mergePlateaus, parseTrajectoryCsv, trajectoryDuration } from '../../sim/trajectory.js';
+import { mergePlateaus, trajectoryDuration } from '../../sim/trajectory.js';
+import { readTrajectoryFile } from '../../sim/trajectory-file.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { fluxOption, integerOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
+import { enforceWork, simulateWork } from '../work-limits.js';
+import { FigureGuard } from '../figure-guard.js';
 import { edgeRoles, parseEdge } from './pair.js';
-import { parseFluxValue, si } from './spectrum.js';
+import { si } from './spectrum.js';
 import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption, spectatorRequest } from '../plan-option.js';
 
 export const SIMULATE_CLI_DEFAULTS = Object.freeze({ levels: 6 });
@@ -45,24 +46,17 @@ const SimulateOptions = z.object({
   mover: z.string().optional(),
   plan: z.string().optional(),
   trajectory: z.string({ error: () => 'a trajectory CSV file' }).optional(),
-  staticFlux: z.string().optional(),
+  staticFlux: fluxOption().optional(),
   levels: integerOption(4, 10).optional(),
   spectator: z.array(z.string()).optional(),
   noise: z.union([z.boolean(), z.enum(['lindblad', 'estimate'])], { error: () => 'lindblad or estimate (or nothing: lindblad)' }).optional(),
+  maxSeconds: maxSecondsOption().optional(),
 });
-
-function readText(path: string, shown: string): string {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    throw new InputError({ file: shown, message: `expected a readable trajectory file, found ${(e as NodeJS.ErrnoException).code ?? 'an error'}` });
-  }
-}
 
 export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(SimulateOptions, raw);
-  const staticFluxOpt = o.staticFlux !== undefined ? parseFluxValue(o.staticFlux, '--static-flux') : undefined;
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const staticFluxOpt = o.staticFlux;
+  const layout = ctx.loadLayout(layoutPath);
   const [ea, eb] = parseEdge(layout, o.edge);
   const planOpt = o.plan !== undefined ? ctx.profiler.time('plan', () => readPlanOption(ctx, o.plan!, layout)) : null;
   const fromPlan = planEdge(planOpt, layout, ea.id, eb.id);
@@ -79,11 +73,15 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     trajectoryFile = planDesign.waveform;
     trajectoryPath = resolve(planOpt.dir, planDesign.waveform);
   }
-  const file = ctx.profiler.time('trajectory', () => parseTrajectoryCsv(readText(trajectoryPath!, trajectoryFile!), trajectoryFile));
+  const file = ctx.profiler.time('trajectory', () => readTrajectoryFile(trajectoryPath!, trajectoryFile!));
   const traj = mergePlateaus(file);
   const levels = o.levels ?? SIMULATE_CLI_DEFAULTS.levels;
   const targetPhase = planDesign?.targetPhase ?? Math.PI;
   const method: 'lindblad' | 'estimate' | null = o.noise === undefined || o.noise === false ? null : o.noise === true ? (planOpt ? (planDesign?.noiseMethod ?? 'lindblad') : 'lindblad') : o.noise;
+  {
+    const moverT = Transmon.fromLayout(lm);
+    enforceWork(simulateWork(traj.timeNs, traj.flux, (k) => moverT.ejGHz(traj.flux[k]), { levels, noise: method !== null, spectators: o.spectator?.length ?? 0, file: trajectoryFile }), o.maxSeconds, 'simulate');
+  }
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
     const mover = Transmon.fromLayout(lm);
     const partner = Transmon.fromLayout(ls);
@@ -105,6 +103,14 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const range = moverEjRange(mover, traj, trajectoryFile);
   const frame = ctx.profiler.time('frame', () => buildManifoldFrame(model, { ...range, noiseOperators: method !== null }));
   const sim = ctx.profiler.time('simulate', () => simulateGate(frame, traj, { lindblad: method === 'lindblad', targetPhase }));
+  const guard = new FigureGuard(layout);
+  const edgeIds: [string, string] = [la.id, lb.id];
+  guard.probability(sim.fidelity, 'the coherent fidelity', { edge: edgeIds }, 'the trajectory');
+  guard.probability(sim.leakage, 'the leakage', { edge: edgeIds }, 'the trajectory');
+  guard.finite(sim.conditionalPhase, 'the conditional phase', { edge: edgeIds });
+  if (method === 'lindblad' && sim.noisy) guard.probability(sim.noisy.fidelity, 'the fidelity with decoherence', { edge: edgeIds }, 'the coherence times against the trajectory');
+  if (method !== null) guard.probability(sim.decoherenceEstimate, 'the decoherence error estimate', { edge: edgeIds }, 'the coherence times against the trajectory');
+  guard.throwIfAny();
   const m = Array.from({ length: 4 }, (_, r) => Array.from({ length: 4 }, (_, c) => [si(sim.m.re[r * 4 + c]), si(sim.m.im[r * 4 + c])]));
   const data: Record<string, unknown> = {
     edge: [la.id, lb.id],
@@ -163,6 +169,7 @@ export function registerSimulate(program: Command, io: CliIo): void {
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--levels <k>', `levels of the mover, 4 to 10 (default ${SIMULATE_CLI_DEFAULTS.levels}; the static qubit keeps k - 2)`)
       .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
-      .option('--noise [method]', 'add decoherence (T1, T_phi from the layout): lindblad (default without --plan) or estimate (the first-order estimate; with --plan the plan\'s method)'),
+      .option('--noise [method]', 'add decoherence (T1, T_phi from the layout): lindblad (default without --plan) or estimate (the first-order estimate; with --plan the plan\'s method)')
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => simulateCommand(ctx, layout, options)));
 }

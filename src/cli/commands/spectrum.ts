@@ -11,27 +11,22 @@
 import { Argument, type Command } from 'commander';
 import { z } from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
-import { loadLayoutFile } from '../../layout/load.js';
 import { roundSignificant } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';
+import { FigureGuard } from '../figure-guard.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { integerOption, parseOptions, withCommonOptions } from '../options.js';
+import { FLUX_PHRASE, fluxOption, integerOption, parseFluxText, parseOptions, withCommonOptions } from '../options.js';
 
 export const SPECTRUM_CLI_DEFAULTS = Object.freeze({ points: 51 });
 
-const FLUX_PHRASE = 'a flux in Phi0 from -0.5 to 0.5 (e.g. 0.25 or "0.25 Phi0")';
-
-/** Parse one flux value given on the command line (Phi0; optional "Phi0" suffix). */
+/** Parse one flux value given on the command line (Phi0; optional "Phi0" suffix); see options.ts. */
 export function parseFluxValue(text: string, flag: string): number {
-  const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(?:Phi0)?\s*$/.exec(text);
-  const value = m ? Number(m[1]) : NaN;
-  if (!Number.isFinite(value) || Math.abs(value) > 0.5) {
-    throw new InputError({ message: `option ${flag}: expected ${FLUX_PHRASE}, found ${JSON.stringify(text)}` });
-  }
-  return value === 0 ? 0 : value; // no -0 in the output
+  const value = parseFluxText(text);
+  if (value === undefined) throw new InputError({ message: `option ${flag}: expected ${FLUX_PHRASE}, found ${JSON.stringify(text)}` });
+  return value;
 }
 
 /** The layout qubit with this id, or an InputError listing the known ids. */
@@ -50,7 +45,7 @@ export function si(x: number): number | null {
 
 const SpectrumOptions = z.object({
   qubit: z.string({ error: () => 'a qubit id' }),
-  flux: z.array(z.string()).optional(),
+  flux: z.array(fluxOption()).optional(),
   points: integerOption(2, 10_001).optional(),
 });
 
@@ -86,11 +81,18 @@ export function spectrumRows(q: Transmon, fluxes: readonly number[]): SpectrumRo
 export function spectrumCommand(ctx: CommandContext, layoutPath: string, raw: Record<string, unknown>): CommandOutcome {
   const o = parseOptions(SpectrumOptions, raw);
   if (o.flux !== undefined && o.points !== undefined) throw new InputError({ message: 'options --flux and --points: expected one of them (fluxes to evaluate, or a sweep of N points), found both' });
-  const fluxes = o.flux !== undefined ? o.flux.map((f) => parseFluxValue(f, '--flux')) : sweepFluxes(o.points ?? SPECTRUM_CLI_DEFAULTS.points);
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+  const fluxes = o.flux !== undefined ? o.flux : sweepFluxes(o.points ?? SPECTRUM_CLI_DEFAULTS.points);
+  const layout = ctx.loadLayout(layoutPath);
   const qubit = findQubit(layout, o.qubit, '--qubit');
   const q = ctx.profiler.time('transmon', () => Transmon.fromLayout(qubit));
   const rows = ctx.profiler.time('spectrum', () => spectrumRows(q, fluxes));
+  const guard = new FigureGuard(layout);
+  for (const r of rows) {
+    guard.finite(r.f01GHz, `f01 at flux ${r.flux}`, { qubit: q.id });
+    guard.finite(r.f12GHz, `f12 at flux ${r.flux}`, { qubit: q.id });
+    guard.range(r.t1Ns, 0, Infinity, `T1 at flux ${r.flux} (ns)`, { qubit: q.id }, 'the layout\'s t1');
+  }
+  guard.throwIfAny();
   const data = {
     qubit: q.id,
     ec: si(q.ecGHz * 1e9),

@@ -1,41 +1,38 @@
 /**
- * `fluxlane verify LAYOUT PLAN.json`: recompute every rule of a plan from scratch
- * (src/plan/verify.ts) and say whether it holds. Exit 0: it holds; 1: a rule is broken; 2: bad
- * input (an unreadable file, JSON syntax or schema errors with file:line:column, a plan that does
- * not match the layout's qubits and couplings).
+ * `fluxlane verify LAYOUT PLAN.json`: recompute every rule and every claim of a plan from the
+ * layout and the files it names (src/plan/verify.ts, src/plan/verify-claims.ts) and say which does
+ * not hold. Exit 0: it holds; 1: a rule is broken or a claim does not hold; 2: bad input (an
+ * unreadable file, JSON syntax or structure errors with file:line:column, a plan that does not
+ * match the layout's qubits and couplings, an unreadable waveform file).
  */
-import { readFileSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { Argument, type Command } from 'commander';
-import { loadLayoutFile } from '../../layout/load.js';
-import { InputError } from '../../util/errors.js';
-import { readPlan } from '../../plan/plan-read.js';
+import { planWaveformBytes, readPlanFile } from '../../plan/plan-read.js';
 import { verifyPlan } from '../../plan/verify.js';
 import { toFindingJson } from '../../plan/rules/findings.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
-import { withCommonOptions } from '../options.js';
+import { MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
+import { enforceChipLimits, enforceWork, verifyWork } from '../work-limits.js';
+import { z } from 'zod';
 
-export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath: string): CommandOutcome {
-  const layout = ctx.profiler.time('layout', () => loadLayoutFile(ctx.resolvePath(layoutPath), layoutPath));
+const VerifyOptions = z.object({ maxSeconds: maxSecondsOption().optional() });
+
+export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath: string, raw: Record<string, unknown> = {}): CommandOutcome {
+  const o = parseOptions(VerifyOptions, raw);
+  const layout = ctx.loadLayout(layoutPath);
+  enforceChipLimits(layout, 'verify');
   const full = ctx.resolvePath(planPath);
-  let text: string;
-  try {
-    text = readFileSync(full, 'utf8');
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    throw new InputError({ file: planPath, message: `expected a readable plan file, found ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'a folder' : String(code ?? err)}` });
-  }
-  const plan = ctx.profiler.time('read plan', () => readPlan(text, planPath, layout));
-  const result = ctx.profiler.time('verify', () => verifyPlan(layout, plan, { dir: dirname(full) }));
+  const plan = ctx.profiler.time('read plan', () => readPlanFile(full, planPath, layout));
+  enforceWork(verifyWork(layout, planWaveformBytes(dirname(full), plan)), o.maxSeconds, 'verify');
+  const result = ctx.profiler.time('verify', () => verifyPlan(layout, plan, { dir: dirname(full), shownDir: dirname(planPath) }));
   const lines = [
     `${layout.chip}: plan ${planPath} against ${layout.file}`,
-    `  checked ${result.checked.qubits} qubits, ${result.checked.edges} edges, ${result.checked.layers} layers, ${result.checked.waveforms} waveform file(s)`,
-    ...result.missingWaveforms.map((w) => `  waveform ${w} not found: its sweeps were checked with the ramp-time estimate`),
+    `  checked ${result.checked.qubits} qubits, ${result.checked.edges} edges, ${result.checked.layers} layers, ${result.checked.waveforms} waveform file(s) (re-simulated), ${result.checked.claims} claims`,
     ...result.violations.map((v) => `violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`),
     ...result.flags.map((f) => `flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`),
-    result.ok ? `ok: the plan holds (every rule recomputed); ${result.flags.length} flag(s)` : `FAILED: the plan breaks ${result.violations.length} rule condition(s)`,
+    result.ok ? `ok: the plan holds (every rule and claim recomputed); ${result.flags.length} flag(s)` : `FAILED: the plan breaks ${result.violations.length} rule condition(s) or claim(s)`,
   ];
   return {
     data: {
@@ -57,8 +54,9 @@ export function registerVerify(program: Command, io: CliIo): void {
   withCommonOptions(
     program
       .command('verify')
-      .description('recompute every rule of a plan.json (for example one edited by hand) and say whether it holds')
+      .description('recompute every rule and claim of a plan.json from the layout and the waveform files it names (for example a plan edited by hand) and say which does not hold')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
-      .addArgument(new Argument('<plan>', 'plan.json written by fluxlane plan')),
-  ).action(commandAction<[string, string]>(io, (ctx, layoutPath, planPath) => verifyCommand(ctx, layoutPath, planPath)));
+      .addArgument(new Argument('<plan>', 'plan.json written by fluxlane plan'))
+      .option('--max-seconds <s>', MAX_SECONDS_HELP),
+  ).action(commandAction<[string, string]>(io, (ctx, layoutPath, planPath, options) => verifyCommand(ctx, layoutPath, planPath, options)));
 }

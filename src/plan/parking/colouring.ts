@@ -7,17 +7,19 @@
  * compared by a pair rule, so a group can share a frequency band; the parking search places the
  * groups one after the other, the group with the highest frequencies first.
  *
- * The graph is a graphology UndirectedGraph (nodes: qubit ids) so it can be inspected or drawn.
+ * The graph is a graphology UndirectedGraph (nodes: qubit ids, keyed through nodeKey so that ids
+ * such as `constructor` stay off Object.prototype) so it can be inspected or drawn.
  */
 import { UndirectedGraph } from 'graphology';
+import { nodeKey } from '../../chip/graph.js';
 import type { PlanContext } from '../context.js';
 
 /** The idle-conflict graph of the chip (nodes in layout order). */
 export function idleConflictGraph(ctx: PlanContext): UndirectedGraph {
   const g = new UndirectedGraph();
-  for (const id of ctx.ids) g.addNode(id);
-  for (const e of ctx.edges) g.mergeEdge(ctx.ids[e.a], ctx.ids[e.b]);
-  for (const p of ctx.nextNearest) g.mergeEdge(ctx.ids[p.a], ctx.ids[p.b]);
+  for (const id of ctx.ids) g.addNode(nodeKey(id));
+  for (const e of ctx.edges) g.mergeEdge(nodeKey(ctx.ids[e.a]), nodeKey(ctx.ids[e.b]));
+  for (const p of ctx.nextNearest) g.mergeEdge(nodeKey(ctx.ids[p.a]), nodeKey(ctx.ids[p.b]));
   return g;
 }
 
@@ -56,5 +58,5 @@ export function dsaturColouring(graph: UndirectedGraph): Map<string, number> {
 /** Frequency group of each qubit (by index). */
 export function frequencyGroupsOf(ctx: PlanContext): number[] {
   const colours = dsaturColouring(idleConflictGraph(ctx));
-  return ctx.ids.map((id) => colours.get(id)!);
+  return ctx.ids.map((id) => colours.get(nodeKey(id))!);
 }

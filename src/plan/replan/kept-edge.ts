@@ -12,7 +12,7 @@ import { lineDelayNs } from '../../gate/pulse.js';
 import { parseTrajectoryCsv } from '../../sim/trajectory.js';
 import type { GateDesign } from '../gate-seam.js';
 import type { EdgeContext, EdgePlan, ParkedSpectator } from '../interaction/plan-edge.js';
-import type { PlanEdgeInput } from '../plan-read.js';
+import type { PlanDocumentEdge as PlanEdgeInput } from '../plan-read.js';
 import { evaluateGate, type DuringGate, type GateScenario } from '../rules/cz-evaluate.js';
 import { spectatorMoveNs } from '../rules/cz-duration.js';
 

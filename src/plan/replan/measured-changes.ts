@@ -6,7 +6,7 @@
 import type { PlanContext } from '../context.js';
 import { DEVICE_FIELDS, deviceToSi, type DeviceKind } from '../device.js';
 import { RULE_SPECS } from '../../layout/rules.js';
-import type { PlanInput } from '../plan-read.js';
+import type { PlanDocument as PlanInput } from '../plan-read.js';
 
 export interface ValueChange {
   /** Qubit id, edge key, or 'rules'. */

@@ -24,7 +24,7 @@ import type { GateDesign } from '../gate-seam.js';
 import type { EdgeContext } from '../interaction/plan-edge.js';
 import type { PlanOptionsInput } from '../options.js';
 import { collectFindings, edgeExplanations, planChip, type ChipPlan, type PlanHooks } from '../plan.js';
-import type { PlanInput, PlanEdgeInput } from '../plan-read.js';
+import type { PlanDocument as PlanInput, PlanDocumentEdge as PlanEdgeInput } from '../plan-read.js';
 import { calibratedZzScale, crowding } from '../crowding.js';
 import { freq } from '../format.js';
 import { keptDesign, keptEdgePlan } from './kept-edge.js';

@@ -46,6 +46,8 @@ export type RuleName =
   | 'cz-design'
   | 'cz-crossing'
   | 'layer-conflict'
+  | 'layer-index'
+  | 'plan-claim'
   | 'margin';
 
 export type RuleScope = 'idle' | 'cz' | 'plan' | 'crowding';
@@ -127,6 +129,10 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
     doc: 'In a plan read back by `fluxlane verify`, each edge\'s interaction frequency minus its crossing offset matches the crossing at the plan\'s parking frequencies within 10 kHz (otherwise the gate was designed for another parking point).', source: 'fluxlane plan contract' }),
   rule({ name: 'layer-conflict', scope: 'plan', transitions: 'two gates in one layer', threshold: null, compare: 'none', quantity: 'none',
     doc: 'Gates in one parallel layer share no qubit (mover, partner or parked spectator) and no cz condition couples them (src/plan/layers.ts).', source: 'README physics conventions sec. 5' }),
+  rule({ name: 'layer-index', scope: 'plan', transitions: 'the layer each gate is in', threshold: null, compare: 'none', quantity: 'none',
+    doc: 'Each edge\'s layer index lies in 0 .. L-1 with no empty layer, the plan\'s list of layers agrees with the edges, and its layer summary with what the edges give (fluxlane verify).', source: 'fluxlane verify' }),
+  rule({ name: 'plan-claim', scope: 'plan', transitions: 'a number the plan states vs the same number recomputed', threshold: null, compare: 'none', quantity: 'none',
+    doc: 'Every number of the claim table (src/plan/verify-claims.ts: qubit spectra and coherence, ZZ, margins, a designed gate\'s duration, interaction point and metrics from its re-simulated waveform) agrees with its recomputation within the stated tolerance, and every waveform the plan names is there and starts at the mover\'s parking point (fluxlane verify).', source: 'fluxlane verify' }),
   rule({ name: 'margin', scope: 'crowding', transitions: 'smallest distance to any collision condition, in fabrication spreads', threshold: 'marginFlagSpreads', compare: 'min', quantity: 'spreads',
     doc: 'Flag (not a violation): a qubit whose smallest margin is below marginFlagSpreads expected frequency spreads (src/plan/crowding.ts).', source: 'common practice' }),
 ]);
