@@ -11,7 +11,7 @@ import { nextNearestPairs } from '../chip/neighbourhood.js';
 import { Transmon } from '../transmon/transmon.js';
 import { chargeCouplingForPair } from '../pair/coupling.js';
 import { CoupledPair } from '../pair/pair.js';
-import { QubitTable, type QubitTableOptions } from './qubit-table.js';
+import { QubitTable, type QubitTableOptions, type SpectrumTable } from './qubit-table.js';
 import type { Interval } from './intervals.js';
 
 export interface PlanEdge {
@@ -43,7 +43,7 @@ export interface PlanContext {
   qubits: QubitLayout[];
   index: Map<string, number>;
   transmons: Transmon[];
-  tables: QubitTable[];
+  tables: SpectrumTable[];
   /** Neighbours of each qubit (indices, ascending). */
   neighbours: number[][];
   edges: PlanEdge[];

@@ -62,6 +62,16 @@ export function emptyTableState(): TableState {
   return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };
 }
 
+/**
+ * What the planner's stages ask of a tabulated spectrum (QubitTable's public face). Other
+ * implementations may stand in (src/yield/sampled-spectrum.ts answers it from the reduced
+ * spectrum for chips drawn with fabrication spread).
+ */
+export type SpectrumTable = Pick<
+  QubitTable,
+  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxNoiseRate' | 'fluxNoiseRateOf' | 'f01ForF12' | 'f01ForLevel'
+>;
+
 /** Channels: 0-4 E_1..E_5 - E_0, 5 n01, 6 n03, 7 n12, 8 n23, 9 n05, 10 n14. */
 const CHANNELS = 11;
 const LEVEL_CHANNELS = 5;
