@@ -12,6 +12,7 @@ export * from './pair/index.js';
 export * from './sim/index.js';
 export * from './gate/index.js';
 export * from './plan/index.js';
-export { buildProgram, runCli, COMMANDS, type CommandRegistration } from './cli/main.js';
+export { buildProgram, runCli, loadCommands, COMMANDS, type CommandRegistration, type CommandEntry, type LazyCommand } from './cli/main.js';
+export * from './yield/index.js';
 export { memoryIo, processIo, type CliIo, type MemoryIo } from './cli/io.js';
 export type { CommandOutcome, OutputFile } from './cli/outcome.js';

@@ -68,15 +68,19 @@ export interface ContextOptions {
   table?: Partial<QubitTableOptions>;
   /** Called once per qubit while the spectra are tabulated (progress bars). */
   onQubit?: () => void;
+  /** The transmons, when the caller has them already (default: resolved from the layout). */
+  transmons?: Transmon[];
+  /** Another spectrum table per qubit (default: a QubitTable; src/yield answers from the reduced spectrum). */
+  tableFor?: (transmon: Transmon, index: number) => SpectrumTable;
 }
 
 export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {}, graph: ChipGraph = buildChipGraph(layout)): PlanContext {
   const n = layout.qubits.length;
   const ids = layout.qubits.map((q) => q.id);
   const index = new Map(ids.map((id, i) => [id, i]));
-  const transmons = layout.qubits.map((q) => Transmon.fromLayout(q));
-  const tables = transmons.map((t) => {
-    const table = new QubitTable(t, options.table);
+  const transmons = options.transmons ?? layout.qubits.map((q) => Transmon.fromLayout(q));
+  const tables = transmons.map((t, i) => {
+    const table = options.tableFor ? options.tableFor(t, i) : new QubitTable(t, options.table);
     options.onQubit?.();
     return table;
   });

@@ -161,14 +161,13 @@ export class ReducedSpectrum {
     if (target < yLo - slack || target > yHi + slack) return null;
     if (target <= yLo) return lo;
     if (target >= yHi) return hi;
-    // binary search for the cell
-    let a = Math.min(m - 2, Math.max(0, Math.floor((Math.sqrt(lo) - this.u0) / h)));
-    let b = Math.min(m - 1, Math.max(a + 1, Math.ceil((Math.sqrt(hi) - this.u0) / h)));
-    while (b - a > 1) {
-      const mid = (a + b) >> 1;
-      if (y[mid] <= target) a = mid;
-      else b = mid;
-    }
+    // the cell: an interpolation guess (every channel is nearly linear in u), then a walk
+    const first = Math.min(m - 2, Math.max(0, Math.floor((Math.sqrt(lo) - this.u0) / h)));
+    const last = Math.min(m - 2, Math.max(first, Math.ceil((Math.sqrt(hi) - this.u0) / h) - 1));
+    let a = first + Math.floor(((target - y[first]) / (y[last + 1] - y[first])) * (last + 1 - first));
+    a = Math.min(last, Math.max(first, a));
+    while (a > first && y[a] > target) a--;
+    while (a < last && y[a + 1] <= target) a++;
     const y0 = y[a];
     const y1 = y[a + 1];
     const d0 = dy[a] * h;
@@ -232,21 +231,28 @@ export class ReducedSpectrum {
     const b10 = (t3 - 2 * t2 + t) * h;
     const b01 = -2 * t3 + 3 * t2;
     const b11 = (t3 - t2) * h;
-    const val = (c: number) => {
-      const k = c * m + cell;
-      return b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
-    };
-    out.e1 = val(0);
-    out.e2 = val(1);
-    out.e3 = val(2);
-    out.e4 = val(3);
-    out.e5 = val(4);
-    out.n01 = val(5);
-    out.n03 = val(6);
-    out.n12 = val(7);
-    out.n23 = val(8);
-    out.n05 = val(9);
-    out.n14 = val(10);
+    let k = cell;
+    out.e1 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e2 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e3 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e4 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.e5 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n01 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n03 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n12 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n23 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n05 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
+    k += m;
+    out.n14 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
     const u = this.u0 + (cell + t) * h;
     out.de1dr = hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h / (2 * u);
   }

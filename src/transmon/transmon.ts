@@ -44,11 +44,11 @@ export interface TransmonOptions {
    * The tunable range when the caller already has it (e.g. from the reduced spectrum,
    * src/transmon/reduced-spectrum.ts, for chips drawn by the thousand); default: solved here.
    */
-  range?: TunableRange;
+  range?: SweetSpotLevels;
 }
 
 /** f01, f12 and the anharmonicity at the two sweet spots. */
-export interface TunableRange {
+export interface SweetSpotLevels {
   fMaxGHz: number;
   fMinGHz: number;
   anharmonicityMaxGHz: number;
