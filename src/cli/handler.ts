@@ -31,7 +31,7 @@ export interface CommandContext {
   json: boolean;
   /** A path given by the user, resolved against the io's cwd. */
   resolvePath(path: string): string;
-  /** A progress bar on stderr (drawn only on a terminal). */
+  /** A progress bar on stderr (drawn only on a terminal, and never with --json). */
   progress(label: string, total: number): Progress;
 }
 
@@ -53,7 +53,7 @@ export async function runCommand(
     profiler,
     json,
     resolvePath: (p) => resolve(io.cwd, p),
-    progress: (label, total) => startProgress(io, label, total),
+    progress: (label, total) => startProgress(json ? { ...io, stderrIsTTY: false } : io, label, total),
   };
   const started = process.hrtime.bigint();
   let code: number;

@@ -46,10 +46,12 @@ import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { sampledContext } from './sampled-context.js';
 
-export const FIXED_DEFAULTS = Object.freeze({
+export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
-  zzExactAbove: 0.85,
-});
+  zzExactAbove: number;
+}
+
+export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
 
 export interface FixedEdge {
   /** Layout edge index. */
@@ -134,7 +136,7 @@ export interface FixedEvaluation {
 }
 
 /** Check drawn chip `drawn` against the nominal plan (see the banner). */
-export function evaluateFixed(chip: NominalChip, plan: FixedPlan, drawn: DrawnChip, table: ReducedSpectrum, options: Partial<typeof FIXED_DEFAULTS> = {}): FixedEvaluation {
+export function evaluateFixed(chip: NominalChip, plan: FixedPlan, drawn: DrawnChip, table: ReducedSpectrum, options: Partial<FixedOptions> = {}): FixedEvaluation {
   const o = { ...FIXED_DEFAULTS, ...options };
   const ctx = sampledContext(chip, drawn, table);
   const n = ctx.n;
