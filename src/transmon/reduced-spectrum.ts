@@ -190,6 +190,22 @@ export class ReducedSpectrum {
     return Math.min(hi, Math.max(lo, u * u));
   }
 
+  /** d e_k / d r (= d(E_k - E_0)/dE_J) for k = 1..5 at r (clamped to the table), into `out`. */
+  levelSlopes(r: number, out: Float64Array = new Float64Array(LEVELS)): Float64Array {
+    const rc = Math.min(this.rMax, Math.max(this.rMin, r));
+    const u = Math.sqrt(rc);
+    const x = (u - this.u0) / this.h;
+    const cell = Math.min(this.points - 2, Math.max(0, Math.floor(x)));
+    const t = x - cell;
+    const m = this.points;
+    const h = this.h;
+    for (let p = 0; p < LEVELS; p++) {
+      const k = p * m + cell;
+      out[p] = hermiteSlope(this.v[k], this.v[k + 1], this.dv[k] * h, this.dv[k + 1] * h, t) / h / (2 * u);
+    }
+    return out;
+  }
+
   /** The channel's value at r (clamped to the table). */
   value(c: ReducedChannel, r: number): number {
     const { y, dy } = this.combo(c);

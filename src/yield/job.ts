@@ -25,7 +25,7 @@ import { chipFromDeviates, sampleDeviates, type DrawnChip } from './draw.js';
 import { evaluateFixed, fixedPlan, type FixedPlan } from './fixed-evaluate.js';
 import { outcomeOf, type SampleOutcome } from './outcome.js';
 import { drawnTransmons, sampledLayout } from './sampled-context.js';
-import { SampledSpectrum } from './sampled-spectrum.js';
+import { reducedQubitTable } from './reduced-levels.js';
 import { planForDrawnChip } from './nominal-plan.js';
 import type { FabricationSpread } from './spread.js';
 
@@ -96,7 +96,7 @@ export class SampleEvaluator {
     const plan = planChip(layout, { seed: this.job.planSeed }, {
       context: {
         transmons,
-        tableFor: (t) => new SampledSpectrum(table, t.ecGHz, t.ejsGHz, t.asymmetry, t.coherenceSpec?.fluxNoisePhi0),
+        tableFor: (t) => reducedQubitTable(t, table),
       },
     }, chip.ctx.graph);
     const cycleError = cycleErrorOf(plan);
