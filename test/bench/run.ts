@@ -9,6 +9,9 @@
  *       run() { ... },            // one call; vary its inputs so nothing is cached between calls
  *     };
  *
+ * A benchmark with `runs` may return a promise from run() (worker threads, child processes): each
+ * call is then timed until it settles.
+ *
  * Method: warm up for ~0.3 s (JIT), then time batches of calls (each batch >= ~10 ms) for
  * ~1.5 s or at least 7 batches; report the median and the minimum of the per-call times over
  * batches. Long benchmarks (whole-chip plans, seconds per call) set `runs` instead: `warmup`
@@ -62,7 +65,7 @@ function now(): number {
 
 let sink: unknown;
 
-export function measure(b: Benchmark): { medianUs: number; minUs: number; calls: number } {
+export async function measure(b: Benchmark): Promise<{ medianUs: number; minUs: number; calls: number }> {
   b.setup?.();
   if (b.runs !== undefined) return measureFixed(b, b.runs, b.warmup ?? 1);
   // Warm-up, and a first estimate of the time per call.
@@ -90,13 +93,13 @@ export function measure(b: Benchmark): { medianUs: number; minUs: number; calls:
   return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: total };
 }
 
-/** `warmup` untimed calls, then `runs` timed calls one by one. */
-function measureFixed(b: Benchmark, runs: number, warmup: number): { medianUs: number; minUs: number; calls: number } {
-  for (let i = 0; i < warmup; i++) sink = b.run();
+/** `warmup` untimed calls, then `runs` timed calls one by one (each awaited when it returns a promise). */
+async function measureFixed(b: Benchmark, runs: number, warmup: number): Promise<{ medianUs: number; minUs: number; calls: number }> {
+  for (let i = 0; i < warmup; i++) sink = await b.run();
   const samples: number[] = [];
   for (let i = 0; i < Math.max(1, runs); i++) {
     const s = now();
-    sink = b.run();
+    sink = await b.run();
     samples.push(now() - s);
   }
   samples.sort((x, y) => x - y);
@@ -118,7 +121,7 @@ async function runFile(dir: string, file: string, filters: string[]): Promise<Be
   const results: BenchResult[] = [];
   for (const b of Object.values(mod).filter(isBenchmark)) {
     if (filters.length > 0 && !filters.some((f) => b.name.includes(f) || file.includes(f))) continue;
-    const m = measure(b);
+    const m = await measure(b);
     const r: BenchResult = { file, name: b.name, ...m };
     if (b.target !== undefined) {
       r.target = b.target;
