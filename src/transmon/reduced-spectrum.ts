@@ -152,8 +152,6 @@ export class ReducedSpectrum {
    */
   rFor(c: ReducedChannel, target: number, rLo = this.rMin, rHi = this.rMax, slack = 0): number | null {
     const { y, dy } = this.combo(c);
-    const m = this.points;
-    const h = this.h;
     const lo = Math.max(this.rMin, rLo);
     const hi = Math.min(this.rMax, rHi);
     const yLo = this.valueAt(y, dy, lo);
@@ -161,6 +159,21 @@ export class ReducedSpectrum {
     if (target < yLo - slack || target > yHi + slack) return null;
     if (target <= yLo) return lo;
     if (target >= yHi) return hi;
+    return this.invert(y, dy, target, lo, hi);
+  }
+
+  /**
+   * As rFor, for a target the caller knows to lie strictly between the channel's values at rLo and
+   * rHi (both inside the table): no range checks.
+   */
+  rInside(c: ReducedChannel, target: number, rLo: number, rHi: number): number {
+    const { y, dy } = this.combo(c);
+    return this.invert(y, dy, target, rLo, rHi);
+  }
+
+  private invert(y: Float64Array, dy: Float64Array, target: number, lo: number, hi: number): number {
+    const m = this.points;
+    const h = this.h;
     // the cell: an interpolation guess (every channel is nearly linear in u), then a walk
     const first = Math.min(m - 2, Math.max(0, Math.floor((Math.sqrt(lo) - this.u0) / h)));
     const last = Math.min(m - 2, Math.max(first, Math.ceil((Math.sqrt(hi) - this.u0) / h) - 1));
@@ -179,8 +192,8 @@ export class ReducedSpectrum {
       const res = hermite(y0, y1, d0, d1, t) - target;
       if (res > 0) tb = t;
       else ta = t;
-      const s = hermiteSlope(y0, y1, d0, d1, t);
-      let next = s > 0 ? t - res / s : 0.5 * (ta + tb);
+      const sl = hermiteSlope(y0, y1, d0, d1, t);
+      let next = sl > 0 ? t - res / sl : 0.5 * (ta + tb);
       if (!(next > ta && next < tb)) next = 0.5 * (ta + tb);
       const done = Math.abs(next - t) < 1e-15;
       t = next;

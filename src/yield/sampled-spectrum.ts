@@ -62,7 +62,7 @@ export class SampledSpectrum implements SpectrumTable {
     const hit = this.memo.get(fGHz);
     if (hit) return copyState(hit, out);
     const ec = this.ecGHz;
-    const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rFor('e1', fGHz / ec, this.rLow, this.rTop)!;
+    const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
     const s = this.table.at(r, this.red);
     fillState(s, ec, this.rTop, out);
     if (this.memo.size >= MEMO_SIZE) this.memo.clear();
