@@ -252,7 +252,7 @@ function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: numb
   const t = ctx.transmons[i];
   const rTop = t.ejsGHz / t.ecGHz;
   const rBottom = Math.max(t.asymmetry * rTop, table.rMin);
-  const r = table.rFor('e1', fGHz / t.ecGHz, rBottom, rTop);
+  const r = rTop <= table.rMax ? table.rFor('e1', fGHz / t.ecGHz, rBottom, rTop) : null;
   if (r === null) return exactState(t, fGHz);
   const s = table.at(r);
   return {
@@ -301,7 +301,7 @@ function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, par
   const rTop = tm.ejsGHz / tm.ecGHz;
   const rBottom = tm.asymmetry * rTop;
   const rp = partnerRatio(tp, table, partner);
-  if (rBottom < table.rMin || rp === null) {
+  if (rBottom < table.rMin || rTop > table.rMax || rp === null) {
     const res = pairResonances(tm, tp, partner.flux, G)[fe.crossing];
     if (!res) return null;
     return { moverFlux: res.moverFlux, moverF01GHz: res.moverF01GHz, moverF12GHz: tm.spectrum(res.moverFlux).f12GHz, couplingGHz: res.couplingGHz };

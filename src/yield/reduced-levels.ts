@@ -5,7 +5,7 @@
  * about a millisecond; the values agree with the exact eigen solves to ~1e-10 relative
  * (test/yield/reduced-levels.test.ts).
  */
-import { QubitTable, type LevelPoint, type LevelSource, type QubitTableOptions } from '../plan/qubit-table.js';
+import { QUBIT_TABLE_DEFAULTS, QubitTable, type LevelPoint, type LevelSource, type QubitTableOptions } from '../plan/qubit-table.js';
 import { emptyReducedState, type ReducedSpectrum } from '../transmon/reduced-spectrum.js';
 import type { Transmon } from '../transmon/transmon.js';
 
@@ -29,8 +29,16 @@ export function reducedLevelSource(table: ReducedSpectrum): LevelSource {
   };
 }
 
-/** A QubitTable of `transmon` from the reduced spectrum (its range must lie inside the table). */
+/**
+ * A QubitTable of `transmon` from the reduced spectrum; from exact eigen solves when the
+ * transmon's planning range leaves the table (E_J/E_C beyond its ends: far outside the accepted
+ * transmons, reachable only by extreme draws).
+ */
 export function reducedQubitTable(transmon: Transmon, table: ReducedSpectrum, options: Partial<QubitTableOptions> = {}): QubitTable {
+  const o = { ...QUBIT_TABLE_DEFAULTS, ...options };
+  const rTop = transmon.ejsGHz / transmon.ecGHz;
+  const rLow = Math.min(1, Math.max(transmon.asymmetry, o.minEjOverEc / rTop)) * rTop;
+  if (!table.covers(rTop) || !table.covers(rLow)) return new QubitTable(transmon, options);
   return new QubitTable(transmon, options, reducedLevelSource(table));
 }
 

@@ -12,6 +12,7 @@
  */
 import type { ChipLayout, CouplingLayout, QubitLayout } from '../layout/types.js';
 import type { PlanContext, PlanEdge } from '../plan/context.js';
+import { QUBIT_TABLE_DEFAULTS, QubitTable, type SpectrumTable } from '../plan/qubit-table.js';
 import { CoupledPair } from '../pair/pair.js';
 import { chargeCutoffFor } from '../transmon/charge-cutoff.js';
 import { parityEigenbasis } from '../transmon/parity-eigenbasis.js';
@@ -55,7 +56,10 @@ export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: Reduc
 export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum): PlanContext {
   const nominal = chip.ctx;
   const transmons = drawnTransmons(chip, drawn, table);
-  const tables = transmons.map((t) => new SampledSpectrum(table, t.ecGHz, t.ejsGHz, t.asymmetry, t.coherenceSpec?.fluxNoisePhi0));
+  // (an exact QubitTable for a transmon the reduced table does not cover: only extreme draws)
+  const tables: SpectrumTable[] = transmons.map((t) =>
+    coversPlanningRange(table, t) ? new SampledSpectrum(table, t.ecGHz, t.ejsGHz, t.asymmetry, t.coherenceSpec?.fluxNoisePhi0) : new QubitTable(t),
+  );
   const edges: PlanEdge[] = nominal.edges.map((e) => ({ ...e, gChargeGHz: drawn.gChargeGHz[e.index] }));
   const ranges = tables.map((t, i) => ({ lo: t.fLowGHz, hi: Math.min(t.fMaxGHz, transmons[i].fMaxGHz) }));
   const domains = nominal.qubits.map((q, i) => {
@@ -82,6 +86,12 @@ export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: Reduc
       return p;
     },
   };
+}
+
+function coversPlanningRange(table: ReducedSpectrum, t: Transmon): boolean {
+  const rTop = t.ejsGHz / t.ecGHz;
+  const rLow = Math.min(1, Math.max(t.asymmetry, QUBIT_TABLE_DEFAULTS.minEjOverEc / rTop)) * rTop;
+  return table.covers(rTop) && table.covers(rLow);
 }
 
 /** The layout's g (both transmons at Phi = 0) for charge coupling G: G |n01_A(0)| |n01_B(0)|, exact. */
