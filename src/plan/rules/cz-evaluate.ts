@@ -112,13 +112,14 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   for (const S of ctx.neighbours[A]) {
     if (S === s.partner) continue;
     const d = during(s, S);
-    const checks: [RuleName, number, string][] = [
-      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
+    // (each message is built only for a finding)
+    const checks: [RuleName, number, () => string][] = [
+      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), () => `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
     ];
     for (const [rule, value, text] of checks) {
-      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
+      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text()}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
     }
   }
   for (const p of ctx.nextNearestOf[A]) {
