@@ -27,11 +27,17 @@ export class SampledSpectrum implements SpectrumTable {
   private readonly red = emptyReducedState();
   private readonly scratch: TableState;
   /**
-   * Memos of `at` and `f01ForF12` by frequency: a gate's rule evaluation asks for the same few
-   * points again and again (each neighbour's parking frequency, seen from each gate near it).
+   * Memos of `at` and `f01ForF12` by frequency (MEMO_SIZE entries each, replaced round-robin): a
+   * gate's rule evaluation asks for the same few points again and again (each neighbour's parking
+   * frequency, seen from each gate near it). Small arrays scanned in order beat a Map keyed by
+   * doubles here.
    */
-  private readonly memo = new Map<number, TableState>();
-  private readonly memo12 = new Map<number, number | null>();
+  private readonly memoF = new Float64Array(MEMO_SIZE).fill(NaN);
+  private readonly memoS: TableState[] = [];
+  private memoNext = 0;
+  private readonly memo12F = new Float64Array(MEMO_SIZE).fill(NaN);
+  private readonly memo12V = new Float64Array(MEMO_SIZE);
+  private memo12Next = 0;
 
   constructor(
     private readonly table: ReducedSpectrum,
@@ -59,14 +65,16 @@ export class SampledSpectrum implements SpectrumTable {
 
   /** State at f01 = fGHz (clamped to the planning range), written into `out`. */
   at(fGHz: number, out: TableState = this.scratch): TableState {
-    const hit = this.memo.get(fGHz);
-    if (hit) return copyState(hit, out);
+    const memoF = this.memoF;
+    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === fGHz) return copyState(this.memoS[k], out);
     const ec = this.ecGHz;
     const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
     const s = this.table.at(r, this.red);
     fillState(s, ec, this.rTop, out);
-    if (this.memo.size >= MEMO_SIZE) this.memo.clear();
-    this.memo.set(fGHz, copyState(out, blankState()));
+    const k = this.memoNext;
+    this.memoNext = (k + 1) % MEMO_SIZE;
+    memoF[k] = fGHz;
+    this.memoS[k] = copyState(out, this.memoS[k] ?? blankState());
     return out;
   }
 
@@ -99,12 +107,14 @@ export class SampledSpectrum implements SpectrumTable {
   }
 
   f01ForF12(f12GHz: number): number | null {
-    const hit = this.memo12.get(f12GHz);
-    if (hit !== undefined) return hit;
+    const memoF = this.memo12F;
+    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === f12GHz) return Number.isNaN(this.memo12V[k]) ? null : this.memo12V[k];
     const r = this.table.rFor('e12', f12GHz / this.ecGHz, this.rLow, this.rTop, 1e-12 / this.ecGHz);
     const f = r === null ? null : this.ecGHz * this.table.value('e1', r);
-    if (this.memo12.size >= MEMO_SIZE) this.memo12.clear();
-    this.memo12.set(f12GHz, f);
+    const k = this.memo12Next;
+    this.memo12Next = (k + 1) % MEMO_SIZE;
+    memoF[k] = f12GHz;
+    this.memo12V[k] = f === null ? NaN : f;
     return f;
   }
 
@@ -121,7 +131,7 @@ export class SampledSpectrum implements SpectrumTable {
   }
 }
 
-const MEMO_SIZE = 64;
+const MEMO_SIZE = 12;
 
 function blankState(): TableState {
   return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };
