@@ -320,12 +320,38 @@ export class QubitTable {
   }
 
   /** Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). */
+  /**
+   * Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). The last few
+   * answers are remembered (the search asks for the same points again and again); a remembered
+   * answer is the same cell and t the inversion gives.
+   */
   private locate(fGHz: number): void {
+    const f = this.locF;
+    for (let k = 0; k < LOCATE_MEMO; k++) {
+      if (f[k] === fGHz) {
+        this.cell = this.locCell[k];
+        this.t = this.locT[k];
+        return;
+      }
+    }
     const r = invertCell(this.v, this.dv, this.h, fGHz, this.m);
     this.cell = r.cell;
     this.t = r.t;
+    const k = this.locNext;
+    this.locNext = (k + 1) % LOCATE_MEMO;
+    f[k] = fGHz;
+    this.locCell[k] = r.cell;
+    this.locT[k] = r.t;
   }
+
+  private readonly locF = new Float64Array(LOCATE_MEMO).fill(NaN);
+  private readonly locCell = new Int32Array(LOCATE_MEMO);
+  private readonly locT = new Float64Array(LOCATE_MEMO);
+  private locNext = 0;
 }
+
+/** Remembered answers of QubitTable.locate. */
+const LOCATE_MEMO = 6;
 
 /**
  * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples
