@@ -1,6 +1,6 @@
 /**
  * Everything the planner's stages share about one chip, built once: the resolved transmons, their
- * tabulated spectra (src/plan/qubit-table.ts), neighbour lists by index, next-nearest pairs with
+ * tabulated spectra (src/plan/qubit-table.ts, filled from the reduced spectrum: ./reduced-levels.ts), neighbour lists by index, next-nearest pairs with
  * their shared neighbours, each coupling's charge coupling G, each qubit's parking domain
  * (window intersected with the planning range) and fixed `park` values, and the exact coupled
  * pairs (CoupledPair, built on first use). Indices follow the layout's qubit order.
@@ -11,7 +11,9 @@ import { nextNearestPairs } from '../chip/neighbourhood.js';
 import { Transmon } from '../transmon/transmon.js';
 import { chargeCouplingForPair } from '../pair/coupling.js';
 import { CoupledPair } from '../pair/pair.js';
-import { QubitTable, type QubitTableOptions, type SpectrumTable } from './qubit-table.js';
+import type { QubitTableOptions, SpectrumTable } from './qubit-table.js';
+import { reducedQubitTable } from './reduced-levels.js';
+import { sharedReducedSpectrum } from '../transmon/reduced-spectrum.js';
 import type { Interval } from './intervals.js';
 
 export interface PlanEdge {
@@ -70,7 +72,7 @@ export interface ContextOptions {
   onQubit?: () => void;
   /** The transmons, when the caller has them already (default: resolved from the layout). */
   transmons?: Transmon[];
-  /** Another spectrum table per qubit (default: a QubitTable; src/yield answers from the reduced spectrum). */
+  /** Another spectrum table per qubit (default: a QubitTable filled from the reduced spectrum). */
   tableFor?: (transmon: Transmon, index: number) => SpectrumTable;
 }
 
@@ -79,8 +81,9 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
   const ids = layout.qubits.map((q) => q.id);
   const index = new Map(ids.map((id, i) => [id, i]));
   const transmons = options.transmons ?? layout.qubits.map((q) => Transmon.fromLayout(q));
+  const reduced = sharedReducedSpectrum();
   const tables = transmons.map((t, i) => {
-    const table = options.tableFor ? options.tableFor(t, i) : new QubitTable(t, options.table);
+    const table = options.tableFor ? options.tableFor(t, i) : reducedQubitTable(t, reduced, options.table);
     options.onQubit?.();
     return table;
   });

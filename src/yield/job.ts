@@ -25,7 +25,7 @@ import { chipFromDeviates, sampleDeviates, type DrawnChip } from './draw.js';
 import { evaluateFixed, fixedPlan, type FixedPlan } from './fixed-evaluate.js';
 import { outcomeOf, type SampleOutcome } from './outcome.js';
 import { drawnTransmons, sampledLayout } from './sampled-context.js';
-import { reducedQubitTable } from './reduced-levels.js';
+import { reducedQubitTable } from '../plan/reduced-levels.js';
 import { planForDrawnChip } from './nominal-plan.js';
 import type { FabricationSpread } from './spread.js';
 
@@ -93,12 +93,7 @@ export class SampleEvaluator {
     const transmons = drawnTransmons(chip, drawn, this.table);
     const layout = sampledLayout(chip, drawn, transmons);
     const table = this.table;
-    const plan = planChip(layout, { seed: this.job.planSeed }, {
-      context: {
-        transmons,
-        tableFor: (t) => reducedQubitTable(t, table),
-      },
-    }, chip.ctx.graph);
+    const plan = planChip(layout, { seed: this.job.planSeed }, { context: { transmons, tableFor: (t) => reducedQubitTable(t, table) } }, chip.ctx.graph);
     const cycleError = cycleErrorOf(plan);
     const outcome = outcomeOf(chip.ctx, index, plan.violations, cycleError, cycleErrorFailure(cycleError, this.job.cycleErrorCeiling));
     return { outcome, findings: plan.violations, drawn, ...names };

@@ -10,7 +10,7 @@ import { nominalChip } from '../../src/yield/chip-model.js';
 import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
 import type { DrawnChip } from '../../src/yield/draw.js';
-import { reducedQubitTable } from '../../src/yield/reduced-levels.js';
+import { reducedQubitTable } from '../../src/plan/reduced-levels.js';
 import { Transmon } from '../../src/transmon/transmon.js';
 import { QubitTable } from '../../src/plan/qubit-table.js';
 import { handChip } from '../support/plan-chips.js';

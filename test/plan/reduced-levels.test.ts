@@ -1,5 +1,5 @@
 /**
- * A QubitTable filled from the reduced spectrum (src/yield/reduced-levels.ts) against the
+ * A QubitTable filled from the reduced spectrum (src/plan/reduced-levels.ts) against the
  * QubitTable of exact eigen solves (the transmon stage's parity eigenbasis, itself checked against
  * NumPy in test/transmon): every interpolated quantity at points across the planning range.
  */
@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { QubitTable } from '../../src/plan/qubit-table.js';
 import { sharedReducedSpectrum } from '../../src/transmon/reduced-spectrum.js';
 import { Transmon } from '../../src/transmon/transmon.js';
-import { reducedQubitTable } from '../../src/yield/reduced-levels.js';
+import { reducedQubitTable } from '../../src/plan/reduced-levels.js';
 
 describe('reducedQubitTable', () => {
   it.each([
