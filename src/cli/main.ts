@@ -73,8 +73,9 @@ export async function loadCommands(commands: readonly CommandEntry[], argv: read
 }
 
 /**
- * The program, writing to `io`. Commands set `io.exitCode`; commander's own exits (help,
- * version, usage errors) are turned into a thrown CommanderError (exitOverride) that runCli maps.
+ * The program, writing to `io`, with the given registrations (`loadCommands(COMMANDS, argv)`
+ * gives those of one run). Commands set `io.exitCode`; commander's own exits (help, version,
+ * usage errors) are turned into a thrown CommanderError (exitOverride) that runCli maps.
  */
 export function buildProgram(io: CliIo = processIo(), commands: readonly CommandRegistration[] = []): Command {
   const program = new Command();
