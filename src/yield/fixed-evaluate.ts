@@ -47,6 +47,7 @@ import type { Transmon } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { sampledContext } from './sampled-context.js';
+import type { SampledSpectrum } from './sampled-spectrum.js';
 
 export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
@@ -138,9 +139,16 @@ export interface FixedEvaluation {
 }
 
 /** Check drawn chip `drawn` against the nominal plan (see the banner). */
-export function evaluateFixed(chip: NominalChip, plan: FixedPlan, drawn: DrawnChip, table: ReducedSpectrum, options: Partial<FixedOptions> = {}): FixedEvaluation {
+export function evaluateFixed(
+  chip: NominalChip,
+  plan: FixedPlan,
+  drawn: DrawnChip,
+  table: ReducedSpectrum,
+  options: Partial<FixedOptions> = {},
+  reuse?: (SampledSpectrum | undefined)[],
+): FixedEvaluation {
   const o = { ...FIXED_DEFAULTS, ...options };
-  const ctx = sampledContext(chip, drawn, table);
+  const ctx = sampledContext(chip, drawn, table, reuse);
   const n = ctx.n;
   const parking = plan.parkingGHz;
   // Exact-state stand-ins at the parking frequencies (null out of the tunable range).

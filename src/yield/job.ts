@@ -25,6 +25,7 @@ import { chipFromDeviates, sampleDeviates, type DrawnChip } from './draw.js';
 import { evaluateFixed, fixedPlan, type FixedPlan } from './fixed-evaluate.js';
 import { outcomeOf, type SampleOutcome } from './outcome.js';
 import { drawnTransmons, sampledLayout } from './sampled-context.js';
+import type { SampledSpectrum } from './sampled-spectrum.js';
 import { reducedQubitTable } from '../plan/reduced-levels.js';
 import { planForDrawnChip } from './nominal-plan.js';
 import type { FabricationSpread } from './spread.js';
@@ -63,6 +64,8 @@ export class SampleEvaluator {
   private readonly chips: NominalChip[];
   private readonly fixed: FixedPlan | null;
   private readonly table: ReducedSpectrum;
+  /** Spectrum objects reused from one fixed-mode sample to the next (one per qubit). */
+  private readonly spectra: (SampledSpectrum | undefined)[] = [];
 
   constructor(readonly job: YieldJob, table: ReducedSpectrum = sharedReducedSpectrum()) {
     this.table = table;
@@ -87,7 +90,7 @@ export class SampleEvaluator {
     const drawn = chipFromDeviates(chip, index, z);
     const names = { ids: chip.ctx.ids, edgeKeys: chip.ctx.edges.map((e) => e.key) };
     if (this.fixed) {
-      const ev = evaluateFixed(chip, this.fixed, drawn, this.table);
+      const ev = evaluateFixed(chip, this.fixed, drawn, this.table, {}, this.spectra);
       return { outcome: outcomeOf(chip.ctx, index, ev.violations, null), findings: ev.violations, drawn, ...names };
     }
     const transmons = drawnTransmons(chip, drawn, this.table);

@@ -53,13 +53,22 @@ export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: Reduc
   });
 }
 
-export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum): PlanContext {
+/**
+ * The planner context of a drawn chip. `reuse` (one slot per qubit) keeps the spectrum objects
+ * from one sample to the next; a context is then valid until the next call with the same `reuse`.
+ */
+export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum, reuse?: (SampledSpectrum | undefined)[]): PlanContext {
   const nominal = chip.ctx;
   const transmons = drawnTransmons(chip, drawn, table);
   // (an exact QubitTable for a transmon the reduced table does not cover: only extreme draws)
-  const tables: SpectrumTable[] = transmons.map((t) =>
-    coversPlanningRange(table, t) ? new SampledSpectrum(table, t.ecGHz, t.ejsGHz, t.asymmetry, t.coherenceSpec?.fluxNoisePhi0) : new QubitTable(t),
-  );
+  const tables: SpectrumTable[] = transmons.map((t, i) => {
+    if (!coversPlanningRange(table, t)) return new QubitTable(t);
+    const noise = t.coherenceSpec?.fluxNoisePhi0;
+    const old = reuse?.[i];
+    const s = old ? old.reset(t.ecGHz, t.ejsGHz, t.asymmetry, noise) : new SampledSpectrum(table, t.ecGHz, t.ejsGHz, t.asymmetry, noise);
+    if (reuse) reuse[i] = s;
+    return s;
+  });
   const edges: PlanEdge[] = nominal.edges.map((e) => ({ ...e, gChargeGHz: drawn.gChargeGHz[e.index] }));
   const ranges = tables.map((t, i) => ({ lo: t.fLowGHz, hi: Math.min(t.fMaxGHz, transmons[i].fMaxGHz) }));
   const domains = nominal.qubits.map((q, i) => {

@@ -18,37 +18,49 @@ import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/joseph
 import { emptyReducedState, type ReducedChannel, type ReducedSpectrum, type ReducedState } from '../transmon/reduced-spectrum.js';
 
 export class SampledSpectrum implements SpectrumTable {
-  readonly fLowGHz: number;
-  readonly fMaxGHz: number;
+  fLowGHz = 0;
+  fMaxGHz = 0;
   /** r = E_J / E_C at the bottom of the planning range and at the upper sweet spot. */
-  readonly rLow: number;
-  readonly rTop: number;
-  private readonly noiseFactor: number;
+  rLow = 0;
+  rTop = 0;
+  ecGHz = 0;
+  ejsGHz = 0;
+  asymmetry = 0;
+  private noiseFactor = 0;
   private readonly red = emptyReducedState();
-  private readonly scratch: TableState;
+  private readonly scratch: TableState = blankState();
   /**
    * Memos of `at` and `f01ForF12` by frequency (MEMO_SIZE entries each, replaced round-robin): a
    * gate's rule evaluation asks for the same few points again and again (each neighbour's parking
    * frequency, seen from each gate near it). Small arrays scanned in order beat a Map keyed by
    * doubles here.
    */
-  private readonly memoF = new Float64Array(MEMO_SIZE).fill(NaN);
+  private readonly memoF = new Float64Array(MEMO_SIZE);
   private readonly memoS: TableState[] = [];
   private memoNext = 0;
-  private readonly memo12F = new Float64Array(MEMO_SIZE).fill(NaN);
+  private readonly memo12F = new Float64Array(MEMO_SIZE);
   private readonly memo12V = new Float64Array(MEMO_SIZE);
   private memo12Next = 0;
 
   constructor(
     private readonly table: ReducedSpectrum,
-    readonly ecGHz: number,
-    readonly ejsGHz: number,
-    readonly asymmetry: number,
+    ecGHz: number,
+    ejsGHz: number,
+    asymmetry: number,
     fluxNoisePhi0: number | undefined,
-    minEjOverEc: number = QUBIT_TABLE_DEFAULTS.minEjOverEc,
+    private readonly minEjOverEc: number = QUBIT_TABLE_DEFAULTS.minEjOverEc,
   ) {
+    this.reset(ecGHz, ejsGHz, asymmetry, fluxNoisePhi0);
+  }
+
+  /** The same object for another transmon (a Monte Carlo run reuses one per qubit). */
+  reset(ecGHz: number, ejsGHz: number, asymmetry: number, fluxNoisePhi0: number | undefined): this {
+    const table = this.table;
+    this.ecGHz = ecGHz;
+    this.ejsGHz = ejsGHz;
+    this.asymmetry = asymmetry;
     this.rTop = ejsGHz / ecGHz;
-    const sMin = Math.min(1, Math.max(asymmetry, (minEjOverEc * ecGHz) / ejsGHz));
+    const sMin = Math.min(1, Math.max(asymmetry, (this.minEjOverEc * ecGHz) / ejsGHz));
     this.rLow = sMin * this.rTop;
     if (!table.covers(this.rLow) || !table.covers(this.rTop)) {
       throw new RangeError(`SampledSpectrum: E_J/E_C from ${this.rLow} to ${this.rTop} leaves the reduced table [${table.rMin}, ${table.rMax}]`);
@@ -56,7 +68,11 @@ export class SampledSpectrum implements SpectrumTable {
     this.fLowGHz = ecGHz * table.value('e1', this.rLow);
     this.fMaxGHz = ecGHz * table.value('e1', this.rTop);
     this.noiseFactor = fluxNoisePhi0 !== undefined ? fluxNoiseDephasingRate(1, fluxNoisePhi0) : 0;
-    this.scratch = blankState();
+    this.memoF.fill(NaN);
+    this.memo12F.fill(NaN);
+    this.memoNext = 0;
+    this.memo12Next = 0;
+    return this;
   }
 
   covers(fGHz: number): boolean {

@@ -21,6 +21,7 @@ import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
 import { sampledLayout } from '../../src/yield/sampled-context.js';
 import type { FabricationSpread } from '../../src/yield/spread.js';
+import type { SampledSpectrum } from '../../src/yield/sampled-spectrum.js';
 
 const key = (f: Finding) => `${f.rule}|${f.qubits.join(',')}|${f.edge ?? ''}`;
 
@@ -32,9 +33,10 @@ function compare(layout: ChipLayout, spread: FabricationSpread, seed: number, sa
   const rules = new Map<string, number>();
   let failing = 0;
   let exactZz = 0;
+  const reuse: (SampledSpectrum | undefined)[] = []; // spectrum objects reused from sample to sample, as a run does
   for (let i = 0; i < samples; i++) {
     const drawn = drawChip(chip, seed, i);
-    const fast = evaluateFixed(chip, plan, drawn, table, zzExactAbove === undefined ? {} : { zzExactAbove });
+    const fast = evaluateFixed(chip, plan, drawn, table, zzExactAbove === undefined ? {} : { zzExactAbove }, reuse);
     const exact = verifyPlan(sampledLayout(chip, drawn), planForDrawnChip(nominal.plan), { dir: '.' }).violations;
     exactZz += fast.exactZzEdges;
     const a = [...fast.violations].sort((x, y) => (key(x) < key(y) ? -1 : key(x) > key(y) ? 1 : (x.value ?? 0) - (y.value ?? 0)));
