@@ -304,7 +304,9 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
           parked.set(P, before);
           parkedInfo.push(beforeInfo);
         }
-        ev = evaluateGate(ctx, scenario);
+        // Every trial since `ev` was computed has been undone, so the scenario is the one `ev`
+        // describes again (unless an earlier point of P could not be put back).
+        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario);
         unmovable.push(
           search.points.length === 0
             ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
