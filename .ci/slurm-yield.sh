@@ -11,7 +11,9 @@ repo="$(pwd)"
 export DEBIAN_FRONTEND=noninteractive
 
 echo "== slurm: install slurmctld, slurmd, slurm-client, munge"
-apt-get install -y -q --no-install-recommends slurmctld slurmd slurm-client munge >/dev/null
+packages=(slurmctld slurmd slurm-client munge)
+apt-get install -y -q --no-install-recommends "${packages[@]}" >/dev/null ||
+  { apt-get update -q >/dev/null && apt-get install -y -q --no-install-recommends "${packages[@]}" >/dev/null; }
 
 work="$(mktemp -d /tmp/fluxlane-slurm.XXXXXX)"
 chmod 755 "$work"
