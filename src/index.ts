@@ -14,6 +14,7 @@ export * from './gate/index.js';
 export * from './plan/index.js';
 export * from './report/index.js';
 export * from './report/html/index.js';
-export { buildProgram, runCli, COMMANDS, type CommandRegistration } from './cli/main.js';
+export { buildProgram, runCli, loadCommands, COMMANDS, type CommandRegistration, type CommandEntry, type LazyCommand } from './cli/main.js';
+export * from './yield/index.js';
 export { memoryIo, processIo, type CliIo, type MemoryIo } from './cli/io.js';
 export type { CommandOutcome, OutputFile } from './cli/outcome.js';

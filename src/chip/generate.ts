@@ -2,23 +2,35 @@
  * Synthetic chips for benchmarks and yield studies: a square or heavy-hex lattice with a seeded
  * spread of parameters, as a layout document (the YAML text comes from src/layout/write.ts).
  *
- * Parameters (all drawn from one seeded stream, in a fixed order, so the same options give the
- * same bytes):
- * - maximum frequencies in `groups` frequency groups (frequencyGroups), centres spread evenly over
- *   fMaxRangeGHz, each qubit scattered uniformly by +-groupJitterGHz and by a normal fabrication
- *   scatter of fabSigmaGHz (about 1 % of f, common practice for junction ageing and spread);
+ * The defaults make chips whose nominal plan holds every default rule (test/cli/generate.test.ts plans
+ * generated 5 x 5, 10 x 10 and heavy-hex chips with `fluxlane check`):
+ * - maximum frequencies in `groups` frequency groups (default 2) by a proper colouring of the
+ *   coupling graph (./colouring.ts: on the bipartite square and heavy-hex lattices two groups are
+ *   the two sides), so coupled neighbours are 1.3-1.7 GHz apart and their static ZZ stays small
+ *   for every g of the range. The group bands lie inside fMaxRangeGHz (4.9-6.6 GHz), the first
+ *   group at its top;
+ * - inside a group, qubits that share a neighbour (next-nearest neighbours) get different levels
+ *   (a DSATUR colouring, ./colouring.ts), levelStepGHz apart: they stay clear of each other at
+ *   idle, and a CZ's mover, sweeping to its partner's crossing, meets the partner's fellow
+ *   next-nearest neighbours only where spectator moves (README "The planner") can clear them,
+ *   since the level span stays below |alpha| minus the spectator detuning;
+ * - each qubit scattered uniformly by +-groupJitterGHz and by a normal scatter of fabSigmaGHz;
  * - anharmonicity -E_C with E_C uniform in ecRangeGHz (alpha ~ -E_C in the transmon regime,
  *   Koch et al., Phys. Rev. A 76, 042319 (2007)); the transmon stage solves the exact E_C;
  * - SQUID asymmetry uniform in asymmetryRange (so f_min lies well below f_max);
  * - T1 log-uniform in t1RangeUs; 1/f flux-noise amplitude uniform in fluxNoiseRangeUPhi0; a
  *   white T_phi for a fraction of the qubits;
  * - couplings g uniform in gRangeMHz; readout resonators on a 70 MHz comb above readoutBaseGHz;
- * - a two-level defect below f_max on a fraction of the qubits.
+ * - a two-level defect 0.1-1.5 GHz below f_max on a fraction of the qubits, of half-width
+ *   tlsWidthRangeMHz (coupling width / 2, weak enough that a CZ sweep passes it).
+ *
+ * All random draws come from one seeded stream in a fixed order, so the same options give the
+ * same bytes.
  */
 
 import { Random } from '../util/random.js';
 import type { LayoutDocument, QubitDocument } from '../layout/write.js';
-import { adjacencyLists, frequencyGroups } from './colouring.js';
+import { adjacencyLists, frequencyGroups, levelsInGroups } from './colouring.js';
 import { lattice, type LatticeKind } from './lattice.js';
 
 export interface GenerateOptions {
@@ -32,6 +44,8 @@ export interface GenerateOptions {
   name?: string;
   groups: number;
   fMaxRangeGHz: [number, number];
+  /** Detuning between the levels of next-nearest neighbours inside a group. */
+  levelStepGHz: number;
   groupJitterGHz: number;
   fabSigmaGHz: number;
   ecRangeGHz: [number, number];
@@ -43,16 +57,18 @@ export interface GenerateOptions {
   gRangeMHz: [number, number];
   readoutBaseGHz: number;
   tlsFraction: number;
+  tlsWidthRangeMHz: [number, number];
   /** Text after `fluxlane generate` for the header comment, e.g. `square --rows 7 --cols 7 --seed 1`. */
   commandLine?: string;
 }
 
 export const GENERATE_DEFAULTS: Readonly<Omit<GenerateOptions, 'kind' | 'rows' | 'cols'>> = Object.freeze({
   seed: 1,
-  groups: 3,
+  groups: 2,
   fMaxRangeGHz: [4.9, 6.6] as [number, number],
-  groupJitterGHz: 0.1,
-  fabSigmaGHz: 0.03,
+  levelStepGHz: 0.045,
+  groupJitterGHz: 0.005,
+  fabSigmaGHz: 0.003,
   ecRangeGHz: [0.18, 0.26] as [number, number],
   asymmetryRange: [0.2, 0.5] as [number, number],
   t1RangeUs: [20, 200] as [number, number],
@@ -62,13 +78,11 @@ export const GENERATE_DEFAULTS: Readonly<Omit<GenerateOptions, 'kind' | 'rows' |
   gRangeMHz: [8, 20] as [number, number],
   readoutBaseGHz: 7.1,
   tlsFraction: 0.15,
+  tlsWidthRangeMHz: [0.5, 2] as [number, number],
 });
 
 /** Hard bounds on the size of a synthetic chip. */
 export const GENERATE_LIMITS = Object.freeze({ maxSide: 500, maxCells: 20_000 });
-
-/** Frequencies kept inside the range the layout format and the demos use. */
-const F_MAX_CLAMP_GHZ: [number, number] = [4.5, 6.8];
 
 const ghz = (x: number) => `${x.toFixed(3)} GHz`;
 const mhz = (x: number, digits = 0) => `${(x * 1000).toFixed(digits)} MHz`;
@@ -78,14 +92,19 @@ export function generateLayout(options: Partial<GenerateOptions> & Pick<Generate
   const { sites, edges } = lattice(o.kind, o.rows, o.cols);
   const adjacency = adjacencyLists(sites.length, edges);
   const groups = frequencyGroups(adjacency, o.groups);
+  const levels = levelsInGroups(adjacency, groups);
   const rng = new Random(o.seed);
   const [fLo, fHi] = o.fMaxRangeGHz;
-  const centre = (g: number) => (o.groups === 1 ? (fLo + fHi) / 2 : fHi - ((fHi - fLo) * g) / (o.groups - 1));
+  // Each group's band: its levels plus room for the scatter; bands spread evenly over the range, the first at its top.
+  const scatter = o.groupJitterGHz + 3 * o.fabSigmaGHz;
+  const levelCount = levels.reduce((m, l) => Math.max(m, l + 1), 1);
+  const bandGHz = (levelCount - 1) * o.levelStepGHz + 2 * scatter;
+  const top = (g: number) => (o.groups === 1 ? fHi : fHi - ((fHi - fLo - bandGHz) * g) / (o.groups - 1));
 
   const qubits: [string, QubitDocument][] = sites.map((site, i) => {
     const fMax = clamp(
-      centre(groups[i]) + rng.between(-o.groupJitterGHz, o.groupJitterGHz) + o.fabSigmaGHz * rng.normal(),
-      F_MAX_CLAMP_GHZ,
+      top(groups[i]) - scatter - levels[i] * o.levelStepGHz + rng.between(-o.groupJitterGHz, o.groupJitterGHz) + o.fabSigmaGHz * rng.normal(),
+      o.fMaxRangeGHz,
     );
     const ec = rng.between(o.ecRangeGHz[0], o.ecRangeGHz[1]);
     const asymmetry = rng.between(o.asymmetryRange[0], o.asymmetryRange[1]);
@@ -96,7 +115,7 @@ export function generateLayout(options: Partial<GenerateOptions> & Pick<Generate
     const readout = o.readoutBaseGHz + 0.07 * (i % 8) + rng.between(-0.01, 0.01);
     const withTls = rng.uniform() < o.tlsFraction;
     const tlsAt = fMax - rng.between(0.1, 1.5);
-    const tlsWidth = rng.between(0.001, 0.005);
+    const tlsWidth = rng.between(o.tlsWidthRangeMHz[0] / 1000, o.tlsWidthRangeMHz[1] / 1000);
 
     const q: QubitDocument = {
       pos: site.pos,
@@ -108,7 +127,7 @@ export function generateLayout(options: Partial<GenerateOptions> & Pick<Generate
       readout: ghz(readout),
     };
     if (withTphi) q.tphi = `${Math.round(tphi)} us`;
-    if (withTls) q.tls = [{ at: ghz(tlsAt), width: mhz(tlsWidth, 1) }];
+    if (withTls) q.tls = [{ at: ghz(tlsAt), width: mhz(tlsWidth, 2) }];
     return [site.id, q];
   });
 

@@ -39,7 +39,7 @@ export interface CommandContext {
   json: boolean;
   /** A path given by the user, resolved against the io's cwd. */
   resolvePath(path: string): string;
-  /** A progress bar on stderr (drawn only on a terminal). */
+  /** A progress bar on stderr (drawn only on a terminal, and never with --json). */
   progress(label: string, total: number): Progress;
   /** Read a layout named by the user (stage 'layout' of the profile); its warnings are kept for the output. */
   loadLayout(path: string): ChipLayout;
@@ -66,7 +66,7 @@ export async function runCommand(
     profiler,
     json,
     resolvePath: (p) => resolve(io.cwd, p),
-    progress: (label, total) => startProgress(io, label, total),
+    progress: (label, total) => startProgress(json ? { ...io, stderrIsTTY: false } : io, label, total),
     loadLayout: (p) => {
       const layout = profiler.time('layout', () => loadLayoutFile(resolve(io.cwd, p), p));
       warnings.push(...(layout.warnings ?? []));

@@ -9,44 +9,77 @@
  * Exit codes: 0 fine, 1 a check found violations, 2 bad input or usage, 70 internal error.
  */
 
-import { readFileSync, realpathSync } from 'node:fs';
+import { realpathSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { processIo, type CliIo } from './io.js';
 import { EXIT, reportError } from './handler.js';
-import { registerCheck } from './commands/check.js';
-import { registerGenerate } from './commands/generate.js';
-import { registerPair } from './commands/pair.js';
-import { registerSimulate } from './commands/simulate.js';
-import { registerGate } from './commands/gate.js';
-import { registerSpectrum } from './commands/spectrum.js';
-import { registerPlan } from './commands/plan.js';
-import { registerVerify } from './commands/verify.js';
-import { registerReport } from './commands/report.js';
-import { registerDiff } from './commands/diff.js';
+import { packageVersion } from './version.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
 
+/**
+ * A command loaded only when it runs: `fluxlane --help` lists its name and summary, and only the
+ * command named on the command line imports its module (and with it its stages), so start-up
+ * stays short for every command. See DEVELOPERS.md, "How to add a command".
+ */
+export interface LazyCommand {
+  name: string;
+  summary: string;
+  load: () => Promise<CommandRegistration>;
+}
+
+export type CommandEntry = CommandRegistration | LazyCommand;
+
 /** Every command of fluxlane, in the order `--help` lists them. Add new commands here. */
-export const COMMANDS: readonly CommandRegistration[] = [registerCheck, registerGenerate, registerSpectrum, registerPair, registerSimulate, registerGate, registerPlan, registerVerify, registerDiff,
-  registerReport,
+export const COMMANDS: readonly CommandEntry[] = [
+  { name: 'check', summary: 'validate a layout and check every collision rule at the best parking (no pulse design)', load: async () => (await import('./commands/check.js')).registerCheck },
+  { name: 'generate', summary: 'make a synthetic square or heavy-hex chip layout', load: async () => (await import('./commands/generate.js')).registerGenerate },
+  { name: 'spectrum', summary: 'one qubit against flux: f01, f12, anharmonicity, slope, coherence', load: async () => (await import('./commands/spectrum.js')).registerSpectrum },
+  { name: 'pair', summary: 'dressed levels, static ZZ and crossings of a coupled pair', load: async () => (await import('./commands/pair.js')).registerPair },
+  { name: 'simulate', summary: 'simulate a flux trajectory of an edge and report its gate metrics', load: async () => (await import('./commands/simulate.js')).registerSimulate },
+  { name: 'gate', summary: 'design the CZ pulse of one edge', load: async () => (await import('./commands/gate.js')).registerGate },
+  { name: 'plan', summary: 'plan parking, interactions, spectator moves, CZ pulses and layers for a chip', load: async () => (await import('./commands/plan.js')).registerPlan },
+  { name: 'verify', summary: 'recompute every rule and claim of a plan.json and say whether it holds', load: async () => (await import('./commands/verify.js')).registerVerify },
+  { name: 'diff', summary: 'what changed between two plans, and why', load: async () => (await import('./commands/diff.js')).registerDiff },
+  { name: 'report', summary: 'draw a plan as one HTML page that opens offline', load: async () => (await import('./commands/report.js')).registerReport },
+  { name: 'yield', summary: 'Monte Carlo over fabrication spread: the fraction of chips that work and why the others fail', load: async () => (await import('./commands/yield.js')).registerYield },
+  { name: 'yield-merge', summary: 'join the parts of a sharded yield run into one result', load: async () => (await import('./commands/yield-merge.js')).registerYieldMerge },
 ];
 
-function packageVersion(): string {
-  try {
-    const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version?: string };
-    return pkg.version ?? '0.0.0';
-  } catch {
-    return '0.0.0';
-  }
+const isLazy = (c: CommandEntry): c is LazyCommand => typeof c !== 'function';
+
+/** The command `argv` runs (its first word; `help NAME` asks about NAME), or undefined. */
+export function commandNameOf(argv: readonly string[]): string | undefined {
+  const first = argv.find((a) => !a.startsWith('-'));
+  if (first === 'help') return argv.slice(argv.indexOf('help') + 1).find((a) => !a.startsWith('-'));
+  return first;
 }
 
 /**
- * The program, writing to `io`. Commands set `io.exitCode`; commander's own exits (help,
- * version, usage errors) are turned into a thrown CommanderError (exitOverride) that runCli maps.
+ * Registrations for one run: the lazy command `argv` names is loaded; every other one is a stub
+ * with its name and summary (all `fluxlane --help` shows).
  */
-export function buildProgram(io: CliIo = processIo(), commands: readonly CommandRegistration[] = COMMANDS): Command {
+export async function loadCommands(commands: readonly CommandEntry[], argv: readonly string[]): Promise<CommandRegistration[]> {
+  const name = commandNameOf(argv);
+  return Promise.all(
+    commands.map(async (c): Promise<CommandRegistration> => {
+      if (!isLazy(c)) return c;
+      if (c.name === name) return c.load();
+      return (program) => {
+        program.command(c.name).description(c.summary);
+      };
+    }),
+  );
+}
+
+/**
+ * The program, writing to `io`, with the given registrations (`loadCommands(COMMANDS, argv)`
+ * gives those of one run). Commands set `io.exitCode`; commander's own exits (help, version,
+ * usage errors) are turned into a thrown CommanderError (exitOverride) that runCli maps.
+ */
+export function buildProgram(io: CliIo = processIo(), commands: readonly CommandRegistration[] = []): Command {
   const program = new Command();
   program
     .name('fluxlane')
@@ -63,10 +96,10 @@ export function buildProgram(io: CliIo = processIo(), commands: readonly Command
 }
 
 /** Parse and run `argv` (without node and script); returns the exit code. Never throws. */
-export async function runCli(argv: readonly string[], io: CliIo = processIo(), commands: readonly CommandRegistration[] = COMMANDS): Promise<number> {
+export async function runCli(argv: readonly string[], io: CliIo = processIo(), commands: readonly CommandEntry[] = COMMANDS): Promise<number> {
   io.exitCode = EXIT.ok;
   try {
-    await buildProgram(io, commands).parseAsync([...argv], { from: 'user' });
+    await buildProgram(io, await loadCommands(commands, argv)).parseAsync([...argv], { from: 'user' });
   } catch (err) {
     if (err instanceof CommanderError) {
       const fine = err.code === 'commander.helpDisplayed' || err.code === 'commander.version';

@@ -11,7 +11,8 @@
 import type { CliIo } from './io.js';
 
 export interface Progress {
-  tick(count?: number): void;
+  /** `count` more done; `note` (optional) is shown after the bar, e.g. a running yield. */
+  tick(count?: number, note?: string): void;
   done(): void;
 }
 
@@ -35,16 +36,18 @@ export function startProgress(io: CliIo, label: string, total: number, options: 
   let done = 0;
   let lastDraw = -Infinity;
   let finished = false;
+  let note = '';
   const draw = () => {
     const fraction = Math.min(1, done / total);
     const filled = Math.round(fraction * width);
     const seconds = ((now() - started) / 1000).toFixed(1);
-    io.stderr(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${done}/${total} ${seconds} s`);
+    io.stderr(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${done}/${total} ${seconds} s${note}${note ? '\x1b[K' : ''}`);
   };
   return {
-    tick(count = 1) {
+    tick(count = 1, text?: string) {
       if (finished) return;
       done += count;
+      if (text !== undefined) note = text === '' ? '' : ` ${text}`;
       const t = now();
       if (t - lastDraw >= intervalMs || done >= total) {
         lastDraw = t;

@@ -10,8 +10,8 @@ import type { ChipLayout, CouplingLayout, QubitLayout, Rules, SourceRef, TlsDefe
 import { describeFound, DiagnosticCollector, formatPath, type Path } from './diagnostics.js';
 import { parseQuantity, formatQuantity, type QuantityKind } from './units.js';
 import {
-  COUPLING_KEYS, CouplingListSchema, CouplingMapSchema, LayoutTopSchema, QUBIT_ID_PATTERN, QUBIT_KEYS,
-  QubitSchema, RULE_KEYS, TLS_KEYS, TOP_KEYS, type QubitInput,
+  COUPLING_KEYS, CouplingListSchema, CouplingMapSchema, LayoutTopSchema, MAX_QUBIT_SPREAD, QUBIT_ID_PATTERN, QUBIT_KEYS,
+  QubitSchema, RULE_KEYS, SPREAD_KEYS, TLS_KEYS, TOP_KEYS, type QubitInput,
 } from './schema.js';
 import { DEFAULT_RULES, parseRuleValue, ruleSpecByKey } from './rules.js';
 import { defaultPhrase, reportZodIssues, unknownKeyMessage } from './zod-issues.js';
@@ -60,7 +60,9 @@ export function convertLayout(tree: SourceTree, file: string, collector: Diagnos
         if (qubit) qubits.push(qubit);
         continue;
       }
-      reportZodIssues(parsed.error.issues, raw, base, collector, (rel) => (rel.length >= 2 && rel[0] === 'tls' ? TLS_KEYS : QUBIT_KEYS));
+      reportZodIssues(parsed.error.issues, raw, base, collector, (rel) =>
+        rel.length >= 2 && rel[0] === 'tls' ? TLS_KEYS : rel.length >= 1 && rel[0] === 'spread' ? SPREAD_KEYS : QUBIT_KEYS,
+      );
       if (!isMap(raw)) continue;
       // Go on with the fields that passed, so that one file shows all its problems. A misspelt
       // key counts as present under its likely name, which avoids follow-up "missing" messages.
@@ -248,6 +250,16 @@ function convertQubit(
     if (atGHz !== undefined && widthGHz !== undefined) tls.push({ atGHz, widthGHz });
   });
   const readoutGHz = f('readout');
+  let spread: { rn?: number; ec?: number } | undefined;
+  if (input.spread) {
+    spread = {};
+    for (const key of ['rn', 'ec'] as const) {
+      const v = input.spread[key];
+      if (v === undefined) continue;
+      if (!(v >= 0 && v <= MAX_QUBIT_SPREAD)) collector.add(at('spread', key), `expected a relative spread (1 sigma) from 0 to ${MAX_QUBIT_SPREAD}, e.g. 0.015, found ${v}`);
+      else spread[key] = v;
+    }
+  }
 
   if (collector.count > before || transmon === undefined || t1Ns === undefined || input.pos === undefined) return undefined;
   const qubit: QubitLayout = { id, pos: [input.pos[0], input.pos[1]], transmon, t1Ns, tls, source };
@@ -256,6 +268,7 @@ function convertQubit(
   if (windowGHz) qubit.windowGHz = windowGHz;
   if (parkGHz !== undefined) qubit.parkGHz = parkGHz;
   if (readoutGHz !== undefined) qubit.readoutGHz = readoutGHz;
+  if (spread) qubit.spread = spread;
   if (input.note !== undefined) qubit.note = input.note;
   return qubit;
 }

@@ -50,6 +50,25 @@ export const TlsSchema = z
   )
   .meta({ description: 'A two-level defect (TLS) seen in the qubit spectrum.' });
 
+/** Largest relative fabrication spread a layout may state for one qubit. */
+export const MAX_QUBIT_SPREAD = 0.1;
+
+const relativeSpread = (description: string) =>
+  z
+    .number(phrase(`a relative spread (1 sigma) from 0 to ${MAX_QUBIT_SPREAD}, e.g. 0.015`))
+    .meta({ description })
+    .optional();
+
+export const SpreadSchema = z
+  .strictObject(
+    {
+      rn: relativeSpread('Relative spread (1 sigma) of the junction normal-state resistances R_n (each junction of the SQUID): E_J ~ 1/R_n (Ambegaokar-Baratoff).'),
+      ec: relativeSpread('Relative spread (1 sigma) of the shunt capacitance, i.e. of E_C = e^2 / 2C.'),
+    },
+    phrase('a spread map { rn, ec } of relative spreads'),
+  )
+  .meta({ description: 'Measured fabrication spreads of this qubit (relative, 1 sigma) for `fluxlane yield`; they replace the command\'s --spread-rn and --spread-ec for this qubit.' });
+
 export const ResistanceSchema = z
   .union(
     [
@@ -84,6 +103,7 @@ export const QubitSchema = z
       park: quantity('frequency', 'Fixed parking frequency the plan must keep.').optional(),
       tls: z.array(TlsSchema, phrase('a list of defects [{ at, width }, ...]')).optional(),
       readout: quantity('frequency', 'Readout resonator frequency.', '7.2 GHz').optional(),
+      spread: SpreadSchema.optional(),
       note: z.string(phrase('text')).meta({ description: 'Free text kept with the qubit.' }).optional(),
     },
     phrase('a qubit map { pos, t1, ... }'),
@@ -153,6 +173,7 @@ export const LayoutFileSchema = z
 export const TOP_KEYS: readonly string[] = Object.keys(LayoutTopSchema.shape);
 export const QUBIT_KEYS: readonly string[] = Object.keys(QubitSchema.shape);
 export const TLS_KEYS: readonly string[] = Object.keys(TlsSchema.shape);
+export const SPREAD_KEYS: readonly string[] = Object.keys(SpreadSchema.shape);
 export const COUPLING_KEYS: readonly string[] = Object.keys(CouplingMapSchema.shape);
 export const RULE_KEYS: readonly string[] = RULE_SPECS.map((s) => s.key);
 

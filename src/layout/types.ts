@@ -72,6 +72,12 @@ export interface QubitLayout {
   tls: TlsDefect[];
   /** Readout resonator frequency. */
   readoutGHz?: number;
+  /**
+   * Measured fabrication spreads of this qubit (relative, 1 sigma): `rn` of each junction's
+   * normal-state resistance, `ec` of its shunt capacitance (so of E_C). Used by `fluxlane yield`
+   * in place of its command-line spreads.
+   */
+  spread?: { rn?: number; ec?: number };
   /** Free text from the layout's `note:` (kept for reports). */
   note?: string;
   /** Where the qubit's id stands in the layout file. */

@@ -11,20 +11,33 @@
  * We use a private mathjs instance (`create(all)`), because `createUnit` would otherwise change
  * the global one that other code may share. mathjs is loaded from the package's single-file
  * bundle (same code as its ESM build): the ESM build is about 1,260 modules and took 1.7-5 s to
- * load on our 2-core machine, the bundle about 0.2 s, which is most of `fluxlane`'s start-up.
+ * load on our 2-core machine, the bundle about 0.2 s. It is loaded only when a text needs it:
+ * the plain form "<number> <unit>" with a unit of the kind's table and at most 12 significant
+ * digits (what layouts almost always hold) is read directly, number times a power of ten, which
+ * after the rounding to 12 significant digits is exactly what mathjs gives
+ * (test/layout/units.test.ts compares them on random texts); everything else, and every message
+ * about a wrong unit, goes through mathjs.
  */
 
 import { createRequire } from 'node:module';
 import type { Unit } from 'mathjs';
 
-const mathjs = createRequire(import.meta.url)('mathjs/lib/browser/math.js') as typeof import('mathjs');
-const { all, create } = mathjs;
 import { didYouMean } from './suggest.js';
 import { describeFound, showText } from './diagnostics.js';
 
-const math = create(all, {});
-// The magnetic flux quantum as its own base dimension, with SI prefixes (mPhi0, uPhi0, nPhi0).
-math.createUnit('Phi0', { prefixes: 'short' });
+type MathInstance = ReturnType<typeof import('mathjs').create>;
+let mathInstance: MathInstance | undefined;
+
+/** The private mathjs instance, loaded on first use. */
+function mathjsInstance(): MathInstance {
+  if (!mathInstance) {
+    const mathjs = createRequire(import.meta.url)('mathjs/lib/browser/math.js') as typeof import('mathjs');
+    mathInstance = mathjs.create(mathjs.all, {});
+    // The magnetic flux quantum as its own base dimension, with SI prefixes (mPhi0, uPhi0, nPhi0).
+    mathInstance.createUnit('Phi0', { prefixes: 'short' });
+  }
+  return mathInstance;
+}
 
 export type QuantityKind = 'frequency' | 'time' | 'resistance' | 'fluxNoise';
 
@@ -34,10 +47,12 @@ interface KindSpec {
   example: string;
   /** Internal unit we convert to. */
   internal: string;
-  /** Reference units whose dimension is accepted (first one converts with `internal`). */
-  accepts: { unit: Unit; internal: string }[];
+  /** Reference units whose dimension is accepted (first one converts with `internal`), as mathjs texts. */
+  accepts: { unit: string; internal: string }[];
   /** Spellings offered in "did you mean" for unknown units. */
   spellings: string[];
+  /** Units read without mathjs: factor to the internal unit as a power of ten. */
+  plain: Record<string, number>;
 }
 
 const KINDS: Record<QuantityKind, KindSpec> = {
@@ -45,34 +60,71 @@ const KINDS: Record<QuantityKind, KindSpec> = {
     noun: 'a frequency',
     example: '5.8 GHz',
     internal: 'GHz',
-    accepts: [{ unit: math.unit('1 Hz'), internal: 'GHz' }],
+    accepts: [{ unit: '1 Hz', internal: 'GHz' }],
     spellings: ['Hz', 'kHz', 'MHz', 'GHz', 'THz'],
+    plain: { Hz: -9, kHz: -6, MHz: -3, GHz: 0, THz: 3 },
   },
   time: {
     noun: 'a time',
     example: '45 us',
     internal: 'ns',
-    accepts: [{ unit: math.unit('1 s'), internal: 'ns' }],
+    accepts: [{ unit: '1 s', internal: 'ns' }],
     spellings: ['s', 'ms', 'us', 'ns', 'ps'],
+    plain: { s: 9, ms: 6, us: 3, ns: 0, ps: -3 },
   },
   resistance: {
     noun: 'a resistance',
     example: '8.2 kOhm',
     internal: 'kOhm',
-    accepts: [{ unit: math.unit('1 ohm'), internal: 'kohm' }],
+    accepts: [{ unit: '1 ohm', internal: 'kohm' }],
     spellings: ['Ohm', 'kOhm', 'MOhm'],
+    plain: { ohm: -3, kohm: 0, Mohm: 3 },
   },
   fluxNoise: {
     noun: 'a flux-noise amplitude',
     example: '3 uPhi0/sqrt(Hz)',
     internal: 'Phi0',
     accepts: [
-      { unit: math.unit('1 Phi0'), internal: 'Phi0' },
-      { unit: math.unit('1 Phi0 / Hz^0.5'), internal: 'Phi0 / Hz^0.5' },
+      { unit: '1 Phi0', internal: 'Phi0' },
+      { unit: '1 Phi0 / Hz^0.5', internal: 'Phi0 / Hz^0.5' },
     ],
     spellings: ['Phi0', 'mPhi0', 'uPhi0', 'nPhi0'],
+    plain: { Phi0: 0, mPhi0: -3, uPhi0: -6, nPhi0: -9, 'Phi0/Hz^0.5': 0, 'mPhi0/Hz^0.5': -3, 'uPhi0/Hz^0.5': -6, 'nPhi0/Hz^0.5': -9 },
   },
 };
+
+const acceptedUnits = new Map<QuantityKind, { unit: Unit; internal: string }[]>();
+
+function accepted(kind: QuantityKind): { unit: Unit; internal: string }[] {
+  let list = acceptedUnits.get(kind);
+  if (!list) {
+    const math = mathjsInstance();
+    list = KINDS[kind].accepts.map((a) => ({ unit: math.unit(a.unit), internal: a.internal }));
+    acceptedUnits.set(kind, list);
+  }
+  return list;
+}
+
+/** "<number> <unit>": a plain decimal (at most 12 significant digits) and one unit word. */
+const PLAIN = /^([-+]?)(\d+)(?:\.(\d*))?(?:[eE]([-+]?\d+))? ?([A-Za-z][A-Za-z0-9]*(?: ?\/ ?Hz\^0\.5)?)$/;
+
+/**
+ * The value of a plain quantity text of a kind's table in its internal unit, or undefined when the
+ * text needs mathjs. The digits are exact in decimal; with at most 12 significant ones and a
+ * power-of-ten unit factor, rounding to 12 significant digits gives mathjs's result exactly.
+ */
+function plainQuantity(text: string, spec: KindSpec): number | undefined {
+  const m = PLAIN.exec(text);
+  if (!m) return undefined;
+  const unit = m[5].replace(/ /g, '');
+  const power = spec.plain[unit];
+  if (power === undefined) return undefined;
+  const digits = `${m[2]}${m[3] ?? ''}`.replace(/^0+/, '');
+  if (digits.replace(/0+$/, '').length > 12) return undefined;
+  const value = Number(`${m[1]}${m[2]}.${m[3] ?? ''}e${Number(m[4] ?? 0) + power}`);
+  // far from the ends of the float range (mathjs converts through SI units, which may overflow there)
+  return Math.abs(value) < 1e290 && (value === 0 || Math.abs(value) > 1e-290) ? roundSignificant(value) + 0 : undefined;
+}
 
 export function quantityNoun(kind: QuantityKind): string {
   return KINDS[kind].noun;
@@ -115,9 +167,10 @@ export function roundSignificant(x: number, digits = 12): number {
  *   parseQuantity('20 us', 'frequency')  -> { ok: false, message: 'expected a frequency, found 20 us' }
  *   parseQuantity(5.8, 'frequency')      -> { ok: false, message: 'expected a frequency with a unit, found the bare number 5.8' }
  *
- * Never throws. Finite values only; the sign is checked by the caller.
+ * Never throws. Finite values only; the sign is checked by the caller. `plain: false` sends every
+ * text through mathjs (tests compare both ways).
  */
-export function parseQuantity(input: unknown, kind: QuantityKind): QuantityResult {
+export function parseQuantity(input: unknown, kind: QuantityKind, options: { plain?: boolean } = {}): QuantityResult {
   const spec = KINDS[kind];
   if (typeof input === 'number') {
     return { ok: false, message: `expected ${spec.noun} with a unit, found the bare number ${formatBare(input)} (write e.g. "${spec.example}")` };
@@ -133,9 +186,11 @@ export function parseQuantity(input: unknown, kind: QuantityKind): QuantityResul
   if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(text)) {
     return { ok: false, message: `expected ${spec.noun} with a unit, found the bare number ${shown} (write e.g. "${spec.example}")` };
   }
+  const plain = options.plain === false ? undefined : plainQuantity(text, spec);
+  if (plain !== undefined) return { ok: true, value: plain };
   let unit: Unit;
   try {
-    unit = math.unit(text);
+    unit = mathjsInstance().unit(text);
   } catch (err) {
     const message = err instanceof Error ? err.message : '';
     const unknown = /Unit "([^"]*)" not found/.exec(message);
@@ -152,7 +207,7 @@ export function parseQuantity(input: unknown, kind: QuantityKind): QuantityResul
   if (unit.units.length === 0) {
     return { ok: false, message: `expected ${spec.noun} with a unit, found the bare number ${shown}` };
   }
-  const match = spec.accepts.find((a) => unit.equalBase(a.unit));
+  const match = accepted(kind).find((a) => unit.equalBase(a.unit));
   if (!match) {
     return { ok: false, message: `expected ${spec.noun}, found ${shown}` };
   }

@@ -23,6 +23,7 @@ export interface QubitDocument {
   park?: string;
   tls?: { at: string; width: string }[];
   readout?: string;
+  spread?: { rn?: number; ec?: number };
   note?: string;
 }
 
@@ -38,7 +39,7 @@ export interface LayoutDocument {
 
 const KEY_ORDER: readonly (keyof QubitDocument)[] = [
   'pos', 'ec', 'ejMax', 'fMax', 'anharmonicity', 'asymmetry', 'fMin', 'rn',
-  't1', 'tphi', 'fluxNoise', 'window', 'park', 'tls', 'readout', 'note',
+  't1', 'tphi', 'fluxNoise', 'window', 'park', 'tls', 'readout', 'spread', 'note',
 ];
 
 /** Texts that every YAML reader keeps as plain strings: "5.8 GHz", "-210 MHz", "Q12" (fast path). */
@@ -82,6 +83,10 @@ export function layoutToYaml(doc: LayoutDocument): string {
         if (list.length === 0) continue;
         out.push('    tls:');
         for (const d of list) out.push(`      - { at: ${yamlScalar(d.at)}, width: ${yamlScalar(d.width)} }`);
+      } else if (key === 'spread') {
+        const sp = v as { rn?: number; ec?: number };
+        const parts = (['rn', 'ec'] as const).filter((k) => sp[k] !== undefined).map((k) => `${k}: ${yamlScalar(sp[k]!)}`);
+        if (parts.length > 0) out.push(`    spread: { ${parts.join(', ')} }`);
       } else if (key === 'note') {
         out.push(`    note: ${yamlScalar(v as string)}`);
       } else {

@@ -30,20 +30,25 @@ export interface Resonance {
 
 export type PairResonances = Record<ResonanceName, Resonance | null>;
 
-/** Resonances of `mover` against `partner` parked at `partnerFlux`; G is the charge coupling. */
-export function pairResonances(mover: Transmon, partner: Transmon, partnerFlux: number, gChargeGHz: number): PairResonances {
+/**
+ * Resonances of `mover` against `partner` parked at `partnerFlux`; G is the charge coupling.
+ * `names` limits the work to some of them (the others are null).
+ */
+export function pairResonances(mover: Transmon, partner: Transmon, partnerFlux: number, gChargeGHz: number, names: readonly ResonanceName[] = RESONANCE_NAMES): PairResonances {
   const p = partner.spectrum(partnerFlux);
   const nPartner = partner.chargeBasis(partnerFlux, 3).charge; // 3 x 3
   const p01 = Math.abs(nPartner[1]);
   const p12 = Math.abs(nPartner[5]);
-  const at = (name: ResonanceName, flux: number | null, coupling: (n01: number, n12: number) => number): Resonance | null => {
-    if (flux === null) return null;
-    const n = mover.chargeBasis(flux, 3).charge;
-    return { name, moverFlux: flux, moverF01GHz: mover.f01(flux), couplingGHz: gChargeGHz * coupling(Math.abs(n[1]), Math.abs(n[5])) };
+  const at = (name: ResonanceName, flux: () => number | null, coupling: (n01: number, n12: number) => number): Resonance | null => {
+    if (!names.includes(name)) return null;
+    const x = flux();
+    if (x === null) return null;
+    const n = mover.chargeBasis(x, 3).charge;
+    return { name, moverFlux: x, moverF01GHz: mover.f01(x), couplingGHz: gChargeGHz * coupling(Math.abs(n[1]), Math.abs(n[5])) };
   };
   return {
-    '01-10': at('01-10', mover.fluxForF01OrNull(p.f01GHz), (m01) => m01 * p01),
-    '11-20': at('11-20', mover.fluxForF12OrNull(p.f01GHz), (_m01, m12) => m12 * p01),
-    '11-02': at('11-02', mover.fluxForF01OrNull(p.f12GHz), (m01) => m01 * p12),
+    '01-10': at('01-10', () => mover.fluxForF01OrNull(p.f01GHz), (m01) => m01 * p01),
+    '11-20': at('11-20', () => mover.fluxForF12OrNull(p.f01GHz), (_m01, m12) => m12 * p01),
+    '11-02': at('11-02', () => mover.fluxForF01OrNull(p.f12GHz), (m01) => m01 * p12),
   };
 }

@@ -1,6 +1,6 @@
 /**
  * Everything the planner's stages share about one chip, built once: the resolved transmons, their
- * tabulated spectra (src/plan/qubit-table.ts), neighbour lists by index, next-nearest pairs with
+ * tabulated spectra (src/plan/qubit-table.ts; from the reduced spectrum on large chips: ./reduced-levels.ts), neighbour lists by index, next-nearest pairs with
  * their shared neighbours, each coupling's charge coupling G, each qubit's parking domain
  * (window intersected with the planning range) and fixed `park` values, and the exact coupled
  * pairs (CoupledPair, built on first use). Indices follow the layout's qubit order.
@@ -11,7 +11,9 @@ import { nextNearestPairs } from '../chip/neighbourhood.js';
 import { Transmon } from '../transmon/transmon.js';
 import { chargeCouplingForPair } from '../pair/coupling.js';
 import { CoupledPair } from '../pair/pair.js';
-import { QubitTable, type QubitTableOptions } from './qubit-table.js';
+import { QubitTable, type QubitTableOptions, type SpectrumTable } from './qubit-table.js';
+import { reducedQubitTable } from './reduced-levels.js';
+import { sharedReducedSpectrum } from '../transmon/reduced-spectrum.js';
 import type { Interval } from './intervals.js';
 
 export interface PlanEdge {
@@ -43,7 +45,7 @@ export interface PlanContext {
   qubits: QubitLayout[];
   index: Map<string, number>;
   transmons: Transmon[];
-  tables: QubitTable[];
+  tables: SpectrumTable[];
   /** Neighbours of each qubit (indices, ascending). */
   neighbours: number[][];
   edges: PlanEdge[];
@@ -64,19 +66,29 @@ export interface PlanContext {
   pair(edge: number): CoupledPair;
 }
 
+/** Chips of at least this many qubits fill their QubitTables from the reduced spectrum (./reduced-levels.ts). */
+export const REDUCED_TABLES_FROM = 128;
+
 export interface ContextOptions {
   table?: Partial<QubitTableOptions>;
   /** Called once per qubit while the spectra are tabulated (progress bars). */
   onQubit?: () => void;
+  /** The transmons, when the caller has them already (default: resolved from the layout). */
+  transmons?: Transmon[];
+  /** Another spectrum table per qubit (default: a QubitTable, from the reduced spectrum from REDUCED_TABLES_FROM qubits on). */
+  tableFor?: (transmon: Transmon, index: number) => SpectrumTable;
 }
 
 export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {}, graph: ChipGraph = buildChipGraph(layout)): PlanContext {
   const n = layout.qubits.length;
   const ids = layout.qubits.map((q) => q.id);
   const index = new Map(ids.map((id, i) => [id, i]));
-  const transmons = layout.qubits.map((q) => Transmon.fromLayout(q));
-  const tables = transmons.map((t) => {
-    const table = new QubitTable(t, options.table);
+  const transmons = options.transmons ?? layout.qubits.map((q) => Transmon.fromLayout(q));
+  // Large chips read their tables' grid values from the reduced spectrum (built once, ~40 ms);
+  // small ones solve their 32 points per qubit directly (cheaper than building that table).
+  const reduced = n >= REDUCED_TABLES_FROM ? sharedReducedSpectrum() : null;
+  const tables = transmons.map((t, i) => {
+    const table = options.tableFor ? options.tableFor(t, i) : reduced ? reducedQubitTable(t, reduced, options.table) : new QubitTable(t, options.table);
     options.onQubit?.();
     return table;
   });

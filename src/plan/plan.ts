@@ -14,7 +14,7 @@
 import type { ChipLayout } from '../layout/types.js';
 import type { ChipGraph } from '../chip/graph.js';
 import { NO_PROFILE, type StageProfiler } from '../util/profile.js';
-import { buildPlanContext, type PlanContext } from './context.js';
+import { buildPlanContext, type ContextOptions, type PlanContext } from './context.js';
 import { calibratedZzScale, crowding, type Crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
 import { planEdge, type EdgePlan } from './interaction/plan-edge.js';
@@ -56,6 +56,8 @@ export interface PlanHooks {
   profiler?: StageProfiler;
   /** Progress of a stage: called with (stage, done, total). */
   progress?: (stage: string, done: number, total: number) => void;
+  /** Transmons and spectrum tables given by the caller (src/yield re-plans drawn chips with them). */
+  context?: Pick<ContextOptions, 'transmons' | 'tableFor'>;
 }
 
 export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks: PlanHooks = {}, graph?: ChipGraph): ChipPlan {
@@ -64,7 +66,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   const n = layout.qubits.length;
   let tabulated = 0;
   const ctx = profiler.time('spectra', () =>
-    buildPlanContext(layout, { table: options.table, onQubit: () => hooks.progress?.('spectra', ++tabulated, n) }, graph),
+    buildPlanContext(layout, { table: options.table, onQubit: () => hooks.progress?.('spectra', ++tabulated, n), ...hooks.context }, graph),
   );
   const parking = profiler.time('parking', () => assignParking(ctx, options));
   hooks.progress?.('parking', 1, 1);

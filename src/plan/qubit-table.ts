@@ -62,6 +62,60 @@ export function emptyTableState(): TableState {
   return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };
 }
 
+/**
+ * What the planner's stages ask of a tabulated spectrum (QubitTable's public face). Other
+ * implementations may stand in (src/yield/sampled-spectrum.ts answers it from the reduced
+ * spectrum for chips drawn with fabrication spread).
+ */
+export type SpectrumTable = Pick<
+  QubitTable,
+  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxNoiseRate' | 'fluxNoiseRateOf' | 'f01ForF12' | 'f01ForLevel'
+>;
+
+/**
+ * The levels and matrix elements of a transmon at one E_J, as a table's grid point needs them:
+ * E_k - E_0 (k = 1..5), their slopes d(E_k - E_0)/dE_J (Hellmann-Feynman), and |<i|n|k>|.
+ */
+export interface LevelPoint {
+  levels: Float64Array;
+  slopes: Float64Array;
+  n01: number;
+  n03: number;
+  n12: number;
+  n23: number;
+  n05: number;
+  n14: number;
+}
+
+/** Fills `out` for a transmon of charging energy ecGHz at E_J = ejGHz (charge cutoff nCut). */
+export type LevelSource = (ecGHz: number, ejGHz: number, nCut: number, out: LevelPoint) => void;
+
+export function emptyLevelPoint(): LevelPoint {
+  return { levels: new Float64Array(5), slopes: new Float64Array(5), n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0 };
+}
+
+const exactCharge = new Float64Array(36);
+const exactCos = new Float64Array(36);
+
+/** The default source: the transmon stage's exact parity-block eigenbasis (src/transmon/parity-eigenbasis.ts). */
+export const exactLevelSource: LevelSource = (ecGHz, ejGHz, nCut, out) => {
+  const b = parityEigenbasis(ecGHz, ejGHz, 6, nCut, true);
+  chargeMatrixFromParity(b, exactCharge);
+  cosPhiMatrixFromParity(b, exactCos);
+  const e = b.energies;
+  for (let p = 1; p <= LEVEL_CHANNELS; p++) {
+    out.levels[p - 1] = e[p] - e[0];
+    out.slopes[p - 1] = -(exactCos[p * 6 + p] - exactCos[0]);
+  }
+  const n = (i: number, j: number) => Math.abs(exactCharge[i * 6 + j]);
+  out.n01 = n(0, 1);
+  out.n03 = n(0, 3);
+  out.n12 = n(1, 2);
+  out.n23 = n(2, 3);
+  out.n05 = n(0, 5);
+  out.n14 = n(1, 4);
+};
+
 /** Channels: 0-4 E_1..E_5 - E_0, 5 n01, 6 n03, 7 n12, 8 n23, 9 n05, 10 n14. */
 const CHANNELS = 11;
 const LEVEL_CHANNELS = 5;
@@ -91,7 +145,11 @@ export class QubitTable {
   private readonly levelSlopes: Float64Array[] = [];
   private readonly dw12: Float64Array;
 
-  constructor(transmon: Transmon, options: Partial<QubitTableOptions> = {}) {
+  /**
+   * `source` gives the levels at each grid point (default: exact eigen solves; src/yield passes
+   * the reduced spectrum, src/transmon/reduced-spectrum.ts, for chips drawn by the thousand).
+   */
+  constructor(transmon: Transmon, options: Partial<QubitTableOptions> = {}, source: LevelSource = exactLevelSource) {
     const o = { ...QUBIT_TABLE_DEFAULTS, ...options };
     if (!(Number.isInteger(o.points) && o.points >= 8)) throw new RangeError(`QubitTable: points must be an integer >= 8, got ${o.points}`);
     this.transmon = transmon;
@@ -103,28 +161,22 @@ export class QubitTable {
     this.v = new Float64Array(CHANNELS * this.m);
     this.dv = new Float64Array(CHANNELS * this.m);
     const m = this.m;
-    const ch = new Float64Array(36);
-    const cs = new Float64Array(36);
+    const point = emptyLevelPoint();
     for (let k = 0; k < m; k++) {
       const u = this.h > 0 ? this.uMin + k * this.h : 1;
       const ej = u * u * ejs;
-      const b = parityEigenbasis(transmon.ecGHz, ej, 6, transmon.chargeCutoff, true);
-      chargeMatrixFromParity(b, ch);
-      cosPhiMatrixFromParity(b, cs);
-      const e = b.energies;
+      source(transmon.ecGHz, ej, transmon.chargeCutoff, point);
       const dEjdu = 2 * u * ejs;
-      // Hellmann-Feynman: dE_m/dE_J = -<m|cos phi|m>
       for (let p = 1; p <= LEVEL_CHANNELS; p++) {
-        this.v[(p - 1) * m + k] = e[p] - e[0];
-        this.dv[(p - 1) * m + k] = -(cs[p * 6 + p] - cs[0]) * dEjdu;
+        this.v[(p - 1) * m + k] = point.levels[p - 1];
+        this.dv[(p - 1) * m + k] = point.slopes[p - 1] * dEjdu;
       }
-      const n = (i: number, j: number) => Math.abs(ch[i * 6 + j]);
-      this.v[5 * m + k] = n(0, 1);
-      this.v[6 * m + k] = n(0, 3);
-      this.v[7 * m + k] = n(1, 2);
-      this.v[8 * m + k] = n(2, 3);
-      this.v[9 * m + k] = n(0, 5);
-      this.v[10 * m + k] = n(1, 4);
+      this.v[5 * m + k] = point.n01;
+      this.v[6 * m + k] = point.n03;
+      this.v[7 * m + k] = point.n12;
+      this.v[8 * m + k] = point.n23;
+      this.v[9 * m + k] = point.n05;
+      this.v[10 * m + k] = point.n14;
     }
     for (let c = LEVEL_CHANNELS; c < CHANNELS; c++) finiteDifferenceSlopes(this.v, this.dv, c * m, m, this.h);
     const spec = transmon.coherenceSpec;
@@ -268,12 +320,38 @@ export class QubitTable {
   }
 
   /** Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). */
+  /**
+   * Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). The last few
+   * answers are remembered (the search asks for the same points again and again); a remembered
+   * answer is the same cell and t the inversion gives.
+   */
   private locate(fGHz: number): void {
+    const f = this.locF;
+    for (let k = 0; k < LOCATE_MEMO; k++) {
+      if (f[k] === fGHz) {
+        this.cell = this.locCell[k];
+        this.t = this.locT[k];
+        return;
+      }
+    }
     const r = invertCell(this.v, this.dv, this.h, fGHz, this.m);
     this.cell = r.cell;
     this.t = r.t;
+    const k = this.locNext;
+    this.locNext = (k + 1) % LOCATE_MEMO;
+    f[k] = fGHz;
+    this.locCell[k] = r.cell;
+    this.locT[k] = r.t;
   }
+
+  private readonly locF = new Float64Array(LOCATE_MEMO).fill(NaN);
+  private readonly locCell = new Int32Array(LOCATE_MEMO);
+  private readonly locT = new Float64Array(LOCATE_MEMO);
+  private locNext = 0;
 }
+
+/** Remembered answers of QubitTable.locate. */
+const LOCATE_MEMO = 6;
 
 /**
  * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples

@@ -1,5 +1,6 @@
 /** The transmon stage's public API (re-exports only). */
-export { Transmon, type TransmonEigenbasis, type TransmonOptions } from './transmon.js';
+export { Transmon, type TransmonEigenbasis, type TransmonOptions, type SweetSpotLevels } from './transmon.js';
+export { ReducedSpectrum, sharedReducedSpectrum, REDUCED_SPECTRUM_DEFAULTS, type ReducedState, type ReducedChannel } from './reduced-spectrum.js';
 export { resolveTransmon, RESOLVE_DEFAULTS, type ResolveOptions } from './resolve.js';
 export { spectrumAt, SPECTRUM_DEFAULTS, type SpectrumPoint, type TransmonParams } from './spectrum.js';
 export { tunableRange, type TunableRange } from './tunable-range.js';

@@ -40,6 +40,20 @@ export interface TransmonOptions {
   coherence?: CoherenceOptions;
   /** Options of resolveTransmon (used by fromLayout). */
   resolve?: ResolveOptions;
+  /**
+   * The tunable range when the caller already has it (e.g. from the reduced spectrum,
+   * src/transmon/reduced-spectrum.ts, for chips drawn by the thousand); default: solved here.
+   */
+  range?: SweetSpotLevels;
+}
+
+/** f01, f12 and the anharmonicity at the two sweet spots. */
+export interface SweetSpotLevels {
+  fMaxGHz: number;
+  fMinGHz: number;
+  anharmonicityMaxGHz: number;
+  f12MaxGHz: number;
+  f12MinGHz: number;
 }
 
 /** A transmon's eigenbasis at one flux, in the form coupled models need. */
@@ -100,6 +114,10 @@ export class Transmon {
     this.coherenceSpec = options.coherenceSpec;
     this.source = options.source;
     this.coherenceOptions = { ...options.coherence };
+    if (options.range) {
+      ({ fMaxGHz: this.fMaxGHz, anharmonicityMaxGHz: this.anharmonicityMaxGHz, fMinGHz: this.fMinGHz, f12MaxGHz: this.f12MaxGHz, f12MinGHz: this.f12MinGHz } = options.range);
+      return;
+    }
     const top = spectrumAt(params, 0, { chargeCutoff: this.chargeCutoff });
     const bottom = spectrumAt(params, 0.5, { chargeCutoff: this.chargeCutoff });
     this.fMaxGHz = top.f01GHz;

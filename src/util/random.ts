@@ -77,11 +77,43 @@ export class Random {
     return u * m;
   }
 
+  /**
+   * The stream of item `index` of a run with seed `seed` (e.g. one Monte Carlo sample): it depends
+   * on the pair only, never on which thread or slice computes the item or in which order. The
+   * 128-bit xoshiro state is two SplitMix64 outputs (Steele, Lea and Flood, OOPSLA 2014) from the
+   * 64-bit key seed * 2^32 + index; SplitMix64's output function is a bijection of its counter,
+   * so distinct keys give distinct states. Both numbers are unsigned 32-bit integers.
+   */
+  static forStream(seed: number, index: number): Random {
+    if (!(Number.isInteger(seed) && seed >= 0 && seed <= 0xffffffff && Number.isInteger(index) && index >= 0 && index <= 0xffffffff)) {
+      throw new RangeError(`Random.forStream: seed and index must be integers in [0, 2^32), got ${seed}, ${index}`);
+    }
+    let x = (BigInt(seed) << 32n) | BigInt(index);
+    const next = (): bigint => {
+      x = (x + 0x9e3779b97f4a7c15n) & MASK64;
+      let z = x;
+      z = ((z ^ (z >> 30n)) * 0xbf58476d1ce4e5b9n) & MASK64;
+      z = ((z ^ (z >> 27n)) * 0x94d049bb133111ebn) & MASK64;
+      return z ^ (z >> 31n);
+    };
+    const a = next();
+    const b = next();
+    const r = new Random(0);
+    r.s0 = Number(a >> 32n);
+    r.s1 = Number(a & 0xffffffffn);
+    r.s2 = Number(b >> 32n);
+    r.s3 = Number(b & 0xffffffffn);
+    if ((r.s0 | r.s1 | r.s2 | r.s3) === 0) r.s0 = 1;
+    return r;
+  }
+
   /** A new independent stream derived from this one (for sharding work deterministically). */
   fork(): Random {
     return new Random(this.nextUint32());
   }
 }
+
+const MASK64 = 0xffffffffffffffffn;
 
 function rotl(x: number, k: number): number {
   return (x << k) | (x >>> (32 - k));

@@ -9,6 +9,9 @@
  *       run() { ... },            // one call; vary its inputs so nothing is cached between calls
  *     };
  *
+ * A benchmark with `runs` may return a promise from run() (worker threads, child processes): each
+ * call is then timed until it settles.
+ *
  * Method: warm up for ~0.3 s (JIT), then time batches of calls (each batch >= ~10 ms) for
  * ~1.5 s or at least 7 batches; report the median and the minimum of the per-call times over
  * batches. Long benchmarks (whole-chip plans, seconds per call) set `runs` instead: `warmup`

@@ -15,8 +15,9 @@ describe('generateLayout', () => {
       const t = q.transmon;
       expect(t.kind).toBe('frequencies');
       if (t.kind !== 'frequencies') continue;
-      expect(t.fMaxGHz).toBeGreaterThanOrEqual(4.5);
-      expect(t.fMaxGHz).toBeLessThanOrEqual(7);
+      // the documented range of maximum frequencies (README, fluxlane generate)
+      expect(t.fMaxGHz).toBeGreaterThanOrEqual(4.9);
+      expect(t.fMaxGHz).toBeLessThanOrEqual(6.6);
       expect(-t.anharmonicityGHz).toBeGreaterThanOrEqual(0.18);
       expect(-t.anharmonicityGHz).toBeLessThanOrEqual(0.26);
       expect(t.asymmetry).toBeGreaterThanOrEqual(0.2);
@@ -26,6 +27,7 @@ describe('generateLayout', () => {
       expect(q.fluxNoisePhi0).toBeGreaterThanOrEqual(1.5e-6);
       expect(q.fluxNoisePhi0).toBeLessThanOrEqual(5e-6);
       expect(q.readoutGHz! - t.fMaxGHz).toBeGreaterThan(0.3);
+      for (const d of q.tls) expect(d.widthGHz).toBeLessThanOrEqual(0.002);
     }
     for (const c of layout.couplings) {
       expect(c.gGHz).toBeGreaterThanOrEqual(0.008);
@@ -33,12 +35,30 @@ describe('generateLayout', () => {
     }
   });
 
-  it('puts coupled neighbours in different frequency groups, several hundred MHz apart', () => {
-    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 12, cols: 12, seed: 5 })), 'g.yaml');
+  it.each([['square', 12, 12], ['heavy-hex', 4, 4]] as const)('%s %i x %i: coupled neighbours sit in different groups over 1.2 GHz apart; qubits sharing a neighbour in one group on different levels', (kind, rows, cols) => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind, rows, cols, seed: 5 })), 'g.yaml');
     const fMax = new Map(layout.qubits.map((q) => [q.id, q.transmon.kind === 'frequencies' ? q.transmon.fMaxGHz : NaN]));
     const gaps = layout.couplings.map((c) => Math.abs(fMax.get(c.a)! - fMax.get(c.b)!));
-    // group centres 850 MHz apart, jitter +-100 MHz and 30 MHz normal scatter: the smallest gap stays well above 400 MHz
-    expect(Math.min(...gaps)).toBeGreaterThan(0.4);
+    // group bands: 6.42-6.60 and 4.90-5.08 GHz
+    expect(Math.min(...gaps)).toBeGreaterThan(1.2);
+    const neighbours = new Map<string, string[]>(layout.qubits.map((q) => [q.id, []]));
+    for (const c of layout.couplings) {
+      neighbours.get(c.a)!.push(c.b);
+      neighbours.get(c.b)!.push(c.a);
+    }
+    // levels 45 MHz apart, +-5 MHz jitter and 3 MHz normal scatter: next-nearest neighbours stay > 20 MHz apart
+    // (the planner detunes those closer than detuningNext0101 = 30 MHz)
+    let nnn = 0;
+    for (const [q, list] of neighbours) {
+      for (const s of list) {
+        for (const k of neighbours.get(s)!) {
+          if (k === q) continue;
+          nnn++;
+          expect(Math.abs(fMax.get(q)! - fMax.get(k)!)).toBeGreaterThan(0.02);
+        }
+      }
+    }
+    expect(nnn).toBeGreaterThan(100);
   });
 
   it('same seed -> byte-identical YAML; other seed -> different parameters, same structure', () => {

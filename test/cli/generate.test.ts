@@ -24,7 +24,7 @@ describe('fluxlane generate', () => {
     expect(r.code).toBe(0);
     expect(parseLayoutText(r.out, 'stdout').qubits).toHaveLength(21);
     const j = (await runFluxlane(['generate', 'heavy-hex', '--rows', '1', '--cols', '2', '--json'])).json();
-    expect(j).toMatchObject({ lattice: 'heavy-hex', rows: 1, cols: 2, seed: 1, groups: 3, qubits: 21, couplings: 22, output: null });
+    expect(j).toMatchObject({ lattice: 'heavy-hex', rows: 1, cols: 2, seed: 1, groups: 2, qubits: 21, couplings: 22, output: null });
     expect(j.layout).toBe(r.out);
   });
 
@@ -40,10 +40,25 @@ describe('fluxlane generate', () => {
   });
 
   it('--name and --groups reach the file', async () => {
-    const r = await runFluxlane(['generate', 'square', '--rows', '2', '--cols', '2', '--name', 'Test chip', '--groups', '2']);
+    const r = await runFluxlane(['generate', 'square', '--rows', '2', '--cols', '2', '--name', 'Test chip', '--groups', '3']);
     const layout = parseLayoutText(r.out, 'x');
     expect(layout.chip).toBe('Test chip');
-    expect(r.out).toMatch(/^# Synthetic square chip made by fluxlane generate square --rows 2 --cols 2 --seed 1 --groups 2 --name "Test chip"\./);
+    expect(r.out).toMatch(/^# Synthetic square chip made by fluxlane generate square --rows 2 --cols 2 --seed 1 --groups 3 --name "Test chip"\./);
+  });
+
+  it.each([
+    ['square', '5', '5', 25],
+    ['square', '10', '10', 100],
+    ['heavy-hex', '3', '3', 68],
+  ])('a generated %s %s x %s chip with the default options plans with every rule holding (check --json exit 0)', async (kind, rows, cols, qubits) => {
+    const dir = tmp();
+    expect((await runFluxlane(['generate', kind, '--rows', rows, '--cols', cols, '-o', 'g.yaml'], { cwd: dir })).code).toBe(0);
+    const r = await runFluxlane(['check', 'g.yaml', '--json'], { cwd: dir });
+    const j = r.json();
+    expect(j.violations).toEqual([]);
+    expect(j.ok).toBe(true);
+    expect(r.code).toBe(0);
+    expect(j.summary.qubits).toBe(qubits);
   });
 
   it.each([

@@ -25,4 +25,15 @@ describe('startProgress', () => {
     bar.done();
     expect(io.err).toBe('\rwork [#...] 1/4 0.0 s\rwork [###.] 3/4 0.1 s\rwork [####] 4/4 0.2 s\r\x1b[K');
   });
+
+  it('a note given with tick is shown after the bar until another replaces it (the line is cleared after it)', () => {
+    const io = memoryIo({ stderrIsTTY: true });
+    let t = 0;
+    const bar = startProgress(io, 'yield', 2, { width: 2, intervalMs: 0, now: () => t });
+    bar.tick(1, 'yield 100.0 %');
+    t = 1000;
+    bar.tick(1, 'yield 50.0 %');
+    bar.done();
+    expect(io.err).toBe('\ryield [#.] 1/2 0.0 s yield 100.0 %\x1b[K\ryield [##] 2/2 1.0 s yield 50.0 %\x1b[K\r\x1b[K');
+  });
 });

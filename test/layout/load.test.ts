@@ -116,6 +116,13 @@ rules:
     expect(layout.rules).toEqual({ ...DEFAULT_RULES, zzLimitGHz: 1e-4, maxGateNs: 60, fluxBandwidthGHz: 0.5, marginFlagSpreads: 2 });
   });
 
+  it('a qubit may state its measured fabrication spreads: spread { rn, ec } (relative, 1 sigma)', () => {
+    const layout = parseLayoutText(withLine(9, '    fluxNoise: 3 uPhi0\n    spread: { rn: 0.015, ec: 0.008 }'), 'chip.yaml');
+    expect(layout.qubits[0].spread).toEqual({ rn: 0.015, ec: 0.008 });
+    expect(layout.qubits[1].spread).toBeUndefined();
+    expect(parseLayoutText(withLine(9, '    fluxNoise: 3 uPhi0\n    spread: { ec: 0 }'), 'c.yaml').qubits[0].spread).toEqual({ ec: 0 });
+  });
+
   it('merge keys share qubit defaults; explicit keys win', () => {
     const text = `chip: Merge
 defaults: &d { t1: 50 us, fluxNoise: 3 uPhi0, fMax: 6 GHz, anharmonicity: -200 MHz }
@@ -267,6 +274,16 @@ describe('parseLayoutText: bad input gives file:line:column: path: expected ...,
       [19, 'rules.maxGat'],
     ]);
     expect(error!.diagnostics[3].message).toBe('unknown key "maxGat" (did you mean "maxGate"?)');
+  });
+
+  it.each([
+    ['    spread: { rn: 0.5 }', 'chip.yaml:10:19: qubits.Q1.spread.rn: expected a relative spread (1 sigma) from 0 to 0.1, e.g. 0.015, found 0.5'],
+    ['    spread: { rn: -0.01 }', 'chip.yaml:10:19: qubits.Q1.spread.rn: expected a relative spread (1 sigma) from 0 to 0.1, e.g. 0.015, found -0.01'],
+    ['    spread: { rn: "2 %" }', 'chip.yaml:10:19: qubits.Q1.spread.rn: expected a relative spread (1 sigma) from 0 to 0.1, e.g. 0.015, found the text "2 %"'],
+    ['    spread: { rm: 0.01 }', 'chip.yaml:10:15: qubits.Q1.spread.rm: unknown key "rm" (did you mean "rn"?)'],
+    ['    spread: 0.02', 'chip.yaml:10:13: qubits.Q1.spread: expected a spread map { rn, ec } of relative spreads, found the number 0.02'],
+  ])('a bad spread is one message with its position: %s', (line, message) => {
+    expect(problems(withLine(9, `    fluxNoise: 3 uPhi0\n${line}`))).toEqual([message]);
   });
 
   it('a misspelt key is reported once, without follow-up "missing" messages', () => {

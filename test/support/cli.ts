@@ -5,7 +5,7 @@
  *   expect(r.code).toBe(0); expect(r.json().ok).toBe(true);
  */
 import { memoryIo } from '../../src/cli/io.js';
-import { runCli, COMMANDS, type CommandRegistration } from '../../src/cli/main.js';
+import { runCli, COMMANDS, type CommandEntry } from '../../src/cli/main.js';
 
 export interface CliRun {
   code: number;
@@ -16,7 +16,7 @@ export interface CliRun {
 
 export async function runFluxlane(
   argv: string[],
-  options: { cwd?: string; env?: Record<string, string>; stderrIsTTY?: boolean; commands?: readonly CommandRegistration[] } = {},
+  options: { cwd?: string; env?: Record<string, string>; stderrIsTTY?: boolean; commands?: readonly CommandEntry[] } = {},
 ): Promise<CliRun> {
   const io = memoryIo({ cwd: options.cwd, env: options.env, stderrIsTTY: options.stderrIsTTY });
   const code = await runCli(argv, io, options.commands ?? COMMANDS);

@@ -140,7 +140,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): E
   const built: { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number }[] = [];
   for (const mover of [e.a, e.b]) {
     const partner = mover === e.a ? e.b : e.a;
-    const res = pairResonances(ctx.transmons[mover], ctx.transmons[partner], ec.states[partner].flux, e.gChargeGHz);
+    const res = crossingsOf(ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz);
     for (const crossing of ['11-20', '11-02'] as const) {
       const built1 = evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs);
       reports.push(built1.report);
@@ -246,7 +246,7 @@ function evaluateOption(
   const feasible = ev.findings.length === 0;
   // t_CZ of the error estimate (banner): the duration model's slot plus the two planning ramps,
   // which the error estimate counts on top of the speed limit
-  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev.durationNs + 2 * rampNs);
+  const score = estimateError(ec, scenario, res.moverFlux, moverAt.df01dFluxGHz, parkedInfo, ev.durationNs + 2 * rampNs);
   const report: OptionReport = {
     mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
     note: feasible
@@ -292,7 +292,7 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
           parked.delete(P);
           continue;
         }
-        const st = exactTransitions(ctx.transmons[P], x);
+        const st = transitionsOf(ctx, P, x);
         parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
         const trial = evaluateGate(ctx, scenario);
         if (clears(trial)) {
@@ -309,7 +309,9 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
           parked.set(P, before);
           parkedInfo.push(beforeInfo);
         }
-        ev = evaluateGate(ctx, scenario);
+        // Every trial since `ev` was computed has been undone, so the scenario is the one `ev`
+        // describes again (unless an earlier point of P could not be put back).
+        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario);
         unmovable.push(
           search.points.length === 0
             ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
@@ -322,17 +324,18 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
   return { evaluation: ev, unmovable };
 }
 
-function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], durationNs: number): number {
+function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, slopeA: number, parked: readonly ParkedSpectator[], durationNs: number): number {
   const { ctx } = ec;
   const tA = ctx.transmons[s.mover];
   const tB = ctx.transmons[s.partner];
-  const rate = (t: typeof tA, flux: number) => {
+  // (the flux slopes where they are known already: the same numbers coherence() would compute)
+  const rate = (t: typeof tA, flux: number, slope?: number) => {
     if (!t.coherenceSpec) return { g1: 0, gphi: 0 };
-    const c = t.coherence(flux);
+    const c = t.coherence(flux, slope !== undefined && Number.isFinite(slope) ? slope : undefined);
     return { g1: 1 / c.t1Ns, gphi: Number.isFinite(c.tphiNs) ? 1 / c.tphiNs : 0 };
   };
-  const a = rate(tA, fluxA);
-  const b = rate(tB, ec.states[s.partner].flux);
+  const a = rate(tA, fluxA, slopeA);
+  const b = rate(tB, ec.states[s.partner].flux, ec.states[s.partner].df01dFluxGHz);
   const hold = 1 / (2 * s.crossingCouplingGHz);
   let err = 0.4 * durationNs * (a.g1 + a.gphi + b.g1 + b.gphi);
   err += 0.25 * hold * (s.crossing === '11-20' ? a.g1 : b.g1);
@@ -341,6 +344,35 @@ function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: 
     err += 0.4 * durationNs * r.gphi + PARKED_PENALTY;
   }
   return err;
+}
+
+/**
+ * Memos of exact results the interaction plan asks for again and again: the crossings of a mover
+ * with a partner at one parking flux (every ramp of the ladder and every repair trial of an edge
+ * asks for the same ones), and a spectator's exact transitions at a candidate point. Keyed by the
+ * context, so they last as long as the chip's planning does; the values are those the exact calls
+ * give, so plans do not change.
+ */
+const crossingMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof pairResonances>>>();
+const transitionMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof exactTransitions>>>();
+const CZ_CROSSINGS = ['11-20', '11-02'] as const;
+
+function crossingsOf(ctx: PlanContext, mover: number, partner: number, partnerFlux: number, gChargeGHz: number): ReturnType<typeof pairResonances> {
+  let memo = crossingMemo.get(ctx);
+  if (!memo) crossingMemo.set(ctx, (memo = new Map()));
+  const key = `${mover},${partner},${partnerFlux},${gChargeGHz}`;
+  let hit = memo.get(key);
+  if (!hit) memo.set(key, (hit = pairResonances(ctx.transmons[mover], ctx.transmons[partner], partnerFlux, gChargeGHz, CZ_CROSSINGS)));
+  return hit;
+}
+
+function transitionsOf(ctx: PlanContext, q: number, fGHz: number): ReturnType<typeof exactTransitions> {
+  let memo = transitionMemo.get(ctx);
+  if (!memo) transitionMemo.set(ctx, (memo = new Map()));
+  const key = `${q},${fGHz}`;
+  let hit = memo.get(key);
+  if (!hit) memo.set(key, (hit = exactTransitions(ctx.transmons[q], fGHz)));
+  return hit;
 }
 
 function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly OptionReport[], partner: number): string {

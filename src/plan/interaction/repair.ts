@@ -109,11 +109,17 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
   }
   const affected = near[q].filter((k) => k !== edge);
   const before = affected.filter((k) => !plans[k].feasible).length;
-  const replanned = affected.map((k) => planEdge(ec, k));
-  const after = replanned.filter((p) => !p.feasible).length;
-  if (after > before) {
-    undo();
-    return false;
+  // Re-plan the nearby edges, stopping as soon as more of them fail than before (the move is
+  // then undone whatever the rest give).
+  const replanned: EdgePlan[] = [];
+  let after = 0;
+  for (const k of affected) {
+    const p = planEdge(ec, k);
+    replanned.push(p);
+    if (!p.feasible && ++after > before) {
+      undo();
+      return false;
+    }
   }
   plans[edge] = first;
   affected.forEach((k, j) => (plans[k] = replanned[j]));

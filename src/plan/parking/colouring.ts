@@ -23,36 +23,90 @@ export function idleConflictGraph(ctx: PlanContext): UndirectedGraph {
   return g;
 }
 
-/** DSATUR colour of every node of `graph` (colour 0, 1, ...), in the graph's node order for ties. */
+/**
+ * DSATUR colour of every node of `graph` (colour 0, 1, ...), in the graph's node order for ties.
+ * The uncoloured node to colour next is the one with the most distinct colours among its
+ * neighbours, then the most uncoloured neighbours, then the first in node order; a heap with
+ * lazy entries finds it in O(log n) (the same choice, step by step, as scanning every node).
+ */
 export function dsaturColouring(graph: UndirectedGraph): Map<string, number> {
   const nodes = graph.nodes();
-  const order = new Map(nodes.map((n, k) => [n, k]));
-  const colour = new Map<string, number>();
-  const seen = new Map<string, Set<number>>(nodes.map((n) => [n, new Set<number>()]));
-  const uncolouredDegree = new Map<string, number>(nodes.map((n) => [n, graph.degree(n)]));
-  for (let step = 0; step < nodes.length; step++) {
-    let best: string | undefined;
-    for (const n of nodes) {
-      if (colour.has(n)) continue;
-      if (best === undefined) {
-        best = n;
-        continue;
-      }
-      const s = seen.get(n)!.size - seen.get(best)!.size;
-      const d = uncolouredDegree.get(n)! - uncolouredDegree.get(best)!;
-      if (s > 0 || (s === 0 && (d > 0 || (d === 0 && order.get(n)! < order.get(best)!)))) best = n;
+  const n = nodes.length;
+  const index = new Map(nodes.map((node, k) => [node, k]));
+  const neighbours: number[][] = nodes.map((node) => graph.neighbors(node).map((m) => index.get(m)!));
+  const colourOf = new Int32Array(n).fill(-1);
+  const seen: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
+  const uncolouredDegree = Int32Array.from(neighbours, (list) => list.length);
+  const heap = new LazyMaxHeap();
+  for (let k = 0; k < n; k++) heap.push(0, uncolouredDegree[k], k);
+  for (let step = 0; step < n; step++) {
+    let k = -1;
+    while (k < 0) {
+      const [sat, deg, node] = heap.pop();
+      if (colourOf[node] < 0 && sat === seen[node].size && deg === uncolouredDegree[node]) k = node;
     }
-    const node = best!;
-    const used = seen.get(node)!;
+    const used = seen[k];
     let c = 0;
     while (used.has(c)) c++;
-    colour.set(node, c);
-    graph.forEachNeighbor(node, (m) => {
-      seen.get(m)!.add(c);
-      uncolouredDegree.set(m, uncolouredDegree.get(m)! - 1);
-    });
+    colourOf[k] = c;
+    for (const m of neighbours[k]) {
+      seen[m].add(c);
+      uncolouredDegree[m]--;
+      if (colourOf[m] < 0) heap.push(seen[m].size, uncolouredDegree[m], m);
+    }
   }
-  return colour;
+  return new Map(nodes.map((node, k) => [node, colourOf[k]]));
+}
+
+/** Max-heap of (saturation, degree, node) by saturation, then degree, then the lower node index. */
+class LazyMaxHeap {
+  private readonly sat: number[] = [];
+  private readonly deg: number[] = [];
+  private readonly node: number[] = [];
+
+  private before(i: number, j: number): boolean {
+    return this.sat[i] > this.sat[j] || (this.sat[i] === this.sat[j] && (this.deg[i] > this.deg[j] || (this.deg[i] === this.deg[j] && this.node[i] < this.node[j])));
+  }
+
+  private swap(i: number, j: number): void {
+    [this.sat[i], this.sat[j]] = [this.sat[j], this.sat[i]];
+    [this.deg[i], this.deg[j]] = [this.deg[j], this.deg[i]];
+    [this.node[i], this.node[j]] = [this.node[j], this.node[i]];
+  }
+
+  push(sat: number, deg: number, node: number): void {
+    this.sat.push(sat);
+    this.deg.push(deg);
+    this.node.push(node);
+    let k = this.node.length - 1;
+    while (k > 0) {
+      const p = (k - 1) >> 1;
+      if (!this.before(k, p)) break;
+      this.swap(k, p);
+      k = p;
+    }
+  }
+
+  pop(): [number, number, number] {
+    const top: [number, number, number] = [this.sat[0], this.deg[0], this.node[0]];
+    const last = this.node.length - 1;
+    this.swap(0, last);
+    this.sat.pop();
+    this.deg.pop();
+    this.node.pop();
+    let k = 0;
+    for (;;) {
+      const l = 2 * k + 1;
+      const r = l + 1;
+      let m = k;
+      if (l < this.node.length && this.before(l, m)) m = l;
+      if (r < this.node.length && this.before(r, m)) m = r;
+      if (m === k) break;
+      this.swap(k, m);
+      k = m;
+    }
+    return top;
+  }
 }
 
 /** Frequency group of each qubit (by index). */

@@ -112,13 +112,14 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   for (const S of ctx.neighbours[A]) {
     if (S === s.partner) continue;
     const d = during(s, S);
-    const checks: [RuleName, number, string][] = [
-      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
+    // (each message is built only for a finding)
+    const checks: [RuleName, number, () => string][] = [
+      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), () => `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
+      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
     ];
     for (const [rule, value, text] of checks) {
-      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
+      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text()}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
     }
   }
   for (const p of ctx.nextNearestOf[A]) {
@@ -218,12 +219,13 @@ function sweep(
   const tq = ctx.tables[Q];
   const limit = r.sweptTransferLimit;
   const inside = (f: number | null): f is number => f !== null && f > lo + 1e-9 && f < hi - 1e-9;
-  const record = (rule: RuleName, other: number, at: number, g: number, blame: number, what: string) => {
+  // `what` names the crossing in the message; built only for a finding (most crossings pass).
+  const record = (rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string) => {
     const transfer = landauZenerTransfer(g, rate);
     swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
     if (transfer > limit) {
       add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
-        message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
+        message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
         details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
         blame });
     }
@@ -239,18 +241,18 @@ function sweep(
     const n12x = sx.n12;
     if (inside(x.f01GHz)) {
       const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
-      record('cz-swept-01-01', X, x.f01GHz, g, blame, `${id[X]} f01 (01-10 crossing)`);
+      record('cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
     }
     const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
     const f1120 = tq.f01ForF12(x.f01GHz);
     if (!skip1120 && inside(f1120)) {
       const g = G * tq.at(f1120, scratchA).n12 * n01x;
-      record('cz-swept-11-20', X, f1120, g, blame, `the 11-20 crossing with ${id[X]}`);
+      record('cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
     }
     if (!skip1102 && inside(x.f12GHz)) {
       const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
-      record('cz-swept-11-02', X, x.f12GHz, g, blame, `the 11-02 crossing with ${id[X]}`);
+      record('cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
     }
   }
   for (const p of ctx.nextNearestOf[Q]) {
@@ -268,10 +270,10 @@ function sweep(
       return { giGHz: gq, gkGHz: gk, fGHz: fs };
     });
     const g = Math.abs(mediatedExchange(fk, fk, mediators));
-    record('cz-swept-next-01-01', K, fk, g, isMover ? K : Q, `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+    record('cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
   }
   for (const t of ctx.qubits[Q].tls) {
     if (!inside(t.atGHz)) continue;
-    record('cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, `its defect`);
+    record('cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
   }
 }

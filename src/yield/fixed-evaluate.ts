@@ -1,0 +1,351 @@
+/**
+ * `fixed` mode: the nominal plan is kept, and a drawn chip is checked against it the way
+ * `fluxlane verify` checks a plan (src/plan/verify.ts), with the planner's own rule evaluations
+ * (evaluateIdle, evaluateGate, gatesConflict: src/plan/rules/idle-evaluate.ts,
+ * src/plan/rules/cz-evaluate.ts, src/plan/layers.ts):
+ *
+ * - each qubit is retuned (its flux changes) to the plan's parking frequency, and fails the
+ *   `window` rule when its drawn tunable range no longer reaches it, or only below its planning
+ *   range (E_J / E_C < 30);
+ * - each edge keeps its mover, its crossing (11-20 or 11-02), its ramp time and its spectators'
+ *   temporary frequencies; its interaction point is that crossing on the drawn chip (a CZ is
+ *   calibrated where its crossing is, which moves with the drawn anharmonicities), and it fails
+ *   `cz-range` when the crossing is out of reach or too close to the end of the mover's range;
+ * - a designed gate's pulse is not kept (it is re-tuned on the fabricated chip): every CZ is
+ *   checked with the plan's ramp time, as verify checks a plan without pulses;
+ * - gates keep their layers, and gates of one layer must not conflict.
+ *
+ * Fast paths, each exact where it decides (test/yield/fixed-evaluate.test.ts compares every
+ * finding with verifyPlan on the same drawn chip written as a layout):
+ * - spectra from the reduced table (src/transmon/reduced-spectrum.ts) instead of eigen solves;
+ * - static ZZ: the planner's second-order estimate (src/plan/zz-second-order.ts, narrow
+ *   resonances included) times the nominal plan's per-edge calibration against the exact ZZ
+ *   (measured within 1.4e-4 relative of the exact ZZ on drawn 10 x 10 chips at 2-10 % spread:
+ *   in fixed mode the qubits sit at the same frequencies, only E_C and G move); where that
+ *   estimate exceeds `zzExactAbove` (85 %) of the limit the exact dressed ZZ (CoupledPair) is
+ *   computed and used instead;
+ * - layer conflicts: only pairs of same-layer gates that share a qubit or whose moved qubits are
+ *   coupled or next-nearest neighbours can conflict (src/plan/layers.ts), so only those pairs are
+ *   tested.
+ */
+import type { PlanContext } from '../plan/context.js';
+import { calibratedZzScale } from '../plan/crowding.js';
+import type { ExactQubitState } from '../plan/exact-state.js';
+import { fromHz, ghz } from '../plan/format.js';
+import type { EdgePlan, ParkedSpectator } from '../plan/interaction/plan-edge.js';
+import { gatesConflict, movedQubits, type MovedQubit } from '../plan/layers.js';
+import type { PlanInput } from '../plan/plan-read.js';
+import { emptyTableState } from '../plan/qubit-table.js';
+import { evaluateGate, type Crossing, type DuringGate, type GateScenario } from '../plan/rules/cz-evaluate.js';
+import type { Finding } from '../plan/rules/findings.js';
+import { evaluateIdle, exactStates, exactZz } from '../plan/rules/idle-evaluate.js';
+import { tuningRoomShortfall } from '../plan/rules/tuning-room.js';
+import { narrowResonanceZz, secondOrderZz } from '../plan/zz-second-order.js';
+import { pairResonances } from '../pair/resonances.js';
+import type { ReducedSpectrum } from '../transmon/reduced-spectrum.js';
+import type { Transmon } from '../transmon/transmon.js';
+import type { NominalChip } from './chip-model.js';
+import type { DrawnChip } from './draw.js';
+import { sampledContext } from './sampled-context.js';
+import type { SampledSpectrum } from './sampled-spectrum.js';
+
+export interface FixedOptions {
+  /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
+  zzExactAbove: number;
+}
+
+export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
+
+export interface FixedEdge {
+  /** Layout edge index. */
+  edge: number;
+  mover: number;
+  partner: number;
+  crossing: Crossing;
+  rampNs: number;
+  /** Spectators moved for the gate: qubit index and temporary frequency (GHz), by index. */
+  spectators: { qubit: number; fGHz: number }[];
+  layer: number;
+}
+
+/** The nominal plan in indices and GHz, with what the evaluation precomputes from it. */
+export interface FixedPlan {
+  parkingGHz: Float64Array;
+  /** By layout edge index. */
+  edges: FixedEdge[];
+  /** Same-layer gate pairs (layout edge indices) that can conflict. */
+  conflictCandidates: [number, number][];
+  /** Nominal per-edge factor of the second-order ZZ estimate (exact / estimate at the plan's parking). */
+  zzScale: Float64Array;
+}
+
+/** The plan (as `fluxlane verify` reads it) in the form the evaluation uses. */
+export function fixedPlan(chip: NominalChip, plan: PlanInput): FixedPlan {
+  const ctx = chip.ctx;
+  const parkingGHz = Float64Array.from(ctx.ids, (q) => fromHz(plan.qubits.get(q)!.parkingFrequency));
+  const byPair = new Map(ctx.edges.map((e) => [pairKey(ctx.ids[e.a], ctx.ids[e.b]), e.index]));
+  const edges: FixedEdge[] = new Array(ctx.edges.length);
+  for (const pe of plan.edges) {
+    const k = byPair.get(pairKey(pe.qubits[0], pe.qubits[1]))!;
+    const e = ctx.edges[k];
+    const mover = ctx.index.get(pe.mover)!;
+    edges[k] = {
+      edge: k,
+      mover,
+      partner: mover === e.a ? e.b : e.a,
+      crossing: pe.crossing,
+      rampNs: pe.rampTime * 1e9,
+      spectators: Object.entries(pe.spectatorParking)
+        .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz) }))
+        .sort((a, b) => a.qubit - b.qubit),
+      layer: pe.layer,
+    };
+  }
+  const states = exactStates(ctx, parkingGHz);
+  const zzScale = calibratedZzScale(ctx, parkingGHz, exactZz(ctx, states));
+  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale };
+}
+
+/** Pairs of gates in one layer that share a qubit or whose moved qubits are coupled or next-nearest. */
+function conflictCandidates(ctx: PlanContext, edges: readonly FixedEdge[]): [number, number][] {
+  const touched = edges.map((e) => [e.mover, e.partner, ...e.spectators.map((s) => s.qubit)]);
+  const moved = edges.map((e) => [e.mover, ...e.spectators.map((s) => s.qubit)]);
+  const near = (x: number, y: number) => x === y || ctx.edgeBetween(x, y) >= 0 || ctx.nextNearestOf[x].some((p) => {
+    const pair = ctx.nextNearest[p];
+    return (pair.a === x ? pair.b : pair.a) === y;
+  });
+  const byLayer = new Map<number, number[]>();
+  for (const e of edges) byLayer.set(e.layer, [...(byLayer.get(e.layer) ?? []), e.edge]);
+  const out: [number, number][] = [];
+  for (const layer of [...byLayer.keys()].sort((a, b) => a - b)) {
+    const members = byLayer.get(layer)!;
+    for (let i = 0; i < members.length; i++) {
+      for (let j = i + 1; j < members.length; j++) {
+        const [a, b] = [members[i], members[j]];
+        const shares = touched[a].some((q) => touched[b].includes(q));
+        const close = moved[a].some((x) => moved[b].some((y) => near(x, y)));
+        if (shares || close) out.push([a, b]);
+      }
+    }
+  }
+  return out;
+}
+
+export interface FixedEvaluation {
+  /** Every rule broken, in evaluation order. */
+  violations: Finding[];
+  /** Edges whose static ZZ needed the exact computation. */
+  exactZzEdges: number;
+}
+
+/** Check drawn chip `drawn` against the nominal plan (see the banner). */
+export function evaluateFixed(
+  chip: NominalChip,
+  plan: FixedPlan,
+  drawn: DrawnChip,
+  table: ReducedSpectrum,
+  options: Partial<FixedOptions> = {},
+  reuse?: (SampledSpectrum | undefined)[],
+): FixedEvaluation {
+  const o = { ...FIXED_DEFAULTS, ...options };
+  const ctx = sampledContext(chip, drawn, table, reuse);
+  const n = ctx.n;
+  const parking = plan.parkingGHz;
+  // Exact-state stand-ins at the parking frequencies (null out of the tunable range).
+  const reached: (ExactQubitState | null)[] = new Array(n);
+  const states: ExactQubitState[] = new Array(n);
+  const tableStates = ctx.tables.map(() => emptyTableState());
+  for (let i = 0; i < n; i++) {
+    const t = ctx.transmons[i];
+    const f = parking[i];
+    const inRange = f >= t.fMinGHz - 1e-9 && f <= t.fMaxGHz + 1e-9;
+    const s = stateAt(ctx, table, i, Math.min(t.fMaxGHz, Math.max(t.fMinGHz, f)));
+    states[i] = s;
+    reached[i] = inRange ? s : null;
+    ctx.tables[i].at(s.f01GHz, tableStates[i]);
+  }
+  // Static ZZ: calibrated estimate, exact near the limit.
+  const limit = ctx.rules.zzLimitGHz;
+  const zz = new Float64Array(ctx.edges.length);
+  let exactZzEdges = 0;
+  for (const e of ctx.edges) {
+    const a = reached[e.a];
+    const b = reached[e.b];
+    if (!a || !b) {
+      zz[e.index] = NaN;
+      continue;
+    }
+    const sa = tableStates[e.a];
+    const sb = tableStates[e.b];
+    const est = plan.zzScale[e.index] * (secondOrderZz(sa, sb, e.gChargeGHz) + narrowResonanceZz(sa, sb, e.gChargeGHz));
+    if (Math.abs(est) > o.zzExactAbove * limit || !Number.isFinite(est)) {
+      zz[e.index] = ctx.pair(e.index).zz(a.flux, b.flux);
+      exactZzEdges++;
+    } else zz[e.index] = est;
+  }
+  const idle = evaluateIdle(ctx, parking, { states: reached, zzGHz: zz });
+  const violations: Finding[] = [...idle.violations];
+  const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
+  const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
+  for (const fe of plan.edges) {
+    const { mover, partner } = fe;
+    const edge = ctx.edges[fe.edge];
+    const key = edge.key;
+    const res = crossingOf(ctx, table, fe, states[partner]);
+    const range = ctx.ranges[mover];
+    const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
+    if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
+      const why = short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : '';
+      violations.push({ rule: 'cz-range', qubits: [ctx.ids[mover], ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key,
+        message: `${ctx.ids[mover]} cannot reach the ${fe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${why}` });
+      edgePlans[fe.edge] = stubPlan(fe.edge, mover, partner, fe.crossing);
+      continue;
+    }
+    const to = res.moverF01GHz;
+    const parked = new Map<number, DuringGate>();
+    const parkedInfo: ParkedSpectator[] = [];
+    for (const sp of fe.spectators) {
+      const q = sp.qubit;
+      const t = ctx.transmons[q];
+      if (!(sp.fGHz >= ctx.ranges[q].lo - 1e-9 && sp.fGHz <= t.fMaxGHz + 1e-9)) {
+        violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range` });
+        continue;
+      }
+      const st = stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz));
+      parked.set(q, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
+      parkedInfo.push({ qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' });
+    }
+    const scenario: GateScenario = {
+      edge: fe.edge, mover, partner, crossing: fe.crossing,
+      fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: res.moverF12GHz,
+      crossingCouplingGHz: res.couplingGHz, rampNs: fe.rampNs, spectatorRampNs: fe.rampNs, parking: during, parked,
+    };
+    const ev = evaluateGate(ctx, scenario);
+    // (the findings keep evaluateGate's `blame`, which no one here reads)
+    for (const f of ev.findings) violations.push(f);
+    const plan = stubPlan(fe.edge, mover, partner, fe.crossing);
+    plan.feasible = ev.findings.length === 0;
+    plan.crossingGHz = to;
+    plan.interactionGHz = to;
+    plan.moverInteractionFlux = res.moverFlux;
+    plan.moverF12AtInteractionGHz = res.moverF12GHz;
+    plan.crossingCouplingGHz = res.couplingGHz;
+    plan.rampNs = fe.rampNs;
+    plan.parked = parkedInfo;
+    plan.swept = ev.swept;
+    edgePlans[fe.edge] = plan;
+  }
+  // Layers: gates sharing one must not conflict (only the pairs that can).
+  const f12 = states.map((s) => s.f12GHz);
+  const moved = new Map<number, MovedQubit[]>();
+  const movedOf = (k: number) => {
+    let m = moved.get(k);
+    if (!m) {
+      m = movedQubits(ctx, edgePlans[k], f12, parking);
+      moved.set(k, m);
+    }
+    return m;
+  };
+  for (const [a, b] of plan.conflictCandidates) {
+    if (gatesConflict(ctx, edgePlans[a], movedOf(a), edgePlans[b], movedOf(b))) {
+      violations.push({ rule: 'layer-conflict', qubits: [ctx.ids[edgePlans[a].mover], ctx.ids[edgePlans[b].mover]], value: null, threshold: null, edge: ctx.edges[a].key,
+        message: `layer ${plan.edges[a].layer}: the gates on ${ctx.edges[a].key} and ${ctx.edges[b].key} share a qubit or a crossing and cannot run at the same time` });
+    }
+  }
+  // In evaluation order (idle rules, then edge by edge in layout order, then layers): the same
+  // findings as verify gives, which sorts them for people (src/plan/rules/findings.ts sortFindings).
+  return { violations, exactZzEdges };
+}
+
+/** f01 (= fGHz), flux and f12 of qubit i at f01 = fGHz inside its tunable range. */
+function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: number): ExactQubitState {
+  const t = ctx.transmons[i];
+  const rTop = t.ejsGHz / t.ecGHz;
+  const rBottom = Math.max(t.asymmetry * rTop, table.rMin);
+  const r = rTop <= table.rMax ? table.rFor('e1', fGHz / t.ecGHz, rBottom, rTop) : null;
+  if (r === null) return exactState(t, fGHz);
+  const s = table.at(r);
+  return {
+    f01GHz: fGHz,
+    flux: fluxOf(t, r / rTop),
+    f12GHz: t.ecGHz * (s.e2 - s.e1),
+    anharmonicityGHz: t.ecGHz * (s.e2 - 2 * s.e1),
+    df01dFluxGHz: NaN,
+    t1Ns: NaN,
+    tphiNs: NaN,
+    t2Ns: NaN,
+    sigmaGHz: NaN,
+  };
+}
+
+function exactState(t: Transmon, fGHz: number): ExactQubitState {
+  const flux = t.fluxForF01(fGHz);
+  const sp = t.spectrum(flux);
+  return { f01GHz: fGHz, flux, f12GHz: sp.f12GHz, anharmonicityGHz: sp.anharmonicityGHz, df01dFluxGHz: NaN, t1Ns: NaN, tphiNs: NaN, t2Ns: NaN, sigmaGHz: NaN };
+}
+
+function fluxOf(t: Transmon, s: number): number {
+  const d = t.asymmetry;
+  const x = Math.min(1, Math.max(d, s));
+  const c2 = Math.min(1, Math.max(0, (x * x - d * d) / (1 - d * d)));
+  return Math.acos(Math.sqrt(c2)) / Math.PI;
+}
+
+interface CrossingPoint {
+  moverFlux: number;
+  moverF01GHz: number;
+  moverF12GHz: number;
+  couplingGHz: number;
+}
+
+/**
+ * The edge's crossing on the drawn chip with the partner at `partner` (src/pair/resonances.ts):
+ * 11-20 where the mover's f12 meets the partner's f01, 11-02 where its f01 meets the partner's
+ * f12, on the mover's whole tunable branch; null out of reach. From the reduced table; the exact
+ * solve where the mover's range leaves the table.
+ */
+function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, partner: ExactQubitState): CrossingPoint | null {
+  const tm = ctx.transmons[fe.mover];
+  const tp = ctx.transmons[fe.partner];
+  const G = ctx.edges[fe.edge].gChargeGHz;
+  const rTop = tm.ejsGHz / tm.ecGHz;
+  const rBottom = tm.asymmetry * rTop;
+  const rp = partnerRatio(tp, table, partner);
+  if (rBottom < table.rMin || rTop > table.rMax || rp === null) {
+    const res = pairResonances(tm, tp, partner.flux, G)[fe.crossing];
+    if (!res) return null;
+    return { moverFlux: res.moverFlux, moverF01GHz: res.moverF01GHz, moverF12GHz: tm.spectrum(res.moverFlux).f12GHz, couplingGHz: res.couplingGHz };
+  }
+  const p = table.at(rp);
+  const pf01 = tp.ecGHz * p.e1;
+  const pf12 = tp.ecGHz * (p.e2 - p.e1);
+  const ec = tm.ecGHz;
+  // The exact inverse maps accept their targets within the tunable range up to round-off.
+  const slack = 1e-12 * Math.max(1, pf01) / ec;
+  const r = fe.crossing === '11-20' ? table.rFor('e12', pf01 / ec, rBottom, rTop, slack) : table.rFor('e1', pf12 / ec, rBottom, rTop, slack);
+  if (r === null) return null;
+  const m = table.at(r);
+  const coupling = fe.crossing === '11-20' ? G * m.n12 * p.n01 : G * m.n01 * p.n12;
+  return { moverFlux: fluxOf(tm, r / rTop), moverF01GHz: ec * m.e1, moverF12GHz: ec * (m.e2 - m.e1), couplingGHz: coupling };
+}
+
+/** E_J / E_C of the partner where it parks (null when that leaves the reduced table). */
+function partnerRatio(t: Transmon, table: ReducedSpectrum, s: ExactQubitState): number | null {
+  const d = t.asymmetry;
+  const c = Math.cos(Math.PI * s.flux);
+  const sn = Math.sin(Math.PI * s.flux);
+  const r = (t.ejsGHz * Math.sqrt(c * c + d * d * sn * sn)) / t.ecGHz;
+  return table.covers(r) ? r : null;
+}
+
+function pairKey(a: string, b: string): string {
+  return a < b ? `${a}\u0000${b}` : `${b}\u0000${a}`;
+}
+
+function stubPlan(edge: number, mover: number, partner: number, crossing: Crossing): EdgePlan {
+  return {
+    edge, mover, partner, crossing, feasible: false, crossingGHz: NaN, interactionGHz: NaN, moverInteractionFlux: NaN, moverF12AtInteractionGHz: NaN,
+    crossingCouplingGHz: NaN, speedLimitNs: NaN, gAtInteractionGHz: NaN, durationNs: NaN, rampNs: NaN, parked: [], swept: [], findings: [],
+    score: Infinity, reason: '', options: [],
+  };
+}

@@ -1,0 +1,73 @@
+/**
+ * What one drawn chip gave: whether it works, which rules it breaks (with how many findings
+ * each), which qubits and edges those findings name, the first finding's message (rules in
+ * catalogue order), and its cycle error when the plan states one. Plain data: it crosses worker
+ * threads and is stored in the slices of a sharded run (./part.ts).
+ */
+import type { PlanContext } from '../plan/context.js';
+import { COLLISION_RULES } from '../plan/rules/catalogue.js';
+import type { Finding } from '../plan/rules/findings.js';
+
+export interface SampleOutcome {
+  /** Sample index in the run. */
+  index: number;
+  ok: boolean;
+  /** Rules broken and their number of findings, in catalogue order (unknown rules last, by name). */
+  rules: [rule: string, findings: number][];
+  /** Qubit indices named by a finding, ascending. */
+  qubits: number[];
+  /** Edge indices (layout order) of the findings, ascending. */
+  edges: number[];
+  /** The message of the first finding in rule order; null when the chip works. */
+  reason: string | null;
+  /** The plan's error per cycle (replan mode, when the plan states it); null otherwise. */
+  cycleError: number | null;
+}
+
+const RANK = new Map<string, number>(COLLISION_RULES.map((r, k) => [r.name, k]));
+/** A rule's place in the catalogue (rules the catalogue does not hold come after all of it). */
+export const ruleRank = (rule: string): number => RANK.get(rule) ?? RANK.size;
+const rank = ruleRank;
+
+export function outcomeOf(ctx: PlanContext, index: number, findings: readonly Finding[], cycleError: number | null, extraFailure: { rule: string; message: string } | null = null): SampleOutcome {
+  const counts = new Map<string, number>();
+  const qubits = new Set<number>();
+  const edges = new Set<number>();
+  let first: Finding | undefined;
+  const edgeIndex = edgeIndexOf(ctx);
+  for (const f of findings) {
+    counts.set(f.rule, (counts.get(f.rule) ?? 0) + 1);
+    for (const q of f.qubits) {
+      const i = ctx.index.get(q);
+      if (i !== undefined) qubits.add(i);
+    }
+    if (f.edge !== undefined) {
+      const k = edgeIndex.get(f.edge);
+      if (k !== undefined) edges.add(k);
+    }
+    if (!first || rank(f.rule) < rank(first.rule)) first = f;
+  }
+  if (extraFailure) counts.set(extraFailure.rule, (counts.get(extraFailure.rule) ?? 0) + 1);
+  const rules = [...counts.entries()].sort((a, b) => rank(a[0]) - rank(b[0]) || (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0));
+  const ok = findings.length === 0 && !extraFailure;
+  return {
+    index,
+    ok,
+    rules,
+    qubits: [...qubits].sort((a, b) => a - b),
+    edges: [...edges].sort((a, b) => a - b),
+    reason: ok ? null : first ? first.message : extraFailure!.message,
+    cycleError,
+  };
+}
+
+const edgeIndexCache = new WeakMap<readonly unknown[], Map<string, number>>();
+
+function edgeIndexOf(ctx: PlanContext): Map<string, number> {
+  let m = edgeIndexCache.get(ctx.edges);
+  if (!m) {
+    m = new Map(ctx.edges.map((e) => [e.key, e.index]));
+    edgeIndexCache.set(ctx.edges, m);
+  }
+  return m;
+}

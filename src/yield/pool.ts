@@ -1,0 +1,99 @@
+/**
+ * Yield samples on worker threads, in the pattern of the gate stage's design pool
+ * (src/gate/design-pool.ts): each worker receives the run once (plain data: the layout, the plan
+ * kept, the spreads) and builds its own evaluator; then chunks of samples (row, from, to) are
+ * handed out one at a time to whichever worker is free, and their outcomes are put back in
+ * sample order. A worker that fails to start or dies rejects the whole call (the caller then runs
+ * in its own thread).
+ *
+ * Under tsx or vitest (this module is a .ts file) the workers start from
+ * yield-worker-from-source.mjs, which registers tsx's loader; the built package runs
+ * yield-worker.js.
+ */
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import type { SampleOutcome } from './outcome.js';
+import { rowSpreads, type YieldJob } from './job.js';
+import type { RunProgress } from './run.js';
+
+/** Threads used by default: the machine's cores, at most 8. */
+export function defaultYieldThreads(): number {
+  return Math.max(1, Math.min(8, availableParallelism()));
+}
+
+/** Samples per message: a fixed-mode sample takes milliseconds, a re-plan a good part of a second. */
+export function chunkSize(job: Pick<YieldJob, 'mode'>): number {
+  return job.mode === 'fixed' ? 16 : 1;
+}
+
+function spawnWorker(job: YieldJob): Worker {
+  const here = import.meta.url;
+  const typescript = here.endsWith('.ts');
+  return new Worker(new URL(typescript ? './yield-worker-from-source.mjs' : './yield-worker.js', here), { workerData: { job } });
+}
+
+interface Chunk {
+  row: number;
+  from: number;
+  to: number;
+}
+
+export async function runInWorkers(job: YieldJob, from: number, to: number, threads: number, progress?: RunProgress): Promise<SampleOutcome[][]> {
+  const rowCount = rowSpreads(job).length;
+  const size = chunkSize(job);
+  const chunks: Chunk[] = [];
+  for (let row = 0; row < rowCount; row++) for (let a = from; a < to; a += size) chunks.push({ row, from: a, to: Math.min(to, a + size) });
+  const rows: SampleOutcome[][] = Array.from({ length: rowCount }, () => new Array<SampleOutcome>(to - from));
+  const total = rowCount * (to - from);
+  const n = Math.max(1, Math.min(threads, chunks.length));
+  const workers: Worker[] = [];
+  let done = 0;
+  let doneRow0 = 0;
+  let ok0 = 0;
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let next = 0;
+      let finished = 0;
+      let failed = false;
+      const fail = (err: unknown): void => {
+        if (failed) return;
+        failed = true;
+        reject(err instanceof Error ? err : new Error(String(err)));
+      };
+      const give = (w: Worker): void => {
+        if (next >= chunks.length) return;
+        const id = next++;
+        w.postMessage({ id, chunk: chunks[id] });
+      };
+      for (let k = 0; k < n; k++) {
+        const w = spawnWorker(job);
+        workers.push(w);
+        w.on('message', (msg: { id: number; outcomes?: SampleOutcome[]; error?: string }) => {
+          if (!msg.outcomes) {
+            fail(new Error(`a yield worker failed: ${msg.error ?? 'no result'}`));
+            return;
+          }
+          const c = chunks[msg.id];
+          msg.outcomes.forEach((o, j) => (rows[c.row][c.from - from + j] = o));
+          done += msg.outcomes.length;
+          if (c.row === 0) {
+            doneRow0 += msg.outcomes.length;
+            ok0 += msg.outcomes.filter((o) => o.ok).length;
+          }
+          progress?.(done, total, ok0, doneRow0);
+          finished++;
+          if (finished === chunks.length) resolve();
+          else give(w);
+        });
+        w.on('error', fail);
+        w.on('exit', (code) => {
+          if (finished < chunks.length) fail(new Error(`a yield worker stopped (exit code ${code}) with ${chunks.length - finished} chunk(s) left`));
+        });
+        give(w);
+      }
+    });
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+  return rows;
+}

@@ -1,0 +1,190 @@
+/**
+ * A drawn transmon's tabulated spectrum, answered from the reduced spectrum
+ * (src/transmon/reduced-spectrum.ts) instead of new eigen solves: f01 = E_C e_1(r) with
+ * r = E_J(Phi) / E_C, and so on for every level and matrix element. It is the planner's
+ * SpectrumTable (src/plan/qubit-table.ts) with the same meaning point for point: the planning
+ * range runs from E_J / E_C = max(d E_JS, 30 E_C) / E_C up to the upper sweet spot, values are
+ * clamped to it, and the inverse maps answer null outside it. Building one costs a few
+ * arithmetic operations, so a Monte Carlo sample of a 100-qubit chip needs no eigen solve.
+ *
+ * Accuracy: that of the reduced table (relative ~1e-10 in the levels); QubitTable's own
+ * interpolation is good to ~1e-7 GHz, so both stand for the exact Transmon equally well
+ * (test/yield/sampled-spectrum.test.ts).
+ */
+import type { TableState } from '../plan/qubit-table.js';
+import { QUBIT_TABLE_DEFAULTS, type SpectrumTable } from '../plan/qubit-table.js';
+import { fluxNoiseDephasingRate } from '../transmon/coherence.js';
+import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
+import { emptyReducedState, type ReducedChannel, type ReducedSpectrum, type ReducedState } from '../transmon/reduced-spectrum.js';
+
+export class SampledSpectrum implements SpectrumTable {
+  fLowGHz = 0;
+  fMaxGHz = 0;
+  /** r = E_J / E_C at the bottom of the planning range and at the upper sweet spot. */
+  rLow = 0;
+  rTop = 0;
+  ecGHz = 0;
+  ejsGHz = 0;
+  asymmetry = 0;
+  private noiseFactor = 0;
+  private readonly red = emptyReducedState();
+  private readonly scratch: TableState = blankState();
+  /**
+   * Memos of `at` and `f01ForF12` by frequency (MEMO_SIZE entries each, replaced round-robin): a
+   * gate's rule evaluation asks for the same few points again and again (each neighbour's parking
+   * frequency, seen from each gate near it). Small arrays scanned in order beat a Map keyed by
+   * doubles here.
+   */
+  private readonly memoF = new Float64Array(MEMO_SIZE);
+  private readonly memoS: TableState[] = [];
+  private memoNext = 0;
+  private readonly memo12F = new Float64Array(MEMO_SIZE);
+  private readonly memo12V = new Float64Array(MEMO_SIZE);
+  private memo12Next = 0;
+
+  constructor(
+    private readonly table: ReducedSpectrum,
+    ecGHz: number,
+    ejsGHz: number,
+    asymmetry: number,
+    fluxNoisePhi0: number | undefined,
+    private readonly minEjOverEc: number = QUBIT_TABLE_DEFAULTS.minEjOverEc,
+  ) {
+    this.reset(ecGHz, ejsGHz, asymmetry, fluxNoisePhi0);
+  }
+
+  /** The same object for another transmon (a Monte Carlo run reuses one per qubit). */
+  reset(ecGHz: number, ejsGHz: number, asymmetry: number, fluxNoisePhi0: number | undefined): this {
+    const table = this.table;
+    this.ecGHz = ecGHz;
+    this.ejsGHz = ejsGHz;
+    this.asymmetry = asymmetry;
+    this.rTop = ejsGHz / ecGHz;
+    const sMin = Math.min(1, Math.max(asymmetry, (this.minEjOverEc * ecGHz) / ejsGHz));
+    this.rLow = sMin * this.rTop;
+    if (!table.covers(this.rLow) || !table.covers(this.rTop)) {
+      throw new RangeError(`SampledSpectrum: E_J/E_C from ${this.rLow} to ${this.rTop} leaves the reduced table [${table.rMin}, ${table.rMax}]`);
+    }
+    this.fLowGHz = ecGHz * table.value('e1', this.rLow);
+    this.fMaxGHz = ecGHz * table.value('e1', this.rTop);
+    this.noiseFactor = fluxNoisePhi0 !== undefined ? fluxNoiseDephasingRate(1, fluxNoisePhi0) : 0;
+    this.memoF.fill(NaN);
+    this.memo12F.fill(NaN);
+    this.memoNext = 0;
+    this.memo12Next = 0;
+    return this;
+  }
+
+  covers(fGHz: number): boolean {
+    return fGHz >= this.fLowGHz - 1e-12 && fGHz <= this.fMaxGHz + 1e-12;
+  }
+
+  /** State at f01 = fGHz (clamped to the planning range), written into `out`. */
+  at(fGHz: number, out: TableState = this.scratch): TableState {
+    const memoF = this.memoF;
+    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === fGHz) return copyState(this.memoS[k], out);
+    const ec = this.ecGHz;
+    const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
+    const s = this.table.at(r, this.red);
+    fillState(s, ec, this.rTop, out);
+    const k = this.memoNext;
+    this.memoNext = (k + 1) % MEMO_SIZE;
+    memoF[k] = fGHz;
+    this.memoS[k] = copyState(out, this.memoS[k] ?? blankState());
+    return out;
+  }
+
+  /** State at E_J / E_C = r (no clamping beyond the reduced table). */
+  atRatio(r: number, out: TableState = this.scratch): TableState {
+    fillState(this.table.at(r, this.red), this.ecGHz, this.rTop, out);
+    return out;
+  }
+
+  f12At(fGHz: number): number {
+    return this.at(fGHz).f12;
+  }
+
+  fluxAt(fGHz: number): number {
+    return this.fluxOfRatio(this.at(fGHz).ejRatio);
+  }
+
+  slopeAt(fGHz: number): number {
+    const st = this.at(fGHz);
+    return st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio));
+  }
+
+  fluxNoiseRate(fGHz: number): number {
+    return this.fluxNoiseRateOf(this.at(fGHz));
+  }
+
+  fluxNoiseRateOf(st: TableState): number {
+    if (this.noiseFactor === 0) return 0;
+    return this.noiseFactor * Math.abs(st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio)));
+  }
+
+  f01ForF12(f12GHz: number): number | null {
+    const memoF = this.memo12F;
+    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === f12GHz) return Number.isNaN(this.memo12V[k]) ? null : this.memo12V[k];
+    const r = this.table.rFor('e12', f12GHz / this.ecGHz, this.rLow, this.rTop, 1e-12 / this.ecGHz);
+    const f = r === null ? null : this.ecGHz * this.table.value('e1', r);
+    const k = this.memo12Next;
+    this.memo12Next = (k + 1) % MEMO_SIZE;
+    memoF[k] = f12GHz;
+    this.memo12V[k] = f === null ? NaN : f;
+    return f;
+  }
+
+  f01ForLevel(level: number, targetGHz: number, minusF01 = false): number | null {
+    if (!(level >= 2 && level <= 5)) throw new RangeError(`f01ForLevel: level must be 2..5, got ${level}`);
+    const channel = (minusF01 ? `e${level}-1` : `e${level}`) as ReducedChannel;
+    const r = this.table.rFor(channel, targetGHz / this.ecGHz, this.rLow, this.rTop, 1e-12 / this.ecGHz);
+    return r === null ? null : this.ecGHz * this.table.value('e1', r);
+  }
+
+  private fluxOfRatio(s: number): number {
+    const d = this.asymmetry;
+    return fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, s)));
+  }
+}
+
+const MEMO_SIZE = 12;
+
+function blankState(): TableState {
+  return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };
+}
+
+function fillState(s: ReducedState, ec: number, rTop: number, out: TableState): void {
+  out.f01 = ec * s.e1;
+  out.e2 = ec * s.e2;
+  out.e3 = ec * s.e3;
+  out.e4 = ec * s.e4;
+  out.e5 = ec * s.e5;
+  out.f12 = out.e2 - out.f01;
+  out.n01 = s.n01;
+  out.n03 = s.n03;
+  out.n12 = s.n12;
+  out.n23 = s.n23;
+  out.n05 = s.n05;
+  out.n14 = s.n14;
+  out.ejRatio = s.r / rTop;
+  out.df01dEj = s.de1dr;
+}
+
+function copyState(from: TableState, to: TableState): TableState {
+  if (from === to) return to;
+  to.f01 = from.f01;
+  to.f12 = from.f12;
+  to.e2 = from.e2;
+  to.e3 = from.e3;
+  to.e4 = from.e4;
+  to.e5 = from.e5;
+  to.n01 = from.n01;
+  to.n03 = from.n03;
+  to.n12 = from.n12;
+  to.n23 = from.n23;
+  to.n05 = from.n05;
+  to.n14 = from.n14;
+  to.ejRatio = from.ejRatio;
+  to.df01dEj = from.df01dEj;
+  return to;
+}
