@@ -95,7 +95,7 @@ export function fixedPlan(chip: NominalChip, plan: PlanInput): FixedPlan {
       partner: mover === e.a ? e.b : e.a,
       crossing: pe.crossing,
       rampNs: pe.rampTime * 1e9,
-      spectators: Object.entries(pe.spectatorParking)
+      spectators: [...pe.spectatorParking.entries()]
         .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz) }))
         .sort((a, b) => a.qubit - b.qubit),
       layer: pe.layer,

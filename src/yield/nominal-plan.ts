@@ -23,5 +23,16 @@ export function nominalPlan(layout: ChipLayout, seed: number, graph?: ChipGraph,
  * designed gates dropped (their pulses would be re-tuned; every CZ is checked with the plan's ramp).
  */
 export function planForDrawnChip(plan: PlanInput): PlanInput {
-  return { ...plan, edges: plan.edges.map((e) => ({ ...e, interactionFrequency: null, crossingFrequency: null, gate: null })) };
+  // the document verify reads claims from keeps only the choices (the nominal chip's derived
+  // numbers - spectra, margins, ZZ, durations - are not claims about a drawn chip)
+  const raw = Object.create(null) as Record<string, unknown>;
+  raw.format = plan.raw.format;
+  raw.version = plan.raw.version;
+  return {
+    ...plan,
+    raw,
+    layers: null,
+    layerSummary: null,
+    edges: plan.edges.map((e) => ({ ...e, interactionFrequency: null, crossingFrequency: null, duration: null, gate: null })),
+  };
 }
