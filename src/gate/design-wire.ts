@@ -10,22 +10,28 @@ export interface WireSpectator extends Omit<GateSpectatorRequest, 'transmon'> {
   transmon: TransmonDescriptor;
 }
 
-export interface WireRequest extends Omit<GateDesignRequest, 'mover' | 'partner' | 'spectators'> {
+export interface WireRequest extends Omit<GateDesignRequest, 'mover' | 'partner' | 'spectators' | 'budgetSpectators'> {
   mover: TransmonDescriptor;
   partner: TransmonDescriptor;
   spectators?: WireSpectator[];
+  budgetSpectators?: WireSpectator[];
 }
 
+const toWire = (list: GateSpectatorRequest[]): WireSpectator[] => list.map((s) => ({ ...s, transmon: s.transmon.descriptor() }));
+const fromWire = (list: WireSpectator[]): GateSpectatorRequest[] => list.map((s) => ({ ...s, transmon: Transmon.fromDescriptor(s.transmon) }));
+
 export function requestToWire(req: GateDesignRequest): WireRequest {
-  const { mover, partner, spectators, ...rest } = req;
+  const { mover, partner, spectators, budgetSpectators, ...rest } = req;
   const w: WireRequest = { ...rest, rules: { ...req.rules }, mover: mover.descriptor(), partner: partner.descriptor() };
-  if (spectators) w.spectators = spectators.map((s) => ({ ...s, transmon: s.transmon.descriptor() }));
+  if (spectators) w.spectators = toWire(spectators);
+  if (budgetSpectators) w.budgetSpectators = toWire(budgetSpectators);
   return w;
 }
 
 export function requestFromWire(w: WireRequest): GateDesignRequest {
-  const { mover, partner, spectators, ...rest } = w;
+  const { mover, partner, spectators, budgetSpectators, ...rest } = w;
   const req: GateDesignRequest = { ...rest, mover: Transmon.fromDescriptor(mover), partner: Transmon.fromDescriptor(partner) };
-  if (spectators) req.spectators = spectators.map((s) => ({ ...s, transmon: Transmon.fromDescriptor(s.transmon) }));
+  if (spectators) req.spectators = fromWire(spectators);
+  if (budgetSpectators) req.budgetSpectators = fromWire(budgetSpectators);
   return req;
 }

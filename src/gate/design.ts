@@ -31,6 +31,7 @@ import { RampInfeasible, rampFamily, RAMP_FAMILIES, type Ramp, type RampFamily }
 import { HoldScan } from './hold-scan.js';
 import { awgSamples, lineDelayNs, pulseDuration, rampTrajectory, sampleWaveform, type PulseShape } from './pulse.js';
 import { bestHold, HOLD_SCAN_DEFAULTS, phaseMiss, searchOffset, type HoldSolution } from './tune.js';
+import { quasiStaticSigmaOf, spectatorBudget, waveformNoiseBudget, type SpectatorShare } from '../budget/waveform-budget.js';
 import { TwoLevelTable } from './two-level-table.js';
 
 export interface GateSpectatorRequest {
@@ -60,6 +61,34 @@ export interface GateDesignRequest {
    */
   decoherence?: 'lindblad' | 'estimate';
   spectators?: GateSpectatorRequest[];
+  /**
+   * Spectators whose error the design's budget reports (with noise): each simulated on the final
+   * waveform as a third transmon, in |0> and |1> (src/budget/spectator-error.ts). Usually every
+   * other neighbour of the mover, where it sits during the gate.
+   */
+  budgetSpectators?: GateSpectatorRequest[];
+}
+
+export type { SpectatorShare };
+
+/**
+ * The parts of a gate's error budget the gate stage computes (each an average gate
+ * infidelity; README physics conventions sec. 4): the coherent error of the waveform, the
+ * first-order T1 and white-dephasing terms, the quasi-static 1/f flux-noise average over both
+ * transmons' offsets, and the spectators' errors. The planner adds swept crossings and spectator
+ * moves (src/plan/gate-budget.ts).
+ */
+export interface DesignBudget {
+  coherent: number;
+  t1: number;
+  whiteDephasing: number;
+  fluxNoise: number;
+  /** Its split by transmon, and the offsets' standard deviations (Phi0). */
+  fluxNoiseSplit: { mover: number; partner: number; moverSigma: number; partnerSigma: number };
+  /** Sum of the spectators' errors (0 when none was asked for). */
+  spectators: number;
+  spectatorLeakage: number;
+  spectatorShares: SpectatorShare[];
 }
 
 export interface GateDesign {
@@ -76,8 +105,10 @@ export interface GateDesign {
   fidelityNoisy?: number;
   /** How fidelityNoisy was obtained. */
   fidelityNoisyMethod?: 'lindblad' | 'estimate';
-  /** First-order decoherence estimate of 1 - F (with noise). */
+  /** First-order decoherence estimate of 1 - F (with noise): T1 and white dephasing. */
   decoherenceEstimate?: number;
+  /** The error budget's parts (with noise). */
+  budget?: DesignBudget;
   virtualZ: { a: number; b: number };
   speedLimitNs: number;
   untuned: { conditionalPhase: number; leakage: number; fidelity: number };
@@ -91,8 +122,9 @@ export interface GateDesign {
   /** Populations of 20 and 02 at the end, from 11. */
   populations: { '20': number; '02': number };
   /**
-   * The idle-formula decoherence error of the gate, (2/5) t sum_q (1/T1 + 1/T_phi) with both
-   * qubits at the crossing point (README physics conventions sec. 4; about 30 % below a CZ's, NaN when infeasible).
+   * The tuner's decoherence model of the gate: errorPerNs x duration (holdErrorRate: T1, white
+   * dephasing and the quasi-static flux-noise marginal, both qubits where they sit during the
+   * hold; NaN when infeasible).
    */
   idleErrorEstimate: number;
   /** Simulations run while tuning (for profiling). */
@@ -108,6 +140,8 @@ export interface GateDesign {
   targetPhase?: number;
   /** Spectators simulated as third transmons (ids and their static fluxes), as requested (set by designCzGate). */
   simulatedSpectators?: { qubit: string; flux: number }[];
+  /** What the designer had to change from the request (for example a spectator left out of the model), in words. */
+  notes?: string[];
 }
 
 export const DEFAULT_FAMILY = 'fast-adiabatic';
@@ -151,13 +185,26 @@ export const DESIGN_DEFAULTS = Object.freeze({
  * one is kept.
  */
 export function designCzGate(req: GateDesignRequest): GateDesign {
-  const d = designBest(req);
+  let used = req;
+  let chosen: GateDesign;
+  try {
+    chosen = chooseDesign(req);
+  } catch (err) {
+    // A spectator in the design model whose levels meet the mover's upper levels along the
+    // excursion can make the dressed manifolds too sharp for the frame (src/sim/manifold-frame.ts):
+    // design on the pair alone and say so; the budget still simulates every budget spectator.
+    if (!(req.spectators?.length && err instanceof RangeError && /no convergence/.test(err.message))) throw err;
+    used = { ...req, spectators: undefined };
+    chosen = chooseDesign(used);
+    chosen.notes = [...(chosen.notes ?? []), `designed without the spectator(s) ${req.spectators.map((s) => s.transmon.id).join(', ')} in the model: ${err.message.replace(/^manifold frame: /, 'the frame with them ')}`];
+  }
+  const d = withSpectatorBudget(used, chosen);
   d.targetPhase = req.targetPhase ?? Math.PI;
-  d.simulatedSpectators = (req.spectators ?? []).map((s) => ({ qubit: s.transmon.id, flux: s.flux }));
+  d.simulatedSpectators = (used.spectators ?? []).map((s) => ({ qubit: s.transmon.id, flux: s.flux }));
   return d;
 }
 
-function designBest(req: GateDesignRequest): GateDesign {
+function chooseDesign(req: GateDesignRequest): GateDesign {
   const best = designWithFamily(req);
   // No family asked for and the default one misses the goals (or fails): try the fallback family,
   // whose schedule slows down wherever any of the crossings it watches is near.
@@ -167,6 +214,22 @@ function designBest(req: GateDesignRequest): GateDesign {
   if (designScore(alt) < designScore(best)) return alt;
   best.evaluations = alt.evaluations;
   return best;
+}
+
+/**
+ * The spectators' share of the chosen design's budget: each requested spectator simulated on the
+ * final waveform as a third transmon (src/budget/waveform-budget.ts spectatorBudget).
+ */
+function withSpectatorBudget(req: GateDesignRequest, d: GateDesign): GateDesign {
+  const list = req.budgetSpectators ?? [];
+  if (!d.feasible || !d.budget || list.length === 0) return d;
+  const sb = spectatorBudget(
+    { mover: req.mover, partner: req.partner, gGHz: req.gGHz, partnerFlux: req.partnerFlux, traj: d.waveform, targetPhase: req.targetPhase ?? Math.PI },
+    list as EdgeSpectator[],
+  );
+  d.evaluations += sb.simulations;
+  const budget = { ...d.budget, spectators: sb.spectators, spectatorLeakage: sb.spectatorLeakage, spectatorShares: sb.spectatorShares };
+  return { ...d, budget };
 }
 
 /** The family tried when the default one misses the goals and no family was asked for. */
@@ -335,7 +398,8 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   // 3. Tune. The tuner weighs a longer hold by the decoherence it costs: the idle rate
   // (2/5) sum_q (1/T1 + 1/T_phi) (README physics conventions sec. 4) with both qubits at the crossing point.
   const gapScale = cross.gapGHz;
-  const errorPerNs = holdErrorRate(mover, cross.flux) + holdErrorRate(partner, req.partnerFlux);
+  const refNs = Math.min(req.rules.maxGateNs, speedLimitNs + 2 * rampNs);
+  const errorPerNs = holdErrorRate(mover, cross.flux, refNs) + holdErrorRate(partner, req.partnerFlux, refNs);
   const search = (): ReturnType<typeof searchOffset> =>
     searchOffset(
     (delta) => {
@@ -441,10 +505,24 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   }
   const { hold, traj, sim } = realised;
   const best = realised.best;
-  // 5. Noise on the final waveform.
+  // 5. Noise on the final waveform: T1 and white dephasing (Lindblad, or the first-order
+  // estimate), and the quasi-static flux noise averaged over both transmons' offsets.
   const method = req.decoherence ?? 'lindblad';
   const final = req.noise && method === 'lindblad' ? simulateWave(traj, true, true) : sim;
-  const fidelityNoisy = !req.noise ? undefined : method === 'lindblad' ? final.noisy?.fidelity : final.fidelity - final.decoherenceEstimate;
+  let budget: DesignBudget | undefined;
+  let fidelityNoisy: number | undefined;
+  if (req.noise) {
+    const nb = waveformNoiseBudget({
+      mover, partner, gGHz: req.gGHz, partnerFlux: req.partnerFlux, traj, targetPhase: theta,
+      frame, modelSpectators: req.spectators as EdgeSpectator[] | undefined, simulation: final, method,
+    });
+    evaluations += nb.simulations;
+    budget = {
+      coherent: nb.coherent, t1: nb.t1, whiteDephasing: nb.whiteDephasing, fluxNoise: nb.fluxNoise, fluxNoiseSplit: nb.fluxNoiseSplit,
+      spectators: 0, spectatorLeakage: 0, spectatorShares: [],
+    };
+    fidelityNoisy = nb.fidelityNoisy;
+  }
   const dest = best.shape.destFlux;
   return {
     mover: mover.id,
@@ -460,6 +538,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     fidelityNoisy,
     fidelityNoisyMethod: req.noise ? method : undefined,
     decoherenceEstimate: req.noise ? final.decoherenceEstimate : undefined,
+    budget,
     virtualZ: final.virtualZ,
     waveform: traj,
     feasible: true,
@@ -471,12 +550,19 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   };
 }
 
-/** (2/5) (1/T1 + 1/T_phi) of a transmon at a flux (0 without coherence data), 1/ns. */
-function holdErrorRate(q: Transmon, flux: number): number {
-  if (!q.coherenceSpec) return 0;
-  const c = q.coherence(flux);
-  const r = (t: number): number => (Number.isFinite(t) && t > 0 ? 1 / t : 0);
-  return 0.4 * (r(c.t1Ns) + r(c.tphiNs));
+/**
+ * The tuner's price of one more ns of hold for a transmon at `flux` (1/ns; 0 without coherence
+ * data): the Markovian idle rate (2/5) (1/T1 + 1/T_phi,white) (README physics conventions sec. 4)
+ * plus the marginal quasi-static flux-noise error of a phase 2 pi f' delta t on one qubit,
+ * d/dt [(2 pi f' sigma t)^2 / 5] = (2/5) (2 pi f' sigma)^2 t, taken at t = refNs (about the gate's
+ * duration; sigma for that duration).
+ */
+export function holdErrorRate(q: Transmon, flux: number, refNs: number): number {
+  const spec = q.coherenceSpec;
+  if (!spec) return 0;
+  const r = (t: number | undefined): number => (t !== undefined && Number.isFinite(t) && t > 0 ? 1 / t : 0);
+  const w = 2 * Math.PI * q.spectrum(flux).df01dFluxGHz * quasiStaticSigmaOf(q, refNs);
+  return 0.4 * (r(spec.t1Ns) + r(spec.tphiNs)) + 0.4 * w * w * refNs;
 }
 
 function computePhase(m: { re: Float64Array; im: Float64Array }): number {

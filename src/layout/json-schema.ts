@@ -22,6 +22,7 @@ const UNIT_PATTERNS: Record<QuantityKind, string> = {
   time: '(?:[mun\u00b5\u03bcp]?s)',
   resistance: '(?:[kM]?(?:[Oo]hm|\u03a9|ohm))',
   fluxNoise: '(?:[mun\u00b5\u03bc]?Phi0(?:\\s*/\\s*(?:sqrt\\(Hz\\)|Hz\\^0\\.5|Hz\\^\\(1/2\\)))?)',
+  temperature: '(?:[mu\u00b5\u03bc]?K)',
 };
 
 export function quantityPattern(kind: QuantityKind): string {

@@ -12,7 +12,7 @@ import { parseQuantity, type QuantityKind } from './units.js';
 import { describeFound } from './diagnostics.js';
 import { judgeRange, rangeText, type PlausibleRange } from './plausible.js';
 
-export type RuleKind = 'frequency' | 'time' | 'number';
+export type RuleKind = 'frequency' | 'time' | 'temperature' | 'number';
 export type RuleRange = 'positive' | 'nonNegative' | 'fraction';
 
 export interface RuleSpec {
@@ -35,7 +35,7 @@ const BoundSchema = z.union([z.string(), z.number()]);
 const RuleSpecSchema = z.strictObject({
   key: z.string().regex(/^[a-z][A-Za-z0-9]*$/),
   field: z.string(),
-  kind: z.enum(['frequency', 'time', 'number']),
+  kind: z.enum(['frequency', 'time', 'temperature', 'number']),
   default: z.union([z.string(), z.number(), z.null()]),
   range: z.enum(['positive', 'nonNegative', 'fraction']),
   doc: z.string().min(1),
@@ -54,8 +54,9 @@ export const RULES_FILE = new URL('../../shared/rules.json', import.meta.url);
 /** Every field of Rules, for the completeness check below (keep in step with src/layout/types.ts). */
 const RULE_FIELDS: readonly (keyof Rules)[] = [
   'zzLimitGHz', 'detuning0101GHz', 'detuning0112GHz', 'detuningNext0101GHz', 'tlsClearanceGHz',
-  'readoutDetuningGHz', 'spectatorDetuningGHz', 'sweptTransferLimit', 'maxGateNs', 'sampleRateGHz',
-  'fluxBandwidthGHz', 'resistanceSpread', 'marginFlagSpreads',
+  'readoutDetuningGHz', 'spectatorAdmixture', 'sweptTransferLimit', 'maxGateNs', 'sampleRateGHz',
+  'fluxBandwidthGHz', 'maxFluxExcursion', 'gateErrorLimit', 'spectatorLeakageLimit', 'idleErrorLimit',
+  'cycleOverheadNs', 'noiseAveragingTimeNs', 'qubitTemperatureK', 'resistanceSpread', 'marginFlagSpreads',
 ];
 
 const OPTIONAL_FIELDS: ReadonlySet<keyof Rules> = new Set(['fluxBandwidthGHz']);
@@ -128,7 +129,7 @@ export function plausibleRangeOf(spec: RuleSpec): PlausibleRange | null {
 }
 
 function ruleNoun(spec: RuleSpec): string {
-  return spec.kind === 'frequency' ? 'a frequency' : spec.kind === 'time' ? 'a time' : 'a number';
+  return spec.kind === 'frequency' ? 'a frequency' : spec.kind === 'time' ? 'a time' : spec.kind === 'temperature' ? 'a temperature' : 'a number';
 }
 
 function buildDefaults(): Readonly<Rules> {

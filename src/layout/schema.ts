@@ -131,7 +131,7 @@ export const CouplingMapSchema = z
 
 export const CouplingSchema = z.union([CouplingListSchema, CouplingMapSchema], phrase('a coupling [A, B, g] or { qubits: [A, B], g }'));
 
-function ruleSchema(kind: 'frequency' | 'time' | 'number', doc: string, nullable: boolean) {
+function ruleSchema(kind: 'frequency' | 'time' | 'temperature' | 'number', doc: string, nullable: boolean) {
   const base = kind === 'number' ? finiteNumber(doc) : quantity(kind, doc);
   return nullable ? base.nullable() : base;
 }

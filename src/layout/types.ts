@@ -109,8 +109,11 @@ export interface Rules {
   tlsClearanceGHz: number;
   /** |f01 - f_readout| >= this. */
   readoutDetuningGHz: number;
-  /** During a CZ, spectator conditions (interaction frequency vs f01_S, f01_S - alpha_A, f01_S + alpha_S). */
-  spectatorDetuningGHz: number;
+  /**
+   * During a CZ, the largest allowed admixture (g_c / Delta)^2 of the mover's levels it occupies
+   * (|1>, |2>) with a spectator's, for every transition pair that can meet (src/plan/rules/cz-evaluate.ts).
+   */
+  spectatorAdmixture: number;
   /** Largest allowed Landau-Zener transfer through a swept crossing. */
   sweptTransferLimit: number;
   /** Longest allowed CZ (ramps and hold). */
@@ -119,6 +122,20 @@ export interface Rules {
   sampleRateGHz: number;
   /** Gaussian flux-line filter bandwidth (-3 dB); absent means an ideal line. */
   fluxBandwidthGHz?: number;
+  /** Largest flux excursion of a CZ's mover from its parking flux (Phi0). */
+  maxFluxExcursion: number;
+  /** Largest predicted error (average infidelity) of one CZ, its whole budget. */
+  gateErrorLimit: number;
+  /** Largest leakage the spectators of one CZ may add. */
+  spectatorLeakageLimit: number;
+  /** Largest predicted idle error of one qubit over one reference cycle. */
+  idleErrorLimit: number;
+  /** Time of the reference cycle outside its CZ layers (single-qubit gates, readout, reset), ns. */
+  cycleOverheadNs: number;
+  /** The time over which a calibration is reused (ns): sets the quasi-static 1/f flux-noise spread. */
+  noiseAveragingTimeNs: number;
+  /** Effective qubit temperature (K) for thermal excitation while idle. */
+  qubitTemperatureK: number;
   /** Relative junction-resistance spread from fabrication (1 sigma), e.g. 0.02. */
   resistanceSpread: number;
   /** Flag a qubit whose margin is below this many fabrication spreads. */

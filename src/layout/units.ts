@@ -39,7 +39,7 @@ function mathjsInstance(): MathInstance {
   return mathInstance;
 }
 
-export type QuantityKind = 'frequency' | 'time' | 'resistance' | 'fluxNoise';
+export type QuantityKind = 'frequency' | 'time' | 'resistance' | 'fluxNoise' | 'temperature';
 
 interface KindSpec {
   /** Noun used in messages: "expected a frequency". */
@@ -90,6 +90,14 @@ const KINDS: Record<QuantityKind, KindSpec> = {
     ],
     spellings: ['Phi0', 'mPhi0', 'uPhi0', 'nPhi0'],
     plain: { Phi0: 0, mPhi0: -3, uPhi0: -6, nPhi0: -9, 'Phi0/Hz^0.5': 0, 'mPhi0/Hz^0.5': -3, 'uPhi0/Hz^0.5': -6, 'nPhi0/Hz^0.5': -9 },
+  },
+  temperature: {
+    noun: 'a temperature',
+    example: '50 mK',
+    internal: 'K',
+    accepts: [{ unit: '1 K', internal: 'K' }],
+    spellings: ['K', 'mK', 'uK'],
+    plain: { K: 0, mK: -3, uK: -6 },
   },
 };
 
@@ -239,6 +247,7 @@ export function formatQuantity(value: number, kind: QuantityKind, digits = 6): s
     time: [[1e-9, 's'], [1e-6, 'ms'], [1e-3, 'us'], [1, 'ns'], [1e3, 'ps']],
     resistance: [[1e-3, 'MOhm'], [1, 'kOhm'], [1e3, 'Ohm']],
     fluxNoise: [[1, 'Phi0'], [1e3, 'mPhi0'], [1e6, 'uPhi0'], [1e9, 'nPhi0']],
+    temperature: [[1, 'K'], [1e3, 'mK'], [1e6, 'uK']],
   };
   const ladder = ladders[kind];
   const magnitude = Math.abs(value);

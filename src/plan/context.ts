@@ -83,7 +83,7 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
   const n = layout.qubits.length;
   const ids = layout.qubits.map((q) => q.id);
   const index = new Map(ids.map((id, i) => [id, i]));
-  const transmons = options.transmons ?? layout.qubits.map((q) => Transmon.fromLayout(q));
+  const transmons = options.transmons ?? layout.qubits.map((q) => Transmon.fromLayout(q, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } }));
   // Large chips read their tables' grid values from the reduced spectrum (built once, ~40 ms);
   // small ones solve their 32 points per qubit directly (cheaper than building that table).
   const reduced = n >= REDUCED_TABLES_FROM ? sharedReducedSpectrum() : null;

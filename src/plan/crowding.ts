@@ -8,11 +8,17 @@
  *                 with the neighbour where it parks (src/plan/rules/idle-blockers.ts, inside the
  *                 tunable range)
  *   CZ margin     for each gate the qubit moves in or watches as a spectator, the smallest
- *                 cz-spectator / cz-next / cz-tls distance at the interaction point minus its threshold
+ *                 spectator distance at the interaction point minus the distance the admixture
+ *                 limit needs (g_c / sqrt(spectatorAdmixture)), and cz-tls
  *
  * read in units of the expected frequency spread from fabrication, sigma_f = |df01/d ln E_J| *
- * resistanceSpread (default 2 %; src/plan/exact-state.ts). A margin below marginFlagSpreads
- * spreads (default 3) is flagged. Chip summary: the usable fraction of each qubit's window (the
+ * resistanceSpread (default 2 %; src/plan/exact-state.ts). Flags point at real risks only: a
+ * qubit is flagged when a margin below marginFlagSpreads spreads (default 3) belongs to a
+ * condition fixed at fabrication - the qubit parked at a sweet spot, against another qubit at a
+ * sweet spot, or against its own defect or resonator (the spread of a difference of two qubits is
+ * sqrt(sigma_i^2 + sigma_j^2)). Interaction points, spectator moves and parking below a sweet
+ * spot are control choices a lab re-tunes after fabrication; their margins are reported, not
+ * flagged. Chip summary: the usable fraction of each qubit's window (the
  * part not blocked with the others where they park) and the 100 MHz bands where at least two
  * qubits, and at least half of those parked there, are flagged.
  */
@@ -26,6 +32,7 @@ import type { Finding } from './rules/findings.js';
 import { IdleBlockers, type FrequencyView } from './rules/idle-blockers.js';
 import { emptyTableState } from './qubit-table.js';
 import { narrowResonanceZz, secondOrderZz } from './zz-second-order.js';
+import { admixtureChecks, admixtureHalfWidth } from './rules/spectator-admixture.js';
 
 export interface QubitCrowding {
   /** Smallest margin (GHz), idle and CZ together. */
@@ -38,7 +45,16 @@ export interface QubitCrowding {
   nearest: { rule: RuleName; other: string | null };
   /** Fraction of the window (domain) not blocked by the others where they park. */
   usableFraction: number;
+  /**
+   * The smallest margin among the conditions fixed at fabrication (this qubit at a sweet spot, and
+   * the other qubit of the condition too), in GHz and in spreads of the difference; null when the
+   * qubit is off its sweet spots (its parking can be re-tuned after fabrication).
+   */
+  fabrication: { marginGHz: number; sigmaGHz: number; spreads: number; nearest: { rule: RuleName; other: string | null } } | null;
 }
+
+/** A qubit within this flux (Phi0) of 0 or 1/2 sits at a sweet spot. */
+export const SWEET_SPOT_FLUX = 1e-6;
 
 export interface CrowdedBand {
   loGHz: number;
@@ -92,31 +108,45 @@ export function crowding(
       const st = states[S];
       if (!st) continue;
       const f01 = parked.get(S)?.fGHz ?? st.f01GHz;
-      const f12 = parked.get(S)?.f12GHz ?? st.f12GHz;
-      const sd = r.spectatorDetuningGHz;
-      const list: [RuleName, number][] = [
-        ['cz-spectator-01-01', Math.abs(to - f01) - sd],
-        ['cz-spectator-11-20', Math.abs(p.moverF12AtInteractionGHz - f01) - sd],
-        ['cz-spectator-11-02', Math.abs(to - f12) - sd],
-      ];
-      for (const [rule, m] of list) {
-        noteCz(A, m, rule, S);
-        noteCz(S, m, rule, A);
+      const G = ctx.edges[ctx.edgeBetween(A, S)].gChargeGHz;
+      for (const c of admixtureChecks(ctx, A, to, S, f01, G, p.crossing === '11-20')) {
+        const m = c.distanceGHz - admixtureHalfWidth(c.couplingGHz, r.spectatorAdmixture);
+        noteCz(A, m, c.rule, S);
+        noteCz(S, m, c.rule, A);
       }
     }
     for (const t of ctx.qubits[A].tls) noteCz(A, Math.abs(to - t.atGHz) - t.widthGHz - r.tlsClearanceGHz, 'cz-tls', -1);
   }
   const qubits: QubitCrowding[] = [];
   const flags: Finding[] = [];
+  // A qubit at a sweet spot cannot be re-tuned after fabrication without leaving it; below it,
+  // it can (its parking is a control choice). Flags count only conditions whose every qubit sits
+  // at a sweet spot, or a sweet-spot qubit against its own defects and resonator.
+  const atSweetSpot = (q: number): boolean => {
+    const st = states[q];
+    return !!st && (Math.abs(st.flux) < SWEET_SPOT_FLUX || Math.abs(Math.abs(st.flux) - 0.5) < SWEET_SPOT_FLUX);
+  };
   for (let i = 0; i < n; i++) {
     const f = parkingGHz[i];
     const list = blockers.of(i, view, []);
     let idle = Infinity;
     let nearest: { rule: RuleName; other: string | null } = { rule: '01-01', other: null };
+    let fixed = Infinity;
+    let fixedNearest: { rule: RuleName; other: string | null } = { rule: '01-01', other: null };
+    let fixedSigma = NaN;
+    const sigmaI = states[i]?.sigmaGHz ?? NaN;
     const note = (m: number, rule: RuleName, other: number) => {
       if (m < idle - TIE) {
         idle = m;
         nearest = { rule, other: other >= 0 ? ctx.ids[other] : null };
+      }
+      if (!atSweetSpot(i) || (other >= 0 && !atSweetSpot(other))) return;
+      // the spread of a difference of two independent qubits' frequencies
+      const sg = other >= 0 ? Math.hypot(sigmaI, states[other]?.sigmaGHz ?? 0) : sigmaI;
+      if (m / sg < fixed / fixedSigma || !Number.isFinite(fixed)) {
+        fixed = m;
+        fixedSigma = sg;
+        fixedNearest = { rule, other: other >= 0 ? ctx.ids[other] : null };
       }
     };
     // Detuning conditions, exact (they count even where tuning cannot reach them: fabrication can).
@@ -143,18 +173,21 @@ export function crowding(
     for (const b of list) if (b.rule === 'zz') note(signedDistance(f, b), 'zz', b.other);
     const margin = Math.min(idle, czMargin[i]);
     if (czMargin[i] < idle - TIE) nearest = czNearest[i];
-    const sigma = states[i]?.sigmaGHz ?? NaN;
-    const spreads = margin / sigma;
+    const spreads = margin / sigmaI;
     const d = ctx.domains[i] ?? ctx.ranges[i];
     const length = d.hi - d.lo;
     const usable = length > 0 ? Math.max(0, 1 - coveredLength(d, list) / length) : f > d.lo - 1e-9 && f < d.hi + 1e-9 ? 1 : 0;
-    qubits.push({ marginGHz: margin, idleMarginGHz: idle, czMarginGHz: czMargin[i], sigmaGHz: sigma, marginSpreads: spreads, nearest, usableFraction: usable });
-    if (Number.isFinite(spreads) && spreads < r.marginFlagSpreads) {
-      const what = nearest.other ? `${nearest.other} ${nearest.rule}` : nearest.rule;
+    const fixedSpreads = Number.isFinite(fixed) ? fixed / fixedSigma : Infinity;
+    qubits.push({
+      marginGHz: margin, idleMarginGHz: idle, czMarginGHz: czMargin[i], sigmaGHz: sigmaI, marginSpreads: spreads, nearest, usableFraction: usable,
+      fabrication: Number.isFinite(fixed) ? { marginGHz: fixed, sigmaGHz: fixedSigma, spreads: fixedSpreads, nearest: fixedNearest } : null,
+    });
+    if (Number.isFinite(fixedSpreads) && fixedSpreads < r.marginFlagSpreads) {
+      const what = fixedNearest.other ? `${fixedNearest.other} ${fixedNearest.rule}` : fixedNearest.rule;
       flags.push({
-        rule: 'margin', qubits: nearest.other ? [ctx.ids[i], nearest.other] : [ctx.ids[i]], value: spreads, threshold: r.marginFlagSpreads,
-        message: `${ctx.ids[i]} at ${ghz(f)}: margin ${mhz(margin)} = ${spreads.toFixed(2)} fabrication spreads (sigma ${mhz(sigma)}) to ${what}; below ${r.marginFlagSpreads}`,
-        details: { marginGHz: margin, sigmaGHz: sigma },
+        rule: 'margin', qubits: fixedNearest.other ? [ctx.ids[i], fixedNearest.other] : [ctx.ids[i]], value: fixedSpreads, threshold: r.marginFlagSpreads,
+        message: `${ctx.ids[i]} at its sweet spot ${ghz(f)}: margin ${mhz(fixed)} = ${fixedSpreads.toFixed(2)} fabrication spreads (sigma ${mhz(fixedSigma)}) to ${what}${fixedNearest.other ? ', also at its sweet spot' : ''}; below ${r.marginFlagSpreads}: a fabrication shift this size needs one of them tuned off its sweet spot`,
+        details: { marginGHz: fixed, sigmaGHz: fixedSigma },
       });
     }
   }

@@ -8,12 +8,12 @@
 import type { PlanContext } from './context.js';
 import type { TransmonSpec } from '../layout/types.js';
 
-export type DeviceKind = 'frequency' | 'time' | 'number';
+export type DeviceKind = 'frequency' | 'time' | 'temperature' | 'number';
 
 export interface DeviceField {
   /** The plan.json key under `device`. */
   key: string;
-  /** How it converts to SI (frequency: GHz -> Hz; time: ns -> s; number: as is). */
+  /** How it converts to SI (frequency: GHz -> Hz; time: ns -> s; temperature (K) and number: as is). */
   kind: DeviceKind;
   /** What it is, for messages ("maximum frequency"). */
   name: string;

@@ -3,19 +3,25 @@
  * README physics conventions sec. 5 couples them. Gates conflict when
  *   (a) they share a qubit: mover, partner or a spectator parked for either;
  *   (b) a qubit one gate moves (its mover, or a spectator it parks) is coupled to a qubit the
- *       other gate moves, and the two excursions come within spectatorDetuning of a 01-01, 11-20
- *       or 11-02 crossing (each excursion taken as the whole band between its parking and its
+ *       other gate moves, and the two excursions come closer than the spectator admixture limit
+ *       allows (g / sqrt(spectatorAdmixture), sqrt2 g for the f12 bands) to a 01-01, 11-20 or
+ *       11-02 crossing (each excursion taken as the whole band between its parking and its
  *       destination, and the f12 band with it: both move at once, so any overlap may be crossed);
  *   (c) a qubit one gate moves and a qubit the other moves share a neighbour and their
  *       destinations are closer than detuningNext0101.
  * The conflict graph (graphology, one node per edge key) is coloured with DSATUR (Brelaz 1979,
- * src/plan/parking/colouring.ts); colours are layers. The number of layers is at least the
- * chip's maximum degree (the gates on one qubit all conflict), reported as the lower bound.
+ * src/plan/parking/colouring.ts), improved by iterated greedy (./iterated-greedy.ts, seeded);
+ * colours are layers. The number of layers is at least the chip's maximum degree (the gates on
+ * one qubit all conflict), reported as the lower bound; the explanation colours the conflicts
+ * kind by kind (shared qubits, moved spectators, close excursions, next-nearest) and says how
+ * many layers each kind adds.
  */
 import { UndirectedGraph } from 'graphology';
 import type { PlanContext } from './context.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
 import { dsaturColouring } from './parking/colouring.js';
+import { admixtureHalfWidth } from './rules/spectator-admixture.js';
+import { colourCount, iteratedGreedy } from './iterated-greedy.js';
 
 export interface MovedQubit {
   qubit: number;
@@ -37,6 +43,8 @@ export interface LayerPlan {
   lowerBound: number;
   /** Number of conflicting pairs of gates. */
   conflicts: number;
+  /** What the count comes from. */
+  explanation: LayerExplanation;
 }
 
 /** The qubits a gate moves, with their f01 and f12 bands (tabulated f12; exact at the ends). */
@@ -66,9 +74,14 @@ const overlap = (alo: number, ahi: number, blo: number, bhi: number, pad: number
 /** True when moved qubits x (of one gate) and y (of another) conflict by rule (b) or (c). */
 export function movedConflict(ctx: PlanContext, x: MovedQubit, y: MovedQubit): boolean {
   const r = ctx.rules;
-  if (ctx.edgeBetween(x.qubit, y.qubit) >= 0) {
-    const sd = r.spectatorDetuningGHz;
-    return overlap(x.lo, x.hi, y.lo, y.hi, sd) || overlap(x.lo12, x.hi12, y.lo, y.hi, sd) || overlap(x.lo, x.hi, y.lo12, y.hi12, sd);
+  const e = ctx.edgeBetween(x.qubit, y.qubit);
+  if (e >= 0) {
+    // the spectator admixture limit as a distance, with the layout's g (its largest value) for
+    // 01-01 and sqrt2 g for the 11-20 and 11-02 type crossings (./rules/spectator-admixture.ts)
+    const g = ctx.edges[e].gGHz;
+    const pad01 = admixtureHalfWidth(g, r.spectatorAdmixture);
+    const pad12 = admixtureHalfWidth(Math.SQRT2 * g, r.spectatorAdmixture);
+    return overlap(x.lo, x.hi, y.lo, y.hi, pad01) || overlap(x.lo12, x.hi12, y.lo, y.hi, pad12) || overlap(x.lo, x.hi, y.lo12, y.hi12, pad12);
   }
   const shares = ctx.nextNearestOf[x.qubit].some((p) => {
     const pair = ctx.nextNearest[p];
@@ -85,56 +98,126 @@ export function gatesConflict(ctx: PlanContext, g1: EdgePlan, m1: readonly Moved
   return false;
 }
 
+/** Which condition made two gates conflict (the first that holds, in this order). */
+export type ConflictKind = 'shared' | 'spectator' | 'close' | 'next';
+
 /**
- * Every pair of gates that cannot share a layer (indices into `plans`, each pair once, first <
- * second in the order found): the conflict graph's edges. Used by planLayers and by verify.
+ * The layers a subset of the conflicts alone would need, added kind by kind: what stands in the
+ * way of fewer layers.
  */
-export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): [number, number][] {
+export interface LayerExplanation {
+  /** Layers with only shared movers and partners (at least the largest degree). */
+  shared: number;
+  /** ... and spectators moved for one gate that another gate touches. */
+  spectator: number;
+  /** ... and coupled moving qubits whose excursions come close. */
+  close: number;
+  /** ... and moving next-nearest neighbours ending close (all conflicts: the plan's count). */
+  next: number;
+  /** Conflicting pairs of each kind. */
+  pairs: Record<ConflictKind, number>;
+}
+
+/** The kind of conflict between two gates, or null (rules a-c of the banner). */
+export function conflictKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
+  const pair1 = new Set([g1.mover, g1.partner]);
+  if (pair1.has(g2.mover) || pair1.has(g2.partner)) return 'shared';
+  const t1 = new Set(touchedQubits(g1));
+  if (touchedQubits(g2).some((q) => t1.has(q))) return 'spectator';
+  for (const x of m1) {
+    for (const y of m2) {
+      if (!movedConflict(ctx, x, y)) continue;
+      return ctx.edgeBetween(x.qubit, y.qubit) >= 0 ? 'close' : 'next';
+    }
+  }
+  return null;
+}
+
+/** Iterated-greedy rounds per layering (bounded for large chips: about 4e6 adjacency visits). */
+const LAYER_ROUNDS = 200;
+
+/**
+ * The kind of every conflicting pair of gates (key a * plans.length + b, a < b indices into
+ * `plans`): the conflict graph's edges, each with the first condition of the banner that holds.
+ */
+export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): Map<number, ConflictKind> {
   const moved = plans.map((p) => movedQubits(ctx, p, parkingF12, parkingGHz));
   const touching: number[][] = Array.from({ length: ctx.n }, () => []);
   plans.forEach((p, k) => {
     for (const q of touchedQubits(p)) touching[q].push(k);
   });
-  const seen = new Set<number>();
-  const pairs: [number, number][] = [];
-  const m = plans.length;
-  const link = (k1: number, k2: number) => {
+  // candidate pairs: gates touching a common qubit, or a neighbour or next-nearest neighbour of a moved qubit
+  const kinds = new Map<number, ConflictKind>();
+  const consider = (k1: number, k2: number) => {
     if (k1 === k2) return;
-    const key = Math.min(k1, k2) * m + Math.max(k1, k2);
-    if (!seen.has(key)) {
-      seen.add(key);
-      pairs.push([k1, k2]);
-    }
+    const a = Math.min(k1, k2);
+    const b = Math.max(k1, k2);
+    const key = a * plans.length + b;
+    if (kinds.has(key)) return;
+    const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
+    if (kind) kinds.set(key, kind);
   };
-  // (a) shared qubits
-  for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) link(list[i], list[j]);
-  // (b), (c): gates touching a neighbour or next-nearest neighbour of a moved qubit
+  for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
   plans.forEach((_, k1) => {
     for (const x of moved[k1]) {
       const near = new Set<number>(ctx.neighbours[x.qubit]);
       for (const p of ctx.nextNearestOf[x.qubit]) near.add(ctx.nextNearest[p].a === x.qubit ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
-      for (const q of near) {
-        for (const k2 of touching[q]) {
-          if (k2 <= k1) continue;
-          if (moved[k2].some((y) => y.qubit === q && movedConflict(ctx, x, y))) link(k1, k2);
-        }
-      }
+      for (const q of near) for (const k2 of touching[q]) consider(k1, k2);
     }
   });
-  return pairs;
+  return kinds;
 }
 
-export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): LayerPlan {
-  const graph = new UndirectedGraph();
-  for (const p of plans) graph.addNode(ctx.edges[p.edge].key);
-  const pairs = conflictingPairs(ctx, plans, parkingF12, parkingGHz);
-  for (const [k1, k2] of pairs) graph.addEdge(ctx.edges[plans[k1].edge].key, ctx.edges[plans[k2].edge].key);
-  const conflicts = pairs.length;
-  const colours = dsaturColouring(graph);
-  const layerOf = plans.map((p) => colours.get(ctx.edges[p.edge].key)!);
+/** Every pair of gates that cannot share a layer (indices into `plans`, first < second): the conflict graph's edges. Used by planLayers and by verify. */
+export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): [number, number][] {
+  return [...conflictKinds(ctx, plans, parkingF12, parkingGHz).keys()].map((key) => [Math.floor(key / plans.length), key % plans.length] as [number, number]);
+}
+
+export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, seed = 1): LayerPlan {
+  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
+  const lowerBound = ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
+  const order: ConflictKind[] = ['shared', 'spectator', 'close', 'next'];
+  const pairs: Record<ConflictKind, number> = { shared: 0, spectator: 0, close: 0, next: 0 };
+  for (const kind of kinds.values()) pairs[kind]++;
+  const colourWith = (allowed: Set<ConflictKind>): Int32Array => {
+    const graph = new UndirectedGraph();
+    const adjacency: number[][] = plans.map(() => []);
+    plans.forEach((p) => graph.addNode(ctx.edges[p.edge].key));
+    for (const [key, kind] of kinds) {
+      if (!allowed.has(kind)) continue;
+      const a = Math.floor(key / plans.length);
+      const b = key % plans.length;
+      adjacency[a].push(b);
+      adjacency[b].push(a);
+      graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
+    }
+    const ds = dsaturColouring(graph);
+    const start = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+    const visits = adjacency.reduce((s, l) => s + l.length, 0) + plans.length;
+    const rounds = Math.max(1, Math.min(LAYER_ROUNDS, Math.floor(4e6 / Math.max(1, visits))));
+    return iteratedGreedy(adjacency, start, { iterations: rounds, seed, lowerBound });
+  };
+  const counts: number[] = [];
+  let colours: Int32Array = new Int32Array(plans.length);
+  for (let k = 0; k < order.length; k++) {
+    colours = colourWith(new Set(order.slice(0, k + 1)));
+    counts.push(plans.length === 0 ? 0 : colourCount(colours));
+  }
+  const layerOf = Array.from(colours);
   const count = plans.length === 0 ? 0 : Math.max(...layerOf) + 1;
   const layers: number[][] = Array.from({ length: count }, () => []);
   plans.forEach((p, k) => layers[layerOf[k]].push(p.edge));
-  const lowerBound = ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
-  return { layerOf, layers, lowerBound, conflicts };
+  return {
+    layerOf, layers, lowerBound, conflicts: kinds.size,
+    explanation: { shared: counts[0], spectator: counts[1], close: counts[2], next: counts[3], pairs },
+  };
+}
+
+/** One sentence on what the layer count comes from (the explanation's steps that add layers). */
+export function layerExplanationText(x: LayerExplanation, lowerBound: number): string {
+  const parts = [`the gates sharing a qubit need ${x.shared} (at least ${lowerBound}, the largest degree)`];
+  if (x.spectator > x.shared) parts.push(`spectators moved for one gate and used by another add ${x.spectator - x.shared} (${x.pairs.spectator} conflicting pairs)`);
+  if (x.close > x.spectator) parts.push(`coupled moving qubits whose excursions come close add ${x.close - x.spectator} (${x.pairs.close} pairs)`);
+  if (x.next > x.close) parts.push(`moving next-nearest neighbours ending close add ${x.next - x.close} (${x.pairs.next} pairs)`);
+  return `${x.next} layers: ${parts.join('; ')}`;
 }

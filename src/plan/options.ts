@@ -5,16 +5,22 @@
 import { QUBIT_TABLE_DEFAULTS, type QubitTableOptions } from './qubit-table.js';
 import type { KeepParking } from './parking/keep.js';
 
+/**
+ * Multipliers of the parking cost's terms (src/plan/parking/cost.ts). The error terms (idle,
+ * zz, gate, tls) are predicted errors of one reference cycle and weigh 1: the planner minimises
+ * the cycle's error, not a mix of hand-set weights; change them only to study a term's effect.
+ * `band` and `margin` are the weights of the two tie-breakers.
+ */
 export interface CostWeights {
-  /** Flux-noise dephasing away from the sweet spot: (t_cycle / 3) / T_phi,1/f. */
+  /** The f-dependent idle error of a qubit (dephasing, thermal excitation). */
   dephasing: number;
-  /** Static ZZ phase over the cycle: 0.05 (2 pi zeta t_cycle)^2. */
+  /** Residual ZZ error of a coupled pair over the cycle. */
   zz: number;
-  /** Dephasing of the mover at its interaction point during one CZ: (t_CZ / 3) / T_phi,1/f(f_int). */
+  /** The estimated budget of the pair's usual CZ. */
   gate: number;
-  /** Hybridisation with each listed defect: (g_TLS / (f - f_TLS))^2, g_TLS = width / 2. */
+  /** The defects' hybridised loss. */
   tls: number;
-  /** Preference for the designed band: ((f_max - f) / 1 GHz)^2. */
+  /** Prior for the designed band: ((f_max - f) / 1 GHz)^2. */
   band: number;
   /** Robustness: sum over blocked intervals of exp(-distance / sigma_fab). */
   margin: number;
@@ -38,7 +44,10 @@ export interface ParkingSearchOptions {
 export interface PlanOptions {
   /** Seed of the local search (src/util/random.ts). */
   seed: number;
-  /** Reference cycle t_cycle of the parking cost (ns): a typical error-correction cycle, common practice. */
+  /**
+   * Reference idle time of the parking search (ns): about one error-correction cycle (common
+   * practice). The plan's reported cycle uses its real layers (src/plan/cycle-budget.ts).
+   */
   cycleNs: number;
   /**
    * Ramp time assumed for each sweep from parking to the interaction point when no pulse is
@@ -64,7 +73,7 @@ export const PLAN_DEFAULTS: Readonly<PlanOptions> = Object.freeze({
   cycleNs: 1000,
   rampNs: 15,
   minRampNs: 5,
-  weights: Object.freeze({ dephasing: 1, zz: 1, gate: 1, tls: 1, band: 0.05, margin: 0.01 }),
+  weights: Object.freeze({ dephasing: 1, zz: 1, gate: 1, tls: 1, band: 0.01, margin: 1e-3 }),
   search: Object.freeze({ sweeps: 40, kicks: 200, calibrationRounds: 4, zzSafety: 0.05, nudgeGHz: 5e-4, violationPenalty: 1000 }),
   table: QUBIT_TABLE_DEFAULTS,
 });

@@ -27,6 +27,7 @@ import type { Explanation } from './parking/explain.js';
 import { COLLISION_RULES } from './rules/catalogue.js';
 import { sortFindings, type Finding } from './rules/findings.js';
 import type { GateDesign } from './gate-seam.js';
+import { budgetFindings, planBudget, type PlanBudget } from './plan-budget.js';
 
 export interface PlannedGate {
   design: GateDesign;
@@ -47,6 +48,8 @@ export interface ChipPlan {
   crowding: Crowding;
   /** Per edge (by edge index), when pulses were designed. */
   gates: (PlannedGate | null)[] | null;
+  /** Gate budgets, idle budgets and the reference cycle (./plan-budget.ts). */
+  budget: PlanBudget;
   violations: Finding[];
   flags: Finding[];
   explanations: Explanation[];
@@ -95,7 +98,9 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   const crowd = profiler.time('crowding', () => crowding(ctx, parking.parkingGHz, states, calibratedZzScale(ctx, parking.parkingGHz, parking.idle.zzGHz), edges));
   const plan: ChipPlan = {
     ctx, options, parking, states, edges, layers, crowding: crowd, gates: null, violations: [], flags: [], explanations: parking.explanations,
+    budget: { gates: [], slotsNs: [], cycle: { durationNs: 0, layerNs: [], gates: 0, idles: 0, error: 0, qubits: [], uncounted: 0 } },
   };
+  plan.budget = profiler.time('budget', () => planBudget(plan));
   collectFindings(plan);
   plan.explanations = [...parking.explanations, ...edgeExplanations(plan)];
   return plan;
@@ -131,6 +136,7 @@ export function collectFindings(plan: ChipPlan): void {
     const gate = plan.gates?.[k];
     for (const f of gate ? gate.findings : e.findings) violations.push(stripBlame(f));
   });
+  violations.push(...budgetFindings(plan.ctx, plan.edges, plan.states, plan.budget));
   plan.violations = sortFindings(violations, order);
   plan.flags = sortFindings([...plan.crowding.flags], order);
 }

@@ -25,7 +25,9 @@ import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
 import { spectatorMovesNs } from './rules/cz-duration.js';
 import { band, ghz, mhz, prob, ns } from './format.js';
+import { planBudget } from './plan-budget.js';
 import type { PooledDesign } from '../gate/design-pool.js';
+import { budgetSpectatorList } from './budget-spectators.js';
 
 export interface PulseOptions {
   family?: string;
@@ -110,6 +112,7 @@ function designOrFailure(plan: ChipPlan, e: EdgePlan, design: () => GateDesign):
   try {
     return design();
   } catch (err) {
+    if (process.env.FLUXLANE_DEBUG) console.error(err);
     // A failure inside the gate stage on one edge is reported on that edge (rule cz-design)
     // instead of losing the whole plan.
     return failedDesign(plan.ctx.ids[e.mover], `the gate stage failed on this edge: ${err instanceof Error ? err.message.split('\n')[0] : String(err)}`);
@@ -132,6 +135,7 @@ function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[], t
   const f12 = plan.states.map((s) => s.f12GHz);
   plan.layers = planLayers(ctx, plan.edges, f12, plan.parking.parkingGHz);
   plan.crowding = crowding(ctx, plan.parking.parkingGHz, plan.states, calibratedZzScale(ctx, plan.parking.parkingGHz, plan.parking.idle.zzGHz), plan.edges);
+  plan.budget = planBudget(plan);
   collectFindings(plan);
   plan.explanations = [...plan.explanations.filter((x) => x.kind === 'parking'), ...edgeExplanations(plan)];
 }
@@ -162,7 +166,18 @@ export function gateRequest(plan: ChipPlan, e: EdgePlan, options: PulseOptions):
     const worst = worstSpectator(plan, e);
     if (worst) request.spectators = [worst];
   }
+  if (request.noise) request.budgetSpectators = budgetSpectators(plan, e);
   return request;
+}
+
+/** The spectators whose error the gate's budget reports (./budget-spectators.ts), each where it sits during the gate (moved or at parking). */
+export function budgetSpectators(plan: ChipPlan, e: EdgePlan): GateSpectatorRequest[] {
+  const { ctx } = plan;
+  const parked = new Map(e.parked.map((p) => [p.qubit, p]));
+  return budgetSpectatorList((q: number) => ctx.neighbours[q], e.mover, e.partner, e.crossing).map(({ qubit: S, coupledTo }) => {
+    const edge = ctx.edges[ctx.edgeBetween(coupledTo === 'mover' ? e.mover : e.partner, S)];
+    return { transmon: ctx.transmons[S], coupledTo, gGHz: edge.gGHz, flux: parked.get(S)?.flux ?? plan.states[S].flux };
+  });
 }
 
 /** A design that did not happen (the gate stage threw): infeasible, with the reason. */
@@ -216,7 +231,8 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
   const mover = ctx.transmons[e.mover];
   const to = design.interactionFrequencyGHz;
   const toFlux = Number.isFinite(to) ? mover.fluxForF01OrNull(to) : null;
-  if (toFlux === null) return { findings: out, edge: e };
+  // no designed destination (the design failed): the edge's planned findings still stand
+  if (toFlux === null) return { findings: [...out, ...e.findings.map(({ blame: _b, ...rest }) => rest)], edge: e };
   const parking: DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const parked = new Map<number, DuringGate>(e.parked.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }]));
   const scenario: GateScenario = {

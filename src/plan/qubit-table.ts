@@ -1,6 +1,6 @@
 /**
  * A transmon's spectrum tabulated once over its planning range, so the parking search can ask
- * "what are f12, the charge matrix elements and the flux-noise dephasing rate at f01 = f?" in a
+ * "what are f12, the charge matrix elements and the flux slope at f01 = f?" in a
  * fraction of a microsecond instead of solving the charge-basis problem each time.
  *
  * Grid: M points uniform in u = sqrt(E_J / E_JS) from u_min to 1 (f01 ~ sqrt(8 E_J E_C) - E_C,
@@ -23,7 +23,6 @@
  * Search-only: every number the planner reports and every rule it checks in the end comes from
  * the exact Transmon (src/plan/exact-state.ts); this table only steers the search.
  */
-import { fluxNoiseDephasingRate } from '../transmon/coherence.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
 import type { Transmon } from '../transmon/transmon.js';
@@ -69,7 +68,7 @@ export function emptyTableState(): TableState {
  */
 export type SpectrumTable = Pick<
   QubitTable,
-  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxNoiseRate' | 'fluxNoiseRateOf' | 'f01ForF12' | 'f01ForLevel'
+  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxSlopeOf' | 'f01ForF12' | 'f01ForLevel'
 >;
 
 /**
@@ -134,8 +133,6 @@ export class QubitTable {
   /** d(value)/du. */
   private readonly dv: Float64Array;
   private readonly scratch = emptyTableState();
-  /** Gamma_1/f = noiseFactor |df01/dPhi| (src/transmon/coherence.ts), 0 without flux noise. */
-  private readonly noiseFactor: number;
   private cell = 0;
   private t = 0;
   /** f12 samples and slopes (for the inverse f12 -> f01). */
@@ -179,8 +176,6 @@ export class QubitTable {
       this.v[10 * m + k] = point.n14;
     }
     for (let c = LEVEL_CHANNELS; c < CHANNELS; c++) finiteDifferenceSlopes(this.v, this.dv, c * m, m, this.h);
-    const spec = transmon.coherenceSpec;
-    this.noiseFactor = spec && spec.fluxNoisePhi0 !== undefined ? fluxNoiseDephasingRate(1, spec.fluxNoisePhi0) : 0;
     this.w12 = new Float64Array(m);
     this.dw12 = new Float64Array(m);
     for (let k = 0; k < m; k++) {
@@ -277,17 +272,11 @@ export class QubitTable {
     return st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, this.transmon.asymmetry, flux);
   }
 
-  /** 1/T_phi from 1/f flux noise at f01 = fGHz (1/ns; 0 without flux-noise data). */
-  fluxNoiseRate(fGHz: number): number {
-    return this.fluxNoiseRateOf(this.at(fGHz));
-  }
-
-  /** 1/T_phi from 1/f flux noise in a state this table returned (1/ns). */
-  fluxNoiseRateOf(st: TableState): number {
-    if (this.noiseFactor === 0) return 0;
+  /** df01/dPhi (GHz per Phi0, <= 0 on the working branch) in a state this table returned. */
+  fluxSlopeOf(st: TableState): number {
     const d = this.transmon.asymmetry;
     const flux = fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, st.ejRatio)));
-    return this.noiseFactor * Math.abs(st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux));
+    return st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux);
   }
 
   /**

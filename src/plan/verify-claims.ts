@@ -24,6 +24,10 @@ import type { PlanEdgeInput, PlanInput } from './plan-read.js';
 import { slotNs } from './rules/cz-duration.js';
 import type { Trajectory } from '../sim/trajectory.js';
 import type { GateSimulation } from '../sim/simulate-gate.js';
+import type { WaveformNoiseBudget } from '../budget/waveform-budget.js';
+import type { RecomputedBudget } from './verify-budget.js';
+import type { GateBudget } from './gate-budget.js';
+import type { QubitIdleBudget } from './cycle-budget.js';
 
 export type ClaimScope = 'plan' | 'qubit' | 'edge' | 'gate';
 export type ClaimUnit = 'Hz' | 's' | 'rad' | 'Phi0' | '1';
@@ -38,6 +42,8 @@ export interface ClaimEnv {
   zzGHz: Float64Array;
   /** Margins recomputed by verify (per qubit, layout order). */
   crowding: readonly QubitCrowding[];
+  /** The error budget recomputed by verify (./verify-budget.ts; gates by layout edge index). */
+  budget: RecomputedBudget;
   /** qubit scope: the qubit's index. */
   qubit?: number;
   /** edge and gate scopes: the plan's edge and its layout edge index, mover and partner. */
@@ -58,6 +64,8 @@ export interface ClaimEnv {
     /** Duration of the samples (ns). */
     durationNs: number;
     simulation(): GateSimulation;
+    /** The gate stage's noise terms on the waveform (null when the plan claims no noisy fidelity). */
+    noise(): WaveformNoiseBudget | null;
     /** 'estimate' or 'lindblad' when the plan claims a noisy fidelity. */
     noisyMethod: 'estimate' | 'lindblad' | null;
   };
@@ -97,6 +105,32 @@ function qubitState(env: ClaimEnv): ExactQubitState {
 /** Finite numbers only: a recomputation that gives NaN has nothing to say. */
 function finite(x: number): number | null {
   return Number.isFinite(x) ? x : null;
+}
+
+const BUDGET_FROM = 'the budget recomputed from the layout, the plan\'s choices and its waveforms';
+
+/**
+ * The budget's tolerance: the re-simulation reproduces the gate stage's terms to about 1e-10 (the
+ * frame tabulated over the waveform's own E_J range), the rest is the same arithmetic on the same
+ * recomputed inputs; plan.json keeps 12 significant digits.
+ */
+const BUDGET_TOLERANCE = { abs: 1e-9, rel: 1e-6 };
+
+const GATE_BUDGET_TERMS: readonly [keyof GateBudget & string, string][] = [
+  ['coherent', 'coherent error'], ['t1', 'T1'], ['whiteDephasing', 'white dephasing'], ['fluxNoise', 'quasi-static flux noise'],
+  ['spectators', 'spectators'], ['sweptCrossings', 'swept crossings'], ['spectatorMoves', 'spectator moves'], ['total', 'total'],
+  ['spectatorLeakage', 'leakage the spectators add'],
+];
+
+const IDLE_TERMS: readonly [Exclude<keyof QubitIdleBudget, 'idleNs'> | 'idleTime', string][] = [
+  ['t1', 'T1'], ['dephasing', 'dephasing'], ['zz', 'residual ZZ'], ['thermal', 'thermal excitation'], ['total', 'total'], ['idleTime', 'idle time in the cycle'],
+];
+
+function gateBudgetTerm(env: ClaimEnv, key: keyof GateBudget & string): number | null {
+  const b = env.budget.gates[env.edge!.index];
+  if (!b) return null;
+  const v = b[key];
+  return typeof v === 'number' ? finite(v) : null;
 }
 
 /** The claims verify checks, by scope. The lead's error budget adds its rows here. */
@@ -140,12 +174,10 @@ export const CLAIMS: readonly Claim[] = [
     recompute: (env) => sim(env).leakage },
   { scope: 'gate', path: ['fidelity'], what: 'coherent fidelity', unit: '1', from: resim, tolerance: { abs: 1e-7 },
     recompute: (env) => sim(env).fidelity },
-  { scope: 'gate', path: ['fidelityNoisy'], what: 'fidelity with decoherence', unit: '1', from: `${resim} with decoherence`, tolerance: { abs: 1e-6 },
+  { scope: 'gate', path: ['fidelityNoisy'], what: 'fidelity with decoherence', unit: '1', from: `${resim} with decoherence and averaged over quasi-static flux offsets`, tolerance: { abs: 1e-6 },
     recompute: (env) => {
-      const method = env.gate!.noisyMethod;
-      if (method === null) return null;
-      const s = sim(env);
-      return method === 'lindblad' ? (s.noisy?.fidelity ?? null) : s.fidelity - s.decoherenceEstimate;
+      const n = env.gate!.noise();
+      return n === null ? null : finite(n.fidelityNoisy);
     } },
   { scope: 'gate', path: ['decoherenceEstimate'], what: 'first-order decoherence error', unit: '1', from: `${resim} with decoherence`, tolerance: { abs: 1e-7, rel: 1e-5 },
     recompute: (env) => (env.gate!.noisyMethod === null ? null : sim(env).decoherenceEstimate) },
@@ -153,6 +185,25 @@ export const CLAIMS: readonly Claim[] = [
     recompute: (env) => sim(env).virtualZ.a },
   { scope: 'gate', path: ['virtualZ', 'b'], what: 'virtual-Z phase b', unit: 'rad', from: resim, tolerance: { abs: 1e-5 }, periodic: true,
     recompute: (env) => sim(env).virtualZ.b },
+
+  // the error budget (README physics conventions sec. 4): each gate's, each qubit's idle budget, the cycle
+  ...GATE_BUDGET_TERMS.flatMap(([key, what]) => (['edge', 'gate'] as const).map((scope): Claim => ({
+    scope, path: ['budget', key], what: `error budget: ${what}`, unit: '1', from: BUDGET_FROM, tolerance: BUDGET_TOLERANCE,
+    recompute: (env) => gateBudgetTerm(env, key),
+  }))),
+  ...IDLE_TERMS.map(([key, what]): Claim => ({
+    scope: 'qubit', path: ['idle', key], what: `idle budget: ${what}`, unit: key === 'idleTime' ? 's' : '1', from: 'the parking point, the slots and the layers', tolerance: key === 'idleTime' ? { abs: 1e-12 } : BUDGET_TOLERANCE,
+    recompute: (env) => {
+      const q = env.budget.cycle.qubits[env.qubit!];
+      return key === 'idleTime' ? q.idleNs * NS : finite(q[key]);
+    },
+  })),
+  { scope: 'plan', path: ['cycle', 'duration'], what: 'reference cycle duration', unit: 's', from: 'the slots and the layers', tolerance: { abs: 1e-12 },
+    recompute: (env) => env.budget.cycle.durationNs * NS },
+  ...(['error', 'gates', 'idles'] as const).map((key): Claim => ({
+    scope: 'plan', path: ['cycle', key], what: `reference cycle error (${key})`, unit: '1', from: BUDGET_FROM, tolerance: BUDGET_TOLERANCE,
+    recompute: (env) => finite(env.budget.cycle[key]),
+  })),
 ];
 
 /** |stated - recomputed| (modulo 2 pi for phases). */

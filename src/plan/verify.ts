@@ -17,7 +17,7 @@
  */
 import type { ChipLayout } from '../layout/types.js';
 import { pairResonances } from '../pair/resonances.js';
-import { buildManifoldFrame } from '../sim/manifold-frame.js';
+import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../sim/pair-model.js';
 import { simulateGate, type GateSimulation } from '../sim/simulate-gate.js';
 import { trajectoryDuration, type Trajectory } from '../sim/trajectory.js';
@@ -38,6 +38,11 @@ import { sortFindings, type Finding } from './rules/findings.js';
 import { evaluateIdle } from './rules/idle-evaluate.js';
 import { tuningRoomShortfall } from './rules/tuning-room.js';
 import { slotNs } from './rules/cz-duration.js';
+import { recomputeBudget, type EdgeGateSource } from './verify-budget.js';
+import { budgetFindings } from './plan-budget.js';
+import { budgetSpectatorList } from './budget-spectators.js';
+import { spectatorBudget, waveformNoiseBudget, type WaveformNoiseBudget } from '../budget/waveform-budget.js';
+import type { StageBudget } from './gate-budget.js';
 import { CLAIMS, claimHolds, formatClaimValue, shortNumber, type Claim, type ClaimEnv } from './verify-claims.js';
 
 export const VERIFY_DEFAULTS = Object.freeze({
@@ -53,6 +58,8 @@ export interface VerifyResult {
   checked: { qubits: number; edges: number; layers: number; waveforms: number; claims: number };
   /** Waveform files named by the plan that were not found. */
   missingWaveforms: string[];
+  /** The reference cycle's error budget as verify recomputed it (src/plan/verify-budget.ts). */
+  cycle: { durationNs: number; error: number; gates: number; idles: number; uncounted: number };
 }
 
 export interface VerifyWhere {
@@ -73,6 +80,8 @@ interface GateRecord {
   waveform: Trajectory | null;
   waveformFile: string | null;
   simulation: (() => GateSimulation) | null;
+  /** The gate stage's noise terms on the waveform (null without noise). */
+  noise: (() => WaveformNoiseBudget | null) | null;
   noisyMethod: 'estimate' | 'lindblad' | null;
 }
 
@@ -85,6 +94,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
   const edgePlans: EdgePlan[] = [];
   const layerOf: number[] = [];
   const records: GateRecord[] = [];
+  const sources: EdgeGateSource[] = [];
   let waveforms = 0;
   const missing: string[] = [];
   const byPair = new Map(ctx.edges.map((e) => [pairKey(ctx.ids[e.a], ctx.ids[e.b]), e.index]));
@@ -104,6 +114,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
       violations.push({ rule: 'cz-range', qubits: [pe.mover, ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key,
         message: `${pe.mover} cannot reach the ${pe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${why}` });
       edgePlans[edge.index] = stubPlan(edge.index, mover, partner, pe.crossing);
+      sources[edge.index] = { kind: 'none' };
       continue;
     }
     const tol = VERIFY_DEFAULTS.crossingToleranceGHz;
@@ -158,6 +169,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
     if (toFlux === null || to < ctx.ranges[mover].lo - 1e-9) {
       violations.push({ rule: 'cz-range', qubits: [pe.mover], value: to, threshold: null, edge: key, message: `${pe.mover} cannot reach the interaction frequency ${ghz(to)} inside its planning range` });
       edgePlans[edge.index] = stubPlan(edge.index, mover, partner, pe.crossing);
+      sources[edge.index] = { kind: 'none' };
       continue;
     }
     const parked = new Map<number, DuringGate>();
@@ -216,15 +228,30 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
       parked: parkedInfo,
       swept: ev.swept,
     };
+    edgePlans[edge.index].durationNs = ev.durationNs;
     const noisyMethod = pe.gate?.fidelityNoisyMethod ?? (statedNumber(plan, ['edges', pe.index, 'gate', 'fidelityNoisy']) !== null ? 'estimate' : null);
-    let cached: GateSimulation | null = null;
+    const replay = waveform ? gateReplay(ctx, pe, mover, partner, states, waveform, noisyMethod, waveformFile!) : null;
     records.push({
       input: pe, index: edge.index, mover, partner, interactionGHz: to, interactionFlux: toFlux, parkedCount: parked.size,
       waveform, waveformFile, noisyMethod,
-      simulation: waveform
-        ? () => (cached ??= resimulateFile(ctx, pe, mover, partner, states, waveform!, noisyMethod, waveformFile!))
-        : null,
+      simulation: replay ? replay.simulation : null,
+      noise: replay ? replay.noise : null,
     });
+    // the gate the budget counts (src/plan/verify-budget.ts), as the planner counts it (src/plan/plan-budget.ts)
+    if (pe.gate && pe.gate.feasible === false) sources[edge.index] = { kind: 'none' };
+    else if (replay && waveform && noisyMethod !== null) {
+      const w = waveform;
+      const slot = slotNs(trajectoryDuration(w), parked.size > 0, spectatorRampNs, ctx.rules);
+      const during = new Map(parkedInfo.map((p) => [p.qubit, p.flux]));
+      let stage: StageBudget | null = null;
+      sources[edge.index] = {
+        kind: 'designed', waveform: w, slotNs: slot,
+        stage: () => (stage ??= replay.stage(budgetSpectatorList((q: number) => ctx.neighbours[q], mover, partner, pe.crossing).map(({ qubit: S, coupledTo }) => ({
+          transmon: ctx.transmons[S], coupledTo, gGHz: ctx.edges[ctx.edgeBetween(coupledTo === 'mover' ? mover : partner, S)].gGHz, flux: during.get(S) ?? states[S].flux,
+        })))),
+      };
+    } else if (gateNs !== null) sources[edge.index] = { kind: 'estimated', scenario, slotNs: slotNs(gateNs, parked.size > 0, spectatorRampNs, ctx.rules) };
+    else sources[edge.index] = { kind: 'estimated', scenario, slotNs: ev.durationNs };
   }
 
   // Layers: indices in range and contiguous, the top-level list agrees, conflicts recomputed.
@@ -232,9 +259,12 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
   const pairs = conflictingPairs(ctx, edgePlans, f12, parking);
   violations.push(...layerFindings(ctx, plan, layerOf, edgePlans, pairs));
   const crowd = crowding(ctx, parking, states, calibratedZzScale(ctx, parking, idle.zzGHz), edgePlans);
+  // The error budget, recomputed, and its rules.
+  const budget = recomputeBudget(ctx, edgePlans, sources, layerOf, states, idle.zzGHz);
+  violations.push(...budgetFindings(ctx, edgePlans, states, budget));
 
   // Claims.
-  const env: ClaimEnv = { ctx, plan, states, zzGHz: idle.zzGHz, crowding: crowd.qubits };
+  const env: ClaimEnv = { ctx, plan, states, zzGHz: idle.zzGHz, crowding: crowd.qubits, budget };
   let claims = 0;
   const problems: Diagnostic[] = [];
   const check = (claim: Claim, scoped: ClaimEnv, base: Path, qubits: string[], edge?: string): void => {
@@ -259,7 +289,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
   }
   for (const r of records) {
     const edgeEnv: ClaimEnv = { ...env, edge: { input: r.input, index: r.index, mover: r.mover, partner: r.partner, interactionGHz: r.interactionGHz, interactionFlux: r.interactionFlux, parkedCount: r.parkedCount } };
-    if (r.waveform && r.simulation) edgeEnv.gate = { waveform: r.waveform, durationNs: trajectoryDuration(r.waveform), simulation: r.simulation, noisyMethod: r.noisyMethod };
+    if (r.waveform && r.simulation && r.noise) edgeEnv.gate = { waveform: r.waveform, durationNs: trajectoryDuration(r.waveform), simulation: r.simulation, noise: r.noise, noisyMethod: r.noisyMethod };
     const qs = [ctx.ids[r.mover], ctx.ids[r.partner]];
     const key = ctx.edges[r.index].key;
     for (const claim of CLAIMS) {
@@ -277,6 +307,7 @@ export function verifyPlan(layout: ChipLayout, plan: PlanInput, where: VerifyWhe
     flags: sortFindings(crowd.flags, order),
     checked: { qubits: ctx.n, edges: edgePlans.length, layers: new Set(layerOf).size, waveforms, claims },
     missingWaveforms: missing,
+    cycle: { durationNs: budget.cycle.durationNs, error: budget.cycle.error, gates: budget.cycle.gates, idles: budget.cycle.idles, uncounted: budget.cycle.uncounted },
   };
 }
 
@@ -306,29 +337,62 @@ export function plateauSample(wf: Trajectory, f01: (flux: number) => number): nu
   return best;
 }
 
-/** resimulate, with the waveform's file named in an InputError (a waveform too long to simulate). */
-function resimulateFile(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null, file: string): GateSimulation {
-  try {
-    return resimulate(ctx, pe, mover, partner, states, waveform, noisyMethod);
-  } catch (err) {
-    if (err instanceof InputError) throw new InputError(err.diagnostics.map((d) => ({ ...d, file: d.file ?? file })));
-    throw err;
-  }
+/** What verify re-runs of one designed gate: its simulation, its noise terms and its spectators' share (each computed on first use). */
+interface GateReplay {
+  simulation(): GateSimulation;
+  noise(): WaveformNoiseBudget | null;
+  /** The gate stage's budget terms with the given spectators (needs noise). */
+  stage(spectators: EdgeSpectator[]): StageBudget;
 }
 
-/** The gate's waveform simulated on the model its designer used (src/gate/design.ts). */
-function resimulate(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null): GateSimulation {
+/**
+ * The gate's waveform on the model its designer used (src/gate/design.ts): the pair with the
+ * spectators the design simulated, the plan's target phase; with the waveform's file named in an
+ * InputError (a waveform too long to simulate).
+ */
+function gateReplay(ctx: PlanContext, pe: PlanEdgeInput, mover: number, partner: number, states: readonly ExactQubitState[], waveform: Trajectory, noisyMethod: 'estimate' | 'lindblad' | null, file: string): GateReplay {
+  const named = <T>(f: () => T): T => {
+    try {
+      return f();
+    } catch (err) {
+      if (err instanceof InputError) throw new InputError(err.diagnostics.map((d) => ({ ...d, file: d.file ?? file })));
+      throw err;
+    }
+  };
   const edge = ctx.edges[ctx.edgeBetween(mover, partner)];
-  const spectators: EdgeSpectator[] = (pe.gate?.simulatedSpectators ?? []).map((s) => {
+  const modelSpectators: EdgeSpectator[] = (pe.gate?.simulatedSpectators ?? []).map((s) => {
     const q = ctx.index.get(s.qubit)!;
     const toMover = ctx.edgeBetween(mover, q);
     const k = toMover >= 0 ? toMover : ctx.edgeBetween(partner, q);
     return { transmon: ctx.transmons[q], coupledTo: toMover >= 0 ? 'mover' : 'partner', gGHz: ctx.edges[k].gGHz, flux: s.flux };
   });
   const noise = noisyMethod !== null;
-  const model = edgeSimModel({ mover: ctx.transmons[mover], partner: ctx.transmons[partner], gGHz: edge.gGHz, partnerFlux: states[partner].flux, noise, spectators });
-  const frame = buildManifoldFrame(model, { ...moverEjRange(ctx.transmons[mover], waveform), noiseOperators: noise });
-  return simulateGate(frame, waveform, { targetPhase: pe.gate?.targetPhase ?? Math.PI, lindblad: noisyMethod === 'lindblad', estimate: noise, scheme: 'blocks' });
+  const targetPhase = pe.gate?.targetPhase ?? Math.PI;
+  const pair = { mover: ctx.transmons[mover], partner: ctx.transmons[partner], gGHz: edge.gGHz, partnerFlux: states[partner].flux, traj: waveform, targetPhase };
+  let frame: ManifoldFrame | null = null;
+  let sim: GateSimulation | null = null;
+  let nb: WaveformNoiseBudget | null | undefined;
+  const simulation = (): GateSimulation => named(() => {
+    const model = edgeSimModel({ mover: pair.mover, partner: pair.partner, gGHz: edge.gGHz, partnerFlux: pair.partnerFlux, noise, spectators: modelSpectators });
+    frame ??= buildManifoldFrame(model, { ...moverEjRange(pair.mover, waveform), noiseOperators: noise });
+    return (sim ??= simulateGate(frame, waveform, { targetPhase, lindblad: noisyMethod === 'lindblad', estimate: noise, scheme: 'blocks' }));
+  });
+  const noiseTerms = (): WaveformNoiseBudget | null => {
+    if (nb !== undefined) return nb;
+    if (noisyMethod === null) return (nb = null);
+    const s = simulation();
+    return (nb = named(() => waveformNoiseBudget({ ...pair, frame: frame!, modelSpectators, simulation: s, method: noisyMethod })));
+  };
+  return {
+    simulation,
+    noise: noiseTerms,
+    stage: (spectators) => {
+      const n = noiseTerms();
+      if (!n) throw new Error('gateReplay.stage needs a gate designed with noise');
+      const sb = named(() => spectatorBudget(pair, spectators));
+      return { coherent: n.coherent, t1: n.t1, whiteDephasing: n.whiteDephasing, fluxNoise: n.fluxNoise, spectators: sb.spectators, spectatorLeakage: sb.spectatorLeakage, spectatorShares: sb.spectatorShares };
+    },
+  };
 }
 
 /** Layer indices, the top-level layers list and the layer summary against the edges. */

@@ -53,6 +53,15 @@ export const GATE_COLUMNS: readonly GateColumn[] = [
   { csv: 'fidelity_noisy', title: 'with noise', json: 'gate.fidelityNoisy', kind: 'fidelity', doc: 'the same with decoherence' },
   { csv: 'virtual_z_a_rad', title: null, json: 'gate.virtualZ.a', kind: 'phase', doc: 'virtual-Z phase a on the mover (undo with -a)' },
   { csv: 'virtual_z_b_rad', title: null, json: 'gate.virtualZ.b', kind: 'phase', doc: 'virtual-Z phase b on the partner (undo with -b)' },
+  { csv: 'predicted_error', title: 'predicted error', json: 'budget.total', kind: 'probability', doc: "the gate's predicted error, the sum of its error budget (average gate infidelity; README \"Error budget\")" },
+  { csv: 'error_method', title: null, json: 'budget.method', kind: 'text', doc: "'simulated' for a designed gate, 'estimated' before pulse design" },
+  { csv: 'error_coherent', title: null, json: 'budget.coherent', kind: 'probability', doc: 'budget: the coherent error of the designed waveform (leakage included)' },
+  { csv: 'error_t1', title: null, json: 'budget.t1', kind: 'probability', doc: 'budget: T1 (first-order Lindblad estimate on the trajectory)' },
+  { csv: 'error_white_dephasing', title: null, json: 'budget.whiteDephasing', kind: 'probability', doc: 'budget: white dephasing (first-order Lindblad estimate)' },
+  { csv: 'error_flux_noise', title: null, json: 'budget.fluxNoise', kind: 'probability', doc: 'budget: quasi-static 1/f flux noise of both transmons' },
+  { csv: 'error_spectators', title: null, json: 'budget.spectators', kind: 'probability', doc: 'budget: the spectators (three-transmon simulations)' },
+  { csv: 'error_swept_crossings', title: null, json: 'budget.sweptCrossings', kind: 'probability', doc: 'budget: Landau-Zener transfers of both passages of every swept crossing' },
+  { csv: 'error_spectator_moves', title: null, json: 'budget.spectatorMoves', kind: 'probability', doc: 'budget: the extra slot time and dephasing of moved spectators' },
   { csv: 'feasible', title: 'ok', json: 'feasible', kind: 'yes-no', doc: 'true when the gate breaks no rule' },
 ];
 

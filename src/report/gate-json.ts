@@ -3,6 +3,8 @@
  * NaN and infinite numbers (a design that failed has them) become null.
  */
 import { plain, toHz, toSeconds } from '../plan/format.js';
+import type { GateBudget } from '../plan/gate-budget.js';
+import { designBudgetJson, gateBudgetJson } from './budget-json.js';
 import type { GateDesign } from '../plan/gate-seam.js';
 
 /** NaN and infinite numbers become null (JSON has no NaN; a design that failed has none). */
@@ -19,7 +21,7 @@ export function nanToNull(x: unknown): unknown {
  * folder and present only when the files are written; `targetPhase` the conditional phase the
  * design aimed at.
  */
-export function gateJson(edge: [string, string], d: GateDesign, files: { qubit: string; awg: string } | null, targetPhase = Math.PI): Record<string, unknown> {
+export function gateJson(edge: [string, string], d: GateDesign, files: { qubit: string; awg: string } | null, targetPhase = Math.PI, budget?: GateBudget | null): Record<string, unknown> {
   const out: Record<string, unknown> = nanToNull({
     edge,
     mover: d.mover,
@@ -49,5 +51,8 @@ export function gateJson(edge: [string, string], d: GateDesign, files: { qubit: 
     out.awgProgram = files.awg;
   }
   if (d.simulatedSpectators && d.simulatedSpectators.length > 0) out.simulatedSpectators = d.simulatedSpectators.map((s) => ({ qubit: s.qubit, flux: s.flux }));
+  if (d.notes && d.notes.length > 0) out.notes = [...d.notes];
+  if (budget) out.budget = gateBudgetJson(budget);
+  else if (d.budget) out.budget = designBudgetJson(d.budget);
   return out;
 }

@@ -12,6 +12,8 @@ import { gateJson } from './gate-json.js';
 import { waveformPaths, writesWaveforms } from './waveform-files.js';
 import { deviceJson, rulesJson } from './device-json.js';
 import { slotNs } from '../plan/rules/cz-duration.js';
+import { cycleJson, gateBudgetJson, idleBudgetJson } from './budget-json.js';
+import { layerExplanationText } from '../plan/layers.js';
 
 const nullable = (x: number, f: (v: number) => number) => (Number.isFinite(x) ? f(x) : null);
 
@@ -42,6 +44,8 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
       t1: toSeconds(s.t1Ns),
       tphi: nullable(s.tphiNs, toSeconds),
       t2: nullable(s.t2Ns, toSeconds),
+      fabricationMargin: c.fabrication ? { margin: toHz(c.fabrication.marginGHz), spreads: plain(c.fabrication.spreads), nearest: c.fabrication.nearest } : null,
+      idle: idleBudgetJson(plan.budget.cycle.qubits[i]),
       device: deviceJson(ctx, i),
     };
   });
@@ -92,7 +96,8 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
         interactionFrequency: o.interactionGHz === null ? null : toHz(o.interactionGHz),
         note: o.note,
       })),
-      gate: designed ? gateJson([id[edge.a], id[edge.b]], designed, writesWaveforms(plan, k) ? waveformPaths(edge.key) : null, gate!.targetPhase) : null,
+      budget: plan.budget.gates[k] ? gateBudgetJson(plan.budget.gates[k]!) : null,
+      gate: designed ? gateJson([id[edge.a], id[edge.b]], designed, writesWaveforms(plan, k) ? waveformPaths(edge.key) : null, gate!.targetPhase, plan.budget.gates[k]) : null,
     };
   });
   const layers = plan.layers.layers.map((list, index) => ({ index, edges: list.map((k) => [id[ctx.edges[k].a], id[ctx.edges[k].b]]) }));
@@ -109,7 +114,11 @@ export function planJson(plan: ChipPlan, meta: { file: string; seed: number; pul
     qubits,
     edges,
     layers,
-    layerSummary: { count: plan.layers.layers.length, lowerBound: plan.layers.lowerBound, conflicts: plan.layers.conflicts },
+    layerSummary: {
+      count: plan.layers.layers.length, lowerBound: plan.layers.lowerBound, conflicts: plan.layers.conflicts,
+      explanation: { ...plan.layers.explanation, text: layerExplanationText(plan.layers.explanation, plan.layers.lowerBound) },
+    },
+    cycle: cycleJson(plan.budget.cycle),
     crowding: {
       bands: plan.crowding.bands.map((b) => ({ from: toHz(b.loGHz), to: toHz(b.hiGHz), qubits: b.qubits, flagged: b.flagged })),
     },

@@ -1,7 +1,8 @@
 /** The human summary `fluxlane plan` prints: parking, the gate table, layers, crowding, explanations, findings. */
 import type { ChipPlan } from '../plan/plan.js';
 import { bandText } from '../plan/crowding.js';
-import { ghz, mhz } from '../plan/format.js';
+import { ghz, mhz, ns, prob } from '../plan/format.js';
+import { layerExplanationText } from '../plan/layers.js';
 import { gateTableText } from './gate-table-text.js';
 import { wrapLine } from '../util/wrap.js';
 
@@ -15,12 +16,16 @@ export function planText(plan: ChipPlan, json: Record<string, unknown>, file: st
     const s = plan.states[i];
     const c = plan.crowding.qubits[i];
     const margin = Number.isFinite(c.marginGHz) ? `margin ${mhz(c.marginGHz)} (${c.marginSpreads.toFixed(1)} spreads)` : 'margin -';
-    lines.push(`  ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${s.flux.toFixed(4)}  f12 ${ghz(s.f12GHz)}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`);
+    const idle = plan.budget.cycle.qubits[i];
+    lines.push(`  ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${s.flux.toFixed(4)}  f12 ${ghz(s.f12GHz)}  idle error ${idle ? prob(idle.total) : '-'}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`);
   });
   lines.push('gates:');
   for (const row of gateTableText(json).trimEnd().split('\n')) lines.push(`  ${row}`);
   lines.push(`layers: ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound}, the largest degree)`);
+  if (plan.layers.layers.length > plan.layers.lowerBound) lines.push(wrapLine(`  ${layerExplanationText(plan.layers.explanation, plan.layers.lowerBound)}`, '    '));
   plan.layers.layers.forEach((list, k) => lines.push(`  ${k}: ${list.map((e) => ctx.edges[e].key).join(' ')}`));
+  const c = plan.budget.cycle;
+  lines.push(wrapLine(`reference cycle: ${ns(c.durationNs)} (${ns(ctx.rules.cycleOverheadNs)} outside the CZ layers); predicted error ${prob(c.error)} = gates ${prob(c.gates)} + idles ${prob(c.idles)} (sums of average infidelities; model estimates)${c.uncounted > 0 ? `; ${c.uncounted} edge(s) without a feasible gate not counted, so a lower bound` : ''}`, '  '));
   const replan = json.replan as { from: string; mode: string; keptEdges: number; keptDesigns: number; changes: { message: string }[] } | undefined;
   if (replan) {
     lines.push(`re-planned from ${replan.from}${replan.mode === 'edges' ? ' (named edges only)' : ''}: ${replan.keptEdges} of ${ctx.edges.length} edges kept (${replan.keptDesigns} designs), ${replan.changes.length} change(s):`);

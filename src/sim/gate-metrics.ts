@@ -130,3 +130,22 @@ export function gateMetrics(m: Block4, theta = Math.PI): GateMetrics {
     virtualZ: { a: vz.a, b: vz.b },
   };
 }
+
+/**
+ * Average gate fidelity of M to CPhase(theta) with given virtual-Z phases a (on A) and b (on B),
+ * V = diag(1, e^{ib}, e^{ia}, e^{i(theta+a+b)}): F = [Tr(M M^dag) + |Tr(V^dag M)|^2] / 20. This is
+ * the fidelity of one shot when the lab applies the phases calibrated on the nominal gate.
+ */
+export function fidelityWithVirtualZ(m: Block4, a: number, b: number, theta = Math.PI): number {
+  const ph = [0, b, a, theta + a + b];
+  let re = 0;
+  let im = 0;
+  for (let k = 0; k < 4; k++) {
+    const c = Math.cos(ph[k]);
+    const s = Math.sin(ph[k]);
+    // conj(V_kk) M_kk = e^{-i ph} M_kk
+    re += c * m.re[k * 5] + s * m.im[k * 5];
+    im += c * m.im[k * 5] - s * m.re[k * 5];
+  }
+  return (frobenius2(m) + re * re + im * im) / 20;
+}

@@ -4,9 +4,8 @@
  * spectators (2, ...), each coupled capacitively with G from the layout's g (both transmons at
  * Phi = 0: g = G |<0|n|1>_a| |<0|n|1>_b|).
  *
- * Decoherence: T1 from the layout, T_phi(Phi) from the transmon's coherence model (white part
- * plus 1/f flux noise, src/transmon/coherence.ts), evaluated at the mover's flux along the
- * trajectory and at the static fluxes of the others.
+ * Decoherence: T1 and the white dephasing time tphi from the layout (Markovian); 1/f flux noise
+ * is quasi-static and handled outside the Lindblad model (src/budget/gate-flux-noise.ts).
  */
 import { chargeCouplingFromExchange } from '../pair/coupling.js';
 import type { Transmon } from '../transmon/transmon.js';
@@ -40,16 +39,16 @@ export interface EdgeModelInput {
 
 export const EDGE_MODEL_DEFAULTS = Object.freeze({ moverLevels: 6, partnerLevels: 4, spectatorLevels: 3 });
 
+/**
+ * The Markovian noise of a transmon: T1 and the white dephasing rate 1/tphi. 1/f flux noise is
+ * not a rate on gate time scales; it enters as a quasi-static flux offset averaged over its
+ * distribution (src/budget/gate-flux-noise.ts).
+ */
 function noiseOf(q: Transmon): TransmonNoise | undefined {
   const spec = q.coherenceSpec;
   if (!spec) return undefined;
-  return {
-    t1Ns: spec.t1Ns,
-    dephasingRate: (flux: number) => {
-      const tphi = q.coherence(flux).tphiNs;
-      return Number.isFinite(tphi) && tphi > 0 ? 1 / tphi : 0;
-    },
-  };
+  const white = spec.tphiNs !== undefined && spec.tphiNs > 0 ? 1 / spec.tphiNs : 0;
+  return { t1Ns: spec.t1Ns, dephasingRate: () => white };
 }
 
 function simTransmon(q: Transmon, levels: number, flux: number, noise: boolean): SimTransmon {

@@ -30,6 +30,12 @@ export interface GateSimulationOptions extends FramePropagationOptions {
   estimateStepNs?: number;
   /** Compute the first-order decoherence estimate (when the frame has noise data). */
   estimate?: boolean;
+  /**
+   * Dressed energies E_00, E_01, E_10 (GHz) that set the lab frame R(T) (README physics
+   * conventions sec. 3); default those of this model at parking. A gate simulated with a flux
+   * offset keeps the nominal frame: the lab does not recalibrate per shot.
+   */
+  labEnergies?: readonly [number, number, number];
 }
 
 export const GATE_SIMULATION_DEFAULTS = Object.freeze({
@@ -61,6 +67,8 @@ export interface GateSimulation {
   energies: Record<'00' | '01' | '10' | '11' | '20' | '02', number>;
   /** First-order decoherence estimate of the average infidelity (0 without noise data). */
   decoherenceEstimate: number;
+  /** Its split: relaxation (T1) and white dephasing. */
+  decoherenceSplit: { t1: number; dephasing: number };
   /** Lindblad result (with lindblad: true). */
   noisy?: NoisyMetrics;
   steps: number;
@@ -102,7 +110,7 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
   const estimate = noise ? new FirstOrderEstimate(frame, traj, stepSchedule(frame, traj, propOptions)) : undefined;
   const res = propagateInFrame(frame, traj, initial, propOptions, estimate?.observer);
   const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
-  const m = labFrameBlock(comp, res.re, res.im, T);
+  const m = labFrameBlock(comp, res.re, res.im, T, o.labEnergies);
   const metrics = gateMetrics(m, o.targetPhase);
   const pop = (st: DressedState): number => {
     if (st.sector !== comp[3].sector) return 0;
@@ -122,9 +130,14 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
     virtualZ: metrics.virtualZ,
     populations: { '20': pop(leak20), '02': pop(leak02) },
     energies: { '00': comp[0].energy, '01': comp[1].energy, '10': comp[2].energy, '11': comp[3].energy, '20': leak20.energy, '02': leak02.energy },
-    decoherenceEstimate: estimate ? estimate.result() : 0,
+    decoherenceEstimate: 0,
+    decoherenceSplit: { t1: 0, dephasing: 0 },
     steps: res.steps,
   };
+  if (estimate) {
+    out.decoherenceSplit = estimate.split();
+    out.decoherenceEstimate = out.decoherenceSplit.t1 + out.decoherenceSplit.dephasing;
+  }
   if (o.lindblad) {
     if (!frame.noise) throw new RangeError('simulate: the frame has no noise operators (build it with noiseOperators: true)');
     out.noisy = lindbladChannel(frame, traj, comp, o, metrics.virtualZ);
@@ -132,11 +145,14 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
   return out;
 }
 
-/** M = R(T) P^dag U P from the final frame columns of the four computational states. */
-export function labFrameBlock(comp: DressedState[], re: Float64Array[], im: Float64Array[], T: number): Block4 {
-  const e00 = comp[0].energy;
-  const e01 = comp[1].energy;
-  const e10 = comp[2].energy;
+/**
+ * M = R(T) P^dag U P from the final frame columns of the four computational states; the frame's
+ * energies are the states' own unless `labEnergies` (E_00, E_01, E_10) are given.
+ */
+export function labFrameBlock(comp: DressedState[], re: Float64Array[], im: Float64Array[], T: number, labEnergies?: readonly [number, number, number]): Block4 {
+  const e00 = labEnergies ? labEnergies[0] : comp[0].energy;
+  const e01 = labEnergies ? labEnergies[1] : comp[1].energy;
+  const e10 = labEnergies ? labEnergies[2] : comp[2].energy;
   const mre = new Float64Array(16);
   const mim = new Float64Array(16);
   for (let r = 0; r < 4; r++) {
@@ -228,16 +244,29 @@ class FirstOrderEstimate {
 
   /** Average gate infidelity estimate (d = 4), trapezoid rule over the step boundaries. */
   result(): number {
-    let integral = 0;
-    let prev = 0;
-    for (let b = 0; b < this.p.length; b++) {
-      let g = 0;
-      for (let j = 0; j < this.nOps; j++) g += 4 * this.p[b][j] - this.q[b][j] * this.q[b][j];
-      g /= 16;
-      if (b > 0) integral += 0.5 * (g + prev) * (this.times[b] - this.times[b - 1]);
-      prev = g;
-    }
-    return averageFromProcessInfidelity(integral);
+    const s = this.split();
+    return s.t1 + s.dephasing;
+  }
+
+  /**
+   * The estimate split by jump operator kind: relaxation (the ladder operators) and white
+   * dephasing (the number operators); each is the same integral over its operators alone (the
+   * first-order estimate is a sum over jump operators).
+   */
+  split(): { t1: number; dephasing: number } {
+    const part = (kind: number): number => {
+      let integral = 0;
+      let prev = 0;
+      for (let b = 0; b < this.p.length; b++) {
+        let g = 0;
+        for (let j = kind; j < this.nOps; j += 2) g += 4 * this.p[b][j] - this.q[b][j] * this.q[b][j];
+        g /= 16;
+        if (b > 0) integral += 0.5 * (g + prev) * (this.times[b] - this.times[b - 1]);
+        prev = g;
+      }
+      return averageFromProcessInfidelity(integral);
+    };
+    return { t1: part(0), dephasing: part(1) };
   }
 }
 

@@ -37,8 +37,11 @@ export function josephsonEnergyForFrequency(params: TransmonParams, targetGHz: n
   const hi = params.ejsGHz;
   const fLo = options.range ? options.range[0] : transition(ec, lo, nCut);
   const fHi = options.range ? options.range[1] : transition(ec, hi, nCut);
-  // Accept targets a hair outside the ends (round-off in a range the caller computed itself).
-  const slack = 1e-12 * Math.max(1, Math.abs(targetGHz));
+  // A target within round-off of an end is that end (the sweet spot itself): a range the caller
+  // computed itself, or a frequency read back from a file that keeps 12 significant digits
+  // (relative error up to 5e-12, which near a sweet spot, where f is flat, would otherwise move the
+  // flux by ~1e-6 Phi0).
+  const slack = 1e-11 * Math.max(1, Math.abs(targetGHz));
   if (Math.abs(targetGHz - fHi) <= slack) return hi;
   if (Math.abs(targetGHz - fLo) <= slack) return lo;
   if (!(targetGHz > Math.min(fLo, fHi) && targetGHz < Math.max(fLo, fHi))) return NaN;

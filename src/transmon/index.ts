@@ -5,7 +5,7 @@ export { resolveTransmon, RESOLVE_DEFAULTS, type ResolveOptions } from './resolv
 export { spectrumAt, SPECTRUM_DEFAULTS, type SpectrumPoint, type TransmonParams } from './spectrum.js';
 export { tunableRange, type TunableRange } from './tunable-range.js';
 export { fluxForFrequency, fluxForFrequencyOrNull, josephsonEnergyForFrequency, type FluxForFrequencyOptions, type TransitionName } from './flux-for-frequency.js';
-export { coherenceFor, fluxNoiseDephasingRate, fluxNoiseLogFactor, COHERENCE_DEFAULTS, type Coherence, type CoherenceOptions, type CoherenceSpec } from './coherence.js';
+export { coherenceFor, dephasingCoherence, quasiStaticCoherence, quasiStaticFluxSigma, COHERENCE_DEFAULTS, type Coherence, type CoherenceOptions, type CoherenceSpec } from './coherence.js';
 export { josephsonEnergyFromResistance, ambegaokarBaratoffConstant, AMBEGAOKAR_BARATOFF_DEFAULTS } from './ambegaokar-baratoff.js';
 export { josephsonEnergy, josephsonEnergySlope, fluxForJosephsonEnergy } from './josephson.js';
 export { transmonLevels, TRANSMON_LEVEL_DEFAULTS, type TransmonLevels, type TransmonLevelOptions } from './levels.js';

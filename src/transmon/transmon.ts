@@ -24,7 +24,7 @@
 import type { QubitLayout, SourceRef } from '../layout/types.js';
 import type { Diagnostic } from '../util/errors.js';
 import { chargeCutoffFor } from './charge-cutoff.js';
-import { coherenceFor, type Coherence, type CoherenceOptions, type CoherenceSpec } from './coherence.js';
+import { COHERENCE_DEFAULTS, coherenceFor, type Coherence, type CoherenceOptions, type CoherenceSpec } from './coherence.js';
 import { fluxForFrequency, fluxForFrequencyOrNull } from './flux-for-frequency.js';
 import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
 import { transmonLevels, type TransmonLevels } from './levels.js';
@@ -36,7 +36,7 @@ import { spectrumAt, type SpectrumPoint, type TransmonParams } from './spectrum.
 export interface TransmonOptions {
   /** Charge cutoff N; default chargeCutoffFor(E_JS / E_C). */
   chargeCutoff?: number;
-  /** 1/f dephasing options (infrared cutoff, measurement time). */
+  /** Quasi-static 1/f flux-noise options (the calibration's averaging time). */
   coherence?: CoherenceOptions;
   /** Options of resolveTransmon (used by fromLayout). */
   resolve?: ResolveOptions;
@@ -228,10 +228,30 @@ export class Transmon {
     return fluxForFrequencyOrNull(this.params, fGHz, { chargeCutoff: this.chargeCutoff, transition: 'f12', range: [this.f12MinGHz, this.f12MaxGHz] });
   }
 
-  /** T1, T_phi and T2 at `flux`; needs coherence data (fromLayout or constructor option). */
+  /**
+   * d2f01/dPhi2 (GHz per Phi0^2): central difference of the analytic slope df01/dPhi
+   * (Hellmann-Feynman) with h = 1e-4 Phi0, error O(h^2) times the fourth derivative (tested
+   * against a Richardson extrapolation of f01 itself).
+   */
+  fluxCurvatureGHz(flux: number): number {
+    const h = 1e-4;
+    return (this.spectrum(flux + h).df01dFluxGHz - this.spectrum(flux - h).df01dFluxGHz) / (2 * h);
+  }
+
+  /** The time over which a calibration is reused (ns), which sets the quasi-static flux-noise spread. */
+  get averagingTimeNs(): number {
+    return this.coherenceOptions.averagingTimeNs ?? COHERENCE_DEFAULTS.averagingTimeNs;
+  }
+
+  /**
+   * T1, the 1/e times of the Ramsey envelopes (T_phi, T2) and the inputs of the quasi-static flux
+   * noise model at `flux` (src/transmon/coherence.ts); needs coherence data (fromLayout or
+   * constructor option). `slopeGHz` saves a spectrum evaluation when the caller has df01/dPhi.
+   */
   coherence(flux: number, slopeGHz?: number): Coherence {
     if (!this.coherenceSpec) throw new RangeError(`Transmon ${this.id}: no coherence data (T1, T_phi, flux noise)`);
     const slope = slopeGHz ?? this.spectrum(flux).df01dFluxGHz;
-    return coherenceFor(this.coherenceSpec, slope, this.coherenceOptions);
+    const curvature = this.coherenceSpec.fluxNoisePhi0 ? this.fluxCurvatureGHz(flux) : 0;
+    return coherenceFor(this.coherenceSpec, slope, curvature, this.coherenceOptions);
   }
 }

@@ -13,7 +13,9 @@
  *   `cz-range` when the crossing is out of reach or too close to the end of the mover's range;
  * - a designed gate's pulse is not kept (it is re-tuned on the fabricated chip): every CZ is
  *   checked with the plan's ramp time, as verify checks a plan without pulses;
- * - gates keep their layers, and gates of one layer must not conflict.
+ * - gates keep their layers, and gates of one layer must not conflict;
+ * - the error budget's rules (gate-error with every gate estimated, idle-error over the
+ *   reference cycle): src/plan/verify-budget.ts on the drawn chip, as verify.
  *
  * Fast paths, each exact where it decides (test/yield/fixed-evaluate.test.ts compares every
  * finding with verifyPlan on the same drawn chip written as a layout):
@@ -47,6 +49,8 @@ import type { Transmon } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { sampledContext } from './sampled-context.js';
+import { recomputeBudget, type EdgeGateSource } from '../plan/verify-budget.js';
+import { budgetFindings } from '../plan/plan-budget.js';
 import type { SampledSpectrum } from './sampled-spectrum.js';
 
 export interface FixedOptions {
@@ -55,6 +59,9 @@ export interface FixedOptions {
 }
 
 export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
+
+/** A qubit whose idle error (with the estimated ZZ) exceeds this fraction of idleErrorLimit gets the exact ZZ of its pairs. */
+const IDLE_EXACT_ABOVE = 0.8;
 
 export interface FixedEdge {
   /** Layout edge index. */
@@ -167,6 +174,7 @@ export function evaluateFixed(
   // Static ZZ: calibrated estimate, exact near the limit.
   const limit = ctx.rules.zzLimitGHz;
   const zz = new Float64Array(ctx.edges.length);
+  const zzExact = new Uint8Array(ctx.edges.length);
   let exactZzEdges = 0;
   for (const e of ctx.edges) {
     const a = reached[e.a];
@@ -180,6 +188,7 @@ export function evaluateFixed(
     const est = plan.zzScale[e.index] * (secondOrderZz(sa, sb, e.gChargeGHz) + narrowResonanceZz(sa, sb, e.gChargeGHz));
     if (Math.abs(est) > o.zzExactAbove * limit || !Number.isFinite(est)) {
       zz[e.index] = ctx.pair(e.index).zz(a.flux, b.flux);
+      zzExact[e.index] = 1;
       exactZzEdges++;
     } else zz[e.index] = est;
   }
@@ -187,6 +196,7 @@ export function evaluateFixed(
   const violations: Finding[] = [...idle.violations];
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
+  const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -233,7 +243,9 @@ export function evaluateFixed(
     plan.rampNs = fe.rampNs;
     plan.parked = parkedInfo;
     plan.swept = ev.swept;
+    plan.durationNs = ev.durationNs;
     edgePlans[fe.edge] = plan;
+    budgetScenarios[fe.edge] = scenario;
   }
   // Layers: gates sharing one must not conflict (only the pairs that can).
   const f12 = states.map((s) => s.f12GHz);
@@ -252,8 +264,34 @@ export function evaluateFixed(
         message: `layer ${plan.edges[a].layer}: the gates on ${ctx.edges[a].key} and ${ctx.edges[b].key} share a qubit or a crossing and cannot run at the same time` });
     }
   }
-  // In evaluation order (idle rules, then edge by edge in layout order, then layers): the same
-  // findings as verify gives, which sorts them for people (src/plan/rules/findings.ts sortFindings).
+  // The error budget's rules, as verify computes them for a plan without pulses (every gate
+  // estimated: the pulse is re-tuned on the fabricated chip; src/plan/verify-budget.ts).
+  const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: ctx.transmons[i].spectrum(s.flux).df01dFluxGHz }));
+  const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs } : { kind: 'none' }));
+  const layerOf: number[] = [];
+  for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
+  let budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);
+  // A qubit near its idle ceiling is decided with the exact ZZ of its pairs (the estimate's
+  // per-mille error would move its idle error by more than the comparison's round-off).
+  let refined = false;
+  budget.cycle.qubits.forEach((q, i) => {
+    if (!(q.total > IDLE_EXACT_ABOVE * ctx.rules.idleErrorLimit)) return;
+    for (const k of ctx.edgesOf[i]) {
+      const e = ctx.edges[k];
+      const a = reached[e.a];
+      const b = reached[e.b];
+      if (!a || !b || zzExact[k]) continue;
+      zz[k] = ctx.pair(k).zz(a.flux, b.flux);
+      zzExact[k] = 1;
+      exactZzEdges++;
+      refined = true;
+    }
+  });
+  if (refined) budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);
+  violations.push(...budgetFindings(ctx, edgePlans, budgetStates, budget));
+  // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
+  // budget): the same findings as verify gives, which sorts them for people
+  // (src/plan/rules/findings.ts sortFindings).
   return { violations, exactZzEdges };
 }
 

@@ -29,7 +29,24 @@ export function chunkSize(job: Pick<YieldJob, 'mode'>): number {
 function spawnWorker(job: YieldJob): Worker {
   const here = import.meta.url;
   const typescript = here.endsWith('.ts');
-  return new Worker(new URL(typescript ? './yield-worker-from-source.mjs' : './yield-worker.js', here), { workerData: { job } });
+  return new Worker(new URL(typescript ? './yield-worker-from-source.mjs' : './yield-worker.js', here), { workerData: { job: cloneableJob(job) } });
+}
+
+/**
+ * The run as plain data a worker can receive: the kept plan's position finder (a function over
+ * the plan file's text, which structured cloning refuses) is left out; the worker puts back one
+ * that knows no positions (a drawn chip's findings never point into the plan file).
+ */
+export function cloneableJob(job: YieldJob): YieldJob {
+  if (!job.plan) return job;
+  const { locate: _dropped, ...plan } = job.plan;
+  return { ...job, plan: plan as YieldJob['plan'] };
+}
+
+/** The run a worker was sent by cloneableJob, with a position finder that knows no positions. */
+export function restoredJob(job: YieldJob): YieldJob {
+  if (!job.plan || typeof job.plan.locate === 'function') return job;
+  return { ...job, plan: { ...job.plan, locate: () => undefined } };
 }
 
 interface Chunk {

@@ -13,7 +13,6 @@
  */
 import type { TableState } from '../plan/qubit-table.js';
 import { QUBIT_TABLE_DEFAULTS, type SpectrumTable } from '../plan/qubit-table.js';
-import { fluxNoiseDephasingRate } from '../transmon/coherence.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { emptyReducedState, type ReducedChannel, type ReducedSpectrum, type ReducedState } from '../transmon/reduced-spectrum.js';
 
@@ -26,7 +25,6 @@ export class SampledSpectrum implements SpectrumTable {
   ecGHz = 0;
   ejsGHz = 0;
   asymmetry = 0;
-  private noiseFactor = 0;
   private readonly red = emptyReducedState();
   private readonly scratch: TableState = blankState();
   /**
@@ -67,7 +65,6 @@ export class SampledSpectrum implements SpectrumTable {
     }
     this.fLowGHz = ecGHz * table.value('e1', this.rLow);
     this.fMaxGHz = ecGHz * table.value('e1', this.rTop);
-    this.noiseFactor = fluxNoisePhi0 !== undefined ? fluxNoiseDephasingRate(1, fluxNoisePhi0) : 0;
     this.memoF.fill(NaN);
     this.memo12F.fill(NaN);
     this.memoNext = 0;
@@ -113,13 +110,9 @@ export class SampledSpectrum implements SpectrumTable {
     return st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio));
   }
 
-  fluxNoiseRate(fGHz: number): number {
-    return this.fluxNoiseRateOf(this.at(fGHz));
-  }
-
-  fluxNoiseRateOf(st: TableState): number {
-    if (this.noiseFactor === 0) return 0;
-    return this.noiseFactor * Math.abs(st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio)));
+  /** df01/dPhi (GHz per Phi0) in a state this table returned. */
+  fluxSlopeOf(st: TableState): number {
+    return st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio));
   }
 
   f01ForF12(f12GHz: number): number | null {

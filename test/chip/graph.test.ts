@@ -21,7 +21,7 @@ describe('buildChipGraph', () => {
     expect(g.edges()).toEqual(['Q0-Q1', 'Q0-Q2', 'Q0-Q3', 'Q0-Q4']);
     expect(qubitOf(g, 'Q2')).toBe(layout.qubits[2]);
     expect(g.getNodeAttribute('Q3', 'index')).toBe(3);
-    expect(g.getEdgeAttribute(edgeKey('Q0', 'Q3'), 'gGHz')).toBe(0.0155);
+    expect(g.getEdgeAttribute(edgeKey('Q0', 'Q3'), 'gGHz')).toBe(0.0112);
     expect(couplingBetween(g, 'Q3', 'Q0')?.coupling).toBe(layout.couplings[2]);
     expect(couplingBetween(g, 'Q1', 'Q2')).toBeUndefined();
     expect(couplingBetween(g, 'Q1', 'nope')).toBeUndefined();

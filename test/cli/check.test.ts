@@ -17,7 +17,8 @@ describe('fluxlane check', () => {
     const j = r.json();
     expect(r.code).toBe(j.violations.length === 0 ? 0 : 1);
     expect(j.ok).toBe(j.violations.length === 0);
-    if (file !== 'layouts/reef-49.yaml') expect(j.violations).toEqual([]);
+    // Bowline-5 is the demo that runs clean; the larger demos break error-budget rules (README "Demo results")
+    if (file === 'layouts/bowline-5.yaml') expect(j.violations).toEqual([]);
     expect(j.file).toBe(file);
     expect(typeof j.chip).toBe('string');
     for (const v of [...j.violations, ...j.flags]) expect(Object.keys(v)).toEqual(expect.arrayContaining(['rule', 'qubits', 'value', 'threshold', 'message']));
@@ -59,7 +60,7 @@ describe('fluxlane check', () => {
     const text = await runFluxlane(['check', 'layouts/bowline-5.yaml', '--profile']);
     expect(text.err).toMatch(/^profile \(s\): layout \d+\.\d{4}, chip \d+\.\d{4}, summary \d+\.\d{4}, spectra \d+\.\d{4}, parking \d+\.\d{4}, .*collisions \d+\.\d{4}, total \d+\.\d{4}\n$/);
     const json = (await runFluxlane(['check', 'layouts/bowline-5.yaml', '--profile', '--json'])).json();
-    expect(Object.keys(json.profile)).toEqual(['layout', 'chip', 'summary', 'spectra', 'parking', 'interaction', 'repair', 'layers', 'crowding', 'collisions', 'total']);
+    expect(Object.keys(json.profile)).toEqual(['layout', 'chip', 'summary', 'spectra', 'parking', 'interaction', 'repair', 'layers', 'crowding', 'budget', 'collisions', 'total']);
     for (const v of Object.values(json.profile)) expect(v).toBeGreaterThanOrEqual(0);
   });
 

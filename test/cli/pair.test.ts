@@ -17,18 +17,18 @@ const transmon = (id: string) => Transmon.fromLayout(layout.qubits.find((q) => q
 const [q0, q1, q4] = [transmon('Q0'), transmon('Q1'), transmon('Q4')];
 
 describe('fluxlane pair', () => {
-  it('pair LAYOUT --edge Q0-Q1 --json: contract fields; both at Phi = 0 so g is the layout g (14.2 MHz)', async () => {
+  it('pair LAYOUT --edge Q0-Q1 --json: contract fields; both at Phi = 0 so g is the layout g (10.6 MHz)', async () => {
     const r = await runFluxlane(['pair', LAYOUT, '--edge', 'Q0-Q1', '--json']);
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
     const j = r.json();
     expect(j.edge).toEqual(['Q0', 'Q1']);
     expect(j.mover).toBe('Q0');
-    expectClose(j.g, 14.2e6, 1e-10, 'g (Hz)');
+    expectClose(j.g, 10.6e6, 1e-10, 'g (Hz)');
     expect(Object.keys(j.levels).sort()).toEqual(['00', '01', '02', '10', '11', '20']);
     expect(j.levels['00']).toBe(0);
     expect(Object.keys(j.resonances).sort()).toEqual(['01-10', '11-02', '11-20']);
-    const pair = new CoupledPair(q0, q1, 0.0142);
+    const pair = new CoupledPair(q0, q1, 0.0106);
     const s = pair.spectrum(0, 0);
     expectClose(j.zz, s.zzGHz * 1e9, 1e-10, 'zz (Hz)');
     expectClose(j.levels['11'], (s.energy(1, 1) - s.energy(0, 0)) * 1e9, 1e-11, 'E11 - E00 (Hz)');
@@ -48,14 +48,14 @@ describe('fluxlane pair', () => {
     const f12AtCrossing = q1.spectrum(j.resonanceFlux['11-20']).f12GHz;
     expectClose(f12AtCrossing * 1e9, s0.f01GHz * 1e9, 1e-10, '11-20: f12_Q1 = f01_Q0');
     // g is quoted at the fluxes evaluated: smaller than the layout value once Q0 tunes down.
-    expect(j.g).toBeLessThan(14.2e6);
-    expectClose(j.g, new CoupledPair(q0, q1, 0.0142).exchangeCoupling(0.1, 0) * 1e9, 1e-10, 'g(0.1, 0)');
+    expect(j.g).toBeLessThan(10.6e6);
+    expectClose(j.g, new CoupledPair(q0, q1, 0.0106).exchangeCoupling(0.1, 0) * 1e9, 1e-10, 'g(0.1, 0)');
   });
 
-  it('defaults a qubit with a fixed park frequency to it (Q4 parks at 6.45 GHz)', async () => {
+  it('defaults a qubit with a fixed park frequency to it (Q4 parks at 6.44 GHz)', async () => {
     const j = (await runFluxlane(['pair', LAYOUT, '--edge', 'Q4-Q0', '--json'])).json();
-    expectClose(j.f01.Q4, 6.45e9, 1e-10, 'Q4 at its park frequency');
-    expectClose(j.flux.Q4, q4.fluxForF01(6.45), 1e-12, 'park flux');
+    expectClose(j.f01.Q4, 6.44e9, 1e-10, 'Q4 at its park frequency');
+    expectClose(j.flux.Q4, q4.fluxForF01(6.44), 1e-12, 'park flux');
     expect(j.edge).toEqual(['Q4', 'Q0']);
   });
 

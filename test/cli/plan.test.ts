@@ -27,7 +27,7 @@ describe('fluxlane plan --no-pulses', () => {
       expect(q.parkingFlux).toBeGreaterThanOrEqual(0);
       expect(q.parkingFlux).toBeLessThanOrEqual(0.5);
     }
-    expect(plan.qubits.Q4.parkingFrequency).toBe(6.45e9); // the layout's fixed park
+    expect(plan.qubits.Q4.parkingFrequency).toBe(6.44e9); // the layout's fixed park
     expect(plan.edges).toHaveLength(4);
     for (const e of plan.edges) {
       expect(Object.keys(e)).toEqual(expect.arrayContaining(['qubits', 'mover', 'crossing', 'interactionFrequency', 'spectatorParking', 'layer', 'zz', 'gate']));
@@ -38,7 +38,23 @@ describe('fluxlane plan --no-pulses', () => {
       expect([15e-9, 10e-9, 7.5e-9, 5e-9]).toContain(e.rampTime); // the planning ramp or a faster fallback
     }
     expect(plan.layers).toHaveLength(4);
-    expect(plan.layerSummary).toEqual({ count: 4, lowerBound: 4, conflicts: 6 });
+    expect(plan.layerSummary).toMatchObject({ count: 4, lowerBound: 4, conflicts: 6 });
+    expect(plan.layerSummary.explanation.text).toMatch(/4 layers/);
+    // the error budget (issue contract): per qubit over the reference cycle, per edge, the cycle
+    for (const q of Object.values<any>(plan.qubits)) {
+      expect(Object.keys(q.idle)).toEqual(expect.arrayContaining(['t1', 'dephasing', 'zz', 'thermal', 'total']));
+      expect(q.idle.total).toBeCloseTo(q.idle.t1 + q.idle.dephasing + q.idle.zz + q.idle.thermal, 12);
+    }
+    for (const e of plan.edges) {
+      const b = e.budget;
+      expect(b.method).toBe('estimated');
+      const parts = ['coherent', 't1', 'whiteDephasing', 'fluxNoise', 'spectators', 'sweptCrossings', 'spectatorMoves'];
+      expect(b.total).toBeCloseTo(parts.reduce((a, k) => a + b[k], 0), 12);
+      expect(b.total).toBeLessThanOrEqual(plan.rules.gateErrorLimit);
+    }
+    expect(Object.keys(plan.cycle)).toEqual(expect.arrayContaining(['duration', 'error', 'gates', 'idles']));
+    expect(plan.cycle.error).toBeCloseTo(plan.cycle.gates + plan.cycle.idles, 12);
+    expect(plan.cycle.gates).toBeCloseTo(plan.edges.reduce((a: number, e: any) => a + e.budget.total, 0), 12);
     expect(plan.violations).toEqual([]);
     expect(Array.isArray(plan.flags)).toBe(true);
     const csv = readFileSync(join(dir, 'out/gates.csv'), 'utf8').trimEnd().split('\n');

@@ -35,9 +35,10 @@ describe('fluxlane spectrum', () => {
       expect(p.t2).toBeGreaterThan(0);
       expect(p.t2).toBeLessThanOrEqual(2 * 85e-6 * (1 + 1e-12));
     }
-    // At the sweet spots first-order flux noise vanishes: T_phi is null (no white part for Q1), T2 = 2 T1.
+    // At the sweet spots first-order flux noise vanishes; the second-order (curvature) term of the
+    // quasi-static model leaves T2 within 1e-5 of 2 T1 (no white part for Q1).
     expect(j.points[0].tphi).toBeNull();
-    expectClose(j.points[0].t2, 170e-6, 1e-12, 'T2 = 2 T1');
+    expectClose(j.points[0].t2 / 170e-6, 1, 1e-5, 'T2 = 2 T1');
   });
 
   it('--flux F ... evaluates exactly those fluxes (negative flux = mirror image)', async () => {

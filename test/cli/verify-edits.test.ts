@@ -90,16 +90,20 @@ describe('fluxlane verify catches hand edits of a plan with pulses', () => {
   });
 
   it('a waveform stretched 5x in time', async () => {
-    const r = await verifyEdited((dir) => editWaveform(dir, 'waveforms/Q0-Q2.qubit.csv', (t, x) => [5 * t, x]));
+    let duration = NaN;
+    const r = await verifyEdited((dir, plan) => {
+      duration = plan.edges[1].gate.duration;
+      editWaveform(dir, 'waveforms/Q0-Q2.qubit.csv', (t, x) => [5 * t, x]);
+    });
     expect(r.code).toBe(1);
     const d = r.json.violations.find((v: any) => v.rule === 'cz-duration');
     expect(d.edge).toBe('Q0-Q2');
-    expect(d.value).toBeCloseTo(5 * 45e-9, 12); // the samples' duration, against maxGate 80 ns
+    expect(d.value).toBeCloseTo(5 * duration, 12); // the samples' duration, against maxGate 80 ns
     expect(claims(r.json)).toEqual(expect.arrayContaining(['edges[1].gate.duration', 'edges[1].slotDuration', 'edges[1].gate.conditionalPhase']));
   });
 
-  it('a waveform scaled 1.4x in flux', async () => {
-    const r = await verifyEdited((dir) => editWaveform(dir, 'waveforms/Q0-Q3.qubit.csv', (t, x) => [t, 1.4 * x]));
+  it('a waveform scaled 1.25x in flux', async () => {
+    const r = await verifyEdited((dir) => editWaveform(dir, 'waveforms/Q0-Q3.qubit.csv', (t, x) => [t, 1.25 * x]));
     expect(r.code).toBe(1);
     expect(claims(r.json)).toEqual(expect.arrayContaining(['edges[2].interactionFrequency', 'edges[2].moverInteractionFlux', 'edges[2].gate.fidelity', 'edges[2].gate.leakage']));
   });
@@ -130,8 +134,11 @@ describe('fluxlane verify catches hand edits of a plan with pulses', () => {
       plan.layerSummary.count = 1;
     });
     expect(r.code).toBe(1);
-    // a consistent edit: the layer indices and the summary agree, the conflicts do not go away
-    expect(rules(r.json)).toEqual(Array(6).fill('layer-conflict'));
+    // a consistent edit: the layer indices and the summary agree, the conflicts do not go away;
+    // the shorter cycle changes the claimed cycle and idle budgets, and nothing else
+    expect(rules(r.json).filter((x) => x !== 'plan-claim')).toEqual(Array(6).fill('layer-conflict'));
+    for (const c of claims(r.json)) expect(c).toMatch(/^(cycle\.|qubits\.Q\d\.idle\.)/);
+    expect(claims(r.json)).toEqual(expect.arrayContaining(['cycle.duration', 'cycle.error']));
   });
 
   it('an edge in layer 1e9', async () => {

@@ -33,8 +33,9 @@ describe('fluxlane verify', () => {
 
   it('a plan with one parking frequency moved onto a collision fails, naming the rule and the qubits', async () => {
     const { path, plan } = await planned('layouts/clove-17.yaml');
-    // X1 and X3 share D2: put X1 5 MHz from X3 (next-nearest neighbours need 30 MHz).
-    plan.qubits.X1.parkingFrequency = plan.qubits.X3.parkingFrequency + 5e6;
+    // X1 and X3 share D2: put them 5 MHz apart (next-nearest neighbours need 30 MHz), both inside their ranges.
+    plan.qubits.X1.parkingFrequency = 5.2e9;
+    plan.qubits.X3.parkingFrequency = 5.205e9;
     writeFileSync(path, JSON.stringify(plan, null, 2));
     const r = await runFluxlane(['verify', 'layouts/clove-17.yaml', path, '--json']);
     expect(r.code).toBe(1);

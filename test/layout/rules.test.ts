@@ -23,15 +23,27 @@ describe('shared/rules.json', () => {
       detuningNext0101GHz: 0.03,
       tlsClearanceGHz: 0.005,
       readoutDetuningGHz: 0.3,
-      spectatorDetuningGHz: 0.03,
+      spectatorAdmixture: 0.02,
       sweptTransferLimit: 1e-3,
       maxGateNs: 100,
       sampleRateGHz: 2.4,
       resistanceSpread: 0.02,
       marginFlagSpreads: 3,
       fluxBandwidthGHz: 1,
+      maxFluxExcursion: 0.45,
+      gateErrorLimit: 0.01,
+      spectatorLeakageLimit: 1e-3,
+      idleErrorLimit: 0.02,
+      cycleOverheadNs: 600,
+      noiseAveragingTimeNs: 1e9,
+      qubitTemperatureK: 0.05,
     });
     expect(Object.isFrozen(DEFAULT_RULES)).toBe(true);
+  });
+
+  it('a temperature rule reads units of temperature (qubitTemperature: 50 mK is 0.05 K)', () => {
+    expect(parseRuleValue(ruleSpecByKey('qubitTemperature')!, '20 mK')).toEqual({ ok: true, value: 0.02 });
+    expect(parseRuleValue(ruleSpecByKey('qubitTemperature')!, '20 MHz')).toMatchObject({ ok: false });
   });
 
   it('parseRuleValue checks kind and range', () => {

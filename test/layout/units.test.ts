@@ -109,6 +109,7 @@ describe('parseQuantity without mathjs for plain texts', () => {
       time: ['s', 'ms', 'us', 'µs', 'μs', 'ns', 'ps', 'min'],
       resistance: ['Ohm', 'ohm', 'kOhm', 'kΩ', 'MOhm', 'Ω'],
       fluxNoise: ['Phi0', 'mPhi0', 'uPhi0', 'nPhi0', 'uPhi0/sqrt(Hz)', 'uPhi0 / sqrt(Hz)', 'mPhi0/Hz^0.5'],
+      temperature: ['K', 'mK', 'uK', 'µK'],
     };
     const text = fc.record({
       kind: fc.constantFrom('frequency', 'time', 'resistance', 'fluxNoise') as fc.Arbitrary<Parameters<typeof parseQuantity>[1]>,

@@ -15,7 +15,7 @@ const parking: Record<string, number> = Object.fromEntries(base.ctx.ids.map((q, 
 
 describe('keep: parking from an earlier plan', () => {
   it('pin: every kept frequency is the plan\'s parking, bit for bit, also one that breaks a rule (reported)', () => {
-    const moved: Record<string, number> = { ...parking, X1: parking.X3 + 0.005 }; // X1 and X3 share D2: 30 MHz needed (next-01-01)
+    const moved: Record<string, number> = { ...parking, X3: parking.X1 + 0.005 }; // X1 and X3 share D2: 30 MHz needed (next-01-01)
     const p = planChip(layout, { keep: { parkingGHz: moved, mode: 'pin' } });
     p.ctx.ids.forEach((q, i) => expect(p.parking.parkingGHz[i], q).toBe(moved[q]));
     expect(p.violations.some((v) => v.rule === 'next-01-01' && v.qubits.includes('X1') && v.qubits.includes('X3'))).toBe(true);
@@ -24,11 +24,14 @@ describe('keep: parking from an earlier plan', () => {
   it('prefer: the plan\'s own parking is kept as it is', () => {
     const p = planChip(layout, { keep: { parkingGHz: parking, mode: 'prefer' } });
     p.ctx.ids.forEach((q, i) => expect(p.parking.parkingGHz[i], q).toBe(parking[q]));
-    expect(p.violations).toEqual([]);
+    // the same plan: the same rules hold and the same ones break (Clove-17 breaks error-budget rules, README "What the demos give")
+    const key = (v: { rule: string; qubits: string[]; edge?: string }) => `${v.rule}|${v.edge ?? ''}|${v.qubits.join(',')}`;
+    expect(p.violations.map(key)).toEqual(base.violations.map(key));
+    expect(p.parking.idle.violations).toEqual([]);
   });
 
   it('prefer: a kept frequency that breaks a rule gives way; every other qubit keeps its frequency', () => {
-    const moved: Record<string, number> = { ...parking, X1: parking.X3 + 0.005 };
+    const moved: Record<string, number> = { ...parking, X3: parking.X1 + 0.005 };
     const p = planChip(layout, { keep: { parkingGHz: moved, mode: 'prefer' } });
     const changed = p.ctx.ids.filter((q, i) => Math.abs(p.parking.parkingGHz[i] - moved[q]) > 1e-6);
     expect(changed.length).toBe(1);

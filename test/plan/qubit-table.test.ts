@@ -39,7 +39,7 @@ describe('QubitTable', () => {
       expectClose(table.fluxAt(f), flux, 1e-7, `flux at ${f}`);
       expectClose(table.f12At(f), sp.f12GHz, 1e-7, `f12 at ${f}`);
       expectClose(table.slopeAt(f), sp.df01dFluxGHz, 1e-5, `slope at ${f}`);
-      expectClose(table.fluxNoiseRate(f), t.coherence(flux).fluxNoiseRatePerNs, 1e-5, `1/f rate at ${f}`);
+      expectClose(table.fluxSlopeOf(table.at(f)), sp.df01dFluxGHz, 1e-5, `fluxSlopeOf at ${f}`);
     }
   });
 

@@ -37,7 +37,7 @@ describe('measuredChanges', () => {
       .replace(/(\n  Q1:\n(?:    .*\n)*?    fMax: )[^\n]+/, '$16.30 GHz')
       .replace(/(\n  Q1:\n(?:    .*\n)*?    t1: )[^\n]+/, '$140 us')
       .replace(/maxGate: [^\n]*/, 'maxGate: 90 ns')
-      .replace('- [Q0, Q2, 12.8 MHz]', '- [Q0, Q2, 13.1 MHz]');
+      .replace('- [Q0, Q2, 9.8 MHz]', '- [Q0, Q2, 10.1 MHz]');
     expect(changed).not.toBe(src);
     const ctx = buildPlanContext(parseLayoutText(changed, 'measured.yaml'));
     const m = measuredChanges(ctx, earlier);
@@ -50,7 +50,7 @@ describe('measuredChanges', () => {
     expect(q.find((c) => c.field === 'fMax')?.derived).toBeUndefined();
     expect(changeText(q.find((c) => c.field === 'fMax')!)).toBe('maximum frequency 6.3200 GHz -> 6.3000 GHz');
     expect(m.rules.map((r) => r.field)).toEqual(['maxGate']);
-    expect(m.couplings.filter(Boolean).map((c) => [c!.subject, c!.to])).toEqual([['Q0-Q2', 13.1e6]]);
+    expect(m.couplings.filter(Boolean).map((c) => [c!.subject, c!.to])).toEqual([['Q0-Q2', 10.1e6]]);
     for (const [i, list] of m.qubits.entries()) if (ctx.ids[i] !== 'Q1') expect(list).toEqual([]);
   });
 

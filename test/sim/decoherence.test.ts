@@ -46,6 +46,23 @@ describe('decoherence', () => {
     expect(Math.abs(sim.decoherenceEstimate - lindblad) / lindblad).toBeLessThan(0.02);
   });
 
+  it('its split into the T1 and white-dephasing terms matches Lindblad runs with only that noise, within 2 % each (the error budget\'s t1 and whiteDephasing)', () => {
+    const traj = cosineRamps(0.9 * crossingFlux(), 10, 20, 0.5);
+    const only = (kind: 't1' | 'dephasing') => ({
+      a: { t1Ns: kind === 't1' ? T1A : Infinity, dephasingRate: () => (kind === 't1' ? 0 : 1 / TPA) },
+      b: { t1Ns: kind === 't1' ? T1B : Infinity, dephasingRate: () => (kind === 't1' ? 0 : 1 / TPB) },
+    });
+    const both = simulateGate(buildManifoldFrame(pairModel(6, 4, noise), { ...ejRange(traj), noiseOperators: true }), traj);
+    for (const kind of ['t1', 'dephasing'] as const) {
+      const frame = buildManifoldFrame(pairModel(6, 4, only(kind)), { ...ejRange(traj), noiseOperators: true });
+      const phi = simulateGate(frame, traj).conditionalPhase;
+      const sim = simulateGate(frame, traj, { lindblad: true, targetPhase: phi });
+      const lindblad = sim.fidelity - sim.noisy!.fidelity;
+      expect(Math.abs(both.decoherenceSplit[kind] - lindblad) / lindblad, kind).toBeLessThan(0.02);
+    }
+    expect(both.decoherenceSplit.t1 + both.decoherenceSplit.dephasing).toBeCloseTo(both.decoherenceEstimate, 15);
+  });
+
   it('a flux-dependent T_phi enters through the mover flux along the trajectory', () => {
     // an excursion far from the 11-20 crossing, so the states stay computational
     const traj = cosineRamps(0.6 * crossingFlux(), 10, 20, 0.5);

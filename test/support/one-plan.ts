@@ -60,8 +60,11 @@ export async function resimulateEveryEdge(d: PlannedDemo, tol: number): Promise<
       ['virtualZ.a', s.virtualZ.a, g.virtualZ.a],
       ['virtualZ.b', s.virtualZ.b, g.virtualZ.b],
     ] as const) {
-      close(a, b, tol, `${key} ${name}`);
-      worst = Math.max(worst, Math.abs(a - b));
+      // phases are compared modulo 2 pi
+      const periodic = name === 'conditionalPhase' || name.startsWith('virtualZ');
+      const diff = periodic ? Math.abs(a - b - 2 * Math.PI * Math.round((a - b) / (2 * Math.PI))) : Math.abs(a - b);
+      close(diff, 0, tol, `${key} ${name} (${a} against ${b})`);
+      worst = Math.max(worst, diff);
     }
     simulated++;
   }
@@ -168,13 +171,29 @@ export function compareTables(d: PlannedDemo, columns: readonly { csv: string; t
   return cells;
 }
 
-/** `fluxlane check` finds, edge by edge, the same feasibility and the same broken rules as the plan. */
+/**
+ * The error-budget rules: check judges them on the estimated budget (no pulse), the plan on the
+ * designed and simulated one, so they may differ edge by edge (README "Error budget").
+ */
+const BUDGET_RULES = new Set(['gate-error', 'spectator-leakage', 'idle-error']);
+
+/**
+ * `fluxlane check` finds, edge by edge, the same feasibility and the same broken rules as the
+ * plan, apart from the budget rules (BUDGET_RULES).
+ */
 export async function compareCheck(d: PlannedDemo): Promise<number> {
   const r = await runFluxlane(['check', d.layout, '--json']);
   const c = r.json();
+  // a designed gate's mover sweeps at its waveform's rates, check's at the planning ramp's: the
+  // mover's own swept-crossing rules may differ where the plan has a waveform
+  const designed = new Map<string, string>(d.plan.edges.filter((e: any) => e.gate?.waveform).map((e: any) => [e.qubits.join('-'), e.mover]));
   const rules = (list: any[]) => {
     const m = new Map<string, string[]>();
-    for (const v of list) if (v.edge) m.set(v.edge, [...new Set([...(m.get(v.edge) ?? []), v.rule])].sort());
+    for (const v of list) {
+      if (!v.edge || BUDGET_RULES.has(v.rule)) continue;
+      if (v.rule.startsWith('cz-swept-') && designed.get(v.edge) === v.qubits[0]) continue;
+      m.set(v.edge, [...new Set([...(m.get(v.edge) ?? []), v.rule])].sort());
+    }
     return m;
   };
   const cr = rules(c.violations);
@@ -184,9 +203,16 @@ export async function compareCheck(d: PlannedDemo): Promise<number> {
     const pe = d.plan.edges[k];
     const key = pe.qubits.join('-');
     expect(ce.qubits, key).toEqual(pe.qubits);
-    expect(ce.feasible, `${key}: check ${ce.feasible}, plan ${pe.feasible}`).toBe(pe.feasible);
     expect(cr.get(key) ?? [], key).toEqual(pr.get(key) ?? []);
+    // feasible: the same, or different only through the mover's own sweeps of a designed gate
+    if (ce.feasible !== pe.feasible) {
+      expect(designed.has(key), `${key}: check ${ce.feasible}, plan ${pe.feasible}`).toBe(true);
+      expect(cr.get(key) ?? [], `${key}: check ${ce.feasible}, plan ${pe.feasible}`).toEqual([]);
+    }
   });
-  expect(r.code).toBe(d.code);
+  // the exit codes agree when both judge the same rules: exit 1 on either side from a rule the
+  // comparison above holds equal appears on the other side too
+  const compared = (list: any[]) => list.some((v) => !BUDGET_RULES.has(v.rule) && !(v.rule.startsWith('cz-swept-') && designed.get(v.edge) === v.qubits[0]));
+  if (compared(c.violations) || compared(d.plan.violations)) expect(r.code).toBe(d.code);
   return c.edges.length;
 }

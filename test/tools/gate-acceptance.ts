@@ -7,8 +7,13 @@
  * to on some edges instead), checked for
  *
  *   - |phi_c - pi| < 1e-3 rad and coherent leakage < 1e-4 after tuning;
- *   - with --noise: coherent error 1 - F below 10 % of the error decoherence adds (F - F_noisy,
- *     Lindblad), and the first-order estimate within 20 % of the Lindblad decoherence error.
+ *   - with --noise: coherent error 1 - F below 10 % of the error decoherence adds (F - F_noisy:
+ *     Lindblad T1 and white dephasing, plus the quasi-static flux-noise average) for the
+ *     designer's own choice and the adiabatic families (faquad, fast-adiabatic, squeezing-aware);
+ *     the baseline families (linear, erf) below 1e-3 absolute (with quasi-static flux noise the
+ *     decoherence error of a 40 ns gate is a few 1e-4 to 1e-3, and a near-sudden ramp's coherent
+ *     floor of 3e-4 to 7e-4 no longer fits 10 % of it; measured on Bowline-5 and Clove-17); and the
+ *     first-order estimate within 20 % of the Lindblad part of the decoherence error.
  *
  *     npx tsx test/tools/gate-acceptance.ts [--noise] [--verbose] [--plan-ramps] [--families default,faquad,...] [layout-name ...]
  *
@@ -49,6 +54,8 @@ for (const name of layouts) {
       try {
         const req = { ...gateRequest(plan, e, { noise, lindblad: true }), family: family === 'default' ? undefined : family };
         if (!planRamps) delete req.rampNs;
+        // the spectators' three-transmon simulations are checked elsewhere (test/budget/spectator-error.test.ts)
+        delete req.budgetSpectators;
         const d = designCzGate(req);
         if (verbose) console.log(`${name} ${label} ${family}: phi_c ${d.conditionalPhase.toFixed(6)} leakage ${d.leakage.toExponential(3)} 1-F ${(1 - d.fidelity).toExponential(3)} hold ${d.holdNs.toFixed(2)} ns offset ${(d.crossingOffsetGHz * 1e3).toFixed(2)} MHz` + (noise ? ` F_noisy ${d.fidelityNoisy?.toFixed(6)} estimate ${d.decoherenceEstimate?.toExponential(3)}` : ''));
         if (!d.feasible) problems.push(`infeasible: ${d.reason}`);
@@ -61,10 +68,12 @@ for (const name of layouts) {
           if (noise) {
             const decoherence = d.fidelity - (d.fidelityNoisy ?? NaN);
             const share = (1 - d.fidelity) / decoherence;
-            const deviation = Math.abs((d.decoherenceEstimate ?? NaN) / decoherence - 1);
-            worst.coherentShare = Math.max(worst.coherentShare, share);
+            const lindblad = decoherence - (d.budget?.fluxNoise ?? NaN);
+            const deviation = Math.abs((d.decoherenceEstimate ?? NaN) / lindblad - 1);
             worst.estimateDeviation = Math.max(worst.estimateDeviation, deviation);
-            if (!(share < 0.1)) problems.push(`coherent error ${(1 - d.fidelity).toExponential(2)} is ${(100 * share).toFixed(1)} % of the decoherence error`);
+            const baseline = family === 'linear' || family === 'erf';
+            if (baseline ? !(1 - d.fidelity < 1e-3) : !(share < 0.1)) problems.push(`coherent error ${(1 - d.fidelity).toExponential(2)} is ${(100 * share).toFixed(1)} % of the decoherence error`);
+            if (!baseline) worst.coherentShare = Math.max(worst.coherentShare, share);
             if (!(deviation < 0.2)) problems.push(`estimate off the Lindblad decoherence error by ${(100 * deviation).toFixed(1)} %`);
           }
         }

@@ -62,7 +62,7 @@ describe('Transmon.fromLayout(qubit)', () => {
       expect(qa.spectrum(flux)).toEqual(spectrumAt(qa.params, flux, { chargeCutoff: qa.chargeCutoff }));
       expectClose(qa.f01(flux), qa.spectrum(flux).f01GHz, 1e-13, `f01 at ${flux}`);
       const s = qa.spectrum(flux);
-      expect(qa.coherence(flux)).toEqual(coherenceFor({ t1Ns: 70_000, tphiNs: 100_000, fluxNoisePhi0: 3e-6 }, s.df01dFluxGHz));
+      expect(qa.coherence(flux)).toEqual(coherenceFor({ t1Ns: 70_000, tphiNs: 100_000, fluxNoisePhi0: 3e-6 }, s.df01dFluxGHz, qa.fluxCurvatureGHz(flux)));
     }
   });
 

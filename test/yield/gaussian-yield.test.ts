@@ -15,7 +15,9 @@
  * scipy.stats.norm.cdf (the outside reference). Every other rule holds for any z here (01-01 and
  * the other 01-12 condition are 160 and 360 MHz away; the static ZZ, 50 kHz at the nominal point,
  * passes its 200 kHz limit outside the 01-12 band; the CZ, 40 MHz down to the crossing, passes
- * nothing; maxGate is 1 us for the slow 1 MHz coupling). The Monte Carlo yield of 4,000 chips must
+ * nothing; maxGate is 1 us for the slow 1 MHz coupling; the error-budget ceilings idleErrorLimit
+ * and gateErrorLimit are relaxed to 0.5, since both qubits sit off their sweet spots by design and
+ * the slow CZ idles long: the point here is the one collision condition). The Monte Carlo yield of 4,000 chips must
  * hold the closed form inside its Wilson 95 % interval.
  */
 import { describe, expect, it } from 'vitest';
@@ -54,6 +56,8 @@ couplings:
   - [Q1, Q2, 1 MHz]
 rules:
   maxGate: 1 us
+  idleErrorLimit: 0.5
+  gateErrorLimit: 0.5
 `;
 }
 

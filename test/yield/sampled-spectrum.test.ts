@@ -43,8 +43,10 @@ describe('SampledSpectrum', () => {
         expect(Math.abs(st.e3 - (b.energies[3] - b.energies[0])), `E3 at ${f}`).toBeLessThan(1e-8);
         const qt = q.at(f);
         expect(Math.abs(st.df01dEj - qt.df01dEj) / Math.abs(qt.df01dEj), `dE01/dE_J at ${f}`).toBeLessThan(1e-5);
-        // QubitTable interpolates to ~1e-7 GHz, so near the sweet spot (slope -> 0) only ~1e-10 /ns absolute
-        expect(Math.abs(s.fluxNoiseRate(f) - q.fluxNoiseRate(f)), `flux-noise rate at ${f}`).toBeLessThan(1e-4 * q.fluxNoiseRate(f) + 1e-10);
+        // QubitTable interpolates to ~1e-7 GHz, so near the sweet spot (slope -> 0) only ~1e-6 GHz/Phi0 absolute
+        const slopeS = s.fluxSlopeOf(s.at(f));
+        const slopeQ = q.fluxSlopeOf(q.at(f));
+        expect(Math.abs(slopeS - slopeQ), `flux slope at ${f}`).toBeLessThan(1e-4 * Math.abs(slopeQ) + 1e-6);
       }
     });
 

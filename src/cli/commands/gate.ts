@@ -12,8 +12,10 @@
  * design can be re-simulated independently (same metrics).
  *
  * JSON (SI: s, Hz, rad; flux in Phi0): { edge, mover, family, rampTime, holdTime, duration,
- * interactionFrequency, crossingOffset, conditionalPhase, leakage, fidelity, fidelityNoisy
- * (with --noise), virtualZ: {a, b}, speedLimit, untuned: {conditionalPhase, leakage, fidelity},
+ * interactionFrequency, crossingOffset, conditionalPhase, leakage, fidelity, fidelityNoisy and
+ * budget (with --noise: coherent, t1, whiteDephasing, fluxNoise, fluxNoiseSplit, spectators (with
+ * --plan, the plan's spectators where it puts them; else null), spectatorLeakage, spectatorShares,
+ * total; src/report/budget-json.ts), virtualZ: {a, b}, speedLimit, untuned: {conditionalPhase, leakage, fidelity},
  * feasible, reason?, crossing, crossingFrequency, gap, populations: {"20", "02"} }.
  */
 import { Argument, type Command } from 'commander';
@@ -33,6 +35,9 @@ import { checkOutputFile } from '../output-write.js';
 import { FigureGuard, guardDesign } from '../figure-guard.js';
 import { designSeconds, enforceWork } from '../work-limits.js';
 import { familyOption, fluxOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, phaseOption, rampOption, withCommonOptions } from '../options.js';
+import { budgetSpectatorList } from '../../plan/budget-spectators.js';
+import { designBudgetJson } from '../../report/budget-json.js';
+import { budgetLines } from '../budget-lines.js';
 
 const GateOptions = z.object({
   edge: z.string({ error: () => 'an edge A-B' }),
@@ -62,16 +67,17 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const { edge: [la, lb], mover: lm, other: ls, gGHz } = edgeRoles(layout, o.edge, o.mover ?? fromPlan?.mover);
   // the plan's crossing, family, ramp and phase describe its gate, with its mover
   const samePlanGate = fromPlan !== null && fromPlan.mover === lm.id;
-  const planDesign = samePlanGate ? fromPlan.design : null;
+  // a design the plan marks infeasible (the gate stage failed there) names no family or ramp to reuse
+  const planDesign = samePlanGate && fromPlan.design?.feasible !== false ? fromPlan.design : null;
   const rampNs = rampOpt ?? planDesign?.rampNs;
-  const theta = phaseOpt ?? planDesign?.targetPhase ?? Math.PI;
+  const theta = phaseOpt ?? (samePlanGate ? fromPlan.design?.targetPhase : undefined) ?? Math.PI;
   const crossing = o.crossing ?? (samePlanGate ? fromPlan.crossing : '11-20');
   const family = o.family ?? planDesign?.family;
   // a design without a named family may design the fallback family too
   const seconds = designSeconds(layout.rules, gGHz, { lindblad: !!o.noise }) * (family === undefined ? 2 : 1);
   enforceWork({ seconds, what: `a CZ design of ${la.id}-${lb.id}${o.noise ? ' with Lindblad noise' : ''}` }, o.maxSeconds, 'gate');
-  const mover = Transmon.fromLayout(lm);
-  const partner = Transmon.fromLayout(ls);
+  const mover = Transmon.fromLayout(lm, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
+  const partner = Transmon.fromLayout(ls, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
   const moverChoice = chooseFlux(mover, lm, undefined, fromPlan?.parkingFlux.get(lm.id));
   const partnerChoice = chooseFlux(partner, ls, staticFluxOpt, fromPlan?.parkingFlux.get(ls.id));
   const moverPark = moverChoice.flux;
@@ -94,6 +100,11 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       rules,
       noise: !!o.noise,
       spectators: spectators.length > 0 ? spectators.map((x) => x.request) : undefined,
+      // with the plan's gate: the spectators its budget counts, where the plan puts them
+      budgetSpectators: o.noise && samePlanGate
+        ? budgetSpectatorList((q: string) => layout.couplings.filter((c) => c.a === q || c.b === q).map((c) => (c.a === q ? c.b : c.a)), lm.id, ls.id, crossing)
+            .map((b) => spectatorRequest(layout, b.qubit, lm, ls, fromPlan).request)
+        : undefined,
     }),
   );
   const guard = new FigureGuard(layout);
@@ -128,9 +139,12 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
   };
   if (planOpt) data.plan = planOpt.file;
   if (design.reason) data.reason = design.reason;
+  if (design.notes?.length) data.notes = design.notes;
   if (o.noise) {
     data.fidelityNoisy = si(design.fidelityNoisy ?? NaN);
     data.decoherenceEstimate = si(design.decoherenceEstimate ?? NaN);
+    data.budget = design.budget ? designBudgetJson(design.budget) : null;
+    if (data.budget && !samePlanGate) (data.budget as Record<string, unknown>).spectators = null;
   }
   const files = o.waveform !== undefined && design.feasible ? [{ path: ctx.resolvePath(o.waveform), contents: formatTrajectoryCsv(design.waveform) }] : undefined;
   if (o.waveform !== undefined && !design.feasible) data.waveform = null;
@@ -141,6 +155,7 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
     ...spectators.map((x) => `  spectator ${fluxText(x.choice, x.request.transmon)}`),
     ...(moves > 0 ? [`  time budget ${f(rules.maxGateNs, 1)} ns: maxGate less ${f(moves, 1)} ns of the plan's spectator moves`] : []),
     ...assumedLine([moverChoice, partnerChoice, ...spectators.map((x) => x.choice)], planOpt !== null).map((l) => `  ${l}`),
+    ...(design.notes ?? []).map((n) => `  note: ${n}`),
   ];
   if (!design.feasible) {
     lines.push(`no design: ${design.reason}`);
@@ -153,6 +168,7 @@ export function gateCommand(ctx: CommandContext, layoutPath: string, raw: Record
       `virtual Z: a (on ${mover.id}) ${f(design.virtualZ.a, 5)} rad, b (on ${partner.id}) ${f(design.virtualZ.b, 5)} rad (undo with -a, -b)`,
       `untuned (destination at the crossing, hold 1/gap - ramp): phase ${f(design.untuned.conditionalPhase, 4)} rad, leakage ${design.untuned.leakage.toExponential(2)}, fidelity ${f(design.untuned.fidelity, 6)}`,
     );
+    if (o.noise && design.budget) lines.push(...budgetLines(design.budget, samePlanGate ? design.budget : null, mover.id, partner.id));
     if (o.waveform !== undefined) lines.push(`waveform: ${o.waveform} (${design.waveform.timeNs.length} samples at ${layout.rules.sampleRateGHz} GS/s; re-simulate with fluxlane simulate --trajectory)`);
   }
   lines.push('Model estimates: verify on hardware, and respect the flux-line current limits of your wiring.');
@@ -174,7 +190,7 @@ export function registerGate(program: Command, io: CliIo): void {
       .option('--crossing <name>', 'avoided crossing to use: 11-20 (mover to |2>) or 11-02 (default: the plan\'s, else 11-20)')
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
-      .option('--noise', 'add decoherence and report fidelityNoisy')
+      .option('--noise', 'add decoherence and report fidelityNoisy and the error budget (T1, white dephasing, quasi-static flux noise; with --plan the plan\'s spectators)')
       .option('--waveform <file>', 'write the waveform CSV (time_ns,flux_phi0: the flux the mover sees) for fluxlane simulate')
       .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => gateCommand(ctx, layout, options)));

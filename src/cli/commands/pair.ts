@@ -99,8 +99,8 @@ export function pairCommand(ctx: CommandContext, layoutPath: string, raw: Record
   const moverIsA = moverId === undefined || moverId === la.id;
   const levels = o.levels ?? PAIR_CLI_DEFAULTS.levels;
   const { qa, qb, pair } = ctx.profiler.time('transmon', () => {
-    const qa = Transmon.fromLayout(la);
-    const qb = Transmon.fromLayout(lb);
+    const qa = Transmon.fromLayout(la, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
+    const qb = Transmon.fromLayout(lb, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
     return { qa, qb, pair: new CoupledPair(qa, qb, gGHz, { levels }) };
   });
   const choiceA = chooseFlux(qa, la, fluxAOpt, fromPlan?.parkingFlux.get(la.id));

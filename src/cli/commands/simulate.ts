@@ -16,7 +16,10 @@
  *
  * JSON (SI: rad, s; flux in Phi0): { edge, mover, trajectory, staticFlux, fluxes, targetPhase,
  * duration, levels, conditionalPhase, leakage, fidelity, fidelityNoisy, fidelityNoisyMethod and
- * decoherenceEstimate (with --noise), virtualZ: {a, b}, M: 4 x 4 of [re, im] (order 00, 01, 10,
+ * decoherenceEstimate (with --noise; fidelityNoisy is the Markovian fidelity less the quasi-static
+ * flux noise), budget (with --noise: coherent, t1, whiteDephasing, fluxNoise, fluxNoiseSplit,
+ * spectators, spectatorLeakage, spectatorShares, total; spectators only with --plan, else null),
+ * virtualZ: {a, b}, M: 4 x 4 of [re, im] (order 00, 01, 10,
  * 11 = |AB>, A the mover, lab frame), populations: {"20", "02"}, steps, plan? }.
  */
 import { resolve } from 'node:path';
@@ -35,6 +38,9 @@ import type { CommandOutcome } from '../outcome.js';
 import { fluxOption, integerOption, MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
 import { enforceWork, simulateWork } from '../work-limits.js';
 import { FigureGuard } from '../figure-guard.js';
+import { spectatorBudget, waveformNoiseBudget } from '../../budget/waveform-budget.js';
+import { budgetLines } from '../budget-lines.js';
+import { budgetSpectatorList } from '../../plan/budget-spectators.js';
 import { edgeRoles, parseEdge } from './pair.js';
 import { si } from './spectrum.js';
 import { assumedLine, chooseFlux, fluxSourcesJson, fluxText, planEdge, readPlanOption, spectatorRequest } from '../plan-option.js';
@@ -83,8 +89,8 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     enforceWork(simulateWork(traj.timeNs, traj.flux, (k) => moverT.ejGHz(traj.flux[k]), { levels, noise: method !== null, spectators: o.spectator?.length ?? 0, file: trajectoryFile }), o.maxSeconds, 'simulate');
   }
   const { mover, partner, spectators } = ctx.profiler.time('transmon', () => {
-    const mover = Transmon.fromLayout(lm);
-    const partner = Transmon.fromLayout(ls);
+    const mover = Transmon.fromLayout(lm, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
+    const partner = Transmon.fromLayout(ls, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } });
     const spectators = (o.spectator ?? []).map((id) => spectatorRequest(layout, id, lm, ls, fromPlan));
     return { mover, partner, spectators };
   });
@@ -131,10 +137,32 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     steps: sim.steps,
   };
   if (planOpt) data.plan = planOpt.file;
-  if (method !== null) {
-    data.fidelityNoisy = si(method === 'lindblad' ? sim.noisy!.fidelity : sim.fidelity - sim.decoherenceEstimate);
+  // the error budget: the gate stage's terms on this waveform, and with --plan the spectators the
+  // plan's budget counts (src/plan/budget-spectators.ts) where the plan puts them
+  const noise = method !== null
+    ? ctx.profiler.time('budget', () => {
+        const pair = { mover, partner, gGHz, partnerFlux: staticFlux, traj, targetPhase };
+        const nb = waveformNoiseBudget({ ...pair, frame, modelSpectators: spectators.map((x) => x.request as EdgeSpectator), simulation: sim, method });
+        if (!fromPlan || fromPlan.mover !== lm.id) return { nb, sb: null };
+        const listed = budgetSpectatorList((q: string) => layout.couplings.filter((c) => c.a === q || c.b === q).map((c) => (c.a === q ? c.b : c.a)), lm.id, ls.id, fromPlan.crossing)
+          .map((b) => spectatorRequest(layout, b.qubit, lm, ls, fromPlan).request as EdgeSpectator);
+        return { nb, sb: spectatorBudget(pair, listed) };
+      })
+    : null;
+  if (method !== null && noise) {
+    const { nb, sb } = noise;
+    data.fidelityNoisy = si(nb.fidelityNoisy);
     data.fidelityNoisyMethod = method;
     data.decoherenceEstimate = si(sim.decoherenceEstimate);
+    const total = nb.coherent + nb.t1 + nb.whiteDephasing + nb.fluxNoise + (sb?.spectators ?? 0);
+    data.budget = {
+      coherent: si(nb.coherent), t1: si(nb.t1), whiteDephasing: si(nb.whiteDephasing), fluxNoise: si(nb.fluxNoise),
+      fluxNoiseSplit: { mover: si(nb.fluxNoiseSplit.mover), partner: si(nb.fluxNoiseSplit.partner), moverSigma: si(nb.fluxNoiseSplit.moverSigma), partnerSigma: si(nb.fluxNoiseSplit.partnerSigma) },
+      spectators: sb ? si(sb.spectators) : null,
+      spectatorLeakage: sb ? si(sb.spectatorLeakage) : null,
+      spectatorShares: sb ? sb.spectatorShares.map((x) => ({ qubit: x.qubit, error: si(x.error), leakage: si(x.leakage), reducedModel: x.reduced === 'none' ? null : x.reduced })) : [],
+      total: si(total),
+    };
   }
   const lines = [
     `${layout.chip}: edge ${la.id}-${lb.id}, mover ${lm.id} (parks at the trajectory's first sample, ${traj.flux[0].toFixed(4)} Phi0)${planOpt ? `, plan ${planOpt.file}` : ''}`,
@@ -146,10 +174,11 @@ export function simulateCommand(ctx: CommandContext, layoutPath: string, raw: Re
     `leakage            ${sim.leakage.toExponential(3)}   (populations from 11: 20 ${sim.populations['20'].toExponential(3)}, 02 ${sim.populations['02'].toExponential(3)})`,
     `fidelity           ${sim.fidelity.toFixed(8)} (coherent, to ${Math.abs(targetPhase - Math.PI) < 1e-12 ? 'CZ' : `CPhase(${targetPhase.toFixed(4)})`} after virtual Z)`,
   ];
-  if (method === 'lindblad') {
-    lines.push(`fidelity (noisy)   ${sim.noisy!.fidelity.toFixed(8)} (Lindblad; first-order estimate of the decoherence error ${sim.decoherenceEstimate.toExponential(3)})`);
-  } else if (method === 'estimate') {
-    lines.push(`fidelity (noisy)   ${(sim.fidelity - sim.decoherenceEstimate).toFixed(8)} (coherent fidelity less the first-order decoherence estimate ${sim.decoherenceEstimate.toExponential(3)})`);
+  if (noise) {
+    const { nb, sb } = noise;
+    const how = method === 'lindblad' ? 'Lindblad (T1, white dephasing)' : 'coherent fidelity less the first-order T1 and white-dephasing estimate';
+    lines.push(`fidelity (noisy)   ${nb.fidelityNoisy.toFixed(8)} (${how}, less the quasi-static flux noise)`);
+    lines.push(...budgetLines(nb, sb, lm.id, ls.id));
   }
   lines.push(`virtual Z          a (on ${lm.id}) ${sim.virtualZ.a.toFixed(6)} rad, b (on ${ls.id}) ${sim.virtualZ.b.toFixed(6)} rad (undo with -a, -b)`);
   lines.push('Model estimates: verify on hardware, and respect the flux-line current limits of your wiring.');
@@ -160,7 +189,7 @@ export function registerSimulate(program: Command, io: CliIo): void {
   withCommonOptions(
     program
       .command('simulate')
-      .description('simulate a CZ flux trajectory of an edge: conditional phase, leakage, fidelity (and with --noise the Lindblad fidelity)')
+      .description('simulate a CZ flux trajectory of an edge: conditional phase, leakage, fidelity (and with --noise the fidelity with decoherence and the error budget)')
       .addArgument(new Argument('<layout>', 'layout YAML file'))
       .requiredOption('--edge <A-B>', 'the coupled pair, e.g. Q0-Q1 (A is the mover)')
       .option('--plan <file>', 'plan.json of fluxlane plan: mover, parking, spectators\' fluxes during the gate, target phase and (without --trajectory) the gate\'s waveform from it')
@@ -169,7 +198,7 @@ export function registerSimulate(program: Command, io: CliIo): void {
       .option('--static-flux <flux>', 'flux of the static qubit in Phi0 (default: its plan parking, else its park frequency, else 0)')
       .option('--levels <k>', `levels of the mover, 4 to 10 (default ${SIMULATE_CLI_DEFAULTS.levels}; the static qubit keeps k - 2)`)
       .option('--spectator <id...>', 'neighbours to simulate as third transmons (at their flux during the plan\'s gate)')
-      .option('--noise [method]', 'add decoherence (T1, T_phi from the layout): lindblad (default without --plan) or estimate (the first-order estimate; with --plan the plan\'s method)')
+      .option('--noise [method]', 'add decoherence and the error budget (T1 and white T_phi: lindblad, the default without --plan, or estimate, the first-order estimate; with --plan the plan\'s method; quasi-static 1/f flux noise averaged over offsets; with --plan the plan\'s spectators)')
       .option('--max-seconds <s>', MAX_SECONDS_HELP),
   ).action(commandAction<[string]>(io, (ctx, layout, options) => simulateCommand(ctx, layout, options)));
 }

@@ -84,7 +84,7 @@ export function spectrumCommand(ctx: CommandContext, layoutPath: string, raw: Re
   const fluxes = o.flux !== undefined ? o.flux : sweepFluxes(o.points ?? SPECTRUM_CLI_DEFAULTS.points);
   const layout = ctx.loadLayout(layoutPath);
   const qubit = findQubit(layout, o.qubit, '--qubit');
-  const q = ctx.profiler.time('transmon', () => Transmon.fromLayout(qubit));
+  const q = ctx.profiler.time('transmon', () => Transmon.fromLayout(qubit, { coherence: { averagingTimeNs: layout.rules.noiseAveragingTimeNs } }));
   const rows = ctx.profiler.time('spectrum', () => spectrumRows(q, fluxes));
   const guard = new FigureGuard(layout);
   for (const r of rows) {

@@ -10,6 +10,7 @@ import { Argument, type Command } from 'commander';
 import { planWaveformBytes, readPlanFile } from '../../plan/plan-read.js';
 import { verifyPlan } from '../../plan/verify.js';
 import { toFindingJson } from '../../plan/rules/findings.js';
+import { plain, prob, toSeconds } from '../../plan/format.js';
 import { commandAction, type CommandContext } from '../handler.js';
 import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
@@ -30,6 +31,7 @@ export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath:
   const lines = [
     `${layout.chip}: plan ${planPath} against ${layout.file}`,
     `  checked ${result.checked.qubits} qubits, ${result.checked.edges} edges, ${result.checked.layers} layers, ${result.checked.waveforms} waveform file(s) (re-simulated), ${result.checked.claims} claims`,
+    `  reference cycle (recomputed): ${result.cycle.durationNs.toFixed(1)} ns, predicted error ${prob(result.cycle.error)} = gates ${prob(result.cycle.gates)} + idles ${prob(result.cycle.idles)} (sums of average infidelities; model estimates)${result.cycle.uncounted > 0 ? `; ${result.cycle.uncounted} edge(s) without a feasible gate not counted, so a lower bound` : ''}`,
     ...result.violations.map((v) => `violation [${v.rule}] ${v.qubits.join(', ')}: ${v.message}`),
     ...result.flags.map((f) => `flag [${f.rule}] ${f.qubits.join(', ')}: ${f.message}`),
     result.ok ? `ok: the plan holds (every rule and claim recomputed); ${result.flags.length} flag(s)` : `FAILED: the plan breaks ${result.violations.length} rule condition(s) or claim(s)`,
@@ -42,6 +44,7 @@ export function verifyCommand(ctx: CommandContext, layoutPath: string, planPath:
       plan: planPath,
       checked: result.checked,
       missingWaveforms: result.missingWaveforms,
+      cycle: { duration: toSeconds(result.cycle.durationNs), error: plain(result.cycle.error), gates: plain(result.cycle.gates), idles: plain(result.cycle.idles), uncountedEdges: result.cycle.uncounted },
       violations: result.violations.map(toFindingJson),
       flags: result.flags.map(toFindingJson),
     },

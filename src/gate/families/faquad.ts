@@ -12,7 +12,7 @@
  */
 import { tabulatedRamp, type RampFamily } from './family.js';
 
-export const FAQUAD_GRID = 400;
+export const FAQUAD_GRID = 800;
 
 /**
  * Deviation from the plain schedule (documented in the README): the constant-adiabaticity

@@ -9,15 +9,9 @@
  * All four options (each qubit as mover, each crossing) are evaluated with every rule of
  * src/plan/rules/cz-evaluate.ts. Problems a spectator causes are resolved by spectator parking
  * (./spectator-parking.ts), up to three rounds. Among the options that then break no rule the
- * one with the smallest estimated error wins:
- *
- *     err = (2/5) t_CZ sum_{q = A, B} (1/T1_q + 1/T_phi,q)     (idle-like decoherence, README physics conventions sec. 4;
- *                                                              T_phi of the mover at the interaction point)
- *         + (1/4) t_hold / T1 of the qubit lifted to |2>     (|2> decays about twice as fast)
- *         + (2/5) t_CZ sum_{parked S} 1/T_phi,S(x_S) + 1e-4 per parked spectator
- *
- * with t_hold = 1 / (2 g_c) and t_CZ = t_hold + 2 rampNs (+ 2 rampNs when spectators move). The
- * 1e-4 per moved spectator is our choice: each move costs calibration and couples more gates.
+ * one with the smallest estimated error wins (estimateEdgeBudget below: the fast budget of
+ * src/budget/gate-estimate.ts over the whole slot, the moved spectators' dephasing and the
+ * spectators' admixtures; the same model the plan's budget reports, before any pulse exists).
  * When no option is clean, the one with the fewest problems is kept and its findings are
  * reported; the reason says what each option ran into.
  */
@@ -31,6 +25,10 @@ import { evaluateGate, type Crossing, type CzFinding, type DuringGate, type Gate
 import type { ExactQubitState } from '../exact-state.js';
 import { spectatorParkingCandidates } from './spectator-parking.js';
 import { tuningRoomGHz, tuningRoomShortfall } from '../rules/tuning-room.js';
+import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
+import { estimateGateBudget } from '../../budget/gate-estimate.js';
+import { spectatorMoveError, sweptCrossingError } from '../gate-budget.js';
+import { budgetSpectatorList } from '../budget-spectators.js';
 
 export interface ParkedSpectator {
   qubit: number;
@@ -94,7 +92,6 @@ export interface EdgeContext {
 }
 
 const MAX_PARKING_ROUNDS = 3;
-const PARKED_PENALTY = 1e-4;
 
 /** Ramp times tried in order (ns): the planning ramp, then faster ones down to minRampNs. */
 export function rampLadder(options: PlanOptions): number[] {
@@ -239,14 +236,12 @@ function evaluateOption(
     parking,
     parked,
   };
-  const resolved = parkSpectators(ec, scenario, parkedInfo);
+  const resolved = parkSpectators(ec, scenario, parkedInfo, (t, info) => estimateError(ec, scenario, res.moverFlux, info, t));
   const ev = resolved.evaluation;
   const unmovable = resolved.unmovable;
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   const feasible = ev.findings.length === 0;
-  // t_CZ of the error estimate (banner): the duration model's slot plus the two planning ramps,
-  // which the error estimate counts on top of the speed limit
-  const score = estimateError(ec, scenario, res.moverFlux, moverAt.df01dFluxGHz, parkedInfo, ev.durationNs + 2 * rampNs);
+  const score = estimateError(ec, scenario, res.moverFlux, parkedInfo, ev);
   const report: OptionReport = {
     mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
     note: feasible
@@ -263,7 +258,13 @@ function evaluateOption(
  * and `parkedInfo` are updated in place. Returns the final evaluation and, for each spectator that
  * could not be moved, why.
  */
-export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedInfo: ParkedSpectator[]): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
+export function parkSpectators(
+  ec: EdgeContext,
+  scenario: GateScenario,
+  parkedInfo: ParkedSpectator[],
+  /** The option's estimated error with the spectators where `scenario.parked` and `info` put them (evaluateOption's estimateError); with it, the clearing point of least error wins, and budgetMoves runs. */
+  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
   const { ctx } = ec;
   const id = ctx.ids;
   const parked = scenario.parked as Map<number, DuringGate>;
@@ -283,25 +284,13 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
       parked.delete(P);
       if (k >= 0) parkedInfo.splice(k, 1);
       const search = spectatorParkingCandidates(ctx, ec.blockers, scenario, P);
-      let placed = false;
-      for (const x of search.points.slice(0, 6)) {
-        // Screen with the tabulated f12, then confirm with the exact one.
-        parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-        const clears = (t: ReturnType<typeof evaluateGate>) => !t.findings.some((f) => f.blame === P || f.qubits[0] === id[P]);
-        if (!clears(evaluateGate(ctx, scenario))) {
-          parked.delete(P);
-          continue;
-        }
-        const st = transitionsOf(ctx, P, x);
-        parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
-        const trial = evaluateGate(ctx, scenario);
-        if (clears(trial)) {
-          parkedInfo.push({ qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: rules.join(', ') });
-          ev = trial;
-          placed = true;
-          break;
-        }
-        parked.delete(P);
+      const clears = (t: ReturnType<typeof evaluateGate>) => !t.findings.some((f) => f.blame === P || f.qubits[0] === id[P]);
+      const best = bestSpectatorPoint(ec, scenario, parkedInfo, P, search.points, clears, rules.join(', '), score);
+      const placed = best !== null;
+      if (best) {
+        parked.set(P, { f01GHz: best.info.fGHz, f12GHz: best.info.f12GHz });
+        parkedInfo.push(best.info);
+        ev = best.ev;
       }
       if (!placed) {
         if (before && beforeInfo) {
@@ -320,31 +309,138 @@ export function parkSpectators(ec: EdgeContext, scenario: GateScenario, parkedIn
       }
     }
   }
+  if (score && ev.findings.length === 0) ev = budgetMoves(ec, scenario, parkedInfo, ev, score);
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   return { evaluation: ev, unmovable };
 }
 
-function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, slopeA: number, parked: readonly ParkedSpectator[], durationNs: number): number {
+/** The reason recorded for a spectator moved by budgetMoves (no rule asked for it). */
+export const BUDGET_MOVE_REASON = 'lower estimated error';
+
+/** Candidate temporary points of a spectator tried per move (nearest first). */
+const SPECTATOR_POINTS_TRIED = 8;
+
+/** A move must lower the option's estimated error by more than this to be made (our choice: a move costs slot time and control). */
+const BUDGET_MOVE_GAIN = 1e-4;
+
+/**
+ * The temporary point of spectator P among `points` (nearest first, the first SPECTATOR_POINTS_TRIED)
+ * that `clears` the evaluation: without `score` the nearest such point, with it the one of least
+ * estimated error. The scenario is left without P parked; returns the point's record and evaluation.
+ */
+function bestSpectatorPoint(
+  ec: EdgeContext,
+  scenario: GateScenario,
+  parkedInfo: readonly ParkedSpectator[],
+  P: number,
+  points: readonly number[],
+  clears: (ev: ReturnType<typeof evaluateGate>) => boolean,
+  reason: string,
+  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
+  const { ctx } = ec;
+  const parked = scenario.parked as Map<number, DuringGate>;
+  let best: { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null = null;
+  for (const x of points.slice(0, SPECTATOR_POINTS_TRIED)) {
+    // Screen with the tabulated f12, then confirm with the exact one.
+    parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
+    if (!clears(evaluateGate(ctx, scenario))) continue;
+    const st = transitionsOf(ctx, P, x);
+    parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
+    const trial = evaluateGate(ctx, scenario);
+    if (!clears(trial)) continue;
+    const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
+    const value = score ? score(trial, [...parkedInfo, info]) : 0;
+    if (!best || value < best.score) best = { info, ev: trial, score: value };
+    if (!score) break;
+  }
+  parked.delete(P);
+  return best;
+}
+
+/**
+ * Moves that lower the option's estimated error though no rule asks for them: each spectator the
+ * budget counts (src/plan/budget-spectators.ts) and the gate has not moved, largest admixture share
+ * first, goes to the candidate point (src/plan/interaction/spectator-parking.ts) of least estimated
+ * error when that beats staying by more than BUDGET_MOVE_GAIN (the move's own cost, slot time and
+ * the moved qubit's dephasing, is part of the score). Every move keeps every rule.
+ */
+function budgetMoves(
+  ec: EdgeContext,
+  scenario: GateScenario,
+  parkedInfo: ParkedSpectator[],
+  ev: ReturnType<typeof evaluateGate>,
+  score: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+): ReturnType<typeof evaluateGate> {
+  const { ctx } = ec;
+  const parked = scenario.parked as Map<number, DuringGate>;
+  const list = budgetSpectatorList((q: number) => ctx.neighbours[q], scenario.mover, scenario.partner, scenario.crossing).filter((b) => !parked.has(b.qubit));
+  const share = (S: number, side: 'mover' | 'partner'): number => {
+    const E = side === 'mover' ? scenario.mover : scenario.partner;
+    const fE = side === 'mover' ? scenario.toGHz : scenario.parking[E].f01GHz;
+    const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+    return admixtureSum(ctx, E, fE, S, scenario.parking[S].f01GHz, G, side === 'mover' ? scenario.crossing === '11-20' : true);
+  };
+  const ranked = list.map((b) => ({ ...b, share: share(b.qubit, b.coupledTo) })).filter((b) => SPECTATOR_ERROR_PER_ADMIXTURE * b.share > BUDGET_MOVE_GAIN).sort((a, b) => b.share - a.share || a.qubit - b.qubit);
+  let current = score(ev, parkedInfo);
+  for (const { qubit: P } of ranked) {
+    const search = spectatorParkingCandidates(ctx, ec.blockers, scenario, P);
+    const best = bestSpectatorPoint(ec, scenario, parkedInfo, P, search.points, (t) => t.findings.length === 0, BUDGET_MOVE_REASON, score);
+    if (best && best.score < current - BUDGET_MOVE_GAIN) {
+      parked.set(P, { f01GHz: best.info.fGHz, f12GHz: best.info.f12GHz });
+      parkedInfo.push(best.info);
+      ev = best.ev;
+      current = best.score;
+    }
+  }
+  return ev;
+}
+
+function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], ev: ReturnType<typeof evaluateGate>): number {
+  const parts = estimateEdgeBudget(ec, s, fluxA, ev.durationNs);
+  const e = { mover: s.mover, partner: s.partner, swept: ev.swept, parked: [...parked], rampNs: s.spectatorRampNs ?? s.rampNs };
+  return parts.t1 + parts.whiteDephasing + parts.fluxNoise + parts.spectators + sweptCrossingError(ec.ctx, e) + spectatorMoveError(ec.ctx, e, ec.states, ev.durationNs);
+}
+
+/**
+ * The estimated budget of one option before any pulse exists (src/budget/gate-estimate.ts for
+ * T1, white dephasing and quasi-static flux noise over the whole slot, spectator moves included;
+ * the spectators' admixtures at the interaction point, src/plan/rules/spectator-admixture.ts,
+ * each taken as an error of half its size, the scale three-transmon simulations of the demos
+ * show: 0.14-1.0 times the summed admixture on Clove-17). The planner adds swept crossings and
+ * spectator moves (src/plan/gate-budget.ts), as for a designed gate.
+ */
+export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: GateScenario, fluxA: number, durationNs: number): { t1: number; whiteDephasing: number; fluxNoise: number; spectators: number } {
   const { ctx } = ec;
   const tA = ctx.transmons[s.mover];
   const tB = ctx.transmons[s.partner];
-  // (the flux slopes where they are known already: the same numbers coherence() would compute)
-  const rate = (t: typeof tA, flux: number, slope?: number) => {
-    if (!t.coherenceSpec) return { g1: 0, gphi: 0 };
-    const c = t.coherence(flux, slope !== undefined && Number.isFinite(slope) ? slope : undefined);
-    return { g1: 1 / c.t1Ns, gphi: Number.isFinite(c.tphiNs) ? 1 / c.tphiNs : 0 };
-  };
-  const a = rate(tA, fluxA, slopeA);
-  const b = rate(tB, ec.states[s.partner].flux, ec.states[s.partner].df01dFluxGHz);
+  const r = ctx.rules;
   const hold = 1 / (2 * s.crossingCouplingGHz);
-  let err = 0.4 * durationNs * (a.g1 + a.gphi + b.g1 + b.gphi);
-  err += 0.25 * hold * (s.crossing === '11-20' ? a.g1 : b.g1);
-  for (const p of parked) {
-    const r = rate(ctx.transmons[p.qubit], p.flux);
-    err += 0.4 * durationNs * r.gphi + PARKED_PENALTY;
-  }
-  return err;
+  const a = tA.spectrum(fluxA);
+  const b = tB.spectrum(ec.states[s.partner].flux);
+  const est = estimateGateBudget({
+    mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
+    partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },
+    // the gate as one speed limit at the interaction point (designs spend 1.02-1.38 times it in
+    // their ramps and hold, src/plan/rules/cz-duration.ts), over the whole slot
+    excited: s.crossing === '11-20' ? 'mover' : 'partner',
+    holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
+  });
+  let spectators = 0;
+  const during = (q: number): DuringGate => s.parked.get(q) ?? s.parking[q];
+  const add = (E: number, fE: number, withLevel2: boolean, skip: number) => {
+    for (const S of ctx.neighbours[E]) {
+      if (S === skip) continue;
+      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+      spectators += SPECTATOR_ERROR_PER_ADMIXTURE * admixtureSum(ctx, E, fE, S, during(S).f01GHz, G, withLevel2);
+    }
+  };
+  add(s.mover, s.toGHz, s.crossing === '11-20', s.partner);
+  if (s.crossing === '11-02') add(s.partner, s.parking[s.partner].f01GHz, true, s.mover);
+  return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
 }
+
+export { SPECTATOR_ERROR_PER_ADMIXTURE };
 
 /**
  * Memos of exact results the interaction plan asks for again and again: the crossings of a mover
@@ -381,7 +477,7 @@ function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly Option
   const head = chosen.feasible
     ? `${id[chosen.mover]} moves to the ${chosen.crossing} crossing with ${id[partner]} at ${ghz(chosen.interactionGHz!)}` +
       (chosen.parked.length > 0
-        ? `, with ${chosen.parked.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)} (where it stood it broke ${p.reason})`).join(', ')}`
+        ? `, with ${chosen.parked.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)} (${p.reason === BUDGET_MOVE_REASON ? 'moved for a lower estimated error' : `where it stood it broke ${p.reason}`})`).join(', ')}`
         : '') +
       `; estimated error ${prob(chosen.score)}`
     : `no option clears every rule; kept ${name(chosen)} with the fewest problems (${chosen.note})`;

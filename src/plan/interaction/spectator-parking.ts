@@ -4,25 +4,33 @@
  * bounds idle parking only), reached before the mover ramps and left after it returns.
  *
  * The qubit's f01 = x must avoid, as blocked intervals (src/plan/intervals.ts):
- *   the mover's interaction point:  [to - sd, to + sd], [f12_A(to) - sd, f12_A(to) + sd] and
- *                                   {x : f12(x) in [to - sd, to + sd]} (sd = spectatorDetuning;
- *                                   for a next-nearest neighbour only [to - t, to + t], t = detuningNext0101);
+ *   the mover's interaction point:  the spectator admixture checks (../rules/spectator-admixture.ts)
+ *                                   as bands g_c / sqrt(spectatorAdmixture) wide around the mover's
+ *                                   f01, f12 (and f23 when it reaches |2>), in P's f01 or f12;
+ *                                   on an 11-02 crossing also around the partner's f12 and f23
+ *                                   for the partner's other neighbours;
+ *                                   for a next-nearest neighbour only [to - t, to + t], t = detuningNext0101;
  *   the mover's sweep (neighbours): the swept band itself, its image under f12_A, and
  *                                   {x : f12(x) in the band} (a direct crossing is never fast enough);
  *   its own idle rules at x:        01-01, 01-12, next-01-01, tls, readout against the others
  *                                   where they are during the gate (the mover excepted);
  * and its own path from parking to x must not cross a coupled neighbour's 01-01, 11-20 or 11-02
  * point or one of its defects (the nearest such points below and above bound the reachable band).
- * The allowed point nearest the parking frequency wins, placed spectatorDetuning inside its allowed
- * interval when the interval is wide enough (else in its middle), so the moved spectator keeps a
- * margin of its own.
+ * Candidates: in each allowed interval the point nearest the parking frequency, placed
+ * PARKING_MARGIN_GHZ inside the interval when it is wide enough (else in its middle), so the moved
+ * spectator keeps a margin of its own; in a wide interval also its middle and its far side. Nearest
+ * first; the caller picks among them (the nearest that clears the rules, or the least estimated error).
  * The caller re-checks the whole gate exactly (src/plan/rules/cz-evaluate.ts).
  */
 import type { PlanContext } from '../context.js';
 import { subtract, type Interval } from '../intervals.js';
 import type { IdleBlockers } from '../rules/idle-blockers.js';
 import type { DuringGate, GateScenario } from '../rules/cz-evaluate.js';
+import { admixtureHalfWidth } from '../rules/spectator-admixture.js';
 
+
+/** How far inside its allowed band a moved spectator is placed when the band is wide enough (GHz; our choice). */
+export const PARKING_MARGIN_GHZ = 0.02;
 
 export interface SpectatorParkingSearch {
   /** Candidate temporary frequencies, nearest to parking first (empty when none is allowed). */
@@ -44,18 +52,39 @@ export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlock
     if (iv && iv.hi > iv.lo) blocked.push(iv);
   };
   const to = s.toGHz;
+  const limit = r.spectatorAdmixture;
+  const sp = tp.at(f0);
+  // The admixture checks of ../rules/spectator-admixture.ts as bands of P's f01 (P's matrix
+  // elements taken at its parking point; the caller checks the chosen point exactly).
+  const admixtureBands = (E: number, fE: number, withLevel2: boolean) => {
+    const e = ctx.tables[E].at(fE);
+    const G = ctx.edges[ctx.edgeBetween(E, P)].gChargeGHz;
+    const w = (nE: number, nP: number) => admixtureHalfWidth(Math.abs(G * nE * nP), limit);
+    const w00 = w(e.n01, sp.n01);
+    push({ lo: fE - w00, hi: fE + w00 });
+    const w10 = w(e.n12, sp.n01);
+    push({ lo: e.f12 - w10, hi: e.f12 + w10 });
+    const w01 = w(e.n01, sp.n12);
+    push(blockers.f12Preimage(P, fE - w01, fE + w01));
+    if (withLevel2) {
+      const w11 = w(e.n12, sp.n12);
+      push(blockers.f12Preimage(P, e.f12 - w11, e.f12 + w11));
+      const w20 = w(e.n23, sp.n01);
+      const f23 = e.e3 - e.e2;
+      push({ lo: f23 - w20, hi: f23 + w20 });
+    }
+  };
   if (coupledToMover) {
-    const sd = r.spectatorDetuningGHz;
-    push({ lo: to - sd, hi: to + sd });
-    push({ lo: s.moverF12AtToGHz - sd, hi: s.moverF12AtToGHz + sd });
-    push(blockers.f12Preimage(P, to - sd, to + sd));
+    admixtureBands(A, to, s.crossing === '11-20');
     const lo = Math.min(s.fromGHz, to);
     const hi = Math.max(s.fromGHz, to);
     push({ lo, hi });
     const ta = ctx.tables[A];
     push({ lo: ta.at(lo).f12, hi: ta.at(hi).f12 });
     push(blockers.f12Preimage(P, lo, hi));
-  } else {
+  }
+  if (s.crossing === '11-02' && P !== s.partner && ctx.edgeBetween(s.partner, P) >= 0) admixtureBands(s.partner, s.parking[s.partner].f01GHz, true);
+  if (!coupledToMover) {
     push({ lo: to - r.detuningNext0101GHz, hi: to + r.detuningNext0101GHz });
   }
   // Its own idle rules at the temporary point.
@@ -92,13 +121,19 @@ export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlock
     if (b > f0 + 1e-9 && b < above) above = b;
   }
   const allowed = subtract({ lo: below, hi: above }, blocked);
-  const inside = Math.max(r.spectatorDetuningGHz, 1e-3);
+  const inside = PARKING_MARGIN_GHZ;
   const points: number[] = [];
   for (const a of allowed) {
     if (a.hi - a.lo < 1e-6) continue;
     const dn = Math.min(inside, (a.hi - a.lo) / 2);
     const x = f0 < a.lo ? a.lo + dn : f0 > a.hi ? a.hi - dn : f0;
     points.push(x);
+    // deeper into a wide band too (its middle and far side): further from the gate's levels, the
+    // caller may find a smaller error there (src/plan/interaction/plan-edge.ts bestSpectatorPoint)
+    if (a.hi - a.lo > 4 * inside) {
+      const far = x <= 0.5 * (a.lo + a.hi) ? a.hi - inside : a.lo + inside;
+      points.push(0.5 * (a.lo + a.hi), far);
+    }
   }
   return {
     points: points.filter((x) => Math.abs(x - f0) > 1e-9).sort((x, y) => Math.abs(x - f0) - Math.abs(y - f0) || x - y),

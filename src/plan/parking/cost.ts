@@ -1,32 +1,42 @@
 /**
- * The parking cost the search minimises once every idle rule holds: an estimate of the error
- * the parking choice adds over one reference cycle t_cycle (default 1 us), summed over qubits,
- * coupled pairs and defects, plus a small robustness term. With f = the qubit's f01 there:
+ * The parking cost the search minimises once every idle rule holds: the predicted error of one
+ * reference cycle that the parking choice decides, from the same error model the plan reports
+ * (src/budget/), summed over qubits, coupled pairs and defects, plus two small tie-breakers.
+ * With f = the qubit's f01 there and t = options.cycleNs (the search's reference idle time,
+ * default 1 us; the reported cycle uses the plan's real layers):
  *
- *   dephasing  w_d (t_cycle / 3) Gamma_1/f(f)
- *              Gamma_1/f = 2 pi A_Phi |df01/dPhi| sqrt|ln(2 pi f_ir t_m)| (src/transmon/coherence.ts);
- *              1 - F_avg = t / (3 T_phi) for pure dephasing of one qubit (F_avg = (2 F_pro + 1) / 3).
- *              Zero at the sweet spot: this is what pulls qubits to their maximum frequency.
- *   zz         w_zz 0.05 (2 pi zeta t_cycle)^2 per coupled pair (capped at 1)
- *              the infidelity of an uncorrected ZZ phase phi = 2 pi zeta t after single-qubit
- *              corrections, 1 - F_avg = 0.8 sin^2(phi / 4) ~ 0.05 phi^2 (derived; d = 4).
- *   gate       w_g (t_CZ / 3) Gamma_1/f(f_int) per coupled pair: the mover's dephasing at its
- *              interaction point during one CZ, t_CZ = 1 / (2 g_c) + 2 rampNs, for the usual
- *              choice (the higher qubit moves to its 11-20 crossing; else the lower one to its
- *              11-02 crossing); 1 when neither crossing is reachable with room to tune the
- *              destination past it (src/plan/rules/tuning-room.ts). It prefers short excursions.
- *   tls        w_tls (g_TLS / (f - f_TLS))^2 per listed defect, g_TLS = width / 2: the qubit's
- *              admixture with the defect (dispersive hybridisation), which sets the loss through it.
- *   band       w_b ((f_max - f) / 1 GHz)^2: a weak preference for the designed band at the upper sweet
- *              spot. The model has a second sweet spot at the bottom of the range (df01/dPhi = 0
- *              at Phi = 1/2) and no term that makes it worse, but on hardware the dispersive
- *              readout shift falls as a qubit moves away from its resonator, charge dispersion
- *              grows and the qubit leaves the band it was designed and characterised for; this
- *              term (0.05 per GHz^2 by default, our choice) stands for those effects, small
- *              enough that any rule or real error term outweighs it.
+ *   idle       the one-qubit idle error over t of src/budget/idle-error.ts without its T1 part
+ *              (which does not depend on f): dephasing sqrt(1 - gamma) (1 - c(t)) / 3 with the
+ *              white envelope exp(-t / tphi) and the quasi-static 1/f Gaussian
+ *              exp(-(2 pi df01/dPhi sigma t)^2 / 2), sigma for an operation of length t; and thermal
+ *              excitation (t / T1) exp(-h f / k_B T_eff) / 3. Zero dephasing at the sweet spot:
+ *              this is what pulls qubits to their maximum frequency.
+ *   zz         (4/5) sin^2(pi zeta t / 2) per coupled pair, the residual-ZZ error of
+ *              src/budget/idle-error.ts (zeta from the second-order estimate, calibrated to the
+ *              exact value edge by edge).
+ *   gate       per coupled pair, the estimated budget (T1, white dephasing, quasi-static flux noise;
+ *              src/budget/gate-estimate.ts) of its usual CZ: the higher qubit to its 11-20
+ *              crossing, else the lower one to its 11-02 crossing, as one speed limit 1 / (2 g_c)
+ *              at the interaction point (the duration model of src/plan/rules/cz-duration.ts); 1 when neither crossing is reachable with room to tune the
+ *              destination past it (src/plan/rules/tuning-room.ts) and within the flux excursion
+ *              limit (rule cz-excursion). It prefers short excursions to
+ *              flat points of the spectrum.
+ *   spectators the spectator part of the same gates' estimates: half the summed admixtures
+ *              (g_c / Delta)^2 (src/plan/rules/spectator-admixture.ts, each capped at 1) of every
+ *              usual CZ whose spectators this qubit's frequency decides: its own gates against the
+ *              mover's other neighbours, and its neighbours' gates with their other neighbours
+ *              against this qubit (the estimate src/plan/interaction/plan-edge.ts reports).
+ *   tls        per listed defect, the hybridised share of the defect's loss over t,
+ *              (g_TLS / (f - f_TLS))^2 t / (3 T_TLS), g_TLS = width / 2 and a defect lifetime
+ *              T_TLS = 1 us (our assumption: defects seen in spectroscopy are typically short-lived).
+ *   band       w_b ((f_max - f) / 1 GHz)^2, a prior, not an error (weight 0.01 per GHz^2, our
+ *              choice): the model has a second sweet spot at the bottom of the range, but on
+ *              hardware the readout shift falls away from the resonator, charge dispersion grows and
+ *              the qubit leaves the band it was designed and characterised for (1 GHz below costs
+ *              as much as a gate at the default error ceiling).
  *   margin     w_m sum over blocked intervals of exp(-d / sigma_fab), d = distance to the interval,
- *              sigma_fab the qubit's expected frequency spread (src/plan/exact-state.ts): keeps
- *              parking points off the edges of the allowed bands.
+ *              sigma_fab the qubit's expected frequency spread (src/plan/exact-state.ts): a
+ *              tie-breaker that keeps parking points off the edges of the allowed bands.
  *
  * Being inside a blocked interval costs violationPenalty (1 + depth / width) each, so a point
  * that breaks a rule is never preferred to one that does not.
@@ -36,6 +46,11 @@ import type { PlanOptions } from '../options.js';
 import { emptyTableState, type TableState } from '../qubit-table.js';
 import { secondOrderZz } from '../zz-second-order.js';
 import { tuningRoomGHz } from '../rules/tuning-room.js';
+import { estimateGateBudget } from '../../budget/gate-estimate.js';
+import { H_OVER_KB_K_PER_GHZ, zzIdleError } from '../../budget/idle-error.js';
+import { quasiStaticCoherence, quasiStaticFluxSigma } from '../../transmon/coherence.js';
+import { shortestGateNs } from '../rules/cz-duration.js';
+import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
 import type { Blocker, FrequencyView } from '../rules/idle-blockers.js';
 
 export interface CostParts {
@@ -50,6 +65,8 @@ export class ParkingCost {
   private visitI = -1;
   private visitStamp = -1;
   private readonly higher = new Map<number, number>();
+  /** Per-visit cache of the spectator term's parts that do not depend on the visited qubit's frequency. */
+  private readonly spectatorVisit = new Map<number, number>();
   /** Whether the last gateCost came from the higher qubit's 11-20 crossing (which depends on the lower qubit's frequency only). */
   private lastWasHigherCrossing = false;
 
@@ -59,6 +76,7 @@ export class ParkingCost {
     this.visitI = i;
     this.visitStamp = stamp;
     this.higher.clear();
+    this.spectatorVisit.clear();
   }
 
   constructor(
@@ -84,14 +102,13 @@ export class ParkingCost {
     let soft = w.margin * margin;
     const below = table.fMaxGHz - f;
     soft += w.band * below * below;
-    soft += (w.dephasing * T * table.fluxNoiseRateOf(st)) / 3;
+    soft += w.dephasing * this.idleError(i, f, table.fluxSlopeOf(st));
     for (const j of ctx.neighbours[i]) {
       if (!view.active[j]) continue;
       const e = ctx.edgeBetween(i, j);
       const edge = ctx.edges[e];
       const z = view.zzScale[e] * secondOrderZz(st, view.states[j], edge.gChargeGHz);
-      const phi = 2 * Math.PI * z * T;
-      soft += w.zz * Math.min(1, 0.05 * phi * phi);
+      soft += w.zz * Math.min(1, zzIdleError(z, T));
       let gate: number;
       if (f >= view.freq[j] && cached) {
         let c = this.higher.get(j);
@@ -103,15 +120,34 @@ export class ParkingCost {
       } else gate = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
       soft += w.gate * gate;
     }
+    // (a point that breaks a rule is ranked by its violation; the spectator term only orders the clean ones)
+    if (violation === 0) soft += w.gate * SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, view, cached);
     for (const d of ctx.qubits[i].tls) {
       const g = d.widthGHz / 2;
       const delta = Math.max(Math.abs(f - d.atGHz), d.widthGHz);
-      soft += w.tls * (g / delta) ** 2;
+      soft += (w.tls * (g / delta) ** 2 * T) / (3 * TLS_LIFETIME_NS);
     }
     return { violation: violation * this.options.search.violationPenalty, soft };
   }
 
-  /** (t_CZ / 3) Gamma_1/f(f_int) of the usual CZ on the pair (i at fi, j at fj). */
+  /**
+   * The f-dependent part of qubit i's idle error over the reference cycle: dephasing (white and
+   * quasi-static 1/f, first order in the flux slope) and thermal excitation (src/budget/idle-error.ts).
+   */
+  private idleError(i: number, f: number, slope: number): number {
+    const spec = this.ctx.transmons[i].coherenceSpec;
+    if (!spec) return 0;
+    const T = this.options.cycleNs;
+    const r = this.ctx.rules;
+    const gamma = -Math.expm1(-T / spec.t1Ns);
+    const sigma = quasiStaticFluxSigma(spec.fluxNoisePhi0 ?? 0, T, r.noiseAveragingTimeNs);
+    const white = spec.tphiNs !== undefined ? Math.exp(-T / spec.tphiNs) : 1;
+    const c = white * quasiStaticCoherence(T, slope, 0, sigma);
+    const thermal = r.qubitTemperatureK > 0 ? ((T / spec.t1Ns) * Math.exp(-(H_OVER_KB_K_PER_GHZ * f) / r.qubitTemperatureK)) / 3 : 0;
+    return (Math.sqrt(1 - gamma) * (1 - c)) / 3 + thermal;
+  }
+
+  /** The estimated budget (T1, white dephasing, quasi-static flux noise) of the usual CZ on the pair (i at fi, j at fj). */
   private gateCost(i: number, fi: number, si: TableState, j: number, fj: number, sj: TableState, gCharge: number): number {
     const hiIsI = fi >= fj;
     const h = hiIsI ? i : j;
@@ -121,7 +157,6 @@ export class ParkingCost {
     const sl = hiIsI ? sj : si;
     const th = this.ctx.tables[h];
     const tl = this.ctx.tables[l];
-    const ramp = 2 * this.options.rampNs;
     this.lastWasHigherCrossing = false;
     // The higher qubit to its 11-20 crossing (its f12 = f01 of the lower one).
     const fInt = th.f01ForF12(fl);
@@ -129,9 +164,9 @@ export class ParkingCost {
     if (fInt !== null) {
       const sx = th.at(fInt, this.sx);
       const gc = gCharge * sx.n12 * sl.n01;
-      if (fInt - th.fLowGHz >= tuningRoomGHz(gc)) {
+      if (fInt - th.fLowGHz >= tuningRoomGHz(gc) && this.withinExcursion(h, fi >= fj ? fi : fj, fInt)) {
         this.lastWasHigherCrossing = true;
-        return ((1 / (2 * gc) + ramp) * th.fluxNoiseRateOf(sx)) / 3;
+        return this.gateEstimate(h, th.fluxSlopeOf(sx), l, tl.fluxSlopeOf(sl), 'mover', gc);
       }
     }
     // The lower qubit up to its 11-02 crossing (its f01 = f12 of the higher one).
@@ -139,8 +174,74 @@ export class ParkingCost {
     if (tl.covers(f2)) {
       const sx = tl.at(f2, this.sx);
       const gc = gCharge * sx.n01 * sh.n12;
-      if (this.ctx.ranges[l].hi - f2 >= tuningRoomGHz(gc)) return ((1 / (2 * gc) + ramp) * tl.fluxNoiseRateOf(sx)) / 3;
+      if (this.ctx.ranges[l].hi - f2 >= tuningRoomGHz(gc) && this.withinExcursion(l, fl, f2)) return this.gateEstimate(l, tl.fluxSlopeOf(sx), h, th.fluxSlopeOf(sh), 'partner', gc);
     }
     return 1;
   }
+
+  /**
+   * The summed spectator admixtures (src/plan/rules/spectator-admixture.ts admixtureSum) of the
+   * usual CZs whose spectators qubit i's frequency decides, with i at f: each gate of i with a
+   * neighbour j (the higher of the two moving to its 11-20 crossing, whose f01 there is fixed by
+   * the other's f01) against the mover's other neighbours, and each gate of a neighbour j with its
+   * other neighbours k, j the higher, against i where it parks. Spectators the interaction stage
+   * moves out of the way cost their move instead; this term steers the parking away from needing
+   * them. 11-02 gates (the lower qubit up) are left out here.
+   */
+  private spectatorAdmixture(i: number, f: number, view: FrequencyView, cached: boolean): number {
+    const ctx = this.ctx;
+    let sum = 0;
+    const gOf = (a: number, b: number) => ctx.edges[ctx.edgeBetween(a, b)].gChargeGHz;
+    if (!cached) this.spectatorVisit.clear();
+    for (const j of ctx.neighbours[i]) {
+      if (!view.active[j]) continue;
+      const fj = view.freq[j];
+      if (f >= fj) {
+        // i moves to its 11-20 crossing with j: the point is fixed by f_j, the spectators by the others (constant in a visit)
+        const key = -1 - j;
+        let c = this.spectatorVisit.get(key);
+        if (c === undefined) {
+          c = 0;
+          const fInt = ctx.tables[i].f01ForF12(fj);
+          if (fInt !== null) for (const m of ctx.neighbours[i]) if (m !== j && view.active[m]) c += admixtureSum(ctx, i, fInt, m, view.freq[m], gOf(i, m), true);
+          this.spectatorVisit.set(key, c);
+        }
+        sum += c;
+      } else {
+        // j moves to its 11-20 crossing with i at f; its other neighbours are the spectators
+        const fInt = ctx.tables[j].f01ForF12(f);
+        if (fInt !== null) for (const m of ctx.neighbours[j]) if (m !== i && view.active[m]) sum += admixtureSum(ctx, j, fInt, m, view.freq[m], gOf(j, m), true);
+      }
+      // the gates of j with its other neighbours k (j the higher), i a spectator where it parks
+      for (const k of ctx.neighbours[j]) {
+        if (k === i || !view.active[k]) continue;
+        const fk = view.freq[k];
+        if (fj < fk) continue;
+        const fIntJ = ctx.tables[j].f01ForF12(fk);
+        if (fIntJ !== null) sum += admixtureSum(ctx, j, fIntJ, i, f, gOf(j, i), true);
+      }
+    }
+    return sum;
+  }
+
+  /** The move from f01 = from to f01 = to stays within the flux excursion limit (rule cz-excursion). */
+  private withinExcursion(q: number, from: number, to: number): boolean {
+    const t = this.ctx.tables[q];
+    return Math.abs(t.fluxAt(to) - t.fluxAt(from)) <= this.ctx.rules.maxFluxExcursion;
+  }
+
+  private gateEstimate(mover: number, moverSlope: number, partner: number, partnerSlope: number, excited: 'mover' | 'partner', gc: number): number {
+    const hold = 1 / (2 * gc);
+    const r = this.ctx.rules;
+    // df12/dPhi taken equal to df01/dPhi here (they differ by a few per cent in a transmon)
+    const est = estimateGateBudget({
+      mover: { coherence: this.ctx.transmons[mover].coherenceSpec, slopeGHz: moverSlope, slope12GHz: moverSlope },
+      partner: { coherence: this.ctx.transmons[partner].coherenceSpec, slopeGHz: partnerSlope, slope12GHz: partnerSlope },
+      excited, holdNs: hold, rampNs: 0, durationNs: shortestGateNs(gc, r), averagingTimeNs: r.noiseAveragingTimeNs,
+    });
+    return est.t1 + est.whiteDephasing + est.fluxNoise;
+  }
 }
+
+/** Lifetime assumed for a listed defect in the tls term (ns; our assumption, see the banner). */
+export const TLS_LIFETIME_NS = 1000;

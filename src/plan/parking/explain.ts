@@ -149,7 +149,11 @@ function explainCluster(ctx: PlanContext, options: PlanOptions, main: ParkingSta
 }
 
 function describeBlocker(ctx: PlanContext, b: Blocker): string {
-  if (b.other < 0) return b.rule === 'tls' ? 'its defect (tls)' : 'its readout resonator (readout)';
+  if (b.other < 0) {
+    if (b.rule === 'tls') return 'its defect (tls)';
+    if (b.rule === 'idle-error') return 'its own idle error over the reference idle time (idle-error: off its sweet spots the quasi-static 1/f dephasing, with T1 and the rest, exceeds idleErrorLimit)';
+    return 'its readout resonator (readout)';
+  }
   return `${ctx.ids[b.other]} ${b.rule}`;
 }
 

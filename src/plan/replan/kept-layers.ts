@@ -5,7 +5,7 @@
  */
 import type { PlanContext } from '../context.js';
 import type { EdgePlan } from '../interaction/plan-edge.js';
-import { gatesConflict, movedQubits, type LayerPlan } from '../layers.js';
+import { gatesConflict, movedQubits, planLayers, type LayerPlan } from '../layers.js';
 
 export function keptLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, earlier: readonly (number | undefined)[], conflicts: number): LayerPlan {
   const moved = plans.map((p) => movedQubits(ctx, p, parkingF12, parkingGHz));
@@ -32,5 +32,7 @@ export function keptLayers(ctx: PlanContext, plans: readonly EdgePlan[], parking
   const renumber = new Map(used.map((l, i) => [l, i]));
   const layers = used.map((l) => members[l].map((k) => plans[k].edge).sort((a, b) => a - b));
   const lowerBound = ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
-  return { layerOf: layerOf.map((l) => renumber.get(l)!), layers, lowerBound, conflicts };
+  // the explanation is that of a fresh layering of the same gates (what their conflicts need)
+  const explanation = planLayers(ctx, plans, parkingF12, parkingGHz).explanation;
+  return { layerOf: layerOf.map((l) => renumber.get(l)!), layers, lowerBound, conflicts, explanation };
 }

@@ -30,6 +30,12 @@ export type RuleName =
   | 'cz-spectator-01-01'
   | 'cz-spectator-11-20'
   | 'cz-spectator-11-02'
+  | 'cz-spectator-21-12'
+  | 'cz-spectator-21-30'
+  | 'cz-excursion'
+  | 'gate-error'
+  | 'spectator-leakage'
+  | 'idle-error'
   | 'cz-next-01-01'
   | 'cz-tls'
   | 'cz-readout'
@@ -91,12 +97,18 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
     doc: 'The interaction frequency of the chosen crossing lies inside the mover\'s planning range, at least one bare splitting 2 g_c from its far end (room to tune the destination past the crossing; our choice, src/plan/rules/tuning-room.ts).', source: 'README physics conventions sec. 2' }),
   rule({ name: 'cz-duration', scope: 'cz', transitions: '1/(2 g_c) at the crossing plus ramps', threshold: 'maxGateNs', compare: 'max', quantity: 'time',
     doc: 'The shortest CZ on the crossing (one full 11 -> 20 -> 11 cycle, 1/(2 g_c), plus ramps in and out, the flux line\'s settling and the sample grid, plus the ramps of any spectator moved out of the way) fits in maxGate.', source: 'README physics conventions sec. 2 (two-level Rabi formula)' }),
-  rule({ name: 'cz-spectator-01-01', scope: 'cz', transitions: 'mover f01 at the interaction point vs spectator f01', threshold: 'spectatorDetuningGHz', compare: 'min', quantity: 'frequency',
-    doc: 'During a CZ the interaction frequency stays spectatorDetuning away from the f01 of every other neighbour of the mover.', source: 'common practice' }),
-  rule({ name: 'cz-spectator-11-20', scope: 'cz', transitions: 'mover f12 at the interaction point vs spectator f01 (f01_S - alpha_A)', threshold: 'spectatorDetuningGHz', compare: 'min', quantity: 'frequency',
-    doc: 'During a CZ the mover\'s f12 stays spectatorDetuning away from each spectator\'s f01 (the |11> <-> |20> crossing with the spectator).', source: 'common practice' }),
-  rule({ name: 'cz-spectator-11-02', scope: 'cz', transitions: 'mover f01 at the interaction point vs spectator f12 (f01_S + alpha_S)', threshold: 'spectatorDetuningGHz', compare: 'min', quantity: 'frequency',
-    doc: 'During a CZ the interaction frequency stays spectatorDetuning away from each spectator\'s f12 (the |11> <-> |02> crossing with the spectator).', source: 'common practice' }),
+  rule({ name: 'cz-spectator-01-01', scope: 'cz', transitions: 'excited qubit f01 at the gate vs spectator f01 (|10> <-> |01>)', threshold: 'spectatorAdmixture', compare: 'max', quantity: 'probability',
+    doc: 'During a CZ the admixture (g_c / Delta)^2 of the excited qubit\'s 0-1 and each spectator\'s 0-1 transition stays within spectatorAdmixture (src/plan/rules/spectator-admixture.ts).', source: 'README physics conventions sec. 5; three-transmon simulations' }),
+  rule({ name: 'cz-spectator-11-20', scope: 'cz', transitions: 'excited qubit f12 at the gate vs spectator f01 (|11> <-> |20>)', threshold: 'spectatorAdmixture', compare: 'max', quantity: 'probability',
+    doc: 'During a CZ the admixture of the excited qubit\'s 1-2 and each spectator\'s 0-1 transition (coupling about sqrt2 g) stays within spectatorAdmixture.', source: 'README physics conventions sec. 5' }),
+  rule({ name: 'cz-spectator-11-02', scope: 'cz', transitions: 'excited qubit f01 at the gate vs spectator f12 (|11> <-> |02>)', threshold: 'spectatorAdmixture', compare: 'max', quantity: 'probability',
+    doc: 'During a CZ the admixture of the excited qubit\'s 0-1 and each spectator\'s 1-2 transition stays within spectatorAdmixture.', source: 'README physics conventions sec. 5' }),
+  rule({ name: 'cz-spectator-21-12', scope: 'cz', transitions: 'excited qubit f12 vs spectator f12 (|21> <-> |12>), when the gate populates |2>', threshold: 'spectatorAdmixture', compare: 'max', quantity: 'probability',
+    doc: 'During a CZ that populates |2> of a qubit, the admixture of its 1-2 and each of its spectators\' 1-2 transition (coupling about 2 g) stays within spectatorAdmixture.', source: 'derived (charge matrix elements of the transmon ladder); three-transmon simulations' }),
+  rule({ name: 'cz-spectator-21-30', scope: 'cz', transitions: 'excited qubit f23 vs spectator f01 (|21> <-> |30>), when the gate populates |2>', threshold: 'spectatorAdmixture', compare: 'max', quantity: 'probability',
+    doc: 'During a CZ that populates |2> of a qubit, the admixture of its 2-3 and each of its spectators\' 0-1 transition (coupling about sqrt3 g) stays within spectatorAdmixture.', source: 'derived (charge matrix elements of the transmon ladder); three-transmon simulations' }),
+  rule({ name: 'cz-excursion', scope: 'cz', transitions: 'the mover\'s flux excursion from parking to the interaction point', threshold: 'maxFluxExcursion', compare: 'max', quantity: 'none',
+    doc: 'A CZ moves its mover at most maxFluxExcursion (Phi0) from its parking flux (the flux line\'s current limit).', source: 'the lab\'s wiring' }),
   rule({ name: 'cz-next-01-01', scope: 'cz', transitions: 'mover f01 at the interaction point vs f01 of a qubit sharing a neighbour with it', threshold: 'detuningNext0101GHz', compare: 'min', quantity: 'frequency',
     doc: 'During a CZ the interaction frequency keeps detuningNext0101 from the mover\'s next-nearest neighbours.', source: 'common practice' }),
   rule({ name: 'cz-tls', scope: 'cz', transitions: 'mover f01 at the interaction point vs its listed defects', threshold: 'tlsClearanceGHz', compare: 'min', quantity: 'frequency',
@@ -123,6 +135,12 @@ export const COLLISION_RULES: readonly CollisionRule[] = Object.freeze([
     doc: 'A spectator moved out of the way keeps width + tlsClearance from its defects.', source: 'common practice' }),
   rule({ name: 'cz-parked-readout', scope: 'cz', transitions: 'a parked spectator\'s f01 vs its readout resonator', threshold: 'readoutDetuningGHz', compare: 'min', quantity: 'frequency',
     doc: 'A spectator moved out of the way keeps readoutDetuning from its readout resonator.', source: 'common practice' }),
+  rule({ name: 'gate-error', scope: 'cz', transitions: 'the predicted error of a CZ (its whole budget)', threshold: 'gateErrorLimit', compare: 'max', quantity: 'probability',
+    doc: 'The predicted average infidelity of each CZ (coherent, T1, white dephasing, quasi-static flux noise, spectators, swept crossings, spectator moves; src/plan/gate-budget.ts) stays within gateErrorLimit.', source: 'README physics conventions sec. 4' }),
+  rule({ name: 'spectator-leakage', scope: 'cz', transitions: 'the leakage a CZ\'s spectators add (three-transmon simulations)', threshold: 'spectatorLeakageLimit', compare: 'max', quantity: 'probability',
+    doc: 'The leakage the spectators of a designed CZ add, simulated as third transmons in |0> and |1>, stays within spectatorLeakageLimit.', source: 'src/budget/spectator-error.ts' }),
+  rule({ name: 'idle-error', scope: 'idle', transitions: 'a qubit\'s predicted idle error over one reference cycle', threshold: 'idleErrorLimit', compare: 'max', quantity: 'probability',
+    doc: 'Each qubit\'s predicted idle error over the reference cycle (T1, white and quasi-static 1/f dephasing, residual ZZ, thermal excitation; src/budget/idle-error.ts) stays within idleErrorLimit.', source: 'README physics conventions sec. 4' }),
   rule({ name: 'cz-design', scope: 'cz', transitions: 'the designed CZ pulse of an edge', threshold: 'maxGateNs', compare: 'none', quantity: 'none',
     doc: 'The gate stage found a CZ for the edge within maxGate (its reason is reported when it did not).', source: 'src/gate (designCzGate)' }),
   rule({ name: 'cz-crossing', scope: 'plan', transitions: 'the plan\'s interaction frequency vs the crossing recomputed from the parking frequencies', threshold: null, compare: 'none', quantity: 'frequency',

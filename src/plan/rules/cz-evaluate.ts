@@ -4,9 +4,11 @@
  * other qubits at their parking frequencies except the spectators parked out of the way for this
  * gate (each moved before the mover ramps and back after it).
  *
- *   at the interaction point (to = f_int, mover f12 there exact):
- *     cz-spectator-01-01  |to - f01_S|          cz-spectator-11-20  |f12_A(to) - f01_S|
- *     cz-spectator-11-02  |to - f12_S|          (S = every other neighbour of A)
+ *   at the interaction point (to = f_int): the spectator admixtures (g_c / Delta)^2 of the
+ *     excited qubit's transitions against each spectator's (./spectator-admixture.ts:
+ *     cz-spectator-01-01, -11-20, -11-02, and with |2> populated -21-12, -21-30; S = every other
+ *     neighbour of A, and on an 11-02 crossing also of the partner B, which then reaches |2>)
+ *     cz-excursion        |flux(to) - flux(from)| <= maxFluxExcursion
  *     cz-next-01-01       |to - f01_K|          (K = qubits sharing a neighbour with A)
  *     cz-tls              |to - f_TLS| - width  cz-readout  distance of the swept band to f_r
  *   along the sweep (every crossing strictly between parking and the interaction point):
@@ -34,6 +36,7 @@ import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
 import type { Finding } from './findings.js';
+import { admixtureChecks } from './spectator-admixture.js';
 import { shortestGateNs, slotNs } from './cz-duration.js';
 
 export type Crossing = '11-20' | '11-02';
@@ -107,20 +110,32 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   const edgeKey = ctx.edges[s.edge].key;
   const add = (f: Omit<CzFinding, 'edge'>) => findings.push({ ...f, edge: edgeKey });
   const to = s.toGHz;
-  const sd = r.spectatorDetuningGHz;
-  // Destination conditions against each spectator.
-  for (const S of ctx.neighbours[A]) {
-    if (S === s.partner) continue;
-    const d = during(s, S);
-    // (each message is built only for a finding)
-    const checks: [RuleName, number, () => string][] = [
-      ['cz-spectator-01-01', Math.abs(to - d.f01GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-20', Math.abs(s.moverF12AtToGHz - d.f01GHz), () => `${id[A]} f12 ${ghz(s.moverF12AtToGHz)} at the interaction point is ${mhz(Math.abs(s.moverF12AtToGHz - d.f01GHz))} from spectator ${id[S]} f01 ${ghz(d.f01GHz)}`],
-      ['cz-spectator-11-02', Math.abs(to - d.f12GHz), () => `${id[A]} at ${ghz(to)} is ${mhz(Math.abs(to - d.f12GHz))} from spectator ${id[S]} f12 ${ghz(d.f12GHz)}`],
-    ];
-    for (const [rule, value, text] of checks) {
-      if (value < sd) add({ rule, qubits: [id[A], id[S]], value, threshold: sd, message: `${text()}; needs ${mhz(sd)} during the CZ on ${edgeKey}`, blame: S });
+  // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
+  // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
+  // 11-02 crossing the partner's other neighbours against the partner in |2>.
+  const limit = r.spectatorAdmixture;
+  const spectatorChecks = (E: number, fE: number, withLevel2: boolean, skip: number, where: string) => {
+    for (const S of ctx.neighbours[E]) {
+      if (S === skip) continue;
+      const d = during(s, S);
+      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+      for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
+        if (c.admixture <= limit) continue;
+        add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
+          message: `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}`,
+          details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
+      }
     }
+  };
+  spectatorChecks(A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
+  if (s.crossing === '11-02') spectatorChecks(s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
+  // The flux excursion (the flux line's current limit).
+  const tA = ctx.transmons[A];
+  const xFrom = tA.fluxForF01OrNull(s.fromGHz);
+  const xTo = tA.fluxForF01OrNull(to);
+  if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
+    add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
+      message: `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0`, blame: -1 });
   }
   for (const p of ctx.nextNearestOf[A]) {
     const pair = ctx.nextNearest[p];

@@ -11,6 +11,11 @@
  *   tls         [f_TLS - width - t, f_TLS + width + t]         each listed defect of i
  *   readout     [f_r - t, f_r + t]
  *   zz          {f : |zeta_ij(f, f_j)| > limit}                 each coupled neighbour j
+ *   idle-error  {f : the qubit's own idle error over the reference idle time > idleErrorLimit}
+ *               (T1, white and quasi-static 1/f dephasing, thermal excitation: src/budget/idle-error.ts;
+ *               the residual-ZZ share depends on the neighbours and is left to the exact check);
+ *               only when some point of the range is below the limit (a qubit whose T1 alone
+ *               breaks it is reported by the budget, not blocked everywhere)
  *
  * ZZ uses the second-order estimate of src/plan/zz-second-order.ts with tabulated levels, scaled
  * by a per-edge calibration against the exact dressed ZZ (src/plan/parking/assign.ts). |zeta|
@@ -30,6 +35,7 @@ import { emptyTableState, type TableState } from '../qubit-table.js';
 import { secondOrderZz } from '../zz-second-order.js';
 import type { Interval } from '../intervals.js';
 import type { RuleName } from './catalogue.js';
+import { qubitIdleError } from '../../budget/idle-error.js';
 
 export interface Blocker extends Interval {
   rule: RuleName;
@@ -55,11 +61,57 @@ interface ZzCacheEntry {
   intervals: Interval[];
 }
 
+/** Reference idle time of the idle-error blocker (ns): about one error-correction cycle, the parking search's own reference (src/plan/options.ts cycleNs). */
+export const IDLE_REFERENCE_NS = 1000;
+
 export class IdleBlockers {
   private readonly zzCache = new Map<number, ZzCacheEntry>();
   private readonly tmp = emptyTableState();
+  private readonly idleCache = new Map<number, Interval[]>();
 
   constructor(readonly ctx: PlanContext) {}
+
+  /**
+   * The f01 bands where qubit i's own idle error over IDLE_REFERENCE_NS exceeds idleErrorLimit
+   * (scanned on 400 points of its planning range; empty when the whole range is above or below it).
+   */
+  idleErrorIntervals(i: number): Interval[] {
+    const hit = this.idleCache.get(i);
+    if (hit) return hit;
+    const ctx = this.ctx;
+    const t = ctx.transmons[i];
+    const table = ctx.tables[i];
+    const out: Interval[] = [];
+    const spec = t.coherenceSpec;
+    if (spec) {
+      const r = ctx.rules;
+      const n = 400;
+      const lo = table.fLowGHz;
+      const hi = table.fMaxGHz;
+      const bad: boolean[] = [];
+      for (let k = 0; k <= n; k++) {
+        const f = lo + ((hi - lo) * k) / n;
+        const st = table.at(f, this.tmp);
+        const e = qubitIdleError({ coherence: spec, f01GHz: f, slopeGHz: table.fluxSlopeOf(st), curvatureGHz: 0 }, IDLE_REFERENCE_NS, { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK });
+        bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
+      }
+      if (bad.some((b) => !b)) {
+        let start = -1;
+        for (let k = 0; k <= n + 1; k++) {
+          const b = k <= n && bad[k];
+          if (b && start < 0) start = k;
+          if (!b && start >= 0) {
+            // a band that reaches an end of the range extends past it, so the end itself is blocked
+            // (blocked intervals are open: a point exactly on their edge is allowed)
+            out.push({ lo: start === 0 ? lo - 1 : lo + ((hi - lo) * (start - 0.5)) / n, hi: k > n ? hi + 1 : lo + ((hi - lo) * (k - 0.5)) / n });
+            start = -1;
+          }
+        }
+      }
+    }
+    this.idleCache.set(i, out);
+    return out;
+  }
 
   /** Forget cached ZZ intervals (after a calibration change). */
   clearZzCache(): void {
@@ -94,6 +146,7 @@ export class IdleBlockers {
       out.push({ lo: d.atGHz - w, hi: d.atGHz + w, rule: 'tls', other: -1 });
     }
     if (q.readoutGHz !== undefined) out.push({ lo: q.readoutGHz - r.readoutDetuningGHz, hi: q.readoutGHz + r.readoutDetuningGHz, rule: 'readout', other: -1 });
+    for (const b of this.idleErrorIntervals(i)) out.push({ lo: b.lo, hi: b.hi, rule: 'idle-error', other: -1 });
     return out;
   }
 

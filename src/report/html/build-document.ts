@@ -145,7 +145,8 @@ function explanation(v: unknown): ReportExplanation | null {
 /**
  * The predicted error of an edge and where it comes from: the error budget's total, else
  * 1 - fidelity with decoherence, else 1 - coherent fidelity (from the plan's unrounded numbers),
- * else the planner's estimate for the option it chose (no pulse designed).
+ * else the planner's estimate (no pulse designed: the edge's estimated budget, else the chosen
+ * option's score).
  */
 export function predictedError(
   gate: { budgetTotal?: number | null; fidelityNoisy?: number | null; fidelity?: number | null } | null,
@@ -319,7 +320,8 @@ export function buildReportDocument(inputs: ReportInputs, options: ReportOptions
       gate,
       error: predictedError(
         isObject(e.gate) ? { budgetTotal: gate?.budget?.total ?? null, fidelityNoisy: finite(e.gate.fidelityNoisy), fidelity: finite(e.gate.fidelity) } : null,
-        chosen ? finite(chosen.estimatedError) : null,
+        // before pulse design: the plan's estimated budget for the edge, else the chosen option's score
+        (isObject(e.budget) ? finite(e.budget.total) : null) ?? (chosen ? finite(chosen.estimatedError) : null),
       ),
       waveform,
       waveformNote: inputs.missingWaveforms?.get(key) ?? null,

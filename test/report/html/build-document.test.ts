@@ -53,12 +53,13 @@ describe('buildReportDocument on the Bowline-5 plan', () => {
       const t = Transmon.fromLayout(src);
       expect(q.tunableGHz[0]).toBeCloseTo(t.fMinGHz, 7);
       expect(q.tunableGHz[1]).toBeCloseTo(t.fMaxGHz, 7);
-      expect(q.idle).toBeNull();
+      // the idle budget, to the report's 5 significant digits
+      for (const k of ['t1', 'dephasing', 'zz', 'thermal', 'total'] as const) expect(Math.abs(q.idle![k]! - p.idle[k])).toBeLessThanOrEqual(5e-5 * Math.abs(p.idle[k]) + 1e-15);
       expect(q.flags).toBe((planDoc.flags as any[]).filter((f) => f.qubits.includes(q.id)).length);
     }
   });
 
-  it('each edge: mover, crossing, interaction, layer, gate metrics, and the predicted error 1 - fidelityNoisy', () => {
+  it('each edge: mover, crossing, interaction, layer, gate metrics, and the predicted error (the budget total)', () => {
     const doc = buildReportDocument({ plan: copy(), layout, waveforms });
     expect(doc.edges).toHaveLength(planDoc.edges.length);
     doc.edges.forEach((e, k) => {
@@ -70,9 +71,9 @@ describe('buildReportDocument on the Bowline-5 plan', () => {
       expect(e.layer).toBe(p.layer);
       expect(e.durationNs).toBeCloseTo(p.slotDuration * 1e9, 4);
       expect(e.gate!.fidelity).toBeCloseTo(p.gate.fidelity, 8);
-      expect(e.gate!.budget).toBeNull();
-      expect(e.error!.source).toBe('noisy');
-      expect(e.error!.value).toBeCloseTo(1 - p.gate.fidelityNoisy, 6);
+      expect(e.gate!.budget).toMatchObject({ total: expect.closeTo(p.gate.budget.total, 6), fluxNoise: expect.closeTo(p.gate.budget.fluxNoise, 8) });
+      expect(e.error!.source).toBe('budget');
+      expect(e.error!.value).toBeCloseTo(p.gate.budget.total, 6);
     });
     // Layers: which gates run together, each as long as its longest gate.
     for (const l of doc.layers) {
@@ -105,6 +106,8 @@ describe('buildReportDocument on the Bowline-5 plan', () => {
     plan.edges[1].gate.budget = { ...parts, total };
     plan.qubits.Q2.idle = { t1: 1e-3, dephasing: 2e-3, zz: 1e-4, thermal: 5e-5, total: 3.15e-3 };
     plan.cycle = { duration: 4.2e-7, error: 0.071, gates: 0.05, idles: 0.021 };
+    delete plan.edges[0].gate.budget; // a plan without a budget for this gate
+    delete plan.edges[0].budget;
     const doc = buildReportDocument({ plan, layout, waveforms });
     expect(doc.edges[1].error).toEqual({ value: Number(total.toPrecision(5)), source: 'budget' });
     expect(doc.edges[1].gate!.budget).toMatchObject(parts);
@@ -116,7 +119,10 @@ describe('buildReportDocument on the Bowline-5 plan', () => {
   it('falls back to 1 - fidelity, then to the planner estimate, and reads a plan missing optional fields', () => {
     const plan = copy();
     delete plan.edges[0].gate.fidelityNoisy;
+    delete plan.edges[0].gate.budget;
+    delete plan.edges[0].budget;
     plan.edges[1].gate = null;
+    delete plan.edges[1].budget;
     for (const q of Object.values(plan.qubits) as any[]) {
       delete q.margin;
       delete q.t2;

@@ -1,0 +1,170 @@
+/**
+ * The error a spectator adds to a two-qubit gate, from a three-transmon simulation
+ * (README physics conventions secs. 3 and 5).
+ *
+ * A spectator S is a neighbour of a moving qubit that sits still during the gate (at its parking
+ * frequency, or where the plan moved it for the gate). It is simulated as a third transmon, in
+ * its ground state and in its first excited state (a data qubit is in either, or in a
+ * superposition; the average over the two is the error of a random spectator state). The lab
+ * calibrates the gate's virtual-Z phases and its frame with the spectator in its ground state, so:
+ *   - S in |0>: the gate's fidelity with its own best virtual-Z phases (what calibration with the
+ *     spectator present achieves);
+ *   - S in |1>: the fidelity with those phases and the same lab frame: the conditional phase the
+ *     mover picks up against S (the ZZ of the excursion), and any transfer into S (the 01-10,
+ *     11-20 and 11-02 type crossings of mover and spectator), count as error.
+ * The spectator's error is the average of the two infidelities minus the pair's own coherent
+ * infidelity (the same waveform without S), and its leakage the same difference of leakages.
+ * Model: mover 5 levels (the mover's |2> meets the spectator through its 2-3 transition), partner 3,
+ * spectator 3 (src/sim/pair-model.ts), in-block propagation
+ * (every spectator crossing lies inside one excitation manifold; tested against the full scheme).
+ */
+import { fidelityWithVirtualZ, gateMetrics, leakage } from '../sim/gate-metrics.js';
+import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
+import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
+import type { FramePropagationOptions } from '../sim/propagate-frame.js';
+import { simulateGate } from '../sim/simulate-gate.js';
+import type { Trajectory } from '../sim/trajectory.js';
+import type { Transmon } from '../transmon/transmon.js';
+
+export interface SpectatorErrorInput {
+  mover: Transmon;
+  partner: Transmon;
+  /** Layout g of the edge (GHz). */
+  gGHz: number;
+  partnerFlux: number;
+  spectator: EdgeSpectator;
+  traj: Trajectory;
+  targetPhase: number;
+  /** The pair's own coherent infidelity and leakage on this waveform (without S). */
+  pairError: number;
+  pairLeakage: number;
+  propagation?: FramePropagationOptions;
+  /** Levels kept (default mover 5, partner 3, spectator 3); the pair baseline must use the same. */
+  levels?: { moverLevels?: number; partnerLevels?: number; spectatorLevels?: number };
+}
+
+export interface SpectatorError {
+  /** Added average infidelity (S averaged over |0> and |1>), >= 0 up to numerical noise. */
+  error: number;
+  /** Added leakage out of the computational states (averaged over S). */
+  leakage: number;
+  /** Infidelities with S in |0> and |1>. */
+  ground: number;
+  excited: number;
+  /**
+   * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept;
+   * 'mover-levels' also fewer mover levels (see spectatorFrame); 'estimate' no frame converged and
+   * the error is the admixture estimate (admixtureFallback).
+   */
+  reduced: 'none' | 'manifolds' | 'mover-levels' | 'estimate';
+}
+
+export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+
+/** Default model size: the mover's 2-3 transition meets spectators during the hold, so 5 levels. */
+export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 });
+
+export function spectatorError(input: SpectatorErrorInput): SpectatorError {
+  const { mover, partner, traj } = input;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const x of traj.flux) {
+    const u = mover.ejGHz(x);
+    if (u < lo) lo = u;
+    if (u > hi) hi = u;
+  }
+  const built = spectatorFrame(input, lo, hi);
+  if (!built) return admixtureFallback(input);
+  const { frame, reduced, moverLevels } = built;
+  const prop = { ...SPECTATOR_PROPAGATION, ...input.propagation };
+  const g = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [0] });
+  const metrics = gateMetrics(g.m, input.targetPhase);
+  const lab = [g.energies['00'], g.energies['01'], g.energies['10']] as const;
+  const x = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [1], labEnergies: lab });
+  const ground = 1 - metrics.fidelity;
+  const excited = 1 - fidelityWithVirtualZ(x.m, metrics.virtualZ.a, metrics.virtualZ.b, input.targetPhase);
+  // the pair's own error on the same model size (the caller's baseline when the model was not reduced)
+  let pairError = input.pairError;
+  let pairLeakage = input.pairLeakage;
+  if (reduced === 'mover-levels') {
+    const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
+    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
+    pairError = 1 - alone.fidelity;
+    pairLeakage = alone.leakage;
+  }
+  return {
+    error: 0.5 * (ground + excited) - pairError,
+    leakage: 0.5 * (leakage(g.m) + leakage(x.m)) - pairLeakage,
+    ground,
+    excited,
+    reduced,
+  };
+}
+
+/**
+ * The frame of a three-transmon model. With a spectator in |1> the computational block and its
+ * leakage reach three excitations, so the frame keeps manifolds up to 4 by default. A mover
+ * tuned low brings its upper levels (|3>, |4>) down among the two-excitation states of a high
+ * spectator; their crossings are weak (counter-rotating terms) but sharp, and the dressed
+ * manifolds are then not smooth over the mover's E_J range. The frame then keeps three manifolds,
+ * then drops the mover's upper levels one by one (down to 3: |2> stays, every 11-20 and 11-02
+ * type condition with the spectator stays in the model; the mover's 2-3 transition goes last).
+ * `reduced` says which model was simulated.
+ */
+function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number): { frame: ManifoldFrame; reduced: SpectatorError['reduced']; moverLevels: number } | null {
+  const { mover, partner } = input;
+  const full = input.levels?.moverLevels ?? SPECTATOR_LEVELS.moverLevels;
+  const modelOf = (moverLevels: number) =>
+    edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
+  const attempts: [number, number, SpectatorError['reduced']][] = [[full, 4, 'none'], [full, 3, 'manifolds']];
+  for (let m = full - 1; m >= 3; m--) attempts.push([m, 3, 'mover-levels']);
+  for (const [moverLevels, keepExcitations, reduced] of attempts) {
+    try {
+      return { frame: buildManifoldFrame(modelOf(moverLevels), { ejLo, ejHi, keepExcitations }), reduced, moverLevels };
+    } catch (err) {
+      if (!(err instanceof RangeError) || !/no convergence/.test(err.message)) throw err;
+    }
+  }
+  return null;
+}
+
+/** A spectator's error per unit of summed admixture (three-transmon simulations of Clove-17: median about 0.5, 0.14-1.0). */
+export const SPECTATOR_ERROR_PER_ADMIXTURE = 0.5;
+
+/**
+ * Where no frame of the three-transmon model converges (very large excursions past a high
+ * spectator), the spectator's share is estimated as the planner estimates it before pulse design
+ * (README physics conventions sec. 5): the qubit the spectator is coupled to (the mover at the
+ * waveform's plateau, or the static partner), taken to reach |2>, against the spectator where it
+ * sits; every pair of transitions that can meet (0-1, 1-2, 2-3 against 0-1, 1-2) adds
+ * min(1, (g_c / Delta)^2), g_c = G |<k|n|k+1>| |<l|n|l+1>|; the error is
+ * SPECTATOR_ERROR_PER_ADMIXTURE times the sum and the leakage the same for the pairs that leave
+ * the computational states (all but 0-1 against 0-1).
+ */
+function admixtureFallback(input: SpectatorErrorInput): SpectatorError {
+  const { mover, partner, traj, spectator: sp } = input;
+  let far = traj.flux[0];
+  for (const x of traj.flux) if (Math.abs(mover.ejGHz(x) - mover.ejGHz(traj.flux[0])) > Math.abs(mover.ejGHz(far) - mover.ejGHz(traj.flux[0]))) far = x;
+  const E = sp.coupledTo === 'mover' ? mover : partner;
+  const eFlux = sp.coupledTo === 'mover' ? far : input.partnerFlux;
+  const levels = (t: typeof mover, flux: number) => {
+    const b = t.chargeBasis(flux, 4);
+    const n = (i: number, j: number) => Math.abs(b.charge[i * 4 + j]);
+    return { f: [b.energies[1] - b.energies[0], b.energies[2] - b.energies[1], b.energies[3] - b.energies[2]], n: [n(0, 1), n(1, 2), n(2, 3)] };
+  };
+  const e = levels(E, eFlux);
+  const s = levels(sp.transmon, sp.flux);
+  const G = sp.gGHz / (E.chargeElement01(0) * sp.transmon.chargeElement01(0));
+  let error = 0;
+  let leak = 0;
+  for (let k = 0; k < 3; k++) {
+    for (let l = 0; l < 2; l++) {
+      const g = G * e.n[k] * s.n[l];
+      const d = e.f[k] - s.f[l];
+      const a = d === 0 ? 1 : Math.min(1, (g * g) / (d * d));
+      error += a;
+      if (k > 0 || l > 0) leak += a;
+    }
+  }
+  return { error: SPECTATOR_ERROR_PER_ADMIXTURE * error, leakage: SPECTATOR_ERROR_PER_ADMIXTURE * leak, ground: NaN, excited: NaN, reduced: 'estimate' };
+}

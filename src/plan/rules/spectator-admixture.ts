@@ -1,0 +1,98 @@
+/**
+ * Spectator conditions during a CZ as admixtures (README physics conventions sec. 5).
+ *
+ * While a CZ runs, the qubit that carries the excitation (the mover on an 11-20 crossing; on an
+ * 11-02 crossing the mover and, in |2>, the partner) sits at its gate frequencies and occupies
+ * |1> (and |2>); each other neighbour S sits still in |0> or |1>. A transition k -> k+1 of the
+ * excited qubit E and a transition l -> l+1 of S exchange energy through the charge coupling
+ * G n_E n_S with coupling g_c = G |<k|n|k+1>_E| |<l|n|l+1>_S|; at distance Delta between the two
+ * transition frequencies the states mix with amplitude about g_c / Delta, so the admixture
+ * (g_c / Delta)^2 is what the rule `spectatorAdmixture` limits (it replaces a fixed distance: it
+ * scales with the coupling). The pairs that can meet (E in |1> or |2>, S in |0> or |1>):
+ *
+ *   cz-spectator-01-01  E 0-1 vs S 0-1   |10> <-> |01>         (E in |1>)
+ *   cz-spectator-11-02  E 0-1 vs S 1-2   |11> <-> |02>         (E in |1>, S in |1>)
+ *   cz-spectator-11-20  E 1-2 vs S 0-1   |11> <-> |20>         (E in |1>, S in |1>; or E in |2>)
+ *   cz-spectator-21-12  E 1-2 vs S 1-2   |21> <-> |12>         (E in |2>, S in |1>)
+ *   cz-spectator-21-30  E 2-3 vs S 0-1   |21> <-> |30>         (E in |2>, S in |1>)
+ *
+ * (the last two only when E reaches |2>, labels |E S>). Three-transmon simulations of the demos
+ * show each of them costing percent-level errors when the admixture is a few per cent
+ * (src/budget/spectator-error.ts). Frequencies and matrix elements come from the qubit tables
+ * (src/plan/qubit-table.ts; f01 exact where given).
+ */
+import type { PlanContext } from '../context.js';
+import { emptyTableState, type TableState } from '../qubit-table.js';
+import type { RuleName } from './catalogue.js';
+
+export interface AdmixtureCheck {
+  rule: RuleName;
+  /** Transition frequencies of E and S compared (GHz). */
+  excitedGHz: number;
+  spectatorGHz: number;
+  /** |difference| (GHz). */
+  distanceGHz: number;
+  couplingGHz: number;
+  /** (g_c / Delta)^2. */
+  admixture: number;
+  /** Names of the transitions, for messages ("f12", "f23"). */
+  excitedTransition: string;
+  spectatorTransition: string;
+}
+
+export { SPECTATOR_ERROR_PER_ADMIXTURE } from '../../budget/spectator-error.js';
+
+const scratchE = emptyTableState();
+const scratchS = emptyTableState();
+
+/**
+ * The admixture checks of excited qubit E (f01 = fE, table state there) against spectator S
+ * (f01 = fS), coupling charge G; `withLevel2`: E reaches |2> during the gate.
+ */
+export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): AdmixtureCheck[] {
+  const e: TableState = ctx.tables[E].at(fE, scratchE);
+  const s: TableState = ctx.tables[S].at(fS, scratchS);
+  const e12 = e.f12;
+  const e23 = e.e3 - e.e2;
+  const s12 = s.f12;
+  const out: AdmixtureCheck[] = [];
+  const add = (rule: RuleName, a: number, b: number, n1: number, n2: number, ta: string, tb: string) => {
+    const g = Math.abs(gChargeGHz * n1 * n2);
+    const d = Math.abs(a - b);
+    out.push({ rule, excitedGHz: a, spectatorGHz: b, distanceGHz: d, couplingGHz: g, admixture: d > 0 ? (g / d) ** 2 : Infinity, excitedTransition: ta, spectatorTransition: tb });
+  };
+  add('cz-spectator-01-01', fE, fS, e.n01, s.n01, 'f01', 'f01');
+  add('cz-spectator-11-02', fE, s12, e.n01, s.n12, 'f01', 'f12');
+  add('cz-spectator-11-20', e12, fS, e.n12, s.n01, 'f12', 'f01');
+  if (withLevel2) {
+    add('cz-spectator-21-12', e12, s12, e.n12, s.n12, 'f12', 'f12');
+    add('cz-spectator-21-30', e23, fS, e.n23, s.n01, 'f23', 'f01');
+  }
+  return out;
+}
+
+/**
+ * The sum over the checks of admixtureChecks of min(1, (g_c / Delta)^2), without building them
+ * (the parking cost calls it in its inner loop; src/plan/interaction/plan-edge.ts estimateEdgeBudget
+ * turns it into an error estimate). The same numbers as summing admixtureChecks (tested).
+ */
+export function admixtureSum(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): number {
+  const e: TableState = ctx.tables[E].at(fE, scratchE);
+  const s: TableState = ctx.tables[S].at(fS, scratchS);
+  const term = (a: number, b: number, n1: number, n2: number): number => {
+    const g = gChargeGHz * n1 * n2;
+    const d = a - b;
+    return d === 0 ? 1 : Math.min(1, (g * g) / (d * d));
+  };
+  let sum = term(fE, fS, e.n01, s.n01) + term(fE, s.f12, e.n01, s.n12) + term(e.f12, fS, e.n12, s.n01);
+  if (withLevel2) sum += term(e.f12, s.f12, e.n12, s.n12) + term(e.e3 - e.e2, fS, e.n23, s.n01);
+  return sum;
+}
+
+/**
+ * The half-width (GHz) of the band of spectator frequencies a check blocks: |Delta| below
+ * g_c / sqrt(limit) breaks the admixture limit.
+ */
+export function admixtureHalfWidth(couplingGHz: number, limit: number): number {
+  return couplingGHz / Math.sqrt(limit);
+}
