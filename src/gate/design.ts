@@ -218,9 +218,10 @@ function chooseDesign(req: GateDesignRequest): GateDesign {
 
 /**
  * The spectators' share of the chosen design's budget: each requested spectator simulated on the
- * final waveform as a third transmon (src/budget/waveform-budget.ts spectatorBudget).
+ * final waveform as a third transmon (src/budget/waveform-budget.ts spectatorBudget). Also used
+ * for a design kept from an earlier plan (src/plan/pulses.ts), whose spectators may sit elsewhere now.
  */
-function withSpectatorBudget(req: GateDesignRequest, d: GateDesign): GateDesign {
+export function withSpectatorBudget(req: GateDesignRequest, d: GateDesign): GateDesign {
   const list = req.budgetSpectators ?? [];
   if (!d.feasible || !d.budget || list.length === 0) return d;
   const sb = spectatorBudget(

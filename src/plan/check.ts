@@ -8,7 +8,7 @@ import type { ChipLayout } from '../layout/types.js';
 import type { ChipGraph } from '../chip/graph.js';
 import type { StageProfiler } from '../util/profile.js';
 import { bandText } from './crowding.js';
-import { ghz, mhz, plain, toHz } from './format.js';
+import { ghz, mhz, ns, plain, prob, toHz } from './format.js';
 import { planChip, type ChipPlan } from './plan.js';
 import type { PlanOptionsInput } from './options.js';
 import { toFindingJson, type FindingJson } from './rules/findings.js';
@@ -37,6 +37,7 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
       margin: Number.isFinite(c.marginGHz) ? toHz(c.marginGHz) : null,
       marginSpreads: Number.isFinite(c.marginSpreads) ? plain(c.marginSpreads) : null,
       usableFraction: plain(c.usableFraction),
+      idleError: plan.budget.cycle.qubits[i] ? plain(plan.budget.cycle.qubits[i].total) : null,
     };
   });
   const edges = plan.edges.map((e, k) => ({
@@ -48,11 +49,15 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
     layer: plan.layers.layerOf[k],
     zz: toHz(plan.parking.idle.zzGHz[e.edge]),
     feasible: e.findings.length === 0,
+    // the estimated budget's sum before pulse design (src/budget/gate-estimate.ts)
+    predictedError: plan.budget.gates[k] ? plain(plan.budget.gates[k]!.total) : null,
   }));
+  const cycle = plan.budget.cycle;
   const data = {
     parking,
     edges,
     layers: { count: plan.layers.layers.length, lowerBound: plan.layers.lowerBound },
+    cycle: { duration: plain(cycle.durationNs * 1e-9), error: plain(cycle.error), gates: plain(cycle.gates), idles: plain(cycle.idles), uncountedEdges: cycle.uncounted },
     crowding: { bands: plan.crowding.bands.map((b) => ({ from: toHz(b.loGHz), to: toHz(b.hiGHz), qubits: b.qubits, flagged: b.flagged })) },
     explanations: plan.explanations,
   };
@@ -63,15 +68,26 @@ export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOpt
     `  ${'parking'.padEnd(20)} ${plan.parking.idle.violations.length === 0 ? 'every idle rule holds' : `${plan.parking.idle.violations.length} idle rule(s) broken`} (${ghz(Math.min(...plan.parking.parkingGHz))} to ${ghz(Math.max(...plan.parking.parkingGHz))})`,
     `  ${'interactions'.padEnd(20)} ${feasible} of ${edges.length} edges clear every CZ rule; ${parkedCount} spectator move(s)`,
     `  ${'layers'.padEnd(20)} ${plan.layers.layers.length} (lower bound ${plan.layers.lowerBound})`,
+    wrapLine(`  ${'reference cycle'.padEnd(20)} ${ns(cycle.durationNs)}, predicted error ${prob(cycle.error)} = gates ${prob(cycle.gates)} + idles ${prob(cycle.idles)} (estimated before pulse design; worst gate ${worstGate(plan)})${cycle.uncounted > 0 ? `; ${cycle.uncounted} edge(s) without a feasible gate not counted, so a lower bound` : ''}`, '      '),
     `  ${'smallest margin'.padEnd(20)} ${worst.i >= 0 ? `${id[worst.i]} ${mhz(worst.margin)} (${plan.crowding.qubits[worst.i].marginSpreads.toFixed(1)} spreads)` : '-'}`,
-    `  parking found (f01, flux, f12, smallest margin):`,
+    `  parking found (f01, flux, f12, idle error per cycle, smallest margin):`,
     ...ctx.ids.map((q, i) => {
       const c = plan.crowding.qubits[i];
       const margin = Number.isFinite(c.marginGHz) ? `margin ${mhz(c.marginGHz)} (${c.marginSpreads.toFixed(1)} spreads)` : 'margin -';
-      return `    ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${plan.states[i].flux.toFixed(4)}  f12 ${ghz(plan.states[i].f12GHz)}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`;
+      const idle = plan.budget.cycle.qubits[i];
+      return `    ${q.padEnd(6)} ${ghz(plan.parking.parkingGHz[i], 4)}  flux ${plan.states[i].flux.toFixed(4)}  f12 ${ghz(plan.states[i].f12GHz)}  idle error ${idle ? prob(idle.total) : '-'}  ${margin}${ctx.fixed[i] !== undefined ? '  (fixed)' : ''}`;
     }),
     ...plan.crowding.bands.map((b) => `  crowded band ${bandText(b)}`),
     ...plan.explanations.map((x) => wrapLine(`  ${x.kind === 'parking' ? 'cannot park' : 'cannot plan CZ'}: ${x.message}`, '      ')),
   ];
   return { plan, violations: plan.violations.map(toFindingJson), flags: plan.flags.map(toFindingJson), data, lines };
+}
+
+/** The edge with the largest estimated gate error, as "A-B 1.2e-3", or "-". */
+function worstGate(plan: ChipPlan): string {
+  let best = -1;
+  plan.budget.gates.forEach((g, k) => {
+    if (g && (best < 0 || g.total > plan.budget.gates[best]!.total)) best = k;
+  });
+  return best < 0 ? '-' : `${plan.ctx.edges[plan.edges[best].edge].key} ${prob(plan.budget.gates[best]!.total)}`;
 }

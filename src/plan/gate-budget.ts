@@ -37,6 +37,7 @@ import { landauZenerTransfer } from './landau-zener.js';
 import { spectatorMovesNs } from './rules/cz-duration.js';
 import { qubitIdleError, type IdleErrorOptions } from '../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../transmon/coherence.js';
+import { fluxCurvatureMemo, spectrumMemo } from './exact-memo.js';
 
 export interface GateBudget {
   coherent: number;
@@ -94,9 +95,9 @@ export function sweptCrossingError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
 function idleAt(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: number): { total: number; dephasing: number } {
   const t = ctx.transmons[q];
   if (!t.coherenceSpec || !(tNs > 0)) return { total: 0, dephasing: 0 };
-  const sp = t.spectrum(flux);
+  const sp = spectrumMemo(ctx, q, flux);
   const o: IdleErrorOptions = { averagingTimeNs: ctx.rules.noiseAveragingTimeNs, temperatureK: ctx.rules.qubitTemperatureK };
-  const e = qubitIdleError({ coherence: t.coherenceSpec, f01GHz, slopeGHz: sp.df01dFluxGHz, curvatureGHz: t.fluxCurvatureGHz(flux) }, tNs, o);
+  const e = qubitIdleError({ coherence: t.coherenceSpec, f01GHz, slopeGHz: sp.df01dFluxGHz, curvatureGHz: fluxCurvatureMemo(ctx, q, flux) }, tNs, o);
   return { total: e.t1 + e.dephasing + e.thermal, dephasing: e.dephasing };
 }
 
@@ -110,7 +111,7 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
     const spec = ctx.transmons[p.qubit].coherenceSpec;
     if (!spec?.fluxNoisePhi0) continue;
     const sigma = quasiStaticFluxSigma(spec.fluxNoisePhi0, slotNs, ctx.rules.noiseAveragingTimeNs);
-    const at = (flux: number) => (1 - quasiStaticCoherence(slotNs, ctx.transmons[p.qubit].spectrum(flux).df01dFluxGHz, 0, sigma)) / 3;
+    const at = (flux: number) => (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, flux).df01dFluxGHz, 0, sigma)) / 3;
     sum += Math.max(0, at(p.flux) - at(states[p.qubit].flux));
   }
   return sum;

@@ -28,6 +28,7 @@ import { band, ghz, mhz, prob, ns } from './format.js';
 import { planBudget } from './plan-budget.js';
 import type { PooledDesign } from '../gate/design-pool.js';
 import { budgetSpectatorList } from './budget-spectators.js';
+import { withSpectatorBudget } from '../gate/design.js';
 
 export interface PulseOptions {
   family?: string;
@@ -49,7 +50,7 @@ export interface PulseOptions {
 export function designPulses(plan: ChipPlan, designer: GateDesigner, options: PulseOptions = {}, progress?: (done: number, total: number) => void, given?: readonly (GateDesign | null | undefined)[]): void {
   let done = 0;
   const designs = plan.edges.map((e, k) => {
-    const d = given?.[k] ? given[k]! : Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
+    const d = given?.[k] ? keptWithBudget(plan, e, given[k]!, options) : Number.isFinite(e.interactionGHz) ? designOrFailure(plan, e, () => designer(gateRequest(plan, e, options))) : null;
     progress?.(++done, plan.edges.length);
     return d;
   });
@@ -93,7 +94,7 @@ export async function designPulsesInParallel(
       fallback = err instanceof Error ? err.message.split('\n')[0] : String(err);
     }
   }
-  const designs: (GateDesign | null)[] = plan.edges.map((_, k) => given?.[k] ?? null);
+  const designs: (GateDesign | null)[] = plan.edges.map((e, k) => (given?.[k] ? keptWithBudget(plan, e, given[k]!, options) : null));
   edges.forEach(({ e, k }, j) => {
     const p = pooled?.[j];
     designs[k] = designOrFailure(plan, e, () => {
@@ -105,6 +106,17 @@ export async function designPulsesInParallel(
   });
   applyDesigns(plan, designs, options.targetPhase);
   return fallback === undefined ? {} : { fallback };
+}
+
+/**
+ * A design kept from an earlier plan (src/plan/replan/), its spectators' share of the budget
+ * simulated again where the spectators sit in this plan (a neighbour may have moved; the rest of
+ * the gate stage's budget belongs to the kept waveform and the pair, which were kept).
+ */
+function keptWithBudget(plan: ChipPlan, e: EdgePlan, d: GateDesign, options: PulseOptions): GateDesign {
+  if (!d.budget || !d.feasible) return d;
+  const req = gateRequest(plan, e, { ...options, noise: true });
+  return withSpectatorBudget({ ...req, targetPhase: d.targetPhase ?? req.targetPhase }, d);
 }
 
 /** The design, or a failed one when the gate stage throws on this edge. */

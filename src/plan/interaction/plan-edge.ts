@@ -15,6 +15,7 @@
  * When no option is clean, the one with the fewest problems is kept and its findings are
  * reported; the reason says what each option ran into.
  */
+import { spectrumMemo } from '../exact-memo.js';
 import { pairResonances } from '../../pair/resonances.js';
 import type { PlanContext } from '../context.js';
 import { exactTransitions } from '../exact-state.js';
@@ -89,6 +90,12 @@ export interface EdgeContext {
   blockers: IdleBlockers;
   /** Exact states at parking (every qubit). */
   states: readonly ExactQubitState[];
+  /**
+   * Plan for feasibility only (the repair's trials, whose plans are made again in full after
+   * every move): each spectator goes to the nearest point that clears the gate, and none is moved
+   * only to lower the estimated error.
+   */
+  feasibilityOnly?: boolean;
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -236,7 +243,8 @@ function evaluateOption(
     parking,
     parked,
   };
-  const resolved = parkSpectators(ec, scenario, parkedInfo, (t, info) => estimateError(ec, scenario, res.moverFlux, info, t));
+  // (ec.feasibilityOnly: the first clearing point of each spectator and no moves for a lower error)
+  const resolved = parkSpectators(ec, scenario, parkedInfo, ec.feasibilityOnly ? undefined : (t, info) => estimateError(ec, scenario, res.moverFlux, info, t));
   const ev = resolved.evaluation;
   const unmovable = resolved.unmovable;
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
@@ -326,7 +334,8 @@ const BUDGET_MOVE_GAIN = 1e-4;
 /**
  * The temporary point of spectator P among `points` (nearest first, the first SPECTATOR_POINTS_TRIED)
  * that `clears` the evaluation: without `score` the nearest such point, with it the one of least
- * estimated error. The scenario is left without P parked; returns the point's record and evaluation.
+ * estimated error (ranked with the tabulated spectrum, confirmed exactly). The scenario is left
+ * without P parked; returns the point's record and evaluation.
  */
 function bestSpectatorPoint(
   ec: EdgeContext,
@@ -340,19 +349,37 @@ function bestSpectatorPoint(
 ): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
-  let best: { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null = null;
+  // Screen every point with the tabulated f12 (and, with a score, rank the ones that clear by
+  // their score with tabulated values); then confirm in that order with the exact transitions:
+  // the first that still clears wins, so the exact solves are spent on about one point.
+  // Without a score the points are taken nearest first, each screened and confirmed in turn.
+  const screened: { x: number; order: number }[] = [];
   for (const x of points.slice(0, SPECTATOR_POINTS_TRIED)) {
-    // Screen with the tabulated f12, then confirm with the exact one.
-    parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-    if (!clears(evaluateGate(ctx, scenario))) continue;
+    if (!score) {
+      screened.push({ x, order: screened.length });
+      continue;
+    }
+    const table = ctx.tables[P];
+    const f12 = table.at(x).f12;
+    parked.set(P, { f01GHz: x, f12GHz: f12 });
+    const ev = evaluateGate(ctx, scenario);
+    if (!clears(ev)) continue;
+    screened.push({ x, order: score(ev, [...parkedInfo, { qubit: P, fGHz: x, flux: table.fluxAt(x), f12GHz: f12, reason }]) });
+  }
+  screened.sort((a, b) => a.order - b.order || a.x - b.x);
+  let best: { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null = null;
+  for (const { x } of screened) {
+    if (!score) {
+      parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
+      if (!clears(evaluateGate(ctx, scenario))) continue;
+    }
     const st = transitionsOf(ctx, P, x);
     parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
     const trial = evaluateGate(ctx, scenario);
     if (!clears(trial)) continue;
     const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
-    const value = score ? score(trial, [...parkedInfo, info]) : 0;
-    if (!best || value < best.score) best = { info, ev: trial, score: value };
-    if (!score) break;
+    best = { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
+    break;
   }
   parked.delete(P);
   return best;
@@ -416,8 +443,8 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
   const tB = ctx.transmons[s.partner];
   const r = ctx.rules;
   const hold = 1 / (2 * s.crossingCouplingGHz);
-  const a = tA.spectrum(fluxA);
-  const b = tB.spectrum(ec.states[s.partner].flux);
+  const a = spectrumMemo(ctx, s.mover, fluxA);
+  const b = spectrumMemo(ctx, s.partner, ec.states[s.partner].flux);
   const est = estimateGateBudget({
     mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
     partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },

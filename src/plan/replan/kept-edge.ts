@@ -131,6 +131,7 @@ export function keptDesign(ec: EdgeContext, edge: number, entry: PlanEdgeInput, 
     evaluations: 0,
     awg: { sampleRateGHz: fs, lineDelayNs: lineDelayNs(fs, r.fluxBandwidthGHz), flux: awg },
   };
+  if (typeof g.targetPhase === 'number') design.targetPhase = g.targetPhase;
   if (typeof g.fidelityNoisy === 'number') design.fidelityNoisy = g.fidelityNoisy;
   if (g.fidelityNoisyMethod === 'lindblad' || g.fidelityNoisyMethod === 'estimate') design.fidelityNoisyMethod = g.fidelityNoisyMethod;
   if (typeof g.decoherenceEstimate === 'number') design.decoherenceEstimate = g.decoherenceEstimate;

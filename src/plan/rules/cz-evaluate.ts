@@ -29,6 +29,7 @@
  * (transmon stage); crossing positions along a sweep come from the tabulated spectra (error below
  * 1 kHz, src/plan/qubit-table.ts).
  */
+import { fluxForF01Memo } from '../exact-memo.js';
 import type { PlanContext } from '../context.js';
 import { ghz, mhz, prob, band, ns } from '../format.js';
 import { landauZenerTransfer } from '../landau-zener.js';
@@ -130,9 +131,8 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   spectatorChecks(A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
   if (s.crossing === '11-02') spectatorChecks(s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
   // The flux excursion (the flux line's current limit).
-  const tA = ctx.transmons[A];
-  const xFrom = tA.fluxForF01OrNull(s.fromGHz);
-  const xTo = tA.fluxForF01OrNull(to);
+  const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
+  const xTo = fluxForF01Memo(ctx, A, to);
   if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
     add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
       message: `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0`, blame: -1 });

@@ -1,0 +1,50 @@
+/**
+ * Memos of exact transmon results the planner asks for again and again with the same arguments
+ * (a mover's flux at its parking and interaction frequencies in every rule evaluation, the
+ * spectrum at a parking or interaction flux in every error estimate). Keyed by the plan context,
+ * so they last as long as the chip's planning does; the values are exactly those of the
+ * transmon's own calls, so no figure changes.
+ */
+import type { PlanContext } from './context.js';
+import type { SpectrumPoint } from '../transmon/spectrum.js';
+
+interface Memo {
+  flux: Map<string, number | null>;
+  spectrum: Map<string, SpectrumPoint>;
+  curvature: Map<string, number>;
+}
+
+const memos = new WeakMap<PlanContext, Memo>();
+
+function memoOf(ctx: PlanContext): Memo {
+  let m = memos.get(ctx);
+  if (!m) memos.set(ctx, (m = { flux: new Map(), spectrum: new Map(), curvature: new Map() }));
+  return m;
+}
+
+/** ctx.transmons[q].fluxForF01OrNull(fGHz), remembered. */
+export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): number | null {
+  const m = memoOf(ctx).flux;
+  const key = `${q},${fGHz}`;
+  let v = m.get(key);
+  if (v === undefined) m.set(key, (v = ctx.transmons[q].fluxForF01OrNull(fGHz)));
+  return v;
+}
+
+/** ctx.transmons[q].spectrum(flux), remembered (treat the result as read-only). */
+export function spectrumMemo(ctx: PlanContext, q: number, flux: number): SpectrumPoint {
+  const m = memoOf(ctx).spectrum;
+  const key = `${q},${flux}`;
+  let v = m.get(key);
+  if (v === undefined) m.set(key, (v = ctx.transmons[q].spectrum(flux)));
+  return v;
+}
+
+/** ctx.transmons[q].fluxCurvatureGHz(flux), remembered. */
+export function fluxCurvatureMemo(ctx: PlanContext, q: number, flux: number): number {
+  const m = memoOf(ctx).curvature;
+  const key = `${q},${flux}`;
+  let v = m.get(key);
+  if (v === undefined) m.set(key, (v = ctx.transmons[q].fluxCurvatureGHz(flux)));
+  return v;
+}
