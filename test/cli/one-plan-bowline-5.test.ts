@@ -11,14 +11,14 @@ import { planSchemaErrors } from '../support/plan-schema.js';
 let demo: PlannedDemo;
 beforeAll(async () => {
   demo = await planDemo('layouts/bowline-5.yaml');
-}, 120_000);
+}, 600_000);
 
 describe('one plan for every command: Bowline-5', () => {
   it('simulate --plan of each edge\'s own waveform reproduces the plan\'s metrics to 1e-6', async () => {
     const r = await resimulateEveryEdge(demo, 1e-6);
     expect(r.simulated).toBe(demo.plan.edges.filter((e: any) => e.gate?.feasible === true).length);
     expect(r.simulated).toBe(4);
-  }, 120_000);
+  }, 600_000);
 
   it('the plan with its designs follows shared/plan.schema.json', () => {
     expect(planSchemaErrors(demo.plan)).toBe('');
@@ -30,5 +30,5 @@ describe('one plan for every command: Bowline-5', () => {
 
   it('check and plan agree on feasibility and the rules broken, edge by edge', async () => {
     expect(await compareCheck(demo)).toBe(4);
-  }, 60_000);
+  }, 300_000);
 });

@@ -10,13 +10,13 @@ import { GATE_COLUMNS } from '../../src/report/gate-columns.js';
 let demo: PlannedDemo;
 beforeAll(async () => {
   demo = await planDemo('layouts/reef-49.yaml');
-}, 120_000);
+}, 600_000);
 
 describe('one plan for every command: Reef-49', () => {
   it('simulate --plan of each edge\'s own waveform reproduces the plan\'s metrics to 1e-6', async () => {
     const r = await resimulateEveryEdge(demo, 1e-6);
     expect(r.simulated).toBe(demo.plan.edges.filter((e: any) => e.gate?.feasible === true).length);
-  }, 120_000);
+  }, 600_000);
 
   it('gates.csv, gates.txt and plan.json carry the same numbers, field by field', () => {
     expect(compareTables(demo, GATE_COLUMNS)).toBeGreaterThan(demo.plan.edges.length * GATE_COLUMNS.length);
@@ -24,5 +24,5 @@ describe('one plan for every command: Reef-49', () => {
 
   it('check and plan agree on feasibility and the rules broken, edge by edge', async () => {
     expect(await compareCheck(demo)).toBe(84);
-  }, 60_000);
+  }, 300_000);
 });

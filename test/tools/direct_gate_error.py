@@ -4,7 +4,8 @@
 Usage:
   /usr/bin/python3 test/tools/direct_gate_error.py PLAN_DIR [--edges Q0-Q1,...] [--jobs 2] [--json OUT]
   /usr/bin/python3 test/tools/direct_gate_error.py --self-test
-  options for convergence checks: --ka 8 --kb 5 --ks 3 --substeps 1 --nodes 3 --all-spectators
+  options for convergence checks: --ka 12 --ka-lo 12 --kb 5 --ks 3 --substeps 1 --nodes 3
+  --parking-basis --all-spectators --joint-check A-B
 
 Independent of fluxlane: NumPy/SciPy only, shares no code with it, reads only PLAN_DIR/plan.json
 and the waveform files it names (waveforms/A-B.qubit.csv: the mover's flux, piecewise linear).
@@ -13,9 +14,13 @@ Model (fluxlane README "Physics conventions" sec. 1-4):
 - Transmon: H = 4 E_C n^2 - E_J(Phi) cos(phi), charge basis |n| <= 20, n_g = 0,
   E_J(Phi) = E_JS sqrt(cos^2(pi Phi) + d^2 sin^2(pi Phi)) (Koch et al., PRA 76, 042319 (2007)).
   GHz and ns, phase = 2 pi E t.
-- The mover is kept in the eigenbasis of its parking flux (K_A levels); during the gate
+- The mover is kept in a fixed basis of K_A = 12 states: the lowest 6 eigenstates at its parking
+  flux and the lowest 6 at the waveform's flux extreme, orthonormalised and re-diagonalised at
+  parking (--parking-basis: K_A eigenstates at parking only; with K_A = 10 that was NOT converged
+  for excursions to ~0.4 Phi0: coherent error 3.6e-3 vs 6.5e-5). During the gate
   H_A(t) = H_A(park) - (E_J(Phi(t)) - E_J(park)) <cos phi> (the charge-basis Hamiltonian projected
-  on those levels). The partner (K_B levels) and a spectator (K_S levels) are static, each in the
+  on that basis). The partner (K_B = 4 on 11-20, 5 on 11-02) and a spectator (K_S = 3) are
+  static, each in the
   eigenbasis of its own flux. Coupling G n_a n_b, G fixed by g = G |<0|n|1>_a| |<0|n|1>_b| at
   Phi = 0 for both (g = the plan edge's gMax).
 - Propagation: fourth-order Magnus, two Gauss-Legendre nodes per step (Blanes, Casas and Ros,
@@ -42,9 +47,8 @@ that are each a full simulation of their effect:
 E_0 coherent pair error at nominal flux; E_L Lindblad pair error (T1 + white dephasing, both
 transmons) at nominal flux; E_F flux-averaged coherent pair error; E_S coherent three-transmon
 error with spectator S. Cross terms (e.g. flux noise x spectator) are products of small errors
-and are dropped. Levels: E_0 and E_S use K_A = 10 mover levels (the coherent error converges
-slowly in K_A); the increments E_L - E_0 and E_F - E_0 use K_A = 8 (converged to < 0.1 %), each
-increment taken against E_0 at its own K_A. --joint-check A-B runs one coherent joint spectator + flux average to measure it.
+and are dropped. --ka-lo sets K_A for the E_L and E_F runs (default the same, 12); each
+increment is taken against E_0 at its own K_A. --joint-check A-B runs one coherent joint spectator + flux average to measure it.
 Spectators simulated: predicted share >= 1e-4 or >= 10 % of the gate's predicted total, and
 always the largest one (--all-spectators: every one).
 Compared with predicted_sim = coherent + t1 + whiteDephasing + fluxNoise + shares of the simulated
@@ -696,15 +700,15 @@ def main():
     ap.add_argument("--edges")
     ap.add_argument("--jobs", type=int, default=1)
     ap.add_argument("--json")
-    ap.add_argument("--ka", type=int, default=10, help="mover levels: coherent and spectator runs")
-    ap.add_argument("--ka-lo", type=int, default=8, help="mover levels: Lindblad and flux increments")
+    ap.add_argument("--ka", type=int, default=12, help="mover levels: coherent and spectator runs")
+    ap.add_argument("--ka-lo", type=int, default=12, help="mover levels: Lindblad and flux increments")
     ap.add_argument("--kb", type=int, default=0, help="partner levels (default 4 on 11-20, 5 on 11-02)")
     ap.add_argument("--ks", type=int, default=3)
     ap.add_argument("--substeps", type=int, default=1)
     ap.add_argument("--nodes", type=int, default=3)
     ap.add_argument("--all-spectators", action="store_true")
-    ap.add_argument("--two-point", action="store_true",
-                    help="mover basis: K_A/2 eigenstates at parking + K_A/2 at the flux extreme")
+    ap.add_argument("--parking-basis", dest="two_point", action="store_false",
+                    help="mover basis: K_A eigenstates at parking only (not converged for large excursions)")
     ap.add_argument("--joint-check", default=None, help="edges A-B,... for the assembly check")
     ap.add_argument("--self-test", action="store_true")
     o = ap.parse_args()

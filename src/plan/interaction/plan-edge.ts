@@ -90,12 +90,6 @@ export interface EdgeContext {
   blockers: IdleBlockers;
   /** Exact states at parking (every qubit). */
   states: readonly ExactQubitState[];
-  /**
-   * Plan for feasibility only (the repair's trials, whose plans are made again in full after
-   * every move): each spectator goes to the nearest point that clears the gate, and none is moved
-   * only to lower the estimated error.
-   */
-  feasibilityOnly?: boolean;
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -243,8 +237,22 @@ function evaluateOption(
     parking,
     parked,
   };
-  // (ec.feasibilityOnly: the first clearing point of each spectator and no moves for a lower error)
-  const resolved = parkSpectators(ec, scenario, parkedInfo, ec.feasibilityOnly ? undefined : (t, info) => estimateError(ec, scenario, res.moverFlux, info, t));
+  const scoreOf = (t: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => estimateError(ec, scenario, res.moverFlux, info, t);
+  // Spectators go to their points of least estimated error. A point of least error can leave the
+  // next spectator no room where the nearest one would not: then the nearest points are tried too
+  // and the result with fewer problems kept.
+  let resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
+  if (resolved.evaluation.findings.length > 0) {
+    const nearestInfo: ParkedSpectator[] = [];
+    const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
+    const nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+    if (nearest.evaluation.findings.length < resolved.evaluation.findings.length) {
+      resolved = nearest;
+      parkedInfo.splice(0, parkedInfo.length, ...nearestInfo);
+      parked.clear();
+      for (const [q, d] of nearestScenario.parked) parked.set(q, d);
+    }
+  }
   const ev = resolved.evaluation;
   const unmovable = resolved.unmovable;
   parkedInfo.sort((a, b) => a.qubit - b.qubit);

@@ -102,9 +102,7 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
       return false;
     }
   }
-  // trials plan for feasibility only; the caller plans every touched edge again in full
-  const quick: EdgeContext = { ...ec, feasibilityOnly: true };
-  const first = planEdge(quick, edge);
+  const first = planEdge(ec, edge);
   if (!first.feasible) {
     undo();
     return false;
@@ -116,7 +114,7 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
   const replanned: EdgePlan[] = [];
   let after = 0;
   for (const k of affected) {
-    const p = planEdge(quick, k);
+    const p = planEdge(ec, k);
     replanned.push(p);
     if (!p.feasible && ++after > before) {
       undo();
