@@ -16,6 +16,15 @@ interface Memo {
 
 const memos = new WeakMap<PlanContext, Memo>();
 
+/** Entries a memo keeps before it starts over (bounds its memory on long or hostile runs). */
+export const MEMO_LIMIT = 200_000;
+
+function remember<V>(m: Map<string, V>, key: string, value: V): V {
+  if (m.size >= MEMO_LIMIT) m.clear();
+  m.set(key, value);
+  return value;
+}
+
 function memoOf(ctx: PlanContext): Memo {
   let m = memos.get(ctx);
   if (!m) memos.set(ctx, (m = { flux: new Map(), spectrum: new Map(), curvature: new Map() }));
@@ -27,7 +36,7 @@ export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): numbe
   const m = memoOf(ctx).flux;
   const key = `${q},${fGHz}`;
   let v = m.get(key);
-  if (v === undefined) m.set(key, (v = ctx.transmons[q].fluxForF01OrNull(fGHz)));
+  if (v === undefined) v = remember(m, key, ctx.transmons[q].fluxForF01OrNull(fGHz));
   return v;
 }
 
@@ -36,7 +45,7 @@ export function spectrumMemo(ctx: PlanContext, q: number, flux: number): Spectru
   const m = memoOf(ctx).spectrum;
   const key = `${q},${flux}`;
   let v = m.get(key);
-  if (v === undefined) m.set(key, (v = ctx.transmons[q].spectrum(flux)));
+  if (v === undefined) v = remember(m, key, ctx.transmons[q].spectrum(flux));
   return v;
 }
 
@@ -45,6 +54,6 @@ export function fluxCurvatureMemo(ctx: PlanContext, q: number, flux: number): nu
   const m = memoOf(ctx).curvature;
   const key = `${q},${flux}`;
   let v = m.get(key);
-  if (v === undefined) m.set(key, (v = ctx.transmons[q].fluxCurvatureGHz(flux)));
+  if (v === undefined) v = remember(m, key, ctx.transmons[q].fluxCurvatureGHz(flux));
   return v;
 }

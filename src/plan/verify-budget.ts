@@ -59,11 +59,15 @@ export function recomputeBudget(
     if (src.kind === 'designed') return gateBudgetFromStage(ctx, e, states, src.stage(), src.waveform, src.slotNs);
     return estimatedGateBudget(ctx, { ...e, durationNs: src.slotNs }, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs));
   });
-  const count = layerOf.reduce((m, l) => Math.max(m, l + 1), 0);
-  const layers: LayerPlan['layers'] = Array.from({ length: count }, () => []);
+  // the layers the plan names, in order (an index out of line, e.g. 1e9, is a layer-index
+  // finding of its own; the cycle counts the layers that exist, never an array that long)
+  const named = [...new Set(layerOf.filter((l) => Number.isInteger(l) && l >= 0))].sort((a, b) => a - b);
+  const position = new Map(named.map((l, k) => [l, k]));
+  const layers: LayerPlan['layers'] = named.map(() => []);
   edges.forEach((e) => {
     const l = layerOf[e.edge];
-    if (Number.isInteger(l) && l >= 0 && l < count) layers[l].push(e.edge);
+    const k = position.get(l);
+    if (k !== undefined) layers[k].push(e.edge);
   });
   const cycle = cycleBudget(ctx, edges, { layers } as LayerPlan, states, zzGHz, gates, slotsNs);
   return { gates, slotsNs, cycle };
