@@ -64,8 +64,8 @@ export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const
 /** Default model size: the mover's 2-3 transition meets spectators during the hold, so 5 levels. */
 export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 });
 
-export function spectatorError(input: SpectatorErrorInput): SpectatorError {
-  const { mover, partner, traj } = input;
+/** Smallest and largest E_J of the mover along a trajectory (its samples bound the piecewise-linear path). */
+export function moverEjSpan(mover: Transmon, traj: Trajectory): [number, number] {
   let lo = Infinity;
   let hi = -Infinity;
   for (const x of traj.flux) {
@@ -73,6 +73,12 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
     if (u < lo) lo = u;
     if (u > hi) hi = u;
   }
+  return [lo, hi];
+}
+
+export function spectatorError(input: SpectatorErrorInput): SpectatorError {
+  const { mover, partner, traj } = input;
+  const [lo, hi] = moverEjSpan(mover, traj);
   const built = spectatorFrame(input, lo, hi);
   if (!built) return admixtureFallback(input);
   const { frame, reduced, moverLevels } = built;

@@ -27,7 +27,9 @@ import { trajectoryDuration } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 import { quasiStaticFluxSigma } from '../transmon/coherence.js';
 import { gateFluxNoise } from './gate-flux-noise.js';
-import { SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
+import { moverEjSpan, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
+
+export { moverEjSpan };
 
 export interface WaveformPair {
   mover: Transmon;
@@ -114,17 +116,6 @@ export interface SpectatorBudget {
   simulations: number;
 }
 
-/** Smallest and largest E_J of the mover along a trajectory (its samples bound the piecewise-linear path). */
-export function moverEjSpan(mover: Transmon, traj: Trajectory): [number, number] {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const x of traj.flux) {
-    const u = mover.ejGHz(x);
-    if (u < lo) lo = u;
-    if (u > hi) hi = u;
-  }
-  return [lo, hi];
-}
 
 /**
  * The spectators' share of a waveform's budget: each listed spectator simulated on the waveform as

@@ -7,19 +7,24 @@ import type { DesignBudget } from '../gate/design.js';
 import type { CycleBudget, QubitIdleBudget } from '../plan/cycle-budget.js';
 import { plain, toSeconds } from '../plan/format.js';
 
+/** The gate stage's parts, in the JSON order every budget uses. */
+function stageParts(b: Pick<GateBudget, 'coherent' | 't1' | 'whiteDephasing' | 'fluxNoise' | 'spectators'>): Record<string, number> {
+  return { coherent: plain(b.coherent), t1: plain(b.t1), whiteDephasing: plain(b.whiteDephasing), fluxNoise: plain(b.fluxNoise), spectators: plain(b.spectators) };
+}
+
+function sharesJson(shares: GateBudget['spectatorShares']): Record<string, unknown>[] {
+  return shares.map((s) => ({ qubit: s.qubit, error: plain(s.error), leakage: plain(s.leakage), reducedModel: s.reduced === 'none' ? null : s.reduced }));
+}
+
 export function gateBudgetJson(b: GateBudget): Record<string, unknown> {
   return {
-    coherent: plain(b.coherent),
-    t1: plain(b.t1),
-    whiteDephasing: plain(b.whiteDephasing),
-    fluxNoise: plain(b.fluxNoise),
-    spectators: plain(b.spectators),
+    ...stageParts(b),
     sweptCrossings: plain(b.sweptCrossings),
     spectatorMoves: plain(b.spectatorMoves),
     total: plain(b.total),
     method: b.method,
     spectatorLeakage: b.spectatorLeakage === null ? null : plain(b.spectatorLeakage),
-    spectatorShares: b.spectatorShares.map((s) => ({ qubit: s.qubit, error: plain(s.error), leakage: plain(s.leakage), reducedModel: s.reduced === 'none' ? null : s.reduced })),
+    spectatorShares: sharesJson(b.spectatorShares),
   };
 }
 
@@ -38,17 +43,13 @@ export function cycleJson(c: CycleBudget): Record<string, unknown> {
 export function designBudgetJson(b: DesignBudget): Record<string, unknown> {
   const total = b.coherent + b.t1 + b.whiteDephasing + b.fluxNoise + b.spectators;
   return {
-    coherent: plain(b.coherent),
-    t1: plain(b.t1),
-    whiteDephasing: plain(b.whiteDephasing),
-    fluxNoise: plain(b.fluxNoise),
-    spectators: plain(b.spectators),
+    ...stageParts(b),
     sweptCrossings: null,
     spectatorMoves: null,
     total: plain(total),
     method: 'simulated',
     fluxNoiseSplit: { mover: plain(b.fluxNoiseSplit.mover), partner: plain(b.fluxNoiseSplit.partner), moverSigma: plain(b.fluxNoiseSplit.moverSigma), partnerSigma: plain(b.fluxNoiseSplit.partnerSigma) },
     spectatorLeakage: plain(b.spectatorLeakage),
-    spectatorShares: b.spectatorShares.map((s) => ({ qubit: s.qubit, error: plain(s.error), leakage: plain(s.leakage), reducedModel: s.reduced === 'none' ? null : s.reduced })),
+    spectatorShares: sharesJson(b.spectatorShares),
   };
 }
