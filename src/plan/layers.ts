@@ -1,7 +1,8 @@
 /**
  * Parallel gate layers: two CZs may run at the same time only when no condition of
  * README physics conventions sec. 5 couples them. Gates conflict when
- *   (a) they share a qubit: mover, partner or a spectator parked for either;
+ *   (a) they share a qubit: mover, partner or a spectator parked for either (a spectator both
+ *       gates park at the very same point is one move serving both, and no conflict);
  *   (b) a qubit one gate moves (its mover, or a spectator it parks) is coupled to a qubit the
  *       other gate moves, and the two excursions come closer than the spectator admixture limit
  *       allows (g / sqrt(spectatorAdmixture), sqrt2 g for the f12 bands) to a 01-01, 11-20 or
@@ -9,6 +10,8 @@
  *       destination, and the f12 band with it: both move at once, so any overlap may be crossed);
  *   (c) a qubit one gate moves and a qubit the other moves share a neighbour and their
  *       destinations are closer than detuningNext0101.
+ * Rules (b) and (c) skip a spectator both gates park at the same point: each gate's own rules
+ * checked its sweep against the qubits that gate moves.
  * The conflict graph (graphology, one node per edge key) is coloured with DSATUR (Brelaz 1979,
  * src/plan/parking/colouring.ts), improved by iterated greedy (./iterated-greedy.ts, seeded);
  * colours are layers. The number of layers is at least the chip's maximum degree (the gates on
@@ -90,12 +93,35 @@ export function movedConflict(ctx: PlanContext, x: MovedQubit, y: MovedQubit): b
   return shares && Math.abs(x.toGHz - y.toGHz) < r.detuningNext0101GHz;
 }
 
+/**
+ * Spectators both gates move to the very same point (f01 equal): one move serves both gates, so
+ * such a spectator does not keep them apart, and its sweep was checked by each gate's own rules.
+ */
+export function sharedSpectators(g1: EdgePlan, g2: EdgePlan): Set<number> {
+  const out = new Set<number>();
+  for (const p of g1.parked) if (g2.parked.some((q) => q.qubit === p.qubit && q.fGHz === p.fGHz)) out.add(p.qubit);
+  return out;
+}
+
+/** True when the gates occupy a common qubit other than a shared spectator (rule a). */
+function occupyCommonQubit(g1: EdgePlan, g2: EdgePlan, shared: ReadonlySet<number>): boolean {
+  const t1 = new Set(touchedQubits(g1));
+  return touchedQubits(g2).some((q) => t1.has(q) && !shared.has(q));
+}
+
+/** A pair of moved qubits (rules b, c) with a shared spectator on either side is each gate's own concern. */
+function movedPairConflict(ctx: PlanContext, m1: readonly MovedQubit[], m2: readonly MovedQubit[], shared: ReadonlySet<number>): boolean {
+  for (const x of m1) {
+    if (shared.has(x.qubit)) continue;
+    for (const y of m2) if (!shared.has(y.qubit) && movedConflict(ctx, x, y)) return true;
+  }
+  return false;
+}
+
 /** The conflict test of two gates (rules a-c). */
 export function gatesConflict(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): boolean {
-  const t1 = new Set(touchedQubits(g1));
-  if (touchedQubits(g2).some((q) => t1.has(q))) return true;
-  for (const x of m1) for (const y of m2) if (movedConflict(ctx, x, y)) return true;
-  return false;
+  const shared = sharedSpectators(g1, g2);
+  return occupyCommonQubit(g1, g2, shared) || movedPairConflict(ctx, m1, m2, shared);
 }
 
 /** Which condition made two gates conflict (the first that holds, in this order). */
@@ -122,11 +148,12 @@ export interface LayerExplanation {
 export function conflictKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
   const pair1 = new Set([g1.mover, g1.partner]);
   if (pair1.has(g2.mover) || pair1.has(g2.partner)) return 'shared';
-  const t1 = new Set(touchedQubits(g1));
-  if (touchedQubits(g2).some((q) => t1.has(q))) return 'spectator';
+  const shared = sharedSpectators(g1, g2);
+  if (occupyCommonQubit(g1, g2, shared)) return 'spectator';
   for (const x of m1) {
+    if (shared.has(x.qubit)) continue;
     for (const y of m2) {
-      if (!movedConflict(ctx, x, y)) continue;
+      if (shared.has(y.qubit) || !movedConflict(ctx, x, y)) continue;
       return ctx.edgeBetween(x.qubit, y.qubit) >= 0 ? 'close' : 'next';
     }
   }
@@ -173,13 +200,18 @@ export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], p
   return [...conflictKinds(ctx, plans, parkingF12, parkingGHz).keys()].map((key) => [Math.floor(key / plans.length), key % plans.length] as [number, number]);
 }
 
-export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, seed = 1): LayerPlan {
+/**
+ * The layers of `plans`. `start`, when given, is a colouring of the whole conflict graph (layer of
+ * each plan) known to be valid, for example one the layer fitting built (./layer-moves.ts); the
+ * final colouring then starts from the better of it and DSATUR (iterated greedy never adds colours).
+ */
+export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, seed = 1, start?: ArrayLike<number>): LayerPlan {
   const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
   const lowerBound = ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
   const order: ConflictKind[] = ['shared', 'spectator', 'close', 'next'];
   const pairs: Record<ConflictKind, number> = { shared: 0, spectator: 0, close: 0, next: 0 };
   for (const kind of kinds.values()) pairs[kind]++;
-  const colourWith = (allowed: Set<ConflictKind>): Int32Array => {
+  const colourWith = (allowed: Set<ConflictKind>, given?: ArrayLike<number>): Int32Array => {
     const graph = new UndirectedGraph();
     const adjacency: number[][] = plans.map(() => []);
     plans.forEach((p) => graph.addNode(ctx.edges[p.edge].key));
@@ -192,15 +224,16 @@ export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parking
       graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
     }
     const ds = dsaturColouring(graph);
-    const start = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+    let first = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+    if (given && validColouring(adjacency, given) && colourCount(Int32Array.from(given)) < colourCount(first)) first = Int32Array.from(given);
     const visits = adjacency.reduce((s, l) => s + l.length, 0) + plans.length;
     const rounds = Math.max(1, Math.min(LAYER_ROUNDS, Math.floor(4e6 / Math.max(1, visits))));
-    return iteratedGreedy(adjacency, start, { iterations: rounds, seed, lowerBound });
+    return iteratedGreedy(adjacency, first, { iterations: rounds, seed, lowerBound });
   };
   const counts: number[] = [];
   let colours: Int32Array = new Int32Array(plans.length);
   for (let k = 0; k < order.length; k++) {
-    colours = colourWith(new Set(order.slice(0, k + 1)));
+    colours = colourWith(new Set(order.slice(0, k + 1)), k === order.length - 1 ? start : undefined);
     counts.push(plans.length === 0 ? 0 : colourCount(colours));
   }
   const layerOf = Array.from(colours);
@@ -211,6 +244,16 @@ export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parking
     layerOf, layers, lowerBound, conflicts: kinds.size,
     explanation: { shared: counts[0], spectator: counts[1], close: counts[2], next: counts[3], pairs },
   };
+}
+
+/** True when no two adjacent vertices share a colour (and every colour is a non-negative integer). */
+function validColouring(adjacency: readonly number[][], colour: ArrayLike<number>): boolean {
+  if (colour.length !== adjacency.length) return false;
+  for (let v = 0; v < adjacency.length; v++) {
+    if (!Number.isInteger(colour[v]) || colour[v] < 0) return false;
+    for (const w of adjacency[v]) if (colour[w] === colour[v]) return false;
+  }
+  return true;
 }
 
 /** One sentence on what the layer count comes from (the explanation's steps that add layers). */

@@ -18,7 +18,8 @@ import { buildPlanContext, type ContextOptions, type PlanContext } from './conte
 import { calibratedZzScale, crowding, type Crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
 import { planEdge, type EdgePlan } from './interaction/plan-edge.js';
-import { planLayers, type LayerPlan } from './layers.js';
+import { type LayerPlan } from './layers.js';
+import { fitMovesToLayers } from './layer-moves.js';
 import { planOptions, type PlanOptions, type PlanOptionsInput } from './options.js';
 import { assignParking, type ParkingResult } from './parking/assign.js';
 import { repairInfeasibleEdges } from './interaction/repair.js';
@@ -94,7 +95,13 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   parking.stats.repairTrials = repair.trials;
   parking.stats.repairMoves = repair.moves;
   const parkingF12 = states.map((s) => s.f12GHz);
-  const layers = profiler.time('layers', () => planLayers(ctx, edges, parkingF12, parking.parkingGHz));
+  const ec = { ctx, options, blockers: blockersView, states };
+  const cycleError = (list: readonly EdgePlan[], layers: LayerPlan) =>
+    planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null } as unknown as ChipPlan).cycle.error;
+  const fit = profiler.time('layers', () => fitMovesToLayers(ec, edges, parkingF12, parking.parkingGHz, cycleError));
+  edges.splice(0, edges.length, ...fit.edges);
+  const layers = fit.layers;
+  parking.stats.layerFitting = fit.fitting;
   const crowd = profiler.time('crowding', () => crowding(ctx, parking.parkingGHz, states, calibratedZzScale(ctx, parking.parkingGHz, parking.idle.zzGHz), edges));
   const plan: ChipPlan = {
     ctx, options, parking, states, edges, layers, crowding: crowd, gates: null, violations: [], flags: [], explanations: parking.explanations,

@@ -14,6 +14,7 @@
  *    ./explain.ts finds the smallest set of qubits whose windows and rules cannot all hold and
  *    says so in words.
  */
+import type { LayerFitting } from '../layer-moves.js';
 import { Random } from '../../util/random.js';
 import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
@@ -30,7 +31,7 @@ export interface ParkingResult {
   groups: number[];
   idle: IdleEvaluation;
   explanations: Explanation[];
-  stats: SearchStats & { rounds: number; repairTrials?: number; repairMoves?: number };
+  stats: SearchStats & { rounds: number; repairTrials?: number; repairMoves?: number; layerFitting?: LayerFitting | null };
   /** The search state at the end (blocked intervals for margins). */
   state: ParkingState;
 }

@@ -1,0 +1,157 @@
+/**
+ * Spectator moves fitted to the layers (README "Interaction plan, spectators, layers").
+ *
+ * Each edge is planned on its own (./interaction/plan-edge.ts): besides the spectator moves a
+ * rule asks for, it moves spectators only to lower its own estimated error (budgetMoves). Such a
+ * move occupies the spectator for the gate's slot, so no other gate touching that qubit can share
+ * the layer (./layers.ts, conflict kind 'spectator'); on a chip these optional moves can double
+ * the layer count, and every qubit then idles longer in each cycle. The reference cycle's error
+ * (./cycle-budget.ts) weighs both: the gates' errors and the idles over the cycle's duration.
+ *
+ * The fitting builds a second plan and keeps whichever has the lower predicted cycle error:
+ *   1. every edge that made an optional move is planned again without optional moves, and the
+ *      layers of these plans are coloured (the moves a rule asks for stay);
+ *   2. edge by edge (in edge order), the optional moves come back where the layers can carry them:
+ *      the edge is planned with optional moves allowed only for spectators no other gate of its
+ *      layer touches, and the result is kept when it conflicts with no gate of its layer
+ *      (./layers.ts gatesConflict), else the edge keeps its plan from step 1;
+ *   3. the layers are coloured again starting from that valid assignment (never more layers).
+ * Deterministic: the same plans and seed give the same result.
+ */
+import { BUDGET_MOVE_REASON, planEdge, withSpectatorPoints, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
+import { gatesConflict, movedQubits, planLayers, touchedQubits, type LayerPlan } from './layers.js';
+
+export interface FittedLayers {
+  edges: EdgePlan[];
+  layers: LayerPlan;
+  /** What the fitting did (null when it did not run: no spectator move, or layers at the lower bound). */
+  fitting: LayerFitting | null;
+}
+
+export interface LayerFitting {
+  /** Layers and predicted cycle error of the plan as each edge planned itself, with shared spectator points, and with optional moves fitted to the layers too. */
+  planned: FittingStep;
+  aligned: FittingStep;
+  fitted: FittingStep;
+  /** Which one the plan keeps. */
+  kept: 'planned' | 'aligned' | 'fitted';
+}
+
+export interface FittingStep {
+  layers: number;
+  cycleError: number;
+  /** Spectator moves in all, and those made only for a lower estimated error. */
+  moves: number;
+  optionalMoves: number;
+}
+
+/** The spectators an edge plan moved only for a lower estimated error (no rule asked for it). */
+export const optionalMoves = (e: EdgePlan): number[] => e.parked.filter((p) => p.reason === BUDGET_MOVE_REASON).map((p) => p.qubit);
+
+type CycleError = (edges: readonly EdgePlan[], layers: LayerPlan) => number;
+
+export function fitMovesToLayers(
+  ec: EdgeContext,
+  edges: readonly EdgePlan[],
+  parkingF12: readonly number[],
+  parkingGHz: ArrayLike<number>,
+  /** The predicted cycle error of a set of edge plans in given layers (./plan-budget.ts). */
+  cycleError: CycleError,
+): FittedLayers {
+  const { ctx } = ec;
+  const layers = planLayers(ctx, edges, parkingF12, parkingGHz);
+  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers, fitting: null };
+  const step = (list: readonly EdgePlan[], l: LayerPlan): FittingStep => ({
+    layers: l.layers.length,
+    cycleError: cycleError(list, l),
+    moves: list.reduce((a, e) => a + e.parked.length, 0),
+    optionalMoves: list.reduce((a, e) => a + optionalMoves(e).length, 0),
+  });
+  const planned = { edges: [...edges], layers, step: step(edges, layers) };
+  const alignedEdges = alignSpectatorPoints(ec, edges);
+  const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz);
+  const aligned = { edges: alignedEdges, layers: alignedLayers, step: step(alignedEdges, alignedLayers) };
+  const fit = fitOptionalMoves(ec, alignedEdges, parkingF12, parkingGHz);
+  // aligning points again only removes conflicts, so the fitting's layers stay a valid start
+  const fittedEdges = alignSpectatorPoints(ec, fit.edges);
+  const fittedLayers = planLayers(ctx, fittedEdges, parkingF12, parkingGHz, 1, fit.layerOf);
+  const fitted = { edges: fittedEdges, layers: fittedLayers, step: step(fittedEdges, fittedLayers) };
+  const all = { planned, aligned, fitted } as const;
+  let kept: LayerFitting['kept'] = 'planned';
+  for (const k of ['aligned', 'fitted'] as const) if (all[k].step.cycleError < all[kept].step.cycleError) kept = k;
+  return { edges: all[kept].edges, layers: all[kept].layers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
+}
+
+/**
+ * One temporary point per spectator where the gates allow it: for each spectator moved by two or
+ * more gates (in qubit order), the point among theirs that the most of those gates accept (their
+ * rules still hold there; ties: the lower sum of their estimated errors, then the lower
+ * frequency); each gate that accepts it moves the spectator there.
+ */
+export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]): EdgePlan[] {
+  const out = [...edges];
+  const users = new Map<number, number[]>();
+  out.forEach((e, k) => {
+    for (const p of e.parked) {
+      let list = users.get(p.qubit);
+      if (!list) users.set(p.qubit, (list = []));
+      list.push(k);
+    }
+  });
+  for (const S of [...users.keys()].sort((a, b) => a - b)) {
+    const list = users.get(S)!;
+    if (list.length < 2) continue;
+    const pointOf = (k: number) => out[k].parked.find((p) => p.qubit === S)!;
+    const points = [...new Map(list.map((k) => [pointOf(k).fGHz, pointOf(k)])).values()].sort((a, b) => a.fGHz - b.fGHz);
+    if (points.length < 2) continue;
+    let best: { accepted: EdgePlan[]; who: number[]; error: number } | null = null;
+    for (const at of points) {
+      const accepted: EdgePlan[] = [];
+      const who: number[] = [];
+      let error = 0;
+      for (const k of list) {
+        const e = pointOf(k).fGHz === at.fGHz ? out[k] : withSpectatorPoints(ec, out[k], new Map([[S, at]]));
+        if (!e) continue;
+        accepted.push(e);
+        who.push(k);
+        error += e.score;
+      }
+      if (!best || who.length > best.who.length || (who.length === best.who.length && error < best.error)) best = { accepted, who, error };
+    }
+    if (best && best.who.length >= 2) best.who.forEach((k, i) => (out[k] = best!.accepted[i]));
+  }
+  return out;
+}
+
+/**
+ * Optional moves fitted to the layers (steps 1-3 of the banner): the layers of the edges without
+ * optional moves, then each edge's optional moves where its layer carries them.
+ */
+function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): { edges: EdgePlan[]; layerOf?: Int32Array } {
+  const { ctx } = ec;
+  const withMoves = edges.map((e, k) => (optionalMoves(e).length > 0 ? k : -1)).filter((k) => k >= 0);
+  if (withMoves.length === 0) return { edges: [...edges] };
+  // 1. without optional moves
+  const fitted = [...edges];
+  const none: EdgeContext = { ...ec, budgetMoveAllowed: () => false };
+  for (const k of withMoves) fitted[k] = planEdge(none, edges[k].edge);
+  const bare = planLayers(ctx, fitted, parkingF12, parkingGHz);
+  const layerOf = Int32Array.from(bare.layerOf);
+  // 2. optional moves back where the layers carry them
+  const members: number[][] = Array.from({ length: bare.layers.length }, () => []);
+  layerOf.forEach((c, j) => members[c].push(j));
+  for (const k of withMoves) {
+    const others = members[layerOf[k]].filter((j) => j !== k);
+    const busy = new Set<number>();
+    for (const j of others) for (const q of touchedQubits(fitted[j])) busy.add(q);
+    // the edge's own plan with every optional move, when none of them is busy; else planned again
+    const candidate = optionalMoves(edges[k]).some((q) => busy.has(q))
+      ? planEdge({ ...ec, budgetMoveAllowed: (_edge, q) => !busy.has(q) }, edges[k].edge)
+      : edges[k];
+    if (optionalMoves(candidate).length === 0 || candidate.findings.length > fitted[k].findings.length) continue;
+    const moved = movedQubits(ctx, candidate, parkingF12, parkingGHz);
+    const clash = others.some((j) => gatesConflict(ctx, candidate, moved, fitted[j], movedQubits(ctx, fitted[j], parkingF12, parkingGHz)));
+    if (!clash) fitted[k] = candidate;
+  }
+  return { edges: fitted, layerOf };
+}
