@@ -19,7 +19,7 @@
  * Deterministic: the same plans and seed give the same result.
  */
 import { BUDGET_MOVE_REASON, planEdge, withSpectatorPoints, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
-import { gatesConflict, movedQubits, planLayers, touchedQubits, type LayerPlan } from './layers.js';
+import { explainLayers, gatesConflict, movedQubits, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
   edges: EdgePlan[];
@@ -59,8 +59,9 @@ export function fitMovesToLayers(
   cycleError: CycleError,
 ): FittedLayers {
   const { ctx } = ec;
-  const layers = planLayers(ctx, edges, parkingF12, parkingGHz);
-  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers, fitting: null };
+  const quiet = { explain: false };
+  const layers = planLayers(ctx, edges, parkingF12, parkingGHz, 1, undefined, quiet);
+  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers: explainLayers(ctx, edges, parkingF12, parkingGHz, layers), fitting: null };
   const step = (list: readonly EdgePlan[], l: LayerPlan): FittingStep => ({
     layers: l.layers.length,
     cycleError: cycleError(list, l),
@@ -69,17 +70,18 @@ export function fitMovesToLayers(
   });
   const planned = { edges: [...edges], layers, step: step(edges, layers) };
   const alignedEdges = alignSpectatorPoints(ec, edges);
-  const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz);
+  const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
   const aligned = { edges: alignedEdges, layers: alignedLayers, step: step(alignedEdges, alignedLayers) };
   const fit = fitOptionalMoves(ec, alignedEdges, parkingF12, parkingGHz);
   // aligning points again only removes conflicts, so the fitting's layers stay a valid start
   const fittedEdges = alignSpectatorPoints(ec, fit.edges);
-  const fittedLayers = planLayers(ctx, fittedEdges, parkingF12, parkingGHz, 1, fit.layerOf);
+  const fittedLayers = planLayers(ctx, fittedEdges, parkingF12, parkingGHz, 1, fit.layerOf, quiet);
   const fitted = { edges: fittedEdges, layers: fittedLayers, step: step(fittedEdges, fittedLayers) };
   const all = { planned, aligned, fitted } as const;
   let kept: LayerFitting['kept'] = 'planned';
   for (const k of ['aligned', 'fitted'] as const) if (all[k].step.cycleError < all[kept].step.cycleError) kept = k;
-  return { edges: all[kept].edges, layers: all[kept].layers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
+  const keptLayers = explainLayers(ctx, all[kept].edges, parkingF12, parkingGHz, all[kept].layers);
+  return { edges: all[kept].edges, layers: keptLayers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
 }
 
 /**
@@ -135,7 +137,7 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF1
   const fitted = [...edges];
   const none: EdgeContext = { ...ec, budgetMoveAllowed: () => false };
   for (const k of withMoves) fitted[k] = planEdge(none, edges[k].edge);
-  const bare = planLayers(ctx, fitted, parkingF12, parkingGHz);
+  const bare = planLayers(ctx, fitted, parkingF12, parkingGHz, 1, undefined, { explain: false });
   const layerOf = Int32Array.from(bare.layerOf);
   // 2. optional moves back where the layers carry them
   const members: number[][] = Array.from({ length: bare.layers.length }, () => []);

@@ -204,46 +204,73 @@ export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], p
  * The layers of `plans`. `start`, when given, is a colouring of the whole conflict graph (layer of
  * each plan) known to be valid, for example one the layer fitting built (./layer-moves.ts); the
  * final colouring then starts from the better of it and DSATUR (iterated greedy never adds colours).
+ * With `explain: false` the kind-by-kind explanation is left out (its counts NaN; the layer
+ * fitting colours candidates it then drops, and explains the one it keeps: explainLayers).
  */
-export function planLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, seed = 1, start?: ArrayLike<number>): LayerPlan {
+export function planLayers(
+  ctx: PlanContext,
+  plans: readonly EdgePlan[],
+  parkingF12: readonly number[],
+  parkingGHz: ArrayLike<number>,
+  seed = 1,
+  start?: ArrayLike<number>,
+  options: { explain?: boolean } = {},
+): LayerPlan {
   const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
-  const lowerBound = ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
-  const order: ConflictKind[] = ['shared', 'spectator', 'close', 'next'];
-  const pairs: Record<ConflictKind, number> = { shared: 0, spectator: 0, close: 0, next: 0 };
-  for (const kind of kinds.values()) pairs[kind]++;
-  const colourWith = (allowed: Set<ConflictKind>, given?: ArrayLike<number>): Int32Array => {
-    const graph = new UndirectedGraph();
-    const adjacency: number[][] = plans.map(() => []);
-    plans.forEach((p) => graph.addNode(ctx.edges[p.edge].key));
-    for (const [key, kind] of kinds) {
-      if (!allowed.has(kind)) continue;
-      const a = Math.floor(key / plans.length);
-      const b = key % plans.length;
-      adjacency[a].push(b);
-      adjacency[b].push(a);
-      graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
-    }
-    const ds = dsaturColouring(graph);
-    let first = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
-    if (given && validColouring(adjacency, given) && colourCount(Int32Array.from(given)) < colourCount(first)) first = Int32Array.from(given);
-    const visits = adjacency.reduce((s, l) => s + l.length, 0) + plans.length;
-    const rounds = Math.max(1, Math.min(LAYER_ROUNDS, Math.floor(4e6 / Math.max(1, visits))));
-    return iteratedGreedy(adjacency, first, { iterations: rounds, seed, lowerBound });
-  };
-  const counts: number[] = [];
-  let colours: Int32Array = new Int32Array(plans.length);
-  for (let k = 0; k < order.length; k++) {
-    colours = colourWith(new Set(order.slice(0, k + 1)), k === order.length - 1 ? start : undefined);
-    counts.push(plans.length === 0 ? 0 : colourCount(colours));
-  }
+  const lowerBound = lowerBoundOf(ctx);
+  const colours = colourKinds(ctx, plans, kinds, new Set(KIND_ORDER), seed, start);
   const layerOf = Array.from(colours);
   const count = plans.length === 0 ? 0 : Math.max(...layerOf) + 1;
   const layers: number[][] = Array.from({ length: count }, () => []);
   plans.forEach((p, k) => layers[layerOf[k]].push(p.edge));
-  return {
-    layerOf, layers, lowerBound, conflicts: kinds.size,
-    explanation: { shared: counts[0], spectator: counts[1], close: counts[2], next: counts[3], pairs },
-  };
+  const plan: LayerPlan = { layerOf, layers, lowerBound, conflicts: kinds.size, explanation: { shared: NaN, spectator: NaN, close: NaN, next: count, pairs: pairCounts(kinds) } };
+  if (options.explain !== false) plan.explanation = explainKinds(ctx, plans, kinds, count, seed);
+  return plan;
+}
+
+/** The explanation of a layer plan of `plans` (computed again from their conflicts; its own count stays the final one). */
+export function explainLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, layers: LayerPlan, seed = 1): LayerPlan {
+  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
+  return { ...layers, explanation: explainKinds(ctx, plans, kinds, layers.layers.length, seed) };
+}
+
+const KIND_ORDER: ConflictKind[] = ['shared', 'spectator', 'close', 'next'];
+
+const lowerBoundOf = (ctx: PlanContext) => ctx.edgesOf.reduce((m, list) => Math.max(m, list.length), 0);
+
+function pairCounts(kinds: ReadonlyMap<number, ConflictKind>): Record<ConflictKind, number> {
+  const pairs: Record<ConflictKind, number> = { shared: 0, spectator: 0, close: 0, next: 0 };
+  for (const kind of kinds.values()) pairs[kind]++;
+  return pairs;
+}
+
+/** The layers the conflicts up to each kind alone need (the last: the plan's own count). */
+function explainKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>, count: number, seed: number): LayerExplanation {
+  const counts = KIND_ORDER.slice(0, -1).map((_, k) => (plans.length === 0 ? 0 : colourCount(colourKinds(ctx, plans, kinds, new Set(KIND_ORDER.slice(0, k + 1)), seed))));
+  // a subset of the conflicts never needs more layers than all of them
+  const cap = (x: number) => Math.min(x, count);
+  return { shared: cap(counts[0]), spectator: cap(counts[1]), close: cap(counts[2]), next: count, pairs: pairCounts(kinds) };
+}
+
+/** Colour the conflict graph restricted to the `allowed` kinds (DSATUR or a valid `given` start, then iterated greedy). */
+function colourKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>, allowed: ReadonlySet<ConflictKind>, seed: number, given?: ArrayLike<number>): Int32Array {
+  const graph = new UndirectedGraph();
+  const adjacency: number[][] = plans.map(() => []);
+  plans.forEach((p) => graph.addNode(ctx.edges[p.edge].key));
+  for (const [key, kind] of kinds) {
+    if (!allowed.has(kind)) continue;
+    const a = Math.floor(key / plans.length);
+    const b = key % plans.length;
+    adjacency[a].push(b);
+    adjacency[b].push(a);
+    graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
+  }
+  const ds = dsaturColouring(graph);
+  let first = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+  if (given && validColouring(adjacency, given) && colourCount(Int32Array.from(given)) < colourCount(first)) first = Int32Array.from(given);
+  const visits = adjacency.reduce((s, l) => s + l.length, 0) + plans.length;
+  const rounds = Math.max(1, Math.min(LAYER_ROUNDS, Math.floor(4e6 / Math.max(1, visits))));
+  return iteratedGreedy(adjacency, first, { iterations: rounds, seed, lowerBound: lowerBoundOf(ctx) });
 }
 
 /** True when no two adjacent vertices share a colour (and every colour is a non-negative integer). */
