@@ -8,17 +8,23 @@
  * the layer count, and every qubit then idles longer in each cycle. The reference cycle's error
  * (./cycle-budget.ts) weighs both: the gates' errors and the idles over the cycle's duration.
  *
- * The fitting builds a second plan and keeps whichever has the lower predicted cycle error:
- *   1. every edge that made an optional move is planned again without optional moves, and the
- *      layers of these plans are coloured (the moves a rule asks for stay);
- *   2. edge by edge (in edge order), the optional moves come back where the layers can carry them:
- *      the edge is planned with optional moves allowed only for spectators no other gate of its
- *      layer touches, and the result is kept when it conflicts with no gate of its layer
- *      (./layers.ts gatesConflict), else the edge keeps its plan from step 1;
- *   3. the layers are coloured again starting from that valid assignment (never more layers).
+ * Spectators two gates move to the very same point do not keep the gates apart (./layers.ts), so
+ * the fitting builds two more candidates and keeps, of the three, the one of least predicted
+ * cycle error (ties: the earlier):
+ *   planned  the edges as each planned itself;
+ *   aligned  each spectator moved by two or more gates goes, for every gate that still holds its
+ *            rules there, to the one point among theirs that the most of them accept
+ *            (alignSpectatorPoints);
+ *   fitted   the optional moves fitted to the layers of the aligned edges, then aligned again:
+ *     1. every edge that made an optional move is evaluated again without its optional moves,
+ *        and the layers of these plans are coloured (the moves a rule asks for stay);
+ *     2. edge by edge (in edge order), the edge keeps those of its optional moves no other gate
+ *        of its layer touches, when the result holds its rules and conflicts with no gate of its
+ *        layer (./layers.ts gatesConflict), else it keeps its plan from step 1;
+ *     3. the layers are coloured again starting from that valid assignment (never more layers).
  * Deterministic: the same plans and seed give the same result.
  */
-import { BUDGET_MOVE_REASON, planEdge, withSpectatorPoints, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
+import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
 import { explainLayers, gatesConflict, movedQubits, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
@@ -126,8 +132,10 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
 }
 
 /**
- * Optional moves fitted to the layers (steps 1-3 of the banner): the layers of the edges without
- * optional moves, then each edge's optional moves where its layer carries them.
+ * Optional moves fitted to the layers (steps 1-2 of the banner): the layers of the edges without
+ * optional moves, then each edge's optional moves back where its layer carries them. Edges are
+ * evaluated again with fewer spectators moved, not planned again (the moves a rule asked for
+ * stay where they are); an edge whose rules would break keeps its moves.
  */
 function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): { edges: EdgePlan[]; layerOf?: Int32Array } {
   const { ctx } = ec;
@@ -135,22 +143,21 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF1
   if (withMoves.length === 0) return { edges: [...edges] };
   // 1. without optional moves
   const fitted = [...edges];
-  const none: EdgeContext = { ...ec, budgetMoveAllowed: () => false };
-  for (const k of withMoves) fitted[k] = planEdge(none, edges[k].edge);
+  for (const k of withMoves) fitted[k] = withoutSpectators(ec, edges[k], new Set(optionalMoves(edges[k]))) ?? edges[k];
   const bare = planLayers(ctx, fitted, parkingF12, parkingGHz, 1, undefined, { explain: false });
   const layerOf = Int32Array.from(bare.layerOf);
   // 2. optional moves back where the layers carry them
   const members: number[][] = Array.from({ length: bare.layers.length }, () => []);
   layerOf.forEach((c, j) => members[c].push(j));
   for (const k of withMoves) {
+    if (fitted[k] === edges[k]) continue;
     const others = members[layerOf[k]].filter((j) => j !== k);
     const busy = new Set<number>();
     for (const j of others) for (const q of touchedQubits(fitted[j])) busy.add(q);
-    // the edge's own plan with every optional move, when none of them is busy; else planned again
-    const candidate = optionalMoves(edges[k]).some((q) => busy.has(q))
-      ? planEdge({ ...ec, budgetMoveAllowed: (_edge, q) => !busy.has(q) }, edges[k].edge)
-      : edges[k];
-    if (optionalMoves(candidate).length === 0 || candidate.findings.length > fitted[k].findings.length) continue;
+    const dropped = new Set(optionalMoves(edges[k]).filter((q) => busy.has(q)));
+    if (dropped.size === optionalMoves(edges[k]).length) continue;
+    const candidate = dropped.size === 0 ? edges[k] : withoutSpectators(ec, edges[k], dropped);
+    if (!candidate) continue;
     const moved = movedQubits(ctx, candidate, parkingF12, parkingGHz);
     const clash = others.some((j) => gatesConflict(ctx, candidate, moved, fitted[j], movedQubits(ctx, fitted[j], parkingF12, parkingGHz)));
     if (!clash) fitted[k] = candidate;

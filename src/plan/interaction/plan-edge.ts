@@ -90,12 +90,6 @@ export interface EdgeContext {
   blockers: IdleBlockers;
   /** Exact states at parking (every qubit). */
   states: readonly ExactQubitState[];
-  /**
-   * Which spectators budgetMoves may move for an edge (default: every one). A move made only for
-   * a lower estimated error takes the spectator out of every other gate of its layer, so the
-   * layer fitting (src/plan/layer-moves.ts) limits these moves to the ones the layers can carry.
-   */
-  budgetMoveAllowed?: (edge: number, qubit: number) => boolean;
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -415,10 +409,7 @@ function budgetMoves(
 ): ReturnType<typeof evaluateGate> {
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
-  const allowed = ec.budgetMoveAllowed;
-  const list = budgetSpectatorList((q: number) => ctx.neighbours[q], scenario.mover, scenario.partner, scenario.crossing).filter(
-    (b) => !parked.has(b.qubit) && (!allowed || allowed(scenario.edge, b.qubit)),
-  );
+  const list = budgetSpectatorList((q: number) => ctx.neighbours[q], scenario.mover, scenario.partner, scenario.crossing).filter((b) => !parked.has(b.qubit));
   const share = (S: number, side: 'mover' | 'partner'): number => {
     const E = side === 'mover' ? scenario.mover : scenario.partner;
     const fE = side === 'mover' ? scenario.toGHz : scenario.parking[E].f01GHz;
@@ -531,17 +522,34 @@ function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly Option
 
 /**
  * The same planned edge with some of its moved spectators at other temporary points (the exact
- * f01, flux and f12 another gate moved them to), or null when the gate then breaks a rule. The score, findings, swept
- * crossings, slot and reason are evaluated again; each spectator keeps the reason it was moved
- * for. Used to give spectators shared by gates of one layer one common point (src/plan/layer-moves.ts).
+ * f01, flux and f12 another gate moved them to), or null when the gate then breaks a rule. Used to
+ * give spectators shared by gates of one layer one common point (src/plan/layer-moves.ts).
  */
 export function withSpectatorPoints(ec: EdgeContext, plan: EdgePlan, points: ReadonlyMap<number, Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>>): EdgePlan | null {
+  if (![...points.keys()].every((q) => plan.parked.some((p) => p.qubit === q))) return null;
+  return withParked(
+    ec,
+    plan,
+    plan.parked.map((p) => {
+      const at = points.get(p.qubit);
+      return at === undefined || at.fGHz === p.fGHz ? p : { qubit: p.qubit, fGHz: at.fGHz, flux: at.flux, f12GHz: at.f12GHz, reason: p.reason };
+    }),
+  );
+}
+
+/** The same planned edge without some of its moved spectators (they stay at parking), or null when the gate then breaks a rule. */
+export function withoutSpectators(ec: EdgeContext, plan: EdgePlan, qubits: ReadonlySet<number>): EdgePlan | null {
+  return withParked(ec, plan, plan.parked.filter((p) => !qubits.has(p.qubit)));
+}
+
+/**
+ * A feasible planned edge with another list of moved spectators: the score, findings, swept
+ * crossings, slot and reason evaluated again (each spectator keeps the reason it was moved for),
+ * or null when the gate then breaks a rule.
+ */
+function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator[]): EdgePlan | null {
   const { ctx } = ec;
-  if (!plan.feasible || ![...points.keys()].every((q) => plan.parked.some((p) => p.qubit === q))) return null;
-  const parkedInfo: ParkedSpectator[] = plan.parked.map((p) => {
-    const at = points.get(p.qubit);
-    return at === undefined || at.fGHz === p.fGHz ? p : { qubit: p.qubit, fGHz: at.fGHz, flux: at.flux, f12GHz: at.f12GHz, reason: p.reason };
-  });
+  if (!plan.feasible) return null;
   const scenario: GateScenario = {
     edge: plan.edge, mover: plan.mover, partner: plan.partner, crossing: plan.crossing,
     fromGHz: ec.states[plan.mover].f01GHz, toGHz: plan.crossingGHz, moverF12AtToGHz: plan.moverF12AtInteractionGHz,
@@ -553,12 +561,10 @@ export function withSpectatorPoints(ec: EdgeContext, plan: EdgePlan, points: Rea
   if (ev.findings.length > 0) return null;
   const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
   const id = ctx.ids;
-  const options = plan.options.map((o) =>
-    o.mover === plan.mover && o.crossing === plan.crossing && o.feasible
-      ? { ...o, parked: parkedInfo, score, note: `feasible with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}, estimated error ${prob(score)}` }
-      : o,
-  );
-  const chosen = options.find((o) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible)!;
+  const isChosen = (o: OptionReport) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible;
+  const note = `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`;
+  const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
+  const chosen = options.find(isChosen)!;
   return {
     ...plan, parked: parkedInfo, swept: ev.swept, findings: ev.findings, durationNs: ev.durationNs, score, options,
     reason: reasonText(ctx, chosen, options, plan.partner),
