@@ -17,7 +17,7 @@ import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
 import { conflictKind, conflictingPairs, movedQubits, sharedSpectators } from '../../src/plan/layers.js';
-import { withSpectatorPoints } from '../../src/plan/interaction/plan-edge.js';
+import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
 import { evaluateGate } from '../../src/plan/rules/cz-evaluate.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
 
@@ -96,5 +96,12 @@ describe('layer fitting on Clove-17', () => {
     expect(f).toBeGreaterThanOrEqual(clove.ctx.ranges[p.qubit].lo);
     expect(f).toBeLessThanOrEqual(clove.ctx.ranges[p.qubit].hi);
     expect(withSpectatorPoints(ec, e, new Map([[p.qubit, { fGHz: f, flux: st.fluxAt(f), f12GHz: st.at(f).f12 }]]))).toBeNull();
+  });
+
+  it('withoutSpectators: dropping nothing keeps the estimate; dropping a move a rule asked for breaks that rule (null)', () => {
+    const e = clove.edges.find((x) => x.feasible && x.parked.some((p) => p.reason !== BUDGET_MOVE_REASON))!;
+    expect(withoutSpectators(ec, e, new Set())!.score).toBeCloseTo(e.score, 12);
+    const required = e.parked.find((p) => p.reason !== BUDGET_MOVE_REASON)!;
+    expect(withoutSpectators(ec, e, new Set([required.qubit]))).toBeNull();
   });
 });
