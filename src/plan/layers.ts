@@ -86,11 +86,11 @@ export function movedConflict(ctx: PlanContext, x: MovedQubit, y: MovedQubit): b
     const pad12 = admixtureHalfWidth(Math.SQRT2 * g, r.spectatorAdmixture);
     return overlap(x.lo, x.hi, y.lo, y.hi, pad01) || overlap(x.lo12, x.hi12, y.lo, y.hi, pad12) || overlap(x.lo, x.hi, y.lo12, y.hi12, pad12);
   }
-  const shares = ctx.nextNearestOf[x.qubit].some((p) => {
+  if (!(Math.abs(x.toGHz - y.toGHz) < r.detuningNext0101GHz)) return false;
+  return ctx.nextNearestOf[x.qubit].some((p) => {
     const pair = ctx.nextNearest[p];
     return (pair.a === x.qubit ? pair.b : pair.a) === y.qubit;
   });
-  return shares && Math.abs(x.toGHz - y.toGHz) < r.detuningNext0101GHz;
 }
 
 /**
@@ -175,12 +175,14 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
   });
   // candidate pairs: gates touching a common qubit, or a neighbour or next-nearest neighbour of a moved qubit
   const kinds = new Map<number, ConflictKind>();
+  const seen = new Set<number>();
   const consider = (k1: number, k2: number) => {
     if (k1 === k2) return;
     const a = Math.min(k1, k2);
     const b = Math.max(k1, k2);
     const key = a * plans.length + b;
-    if (kinds.has(key)) return;
+    if (seen.has(key)) return;
+    seen.add(key);
     const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
     if (kind) kinds.set(key, kind);
   };
