@@ -218,6 +218,8 @@ export function replanChip(layout: ChipLayout, earlier: EarlierPlan, request: Re
       message: `${key} planned again: ${why.join('; ')}${what.length > 0 ? ` (${what.join('; ')})` : ''}${because.length > 0 ? `; measured: ${[...new Set(because)].join('; ')}` : ''}` });
   });
   refresh(plan, earlierLayer);
+  // the layers are the earlier plan's where they still hold (keptLayers), not the fitting's candidates
+  plan.parking.stats.layerFitting = null;
   return { plan, mode, requested, kept, keptDesigns, keptTargetPhase, earlierLayer, measured, changes };
 }
 
