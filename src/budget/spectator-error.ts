@@ -17,12 +17,14 @@
  * Model: mover 5 levels (the mover's |2> meets the spectator through its 2-3 transition), partner 3,
  * spectator 3 (src/sim/pair-model.ts), in-block propagation
  * (every spectator crossing lies inside one excitation manifold; tested against the full scheme).
+ * The two spectator states share one propagation (src/sim/simulate-gate.ts simulateSpectatorStates:
+ * each step is prepared once for the eight columns; the same numbers as two simulations).
  */
 import { fidelityWithVirtualZ, gateMetrics, leakage } from '../sim/gate-metrics.js';
 import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
 import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
 import type { FramePropagationOptions } from '../sim/propagate-frame.js';
-import { simulateGate } from '../sim/simulate-gate.js';
+import { simulateGate, simulateSpectatorStates } from '../sim/simulate-gate.js';
 import type { Trajectory } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 
@@ -83,10 +85,9 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   if (!built) return admixtureFallback(input);
   const { frame, reduced, moverLevels } = built;
   const prop = { ...SPECTATOR_PROPAGATION, ...input.propagation };
-  const g = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [0] });
+  // S in |0> and in |1> in one propagation (each step prepared once for both), |1> in |0>'s lab frame
+  const [g, x] = simulateSpectatorStates(frame, traj, [[0], [1]], prop);
   const metrics = gateMetrics(g.m, input.targetPhase);
-  const lab = [g.energies['00'], g.energies['01'], g.energies['10']] as const;
-  const x = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [1], labEnergies: lab });
   const ground = 1 - metrics.fidelity;
   const excited = 1 - fidelityWithVirtualZ(x.m, metrics.virtualZ.a, metrics.virtualZ.b, input.targetPhase);
   // the pair's own error on the same model size (the caller's baseline when the model was not reduced)
