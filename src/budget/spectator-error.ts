@@ -54,7 +54,9 @@ export interface SpectatorError {
   ground: number;
   excited: number;
   /**
-   * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept;
+   * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept (only
+   * with a propagation scheme that couples manifolds: in-block propagation never reaches the
+   * fourth, so its frame keeps three from the start and that is the full model);
    * 'mover-levels' also fewer mover levels (see spectatorFrame); 'estimate' no frame converged and
    * the error is the admixture estimate (admixtureFallback).
    */
@@ -62,6 +64,12 @@ export interface SpectatorError {
 }
 
 export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+
+/**
+ * Highest excitation manifold of the pair's computational states (|11>): with in-block
+ * propagation the pair alone needs no frame states above it (higher manifolds are never reached).
+ */
+export const PAIR_TOP_MANIFOLD = 2;
 
 /** Default model size: the mover's 2-3 transition meets spectators during the hold, so 5 levels. */
 export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 });
@@ -95,7 +103,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   let pairLeakage = input.pairLeakage;
   if (reduced === 'mover-levels') {
     const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
-    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
+    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
     pairError = 1 - alone.fidelity;
     pairLeakage = alone.leakage;
   }
@@ -110,7 +118,9 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
 
 /**
  * The frame of a three-transmon model. With a spectator in |1> the computational block and its
- * leakage reach three excitations, so the frame keeps manifolds up to 4 by default. A mover
+ * leakage reach three excitations, so the frame keeps manifolds up to 4 for a scheme that couples
+ * manifolds, and up to 3 for in-block propagation (the default: no coupling between manifolds, so
+ * nothing reaches the fourth; the same numbers, test/sim/spectator-states.test.ts). A mover
  * tuned low brings its upper levels (|3>, |4>) down among the two-excitation states of a high
  * spectator; their crossings are weak (counter-rotating terms) but sharp, and the dressed
  * manifolds are then not smooth over the mover's E_J range. The frame then keeps three manifolds,
@@ -123,7 +133,9 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
   const full = input.levels?.moverLevels ?? SPECTATOR_LEVELS.moverLevels;
   const modelOf = (moverLevels: number) =>
     edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
-  const attempts: [number, number, SpectatorError['reduced']][] = [[full, 4, 'none'], [full, 3, 'manifolds']];
+  // In-block propagation never couples manifolds, so the manifolds above the computational
+  // states' highest (3: |11> with S in |1>) are never reached and need not be in the frame.
+  const attempts: [number, number, SpectatorError['reduced']][] = inBlock(input) ? [[full, 3, 'none']] : [[full, 4, 'none'], [full, 3, 'manifolds']];
   for (let m = full - 1; m >= 3; m--) attempts.push([m, 3, 'mover-levels']);
   for (const [moverLevels, keepExcitations, reduced] of attempts) {
     try {
@@ -133,6 +145,11 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
     }
   }
   return null;
+}
+
+/** The propagation is in-block (the default, SPECTATOR_PROPAGATION): no coupling between excitation manifolds. */
+function inBlock(input: SpectatorErrorInput): boolean {
+  return (input.propagation?.scheme ?? SPECTATOR_PROPAGATION.scheme) === 'in-block';
 }
 
 /** A spectator's error per unit of summed admixture (three-transmon simulations of Clove-17: median about 0.5, 0.14-1.0). */

@@ -27,7 +27,7 @@ import { trajectoryDuration } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 import { quasiStaticFluxSigma } from '../transmon/coherence.js';
 import { gateFluxNoise } from './gate-flux-noise.js';
-import { moverEjSpan, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
+import { moverEjSpan, PAIR_TOP_MANIFOLD, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
 
 export { moverEjSpan };
 
@@ -126,7 +126,7 @@ export function spectatorBudget(pair: WaveformPair, list: readonly EdgeSpectator
   const { mover, partner, gGHz, partnerFlux, traj, targetPhase } = pair;
   const pairModel = edgeSimModel({ mover, partner, gGHz, partnerFlux, ...SPECTATOR_LEVELS });
   const [ejLo, ejHi] = moverEjSpan(mover, traj);
-  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
+  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
   const pairMetrics = gateMetrics(alone.m, targetPhase);
   const shares = list.map((sp) => {
     const r = spectatorError({

@@ -4,6 +4,8 @@
  * simulateGate calls, the second in the first's lab frame, which is how the spectator error was
  * computed before (simulateGate itself is checked against QuTiP in test/sim/qutip.test.ts, and the
  * spectator error against an independent NumPy model in test/budget/spectator-error.test.ts).
+ * Also: with in-block propagation (no coupling between excitation manifolds) frames without
+ * the manifolds above the computational states' give the same blocks to 1e-9.
  * The case: Clove-17's D4-Z3 CZ with D4's neighbour Z1 as the spectator, 120 MHz above the
  * mover's 2-3 transition at the hold (a strong spectator effect, so the |1> block differs).
  */
@@ -45,5 +47,22 @@ describe('simulateSpectatorStates', () => {
     expect([...x0.energies]).toEqual([...lab]);
     // the case is not trivial: the spectator in |1> costs fidelity against |0>
     expect(1 - gateMetrics(b.m).fidelity).toBeGreaterThan(1 - gateMetrics(a.m).fidelity + 1e-4);
+    // in-block propagation never leaves a manifold, so a frame without manifold 4 (the spectator
+    // budget's since 2026-12-03) gives the same blocks (every computational state is in manifolds <= 3)
+    const frame3 = buildManifoldFrame(model, { ejLo, ejHi, keepExcitations: 3 });
+    expect(frame3.degree).toBeLessThanOrEqual(frame.degree);
+    const [y0, y1] = simulateSpectatorStates(frame3, traj, [[0], [1]], SPECTATOR_PROPAGATION);
+    for (const [p, r] of [[y0.m, x0.m], [y1.m, x1.m]]) for (let k = 0; k < 16; k++) {
+      expect(Math.abs(p.re[k] - r.re[k])).toBeLessThan(1e-9);
+      expect(Math.abs(p.im[k] - r.im[k])).toBeLessThan(1e-9);
+    }
+    // and the pair alone with manifolds <= 2 (its computational states') against <= 4
+    const pairModel = edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: z3Flux, ...SPECTATOR_LEVELS });
+    const alone4 = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: 4 }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
+    const alone2 = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: 2 }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
+    for (let k = 0; k < 16; k++) {
+      expect(Math.abs(alone2.m.re[k] - alone4.m.re[k])).toBeLessThan(1e-9);
+      expect(Math.abs(alone2.m.im[k] - alone4.m.im[k])).toBeLessThan(1e-9);
+    }
   });
 });
