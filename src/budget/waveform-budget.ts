@@ -82,7 +82,8 @@ export function waveformNoiseBudget(input: WaveformNoiseInput): WaveformNoiseBud
     labEnergies: [s.energies['00'], s.energies['01'], s.energies['10']],
     moverSigma, partnerSigma,
     partnerFrame: (delta) =>
-      buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi }),
+      // in-block propagation: the computational states (spectators in |0>) stay in manifolds <= 2
+      buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD }),
     propagation: FLUX_NOISE_PROPAGATION,
   });
   const fluxNoise = Math.max(0, fn.total);

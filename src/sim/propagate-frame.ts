@@ -226,7 +226,8 @@ export interface FrameStep {
 
 /**
  * The step schedule of a trajectory, shared by all sectors (so per-step observers see the same
- * times): holds are split into pieces of at most maxHoldStepNs; ramp segments into equal steps
+ * times): holds are split into pieces of at most maxHoldStepNs (without that limit, consecutive
+ * hold segments at one flux are one step); ramp segments into equal steps
  * obeying maxStepNs, maxAngle (largest |A| of any sector) and maxEjStepGHz.
  */
 /**
@@ -252,11 +253,23 @@ export function stepSchedule(frame: ManifoldFrame, traj: Trajectory, options: Fr
   const ts = traj.timeNs;
   const xs = traj.flux;
   const out: FrameStep[] = [];
+  /** Index of the last trajectory segment that ended in a hold step (the last step), else -2. */
+  let heldThrough = -2;
   for (let k = 0; k + 1 < ts.length; k++) {
     const dt = ts[k + 1] - ts[k];
     const x0 = xs[k];
     const x1 = xs[k + 1];
     if (x1 === x0) {
+      // without a hold limit, a run of constant-flux segments is one exact step (the same
+      // Hamiltonian throughout: exp(-i H h1) exp(-i H h2) = exp(-i H (h1 + h2))); a sampled
+      // waveform's plateau is hundreds of equal samples
+      if (!Number.isFinite(o.maxHoldStepNs) && heldThrough === k - 1 && out[out.length - 1].x0 === x0) {
+        const last = out[out.length - 1];
+        last.h = ts[k + 1] - last.t0;
+        heldThrough = k;
+        continue;
+      }
+      heldThrough = k;
       const n = Number.isFinite(o.maxHoldStepNs) ? Math.max(1, Math.ceil(dt / o.maxHoldStepNs - 1e-9)) : 1;
       if (!(out.length + n <= MAX_SCHEDULE_STEPS)) throw scheduleTooLong(out.length + n, ts[ts.length - 1] - ts[0]);
       for (let q = 0; q < n; q++) out.push({ hold: true, t0: ts[k] + (q * dt) / n, h: dt / n, x0, v: 0 });
