@@ -63,7 +63,7 @@ export interface SpectatorError {
   reduced: 'none' | 'manifolds' | 'mover-levels' | 'estimate';
 }
 
-export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const, joinRamps: true });
 
 /**
  * Highest excitation manifold of the pair's computational states (|11>): with in-block

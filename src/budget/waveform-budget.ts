@@ -64,7 +64,7 @@ export interface WaveformNoiseBudget {
 }
 
 /** Propagation of the flux-noise average: in-block (the offsets' excess agrees with the full scheme to < 1 %, test/budget/gate-flux-noise.test.ts). */
-export const FLUX_NOISE_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+export const FLUX_NOISE_PROPAGATION = Object.freeze({ scheme: 'in-block' as const, joinRamps: true });
 
 /** Quasi-static flux-offset spread of a transmon over an operation of t ns (0 without flux-noise data). */
 export function quasiStaticSigmaOf(q: Transmon, tNs: number): number {

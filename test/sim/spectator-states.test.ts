@@ -6,6 +6,8 @@
  * spectator error against an independent NumPy model in test/budget/spectator-error.test.ts).
  * Also: with in-block propagation (no coupling between excitation manifolds) frames without
  * the manifolds above the computational states' give the same blocks to 1e-9.
+ * And the budget's joined ramp steps (joinRamps) give the spectator's error within 1 % of one
+ * step per trajectory segment.
  * The case: Clove-17's D4-Z3 CZ with D4's neighbour Z1 as the spectator, 120 MHz above the
  * mover's 2-3 transition at the hold (a strong spectator effect, so the |1> block differs).
  */
@@ -17,7 +19,7 @@ import { moverEjSpan, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate, simulateSpectatorStates } from '../../src/sim/simulate-gate.js';
-import { gateMetrics } from '../../src/sim/gate-metrics.js';
+import { fidelityWithVirtualZ, gateMetrics } from '../../src/sim/gate-metrics.js';
 
 const layout = loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml');
 const q = (id: string) => Transmon.fromLayout(layout.qubits.find((x) => x.id === id)!);
@@ -56,6 +58,20 @@ describe('simulateSpectatorStates', () => {
       expect(Math.abs(p.re[k] - r.re[k])).toBeLessThan(1e-9);
       expect(Math.abs(p.im[k] - r.im[k])).toBeLessThan(1e-9);
     }
+    // the budget's propagation joins short ramp segments (SPECTATOR_PROPAGATION.joinRamps): the
+    // spectator's error (the |0>/|1> mean less the pair alone) within 1 % of one step per segment
+    expect(SPECTATOR_PROPAGATION.joinRamps).toBe(true);
+    const perSegment = { scheme: 'in-block' as const };
+    const errorWith = (prop: typeof perSegment | typeof SPECTATOR_PROPAGATION) => {
+      const [s0, s1] = simulateSpectatorStates(frame3, traj, [[0], [1]], prop);
+      const m0 = gateMetrics(s0.m);
+      const alone = gateMetrics(simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: z3Flux, ...SPECTATOR_LEVELS }), { ejLo, ejHi, keepExcitations: 2 }), traj, { ...prop, estimate: false }).m);
+      return 0.5 * (1 - m0.fidelity + 1 - fidelityWithVirtualZ(s1.m, m0.virtualZ.a, m0.virtualZ.b, Math.PI)) - (1 - alone.fidelity);
+    };
+    const joined = errorWith(SPECTATOR_PROPAGATION);
+    const apart = errorWith(perSegment);
+    expect(apart).toBeGreaterThan(1e-3);
+    expect(Math.abs(joined - apart)).toBeLessThan(0.01 * apart);
     // and the pair alone with manifolds <= 2 (its computational states') against <= 4
     const pairModel = edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: z3Flux, ...SPECTATOR_LEVELS });
     const alone4 = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: 4 }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
