@@ -17,12 +17,14 @@
  * Model: mover 5 levels (the mover's |2> meets the spectator through its 2-3 transition), partner 3,
  * spectator 3 (src/sim/pair-model.ts), in-block propagation
  * (every spectator crossing lies inside one excitation manifold; tested against the full scheme).
+ * The two spectator states share one propagation (src/sim/simulate-gate.ts simulateSpectatorStates:
+ * each step is prepared once for the eight columns; the same numbers as two simulations).
  */
 import { fidelityWithVirtualZ, gateMetrics, leakage } from '../sim/gate-metrics.js';
 import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
 import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
 import type { FramePropagationOptions } from '../sim/propagate-frame.js';
-import { simulateGate } from '../sim/simulate-gate.js';
+import { simulateGate, simulateSpectatorStates } from '../sim/simulate-gate.js';
 import type { Trajectory } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 
@@ -52,14 +54,22 @@ export interface SpectatorError {
   ground: number;
   excited: number;
   /**
-   * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept;
+   * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept (only
+   * with a propagation scheme that couples manifolds: in-block propagation never reaches the
+   * fourth, so its frame keeps three from the start and that is the full model);
    * 'mover-levels' also fewer mover levels (see spectatorFrame); 'estimate' no frame converged and
    * the error is the admixture estimate (admixtureFallback).
    */
   reduced: 'none' | 'manifolds' | 'mover-levels' | 'estimate';
 }
 
-export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const, joinRamps: true });
+
+/**
+ * Highest excitation manifold of the pair's computational states (|11>): with in-block
+ * propagation the pair alone needs no frame states above it (higher manifolds are never reached).
+ */
+export const PAIR_TOP_MANIFOLD = 2;
 
 /** Default model size: the mover's 2-3 transition meets spectators during the hold, so 5 levels. */
 export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 });
@@ -83,10 +93,9 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   if (!built) return admixtureFallback(input);
   const { frame, reduced, moverLevels } = built;
   const prop = { ...SPECTATOR_PROPAGATION, ...input.propagation };
-  const g = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [0] });
+  // S in |0> and in |1> in one propagation (each step prepared once for both), |1> in |0>'s lab frame
+  const [g, x] = simulateSpectatorStates(frame, traj, [[0], [1]], prop);
   const metrics = gateMetrics(g.m, input.targetPhase);
-  const lab = [g.energies['00'], g.energies['01'], g.energies['10']] as const;
-  const x = simulateGate(frame, traj, { ...prop, targetPhase: input.targetPhase, estimate: false, spectatorLevels: [1], labEnergies: lab });
   const ground = 1 - metrics.fidelity;
   const excited = 1 - fidelityWithVirtualZ(x.m, metrics.virtualZ.a, metrics.virtualZ.b, input.targetPhase);
   // the pair's own error on the same model size (the caller's baseline when the model was not reduced)
@@ -94,7 +103,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   let pairLeakage = input.pairLeakage;
   if (reduced === 'mover-levels') {
     const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
-    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
+    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
     pairError = 1 - alone.fidelity;
     pairLeakage = alone.leakage;
   }
@@ -109,7 +118,9 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
 
 /**
  * The frame of a three-transmon model. With a spectator in |1> the computational block and its
- * leakage reach three excitations, so the frame keeps manifolds up to 4 by default. A mover
+ * leakage reach three excitations, so the frame keeps manifolds up to 4 for a scheme that couples
+ * manifolds, and up to 3 for in-block propagation (the default: no coupling between manifolds, so
+ * nothing reaches the fourth; the same numbers, test/sim/spectator-states.test.ts). A mover
  * tuned low brings its upper levels (|3>, |4>) down among the two-excitation states of a high
  * spectator; their crossings are weak (counter-rotating terms) but sharp, and the dressed
  * manifolds are then not smooth over the mover's E_J range. The frame then keeps three manifolds,
@@ -122,7 +133,9 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
   const full = input.levels?.moverLevels ?? SPECTATOR_LEVELS.moverLevels;
   const modelOf = (moverLevels: number) =>
     edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
-  const attempts: [number, number, SpectatorError['reduced']][] = [[full, 4, 'none'], [full, 3, 'manifolds']];
+  // In-block propagation never couples manifolds, so the manifolds above the computational
+  // states' highest (3: |11> with S in |1>) are never reached and need not be in the frame.
+  const attempts: [number, number, SpectatorError['reduced']][] = inBlock(input) ? [[full, 3, 'none']] : [[full, 4, 'none'], [full, 3, 'manifolds']];
   for (let m = full - 1; m >= 3; m--) attempts.push([m, 3, 'mover-levels']);
   for (const [moverLevels, keepExcitations, reduced] of attempts) {
     try {
@@ -132,6 +145,11 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
     }
   }
   return null;
+}
+
+/** The propagation is in-block (the default, SPECTATOR_PROPAGATION): no coupling between excitation manifolds. */
+function inBlock(input: SpectatorErrorInput): boolean {
+  return (input.propagation?.scheme ?? SPECTATOR_PROPAGATION.scheme) === 'in-block';
 }
 
 /** A spectator's error per unit of summed admixture (three-transmon simulations of Clove-17: median about 0.5, 0.14-1.0). */

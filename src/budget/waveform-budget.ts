@@ -27,7 +27,7 @@ import { trajectoryDuration } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 import { quasiStaticFluxSigma } from '../transmon/coherence.js';
 import { gateFluxNoise } from './gate-flux-noise.js';
-import { moverEjSpan, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
+import { moverEjSpan, PAIR_TOP_MANIFOLD, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
 
 export { moverEjSpan };
 
@@ -64,7 +64,7 @@ export interface WaveformNoiseBudget {
 }
 
 /** Propagation of the flux-noise average: in-block (the offsets' excess agrees with the full scheme to < 1 %, test/budget/gate-flux-noise.test.ts). */
-export const FLUX_NOISE_PROPAGATION = Object.freeze({ scheme: 'in-block' as const });
+export const FLUX_NOISE_PROPAGATION = Object.freeze({ scheme: 'in-block' as const, joinRamps: true });
 
 /** Quasi-static flux-offset spread of a transmon over an operation of t ns (0 without flux-noise data). */
 export function quasiStaticSigmaOf(q: Transmon, tNs: number): number {
@@ -82,7 +82,8 @@ export function waveformNoiseBudget(input: WaveformNoiseInput): WaveformNoiseBud
     labEnergies: [s.energies['00'], s.energies['01'], s.energies['10']],
     moverSigma, partnerSigma,
     partnerFrame: (delta) =>
-      buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi }),
+      // in-block propagation: the computational states (spectators in |0>) stay in manifolds <= 2
+      buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD }),
     propagation: FLUX_NOISE_PROPAGATION,
   });
   const fluxNoise = Math.max(0, fn.total);
@@ -126,7 +127,7 @@ export function spectatorBudget(pair: WaveformPair, list: readonly EdgeSpectator
   const { mover, partner, gGHz, partnerFlux, traj, targetPhase } = pair;
   const pairModel = edgeSimModel({ mover, partner, gGHz, partnerFlux, ...SPECTATOR_LEVELS });
   const [ejLo, ejHi] = moverEjSpan(mover, traj);
-  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
+  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
   const pairMetrics = gateMetrics(alone.m, targetPhase);
   const shares = list.map((sp) => {
     const r = spectatorError({

@@ -145,8 +145,9 @@ export function planWork(layout: ChipLayout, pulses: { lindblad?: boolean; spect
 
 /** `simulate`: the frame propagator over a trajectory (steps of at most 0.2 ns and 0.25 GHz of E_J). */
 export function simulateWork(timeNs: ArrayLike<number>, flux: ArrayLike<number>, ejGHz: (k: number) => number, options: { levels: number; noise: boolean; spectators: number; file?: string }): WorkEstimate {
-  // as src/sim/propagate-frame.ts stepSchedule counts them: a segment of constant flux is one exact
-  // step (0.25 ns pieces with noise), any other at most 0.2 ns and 0.25 GHz of E_J per step
+  // at most as many as src/sim/propagate-frame.ts stepSchedule makes: a segment of constant flux is
+  // one exact step (0.25 ns pieces with noise; without noise a run of them is one), any other at
+  // most 0.2 ns and 0.25 GHz of E_J per step
   let steps = 0;
   for (let k = 1; k < timeNs.length; k++) {
     const dt = timeNs[k] - timeNs[k - 1];

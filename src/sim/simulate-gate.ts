@@ -146,6 +146,33 @@ export function simulateGate(frame: ManifoldFrame, traj: Trajectory, options: Ga
 }
 
 /**
+ * One coherent propagation for several sets of spectator levels: the computational blocks of the
+ * same trajectory with the spectators (transmons 2, 3, ...) in each of `spectatorLevels` (e.g.
+ * [[0], [1]]). Every parity sector's steps are prepared once and applied to all the columns, so
+ * k sets cost about one simulation instead of k; each column sees the same steps as in its own
+ * simulateGate call, so the blocks are the same numbers. The first set's lab frame is
+ * `labEnergies` (default its own energies); every later set is taken in the first set's lab
+ * frame (the lab calibrates with the spectators in the first set's levels). Coherent only.
+ */
+export function simulateSpectatorStates(
+  frame: ManifoldFrame,
+  traj: Trajectory,
+  spectatorLevels: readonly number[][],
+  options: FramePropagationOptions & { labEnergies?: readonly [number, number, number] } = {},
+): { m: Block4; energies: readonly [number, number, number] }[] {
+  const sets = spectatorLevels.map((levels) => computationalStates(frame, traj.flux[0], levels).comp);
+  const initial: FrameInitial[] = sets.flatMap((comp) => comp.map((st) => ({ sector: st.sector, re: st.vector, im: new Float64Array(st.vector.length) })));
+  const res = propagateInFrame(frame, traj, initial, { ...options, maxHoldStepNs: Infinity });
+  const T = traj.timeNs[traj.timeNs.length - 1] - traj.timeNs[0];
+  const first = sets[0];
+  const lab = options.labEnergies ?? ([first[0].energy, first[1].energy, first[2].energy] as const);
+  return sets.map((comp, k) => ({
+    m: labFrameBlock(comp, res.re.slice(4 * k, 4 * k + 4), res.im.slice(4 * k, 4 * k + 4), T, k === 0 ? options.labEnergies : lab),
+    energies: [comp[0].energy, comp[1].energy, comp[2].energy] as const,
+  }));
+}
+
+/**
  * M = R(T) P^dag U P from the final frame columns of the four computational states; the frame's
  * energies are the states' own unless `labEnergies` (E_00, E_01, E_10) are given.
  */

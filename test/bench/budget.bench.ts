@@ -3,6 +3,7 @@
  *  - what the budget adds to one designed gate, under 100 ms: the quasi-static flux-noise average
  *    (two offsets per transmon, the partner's frames built anew) on Bowline-5 designs, and one
  *    spectator's three-transmon simulation (in |0> and |1>, its frame built anew) on a Clove-17 gate;
+ *  - the whole budget of one designed gate (flux noise, decoherence estimate and its spectators);
  *  - the fast estimate the planner's search uses (per call).
  */
 import type { Benchmark } from './run.js';
@@ -10,7 +11,8 @@ import { loadLayoutFile } from '../../src/layout/load.js';
 import { Transmon } from '../../src/transmon/transmon.js';
 import { designCzGate } from '../../src/gate/design.js';
 import { gateFluxNoise } from '../../src/budget/gate-flux-noise.js';
-import { spectatorError } from '../../src/budget/spectator-error.js';
+import { PAIR_TOP_MANIFOLD, spectatorError } from '../../src/budget/spectator-error.js';
+import { FLUX_NOISE_PROPAGATION } from '../../src/budget/waveform-budget.js';
 import { estimateGateBudget } from '../../src/budget/gate-estimate.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
@@ -41,8 +43,9 @@ const gates = ['Q1', 'Q2', 'Q3'].map((m) => {
     frame, traj: d.waveform, targetPhase: Math.PI, virtualZ: nominal.virtualZ,
     labEnergies: [nominal.energies['00'], nominal.energies['01'], nominal.energies['10']] as const,
     moverSigma: quasiStaticFluxSigma(mover.coherenceSpec!.fluxNoisePhi0!, T), partnerSigma: quasiStaticFluxSigma(Q0.coherenceSpec!.fluxNoisePhi0!, T),
-    partnerFrame: (delta: number) => buildManifoldFrame(edgeSimModel({ mover, partner: Q0, gGHz, partnerFlux: PF + delta }), { ejLo: lo, ejHi: hi }),
-    propagation: { scheme: 'in-block' as const },
+    // as waveformNoiseBudget builds and propagates them
+    partnerFrame: (delta: number) => buildManifoldFrame(edgeSimModel({ mover, partner: Q0, gGHz, partnerFlux: PF + delta }), { ejLo: lo, ejHi: hi, keepExcitations: PAIR_TOP_MANIFOLD }),
+    propagation: FLUX_NOISE_PROPAGATION,
   };
 });
 let k = 0;
@@ -79,6 +82,42 @@ export const oneSpectator: Benchmark = {
     }).error;
   },
   report: () => `spectator error ${lastSpectator.toExponential(3)}`,
+};
+
+/**
+ * The whole error budget of one designed gate (the issue's target): the design with its budget
+ * (first-order decoherence estimate, flux-noise average, each of the mover's other neighbours as
+ * a spectator at its sweet spot) less the same design without noise, Clove-17 D4-Z3 (2
+ * spectators), D5-X2 (3), D1-X3 (1) in turn; one call designs both.
+ */
+const budgetCases = [['D4', 'Z3'], ['D5', 'X2'], ['D1', 'X3']].map(([m, p]) => {
+  const mover = q(clove, m);
+  const partner = q(clove, p);
+  const others = clove.couplings.filter((c) => c.a === m || c.b === m).map((c) => (c.a === m ? c.b : c.a)).filter((x) => x !== p);
+  return {
+    req: { mover, partner, gGHz: g(clove, m, p), moverParkFlux: 0, partnerFlux: partner.fluxForF01(Math.min(5.0, partner.f01(0) - 0.05)), crossing: '11-20' as const, rules: clove.rules },
+    spectators: others.map((x) => ({ transmon: q(clove, x), coupledTo: 'mover' as const, gGHz: g(clove, m, x), flux: 0 })),
+  };
+});
+let kb = 0;
+const added: number[] = [];
+
+export const wholeGateBudget: Benchmark = {
+  name: 'whole error budget of one designed gate: design with budget (estimate, flux noise, 1-3 spectators) less the design alone (Clove-17 D4-Z3/D5-X2/D1-X3 in turn; time is both designs)',
+  runs: 9,
+  warmup: 3,
+  run: () => {
+    const c = budgetCases[kb++ % budgetCases.length];
+    const t0 = performance.now();
+    designCzGate({ ...c.req, noise: false });
+    const t1 = performance.now();
+    designCzGate({ ...c.req, noise: true, decoherence: 'estimate', budgetSpectators: c.spectators });
+    added.push(performance.now() - 2 * t1 + t0);
+  },
+  report: () => {
+    const s = added.slice(-9).sort((a, b) => a - b);
+    return `budget adds: median ${s[s.length >> 1].toFixed(0)} ms, min ${s[0].toFixed(0)} ms (target < 100 ms)`;
+  },
 };
 
 export const fastEstimate: Benchmark = {

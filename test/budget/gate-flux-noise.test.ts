@@ -7,13 +7,15 @@
  *    within 10 % (the issue's acceptance; measured 0.04 % on the plan's Q0-Q1 gate);
  *  - a 9-node rule and a joint two-dimensional rule over both offsets (the per-transmon sum is
  *    exact for an error quadratic in the offsets; the cross term averages out) within 1 %;
- *  - the full propagation scheme (the average uses the in-block one) within 1 %;
+ *  - the full propagation scheme (the average uses the in-block one) within 1 %, and the budget's
+ *    in-block propagation with short ramp segments joined (FLUX_NOISE_PROPAGATION) within 1 %;
  *  - the second-order law: the excess grows as sigma^2 (within 2 % for sigma doubled).
  */
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
 import { gateFluxNoise, shiftTrajectory } from '../../src/budget/gate-flux-noise.js';
 import { gaussHermiteRule } from '../../src/budget/gauss-hermite.js';
+import { FLUX_NOISE_PROPAGATION } from '../../src/budget/waveform-budget.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate } from '../../src/sim/simulate-gate.js';
@@ -84,6 +86,13 @@ describe('gateFluxNoise on a designed Bowline-5 gate', () => {
   it('the in-block propagation gives the full scheme\'s excess within 1 %', () => {
     const full = gateFluxNoise({ ...input, propagation: { scheme: 'blocks' } });
     expect(Math.abs(full.total - three.total) / full.total).toBeLessThan(0.01);
+  });
+
+  it('the budget\'s propagation (FLUX_NOISE_PROPAGATION: in-block, short ramp segments joined) gives the per-segment excess within 1 %', () => {
+    expect(FLUX_NOISE_PROPAGATION.joinRamps).toBe(true);
+    const joined = gateFluxNoise({ ...input, propagation: FLUX_NOISE_PROPAGATION });
+    expect(Math.abs(joined.mover - three.mover) / three.mover).toBeLessThan(0.01);
+    expect(Math.abs(joined.partner - three.partner) / three.partner).toBeLessThan(0.01);
   });
 
   it('grows as sigma^2 (second order in the offsets) within 2 %', () => {
