@@ -90,6 +90,14 @@ export interface EdgeContext {
   blockers: IdleBlockers;
   /** Exact states at parking (every qubit). */
   states: readonly ExactQubitState[];
+  /**
+   * Plan for feasibility (the repair's trials, whose plans are made again in full after every
+   * move): each option tries the nearest clearing points first and ranks points by estimated
+   * error only when those leave problems. The plan is feasible exactly when the full plan is, and
+   * an option that stays infeasible keeps the same problems; a feasible option's spectator points
+   * and estimated error may differ from the full plan's.
+   */
+  feasibilityOnly?: boolean;
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -241,17 +249,24 @@ function evaluateOption(
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
   // and the result with fewer problems kept.
-  let resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
-  if (resolved.evaluation.findings.length > 0) {
-    const nearestInfo: ParkedSpectator[] = [];
-    const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
-    const nearest = parkSpectators(ec, nearestScenario, nearestInfo);
-    if (nearest.evaluation.findings.length < resolved.evaluation.findings.length) {
-      resolved = nearest;
-      parkedInfo.splice(0, parkedInfo.length, ...nearestInfo);
-      parked.clear();
-      for (const [q, d] of nearestScenario.parked) parked.set(q, d);
-    }
+  // (ec.feasibilityOnly: the nearest points first; the ranked points only when those leave
+  // problems, kept as the full plan keeps them: unless the nearest give strictly fewer)
+  let resolved: ReturnType<typeof parkSpectators>;
+  const nearestInfo: ParkedSpectator[] = [];
+  const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
+  let nearest: ReturnType<typeof parkSpectators> | null = null;
+  if (ec.feasibilityOnly) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+  if (nearest && nearest.evaluation.findings.length === 0) resolved = nearest;
+  else {
+    resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
+    if (resolved.evaluation.findings.length > 0 && !nearest) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+    if (nearest && nearest.evaluation.findings.length >= resolved.evaluation.findings.length) nearest = null;
+  }
+  if (nearest) {
+    resolved = nearest;
+    parkedInfo.splice(0, parkedInfo.length, ...nearestInfo);
+    parked.clear();
+    for (const [q, d] of nearestScenario.parked) parked.set(q, d);
   }
   const ev = resolved.evaluation;
   const unmovable = resolved.unmovable;

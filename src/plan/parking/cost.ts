@@ -95,11 +95,15 @@ export class ParkingCost {
     let margin = 0;
     const st = table.at(f, this.si);
     const sigma = Math.max(1e-4, Math.abs(st.df01dEj * st.ejRatio * ctx.transmons[i].ejsGHz) * ctx.rules.resistanceSpread);
+    let budgetBreak = 0;
     for (const b of blockers) {
-      if (f > b.lo && f < b.hi) violation += 1 + Math.min(f - b.lo, b.hi - f) / Math.max(b.hi - b.lo, 1e-6);
-      else margin += Math.exp(-(f <= b.lo ? b.lo - f : f - b.hi) / sigma);
+      if (f > b.lo && f < b.hi) {
+        const depth = 1 + Math.min(f - b.lo, b.hi - f) / Math.max(b.hi - b.lo, 1e-6);
+        if (b.rule === 'idle-error') budgetBreak += depth;
+        else violation += depth;
+      } else margin += Math.exp(-(f <= b.lo ? b.lo - f : f - b.hi) / sigma);
     }
-    let soft = w.margin * margin;
+    let soft = w.margin * margin + IDLE_ERROR_BREAK * budgetBreak;
     const below = table.fMaxGHz - f;
     soft += w.band * below * below;
     soft += w.dephasing * this.idleError(i, f, table.fluxSlopeOf(st));
@@ -242,6 +246,14 @@ export class ParkingCost {
     return est.t1 + est.whiteDephasing + est.fluxNoise;
   }
 }
+
+/**
+ * Cost of parking inside a band where the qubit's own idle error breaks idleErrorLimit (per
+ * band, times 1 + depth / width, as a collision rule's violation): a budget rule, ranked below
+ * every collision rule (violationPenalty) and an unreachable gate (1), above the kept-parking
+ * penalty (0.5) and the differences of the soft cost between allowed points (below 0.1).
+ */
+export const IDLE_ERROR_BREAK = 0.6;
 
 /** Lifetime assumed for a listed defect in the tls term (ns; our assumption, see the banner). */
 export const TLS_LIFETIME_NS = 1000;
