@@ -50,7 +50,7 @@ import { estimateGateBudget } from '../../budget/gate-estimate.js';
 import { H_OVER_KB_K_PER_GHZ, zzIdleError } from '../../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../../transmon/coherence.js';
 import { shortestGateNs } from '../rules/cz-duration.js';
-import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
+import { admixtureSum } from '../rules/spectator-admixture.js';
 import type { Blocker, FrequencyView } from '../rules/idle-blockers.js';
 
 export interface CostParts {
@@ -125,7 +125,7 @@ export class ParkingCost {
       soft += w.gate * gate;
     }
     // (a point that breaks a rule is ranked by its violation; the spectator term only orders the clean ones)
-    if (violation === 0) soft += w.gate * SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, view, cached);
+    if (violation === 0) soft += w.gate * PARKING_SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, view, cached);
     for (const d of ctx.qubits[i].tls) {
       const g = d.widthGHz / 2;
       const delta = Math.max(Math.abs(f - d.atGHz), d.widthGHz);
@@ -246,6 +246,18 @@ export class ParkingCost {
     return est.t1 + est.whiteDephasing + est.fluxNoise;
   }
 }
+
+/**
+ * Estimated error per unit of summed admixture in the parking's spectator term: 0.15, near the low
+ * end of what the three-transmon simulations of the demos give (0.14-1.0 times the admixture;
+ * the plan's gate estimates use 0.5, SPECTATOR_ERROR_PER_ADMIXTURE). The parking cannot tell
+ * which spectators the interaction stage will move out of the way (they then cost their move, not
+ * their admixture), and at 0.5 the term pushed low-group qubits off their sweet spots and into
+ * sweeps that no spectator move could clear: on the generated 10 x 10 chip 56 of 180 edges had no
+ * clean option before the repair (none at 0.15), on the 16 x 16 chip 162 collision-rule breaks
+ * remained (28 at 0.15), with a higher predicted cycle error on both.
+ */
+export const PARKING_SPECTATOR_ERROR_PER_ADMIXTURE = 0.15;
 
 /**
  * Cost of parking inside a band where the qubit's own idle error breaks idleErrorLimit (per
