@@ -50,7 +50,7 @@ import { estimateGateBudget } from '../../budget/gate-estimate.js';
 import { H_OVER_KB_K_PER_GHZ, zzIdleError } from '../../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../../transmon/coherence.js';
 import { shortestGateNs } from '../rules/cz-duration.js';
-import { admixtureSum } from '../rules/spectator-admixture.js';
+import { admixtureSumOf } from '../rules/spectator-admixture.js';
 import type { Blocker, FrequencyView } from '../rules/idle-blockers.js';
 
 export interface CostParts {
@@ -67,6 +67,9 @@ export class ParkingCost {
   private readonly higher = new Map<number, number>();
   /** Per-visit cache of the spectator term's parts that do not depend on the visited qubit's frequency. */
   private readonly spectatorVisit = new Map<number, number>();
+  /** Per-visit cache of a neighbour j's 11-20 crossing with its neighbour k and j's table state there (key j * n + k; null: no crossing). */
+  private readonly crossingVisit = new Map<number, { fInt: number; state: TableState } | null>();
+  private readonly se = emptyTableState();
   /** Whether the last gateCost came from the higher qubit's 11-20 crossing (which depends on the lower qubit's frequency only). */
   private lastWasHigherCrossing = false;
 
@@ -77,6 +80,7 @@ export class ParkingCost {
     this.visitStamp = stamp;
     this.higher.clear();
     this.spectatorVisit.clear();
+    this.crossingVisit.clear();
   }
 
   constructor(
@@ -125,7 +129,7 @@ export class ParkingCost {
       soft += w.gate * gate;
     }
     // (a point that breaks a rule is ranked by its violation; the spectator term only orders the clean ones)
-    if (violation === 0) soft += w.gate * PARKING_SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, view, cached);
+    if (violation === 0) soft += w.gate * PARKING_SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, st, view, cached);
     for (const d of ctx.qubits[i].tls) {
       const g = d.widthGHz / 2;
       const delta = Math.max(Math.abs(f - d.atGHz), d.widthGHz);
@@ -192,11 +196,14 @@ export class ParkingCost {
    * moves out of the way cost their move instead; this term steers the parking away from needing
    * them. 11-02 gates (the lower qubit up) are left out here.
    */
-  private spectatorAdmixture(i: number, f: number, view: FrequencyView, cached: boolean): number {
+  private spectatorAdmixture(i: number, f: number, st: TableState, view: FrequencyView, cached: boolean): number {
     const ctx = this.ctx;
     let sum = 0;
     const gOf = (a: number, b: number) => ctx.edges[ctx.edgeBetween(a, b)].gChargeGHz;
-    if (!cached) this.spectatorVisit.clear();
+    if (!cached) {
+      this.spectatorVisit.clear();
+      this.crossingVisit.clear();
+    }
     for (const j of ctx.neighbours[i]) {
       if (!view.active[j]) continue;
       const fj = view.freq[j];
@@ -207,22 +214,35 @@ export class ParkingCost {
         if (c === undefined) {
           c = 0;
           const fInt = ctx.tables[i].f01ForF12(fj);
-          if (fInt !== null) for (const m of ctx.neighbours[i]) if (m !== j && view.active[m]) c += admixtureSum(ctx, i, fInt, m, view.freq[m], gOf(i, m), true);
+          if (fInt !== null) {
+            const e = ctx.tables[i].at(fInt, this.se);
+            for (const m of ctx.neighbours[i]) if (m !== j && view.active[m]) c += admixtureSumOf(e, fInt, view.states[m], view.freq[m], gOf(i, m), true);
+          }
           this.spectatorVisit.set(key, c);
         }
         sum += c;
       } else {
         // j moves to its 11-20 crossing with i at f; its other neighbours are the spectators
         const fInt = ctx.tables[j].f01ForF12(f);
-        if (fInt !== null) for (const m of ctx.neighbours[j]) if (m !== i && view.active[m]) sum += admixtureSum(ctx, j, fInt, m, view.freq[m], gOf(j, m), true);
+        if (fInt !== null) {
+          const e = ctx.tables[j].at(fInt, this.se);
+          for (const m of ctx.neighbours[j]) if (m !== i && view.active[m]) sum += admixtureSumOf(e, fInt, view.states[m], view.freq[m], gOf(j, m), true);
+        }
       }
       // the gates of j with its other neighbours k (j the higher), i a spectator where it parks
+      // (j's crossing and its state there depend on f_k only: remembered for the visit)
       for (const k of ctx.neighbours[j]) {
         if (k === i || !view.active[k]) continue;
         const fk = view.freq[k];
         if (fj < fk) continue;
-        const fIntJ = ctx.tables[j].f01ForF12(fk);
-        if (fIntJ !== null) sum += admixtureSum(ctx, j, fIntJ, i, f, gOf(j, i), true);
+        const key = j * ctx.n + k;
+        let x = this.crossingVisit.get(key);
+        if (x === undefined) {
+          const fIntJ = ctx.tables[j].f01ForF12(fk);
+          x = fIntJ === null ? null : { fInt: fIntJ, state: ctx.tables[j].at(fIntJ, emptyTableState()) };
+          this.crossingVisit.set(key, x);
+        }
+        if (x !== null) sum += admixtureSumOf(x.state, x.fInt, st, f, gOf(j, i), true);
       }
     }
     return sum;
