@@ -21,7 +21,8 @@
  *              destination past it (src/plan/rules/tuning-room.ts) and within the flux excursion
  *              limit (rule cz-excursion). It prefers short excursions to
  *              flat points of the spectrum.
- *   spectators the spectator part of the same gates' estimates: half the summed admixtures
+ *   spectators the spectator part of the same gates' estimates, weighed lower than the plan's
+ *              (PARKING_SPECTATOR_ERROR_PER_ADMIXTURE, 0.15, below): the summed admixtures
  *              (g_c / Delta)^2 (src/plan/rules/spectator-admixture.ts, each capped at 1) of every
  *              usual CZ whose spectators this qubit's frequency decides: its own gates against the
  *              mover's other neighbours, and its neighbours' gates with their other neighbours
@@ -38,8 +39,10 @@
  *              sigma_fab the qubit's expected frequency spread (src/plan/exact-state.ts): a
  *              tie-breaker that keeps parking points off the edges of the allowed bands.
  *
- * Being inside a blocked interval costs violationPenalty (1 + depth / width) each, so a point
- * that breaks a rule is never preferred to one that does not.
+ * Being inside a blocked interval of a collision rule costs violationPenalty (1 + depth / width)
+ * each, so a point that breaks one is never preferred to one that does not; inside the band where
+ * the qubit's own idle error breaks idleErrorLimit (a budget rule) costs IDLE_ERROR_BREAK
+ * (1 + depth / width), below every collision rule and an unreachable gate.
  */
 import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
