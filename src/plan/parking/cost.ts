@@ -86,10 +86,17 @@ export class ParkingCost {
     this.crossingVisit.clear();
   }
 
+  /** Per qubit, aligned with ctx.neighbours: the edge index and the charge coupling G of each neighbour's coupling. */
+  private readonly edgeOf: Int32Array[];
+  private readonly gOf: Float64Array[];
+
   constructor(
     private readonly ctx: PlanContext,
     private readonly options: PlanOptions,
-  ) {}
+  ) {
+    this.edgeOf = ctx.neighbours.map((ns, i) => Int32Array.from(ns, (j) => ctx.edgeBetween(i, j)));
+    this.gOf = this.edgeOf.map((es) => Float64Array.from(es, (e) => ctx.edges[e].gChargeGHz));
+  }
 
   /** Violation measure and soft cost of qubit i at f (pair terms with active neighbours included). */
   at(i: number, f: number, blockers: readonly Blocker[], view: FrequencyView, stamp = -2): CostParts {
@@ -114,9 +121,11 @@ export class ParkingCost {
     const below = table.fMaxGHz - f;
     soft += w.band * below * below;
     soft += w.dephasing * this.idleError(i, f, table.fluxSlopeOf(st));
-    for (const j of ctx.neighbours[i]) {
+    const ni = ctx.neighbours[i];
+    for (let q = 0; q < ni.length; q++) {
+      const j = ni[q];
       if (!view.active[j]) continue;
-      const e = ctx.edgeBetween(i, j);
+      const e = this.edgeOf[i][q];
       const edge = ctx.edges[e];
       const z = view.zzScale[e] * secondOrderZz(st, view.states[j], edge.gChargeGHz);
       soft += w.zz * Math.min(1, zzIdleError(z, T));
@@ -202,12 +211,14 @@ export class ParkingCost {
   private spectatorAdmixture(i: number, f: number, st: TableState, view: FrequencyView, cached: boolean): number {
     const ctx = this.ctx;
     let sum = 0;
-    const gOf = (a: number, b: number) => ctx.edges[ctx.edgeBetween(a, b)].gChargeGHz;
+    const g = this.gOf;
     if (!cached) {
       this.spectatorVisit.clear();
       this.crossingVisit.clear();
     }
-    for (const j of ctx.neighbours[i]) {
+    const ni = ctx.neighbours[i];
+    for (let q = 0; q < ni.length; q++) {
+      const j = ni[q];
       if (!view.active[j]) continue;
       const fj = view.freq[j];
       if (f >= fj) {
@@ -219,7 +230,10 @@ export class ParkingCost {
           const fInt = ctx.tables[i].f01ForF12(fj);
           if (fInt !== null) {
             const e = ctx.tables[i].at(fInt, this.se);
-            for (const m of ctx.neighbours[i]) if (m !== j && view.active[m]) c += admixtureSumOf(e, fInt, view.states[m], view.freq[m], gOf(i, m), true);
+            for (let p = 0; p < ni.length; p++) {
+              const m = ni[p];
+              if (m !== j && view.active[m]) c += admixtureSumOf(e, fInt, view.states[m], view.freq[m], g[i][p], true);
+            }
           }
           this.spectatorVisit.set(key, c);
         }
@@ -229,7 +243,11 @@ export class ParkingCost {
         const fInt = ctx.tables[j].f01ForF12(f);
         if (fInt !== null) {
           const e = ctx.tables[j].at(fInt, this.se);
-          for (const m of ctx.neighbours[j]) if (m !== i && view.active[m]) sum += admixtureSumOf(e, fInt, view.states[m], view.freq[m], gOf(j, m), true);
+          const nj = ctx.neighbours[j];
+          for (let p = 0; p < nj.length; p++) {
+            const m = nj[p];
+            if (m !== i && view.active[m]) sum += admixtureSumOf(e, fInt, view.states[m], view.freq[m], g[j][p], true);
+          }
         }
       }
       // the gates of j with its other neighbours k (j the higher), i a spectator where it parks
@@ -245,7 +263,7 @@ export class ParkingCost {
           x = fIntJ === null ? null : { fInt: fIntJ, state: ctx.tables[j].at(fIntJ, emptyTableState()) };
           this.crossingVisit.set(key, x);
         }
-        if (x !== null) sum += admixtureSumOf(x.state, x.fInt, st, f, gOf(j, i), true);
+        if (x !== null) sum += admixtureSumOf(x.state, x.fInt, st, f, g[i][q], true);
       }
     }
     return sum;
