@@ -34,7 +34,7 @@ describe('plan of the generated 10 x 10 square chip (seed 1), no pulse design', 
 
   it('the parking leaves few edges to the gate-aware repair (at most 10 % of the edges tried)', () => {
     // at the plan's full spectator weight (0.5 per admixture) 56 of the 180 edges had no clean
-    // option before the repair and the repair tried 56 moves; see src/plan/parking/cost.ts
+    // option before the repair and the repair spent its whole budget, 89 trials; see src/plan/parking/cost.ts
     expect(plan.parking.stats.repairTrials ?? 0).toBeLessThanOrEqual(18);
   });
 });

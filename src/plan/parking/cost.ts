@@ -295,7 +295,7 @@ export class ParkingCost {
  * which spectators the interaction stage will move out of the way (they then cost their move, not
  * their admixture), and at 0.5 the term pushed low-group qubits off their sweet spots and into
  * sweeps that no spectator move could clear: on the generated 10 x 10 chip 56 of 180 edges had no
- * clean option before the repair (none at 0.15), on the 16 x 16 chip 162 collision-rule breaks
+ * clean option before the repair (9 at 0.15), on the 16 x 16 chip 162 collision-rule breaks
  * remained (28 at 0.15), with a higher predicted cycle error on both.
  */
 export const PARKING_SPECTATOR_ERROR_PER_ADMIXTURE = 0.15;
