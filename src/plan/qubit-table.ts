@@ -287,11 +287,23 @@ export class QubitTable {
     const m = this.m;
     const w = this.w12;
     if (f12GHz < w[0] - 1e-12 || f12GHz > w[m - 1] + 1e-12) return null;
+    // the last few answers are remembered (the planner asks again for the same neighbours)
+    const memo = this.f12MemoIn;
+    for (let k = 0; k < LOCATE_MEMO; k++) if (memo[k] === f12GHz) return this.f12MemoOut[k];
     const { cell, t } = invertCell(w, this.dw12, this.h, f12GHz);
     const v = this.v;
     const dv = this.dv;
-    return hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, t);
+    const out = hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, t);
+    const k = this.f12MemoNext;
+    this.f12MemoNext = (k + 1) % LOCATE_MEMO;
+    memo[k] = f12GHz;
+    this.f12MemoOut[k] = out;
+    return out;
   }
+
+  private readonly f12MemoIn = new Float64Array(LOCATE_MEMO).fill(NaN);
+  private readonly f12MemoOut = new Float64Array(LOCATE_MEMO);
+  private f12MemoNext = 0;
 
   /**
    * The f01 at which E_level - E_0 - (minusF01 ? f01 : 0) equals `targetGHz` (level 2..5), or null

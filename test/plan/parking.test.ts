@@ -12,6 +12,7 @@ import { assignParking } from '../../src/plan/parking/assign.js';
 import { planOptions } from '../../src/plan/options.js';
 import { handChip } from '../support/plan-chips.js';
 import { qubitIdleError } from '../../src/budget/idle-error.js';
+import { IDLE_ERROR_BREAK } from '../../src/plan/parking/cost.js';
 
 const LINE = handChip(
   'line3',
@@ -69,6 +70,25 @@ describe('assignParking on a three-qubit line', () => {
     // within what the cost changes over one scan step around the answer (the scan's resolution)
     const step = Math.max(...[-0.001, 0.001].map((d) => Math.abs(st.costAt(1, f2 + d, blockers).soft - here.soft)));
     expect(here.soft).toBeLessThanOrEqual(best + step + 1e-9);
+  });
+
+  it('ranks a point where its own idle error breaks idleErrorLimit (a budget rule) below every collision rule: no violation, a cost between the soft terms and an unreachable gate', () => {
+    const st = r.state;
+    const blockers = st.blockersOf(1).map((b) => ({ ...b }));
+    const inside = (f: number, rule: string) => blockers.some((b) => b.rule === rule && f > b.lo && f < b.hi);
+    // 4.5 GHz: inside the idle-error band (its idle error there is checked against the limit in the
+    // test above), clear of ZZ; 5.5 GHz: the exact ZZ breaks the limit (test above)
+    expect(inside(4.5, 'idle-error')).toBe(true);
+    expect(inside(4.5, 'zz')).toBe(false);
+    expect(inside(5.5, 'zz')).toBe(true);
+    const budgetBreak = st.costAt(1, 4.5, blockers);
+    const collision = st.costAt(1, 5.5, blockers);
+    const clean = st.costAt(1, f2, blockers);
+    expect(budgetBreak.violation).toBe(0);
+    expect(budgetBreak.soft).toBeGreaterThanOrEqual(IDLE_ERROR_BREAK + clean.soft - 0.1);
+    expect(budgetBreak.soft).toBeLessThan(planOptions().search.violationPenalty);
+    expect(collision.violation).toBeGreaterThanOrEqual(planOptions().search.violationPenalty);
+    expect(IDLE_ERROR_BREAK).toBeLessThan(1);
   });
 
   it('gives the same assignment for the same seed, bit for bit', () => {

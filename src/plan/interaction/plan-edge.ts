@@ -90,6 +90,14 @@ export interface EdgeContext {
   blockers: IdleBlockers;
   /** Exact states at parking (every qubit). */
   states: readonly ExactQubitState[];
+  /**
+   * Plan for feasibility (the repair's trials, whose plans are made again in full after every
+   * move): each option tries the nearest clearing points first and ranks points by estimated
+   * error only when those leave problems. The plan is feasible exactly when the full plan is, and
+   * an option that stays infeasible keeps the same problems; a feasible option's spectator points
+   * and estimated error may differ from the full plan's.
+   */
+  feasibilityOnly?: boolean;
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -99,12 +107,17 @@ export function rampLadder(options: PlanOptions): number[] {
   return [options.rampNs, ...[10, 7.5, 5].filter((r) => r < options.rampNs && r >= options.minRampNs)];
 }
 
-/** Plan an edge, falling back to faster ramps when no option is clean at the planning ramp. */
-export function planEdge(ec: EdgeContext, edge: number): EdgePlan {
+/**
+ * Plan an edge, falling back to faster ramps when no option is clean at the planning ramp. With
+ * ec.feasibilityOnly, `tryFirst` (the option an earlier plan of the edge chose) is evaluated
+ * first and the first clean option ends the ramp's search (the verdict is the same; only a
+ * feasible plan's choice may differ from the full plan's).
+ */
+export function planEdge(ec: EdgeContext, edge: number, tryFirst?: { mover: number; crossing: Crossing }): EdgePlan {
   let best: EdgePlan | undefined;
   for (const ramp of rampLadder(ec.options)) {
     if (best && !fasterRampMayHelp(ec, best, ramp)) break;
-    const plan = planEdgeAtRamp(ec, edge, ramp);
+    const plan = planEdgeAtRamp(ec, edge, ramp, tryFirst);
     if (!best || (plan.feasible && !best.feasible)) best = plan;
     if (plan.feasible) break;
   }
@@ -131,20 +144,33 @@ function fasterRampMayHelp(ec: EdgeContext, plan: EdgePlan, ramp: number): boole
   );
 }
 
-export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number): EdgePlan {
+export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tryFirst?: { mover: number; crossing: Crossing }): EdgePlan {
   const { ctx } = ec;
   const e = ctx.edges[edge];
   const reports: OptionReport[] = [];
   const built: { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number }[] = [];
-  for (const mover of [e.a, e.b]) {
-    const partner = mover === e.a ? e.b : e.a;
-    const res = crossingsOf(ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz);
-    for (const crossing of ['11-20', '11-02'] as const) {
-      const built1 = evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs);
-      reports.push(built1.report);
-      built.push(built1);
-    }
+  let options: { mover: number; crossing: Crossing }[] = [
+    { mover: e.a, crossing: '11-20' }, { mover: e.a, crossing: '11-02' }, { mover: e.b, crossing: '11-20' }, { mover: e.b, crossing: '11-02' },
+  ];
+  const quick = ec.feasibilityOnly === true;
+  if (quick && tryFirst) {
+    const k = options.findIndex((o) => o.mover === tryFirst.mover && o.crossing === tryFirst.crossing);
+    if (k > 0) options = [options[k], ...options.slice(0, k), ...options.slice(k + 1)];
   }
+  const crossings = new Map<number, ReturnType<typeof crossingsOf>>();
+  for (const { mover, crossing } of options) {
+    const partner = mover === e.a ? e.b : e.a;
+    let res = crossings.get(mover);
+    if (!res) crossings.set(mover, (res = crossingsOf(ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz)));
+    built.push(evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs));
+    if (quick && built[built.length - 1].report.feasible) break;
+  }
+  // (no clean option: every option was evaluated; back in the usual order, so the choice below is the full plan's)
+  if (quick && built.length === 4) {
+    const canonical = (o: { report: OptionReport }) => (o.report.mover === e.a ? 0 : 2) + (o.report.crossing === '11-20' ? 0 : 1);
+    built.sort((x, y) => canonical(x) - canonical(y));
+  }
+  for (const b of built) reports.push(b.report);
   // Choose: feasible by score; else fewest problems, then score. When re-planning, an option
   // kept from the earlier plan (options.keep.edgeOptions) goes before others of the same standing.
   const kept = ec.options.keep?.edgeOptions?.[e.key];
@@ -241,17 +267,24 @@ function evaluateOption(
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
   // and the result with fewer problems kept.
-  let resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
-  if (resolved.evaluation.findings.length > 0) {
-    const nearestInfo: ParkedSpectator[] = [];
-    const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
-    const nearest = parkSpectators(ec, nearestScenario, nearestInfo);
-    if (nearest.evaluation.findings.length < resolved.evaluation.findings.length) {
-      resolved = nearest;
-      parkedInfo.splice(0, parkedInfo.length, ...nearestInfo);
-      parked.clear();
-      for (const [q, d] of nearestScenario.parked) parked.set(q, d);
-    }
+  // (ec.feasibilityOnly: the nearest points first; the ranked points only when those leave
+  // problems, kept as the full plan keeps them: unless the nearest give strictly fewer)
+  let resolved: ReturnType<typeof parkSpectators>;
+  const nearestInfo: ParkedSpectator[] = [];
+  const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
+  let nearest: ReturnType<typeof parkSpectators> | null = null;
+  if (ec.feasibilityOnly) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+  if (nearest && nearest.evaluation.findings.length === 0) resolved = nearest;
+  else {
+    resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
+    if (resolved.evaluation.findings.length > 0 && !nearest) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+    if (nearest && nearest.evaluation.findings.length >= resolved.evaluation.findings.length) nearest = null;
+  }
+  if (nearest) {
+    resolved = nearest;
+    parkedInfo.splice(0, parkedInfo.length, ...nearestInfo);
+    parked.clear();
+    for (const [q, d] of nearestScenario.parked) parked.set(q, d);
   }
   const ev = resolved.evaluation;
   const unmovable = resolved.unmovable;

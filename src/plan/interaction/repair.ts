@@ -102,7 +102,9 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
       return false;
     }
   }
-  const first = planEdge(ec, edge);
+  // trials plan for feasibility (the same verdicts as in full); the caller plans every touched edge again in full
+  const quick: EdgeContext = { ...ec, feasibilityOnly: true };
+  const first = planEdge(quick, edge, plans[edge]);
   if (!first.feasible) {
     undo();
     return false;
@@ -114,7 +116,7 @@ function tryMove(ec: EdgeContext, state: ParkingState, states: ExactQubitState[]
   const replanned: EdgePlan[] = [];
   let after = 0;
   for (const k of affected) {
-    const p = planEdge(ec, k);
+    const p = planEdge(quick, k, plans[k]);
     replanned.push(p);
     if (!p.feasible && ++after > before) {
       undo();

@@ -21,7 +21,8 @@
  *              destination past it (src/plan/rules/tuning-room.ts) and within the flux excursion
  *              limit (rule cz-excursion). It prefers short excursions to
  *              flat points of the spectrum.
- *   spectators the spectator part of the same gates' estimates: half the summed admixtures
+ *   spectators the spectator part of the same gates' estimates, weighed lower than the plan's
+ *              (PARKING_SPECTATOR_ERROR_PER_ADMIXTURE, 0.15, below): the summed admixtures
  *              (g_c / Delta)^2 (src/plan/rules/spectator-admixture.ts, each capped at 1) of every
  *              usual CZ whose spectators this qubit's frequency decides: its own gates against the
  *              mover's other neighbours, and its neighbours' gates with their other neighbours
@@ -38,8 +39,10 @@
  *              sigma_fab the qubit's expected frequency spread (src/plan/exact-state.ts): a
  *              tie-breaker that keeps parking points off the edges of the allowed bands.
  *
- * Being inside a blocked interval costs violationPenalty (1 + depth / width) each, so a point
- * that breaks a rule is never preferred to one that does not.
+ * Being inside a blocked interval of a collision rule costs violationPenalty (1 + depth / width)
+ * each, so a point that breaks one is never preferred to one that does not; inside the band where
+ * the qubit's own idle error breaks idleErrorLimit (a budget rule) costs IDLE_ERROR_BREAK
+ * (1 + depth / width), below every collision rule and an unreachable gate.
  */
 import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
@@ -50,7 +53,7 @@ import { estimateGateBudget } from '../../budget/gate-estimate.js';
 import { H_OVER_KB_K_PER_GHZ, zzIdleError } from '../../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../../transmon/coherence.js';
 import { shortestGateNs } from '../rules/cz-duration.js';
-import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
+import { admixtureSumOf } from '../rules/spectator-admixture.js';
 import type { Blocker, FrequencyView } from '../rules/idle-blockers.js';
 
 export interface CostParts {
@@ -67,6 +70,9 @@ export class ParkingCost {
   private readonly higher = new Map<number, number>();
   /** Per-visit cache of the spectator term's parts that do not depend on the visited qubit's frequency. */
   private readonly spectatorVisit = new Map<number, number>();
+  /** Per-visit cache of a neighbour j's 11-20 crossing with its neighbour k and j's table state there (key j * n + k; null: no crossing). */
+  private readonly crossingVisit = new Map<number, { fInt: number; state: TableState } | null>();
+  private readonly se = emptyTableState();
   /** Whether the last gateCost came from the higher qubit's 11-20 crossing (which depends on the lower qubit's frequency only). */
   private lastWasHigherCrossing = false;
 
@@ -77,12 +83,20 @@ export class ParkingCost {
     this.visitStamp = stamp;
     this.higher.clear();
     this.spectatorVisit.clear();
+    this.crossingVisit.clear();
   }
+
+  /** Per qubit, aligned with ctx.neighbours: the edge index and the charge coupling G of each neighbour's coupling. */
+  private readonly edgeOf: Int32Array[];
+  private readonly gOf: Float64Array[];
 
   constructor(
     private readonly ctx: PlanContext,
     private readonly options: PlanOptions,
-  ) {}
+  ) {
+    this.edgeOf = ctx.neighbours.map((ns, i) => Int32Array.from(ns, (j) => ctx.edgeBetween(i, j)));
+    this.gOf = this.edgeOf.map((es) => Float64Array.from(es, (e) => ctx.edges[e].gChargeGHz));
+  }
 
   /** Violation measure and soft cost of qubit i at f (pair terms with active neighbours included). */
   at(i: number, f: number, blockers: readonly Blocker[], view: FrequencyView, stamp = -2): CostParts {
@@ -95,17 +109,23 @@ export class ParkingCost {
     let margin = 0;
     const st = table.at(f, this.si);
     const sigma = Math.max(1e-4, Math.abs(st.df01dEj * st.ejRatio * ctx.transmons[i].ejsGHz) * ctx.rules.resistanceSpread);
+    let budgetBreak = 0;
     for (const b of blockers) {
-      if (f > b.lo && f < b.hi) violation += 1 + Math.min(f - b.lo, b.hi - f) / Math.max(b.hi - b.lo, 1e-6);
-      else margin += Math.exp(-(f <= b.lo ? b.lo - f : f - b.hi) / sigma);
+      if (f > b.lo && f < b.hi) {
+        const depth = 1 + Math.min(f - b.lo, b.hi - f) / Math.max(b.hi - b.lo, 1e-6);
+        if (b.rule === 'idle-error') budgetBreak += depth;
+        else violation += depth;
+      } else margin += Math.exp(-(f <= b.lo ? b.lo - f : f - b.hi) / sigma);
     }
-    let soft = w.margin * margin;
+    let soft = w.margin * margin + IDLE_ERROR_BREAK * budgetBreak;
     const below = table.fMaxGHz - f;
     soft += w.band * below * below;
     soft += w.dephasing * this.idleError(i, f, table.fluxSlopeOf(st));
-    for (const j of ctx.neighbours[i]) {
+    const ni = ctx.neighbours[i];
+    for (let q = 0; q < ni.length; q++) {
+      const j = ni[q];
       if (!view.active[j]) continue;
-      const e = ctx.edgeBetween(i, j);
+      const e = this.edgeOf[i][q];
       const edge = ctx.edges[e];
       const z = view.zzScale[e] * secondOrderZz(st, view.states[j], edge.gChargeGHz);
       soft += w.zz * Math.min(1, zzIdleError(z, T));
@@ -121,7 +141,7 @@ export class ParkingCost {
       soft += w.gate * gate;
     }
     // (a point that breaks a rule is ranked by its violation; the spectator term only orders the clean ones)
-    if (violation === 0) soft += w.gate * SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, view, cached);
+    if (violation === 0) soft += w.gate * PARKING_SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, st, view, cached);
     for (const d of ctx.qubits[i].tls) {
       const g = d.widthGHz / 2;
       const delta = Math.max(Math.abs(f - d.atGHz), d.widthGHz);
@@ -188,12 +208,17 @@ export class ParkingCost {
    * moves out of the way cost their move instead; this term steers the parking away from needing
    * them. 11-02 gates (the lower qubit up) are left out here.
    */
-  private spectatorAdmixture(i: number, f: number, view: FrequencyView, cached: boolean): number {
+  private spectatorAdmixture(i: number, f: number, st: TableState, view: FrequencyView, cached: boolean): number {
     const ctx = this.ctx;
     let sum = 0;
-    const gOf = (a: number, b: number) => ctx.edges[ctx.edgeBetween(a, b)].gChargeGHz;
-    if (!cached) this.spectatorVisit.clear();
-    for (const j of ctx.neighbours[i]) {
+    const g = this.gOf;
+    if (!cached) {
+      this.spectatorVisit.clear();
+      this.crossingVisit.clear();
+    }
+    const ni = ctx.neighbours[i];
+    for (let q = 0; q < ni.length; q++) {
+      const j = ni[q];
       if (!view.active[j]) continue;
       const fj = view.freq[j];
       if (f >= fj) {
@@ -203,22 +228,42 @@ export class ParkingCost {
         if (c === undefined) {
           c = 0;
           const fInt = ctx.tables[i].f01ForF12(fj);
-          if (fInt !== null) for (const m of ctx.neighbours[i]) if (m !== j && view.active[m]) c += admixtureSum(ctx, i, fInt, m, view.freq[m], gOf(i, m), true);
+          if (fInt !== null) {
+            const e = ctx.tables[i].at(fInt, this.se);
+            for (let p = 0; p < ni.length; p++) {
+              const m = ni[p];
+              if (m !== j && view.active[m]) c += admixtureSumOf(e, fInt, view.states[m], view.freq[m], g[i][p], true);
+            }
+          }
           this.spectatorVisit.set(key, c);
         }
         sum += c;
       } else {
         // j moves to its 11-20 crossing with i at f; its other neighbours are the spectators
         const fInt = ctx.tables[j].f01ForF12(f);
-        if (fInt !== null) for (const m of ctx.neighbours[j]) if (m !== i && view.active[m]) sum += admixtureSum(ctx, j, fInt, m, view.freq[m], gOf(j, m), true);
+        if (fInt !== null) {
+          const e = ctx.tables[j].at(fInt, this.se);
+          const nj = ctx.neighbours[j];
+          for (let p = 0; p < nj.length; p++) {
+            const m = nj[p];
+            if (m !== i && view.active[m]) sum += admixtureSumOf(e, fInt, view.states[m], view.freq[m], g[j][p], true);
+          }
+        }
       }
       // the gates of j with its other neighbours k (j the higher), i a spectator where it parks
+      // (j's crossing and its state there depend on f_k only: remembered for the visit)
       for (const k of ctx.neighbours[j]) {
         if (k === i || !view.active[k]) continue;
         const fk = view.freq[k];
         if (fj < fk) continue;
-        const fIntJ = ctx.tables[j].f01ForF12(fk);
-        if (fIntJ !== null) sum += admixtureSum(ctx, j, fIntJ, i, f, gOf(j, i), true);
+        const key = j * ctx.n + k;
+        let x = this.crossingVisit.get(key);
+        if (x === undefined) {
+          const fIntJ = ctx.tables[j].f01ForF12(fk);
+          x = fIntJ === null ? null : { fInt: fIntJ, state: ctx.tables[j].at(fIntJ, emptyTableState()) };
+          this.crossingVisit.set(key, x);
+        }
+        if (x !== null) sum += admixtureSumOf(x.state, x.fInt, st, f, g[i][q], true);
       }
     }
     return sum;
@@ -242,6 +287,26 @@ export class ParkingCost {
     return est.t1 + est.whiteDephasing + est.fluxNoise;
   }
 }
+
+/**
+ * Estimated error per unit of summed admixture in the parking's spectator term: 0.15, near the low
+ * end of what the three-transmon simulations of the demos give (0.14-1.0 times the admixture;
+ * the plan's gate estimates use 0.5, SPECTATOR_ERROR_PER_ADMIXTURE). The parking cannot tell
+ * which spectators the interaction stage will move out of the way (they then cost their move, not
+ * their admixture), and at 0.5 the term pushed low-group qubits off their sweet spots and into
+ * sweeps that no spectator move could clear: on the generated 10 x 10 chip 56 of 180 edges had no
+ * clean option before the repair (9 at 0.15), on the 16 x 16 chip 162 collision-rule breaks
+ * remained (28 at 0.15), with a higher predicted cycle error on both.
+ */
+export const PARKING_SPECTATOR_ERROR_PER_ADMIXTURE = 0.15;
+
+/**
+ * Cost of parking inside a band where the qubit's own idle error breaks idleErrorLimit (per
+ * band, times 1 + depth / width, as a collision rule's violation): a budget rule, ranked below
+ * every collision rule (violationPenalty) and an unreachable gate (1), above the kept-parking
+ * penalty (0.5) and the differences of the soft cost between allowed points (below 0.1).
+ */
+export const IDLE_ERROR_BREAK = 0.6;
 
 /** Lifetime assumed for a listed defect in the tls term (ns; our assumption, see the banner). */
 export const TLS_LIFETIME_NS = 1000;

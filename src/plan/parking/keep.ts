@@ -9,9 +9,10 @@
  *           search minimises (`plan MEASURED.yaml --from OLD`: the fewest changes first, then the
  *           least cost). The default penalty, 0.5 in the cost's units (an estimated error per
  *           cycle), is above any difference of the cost between allowed points we have seen
- *           (those stay below 0.1: dephasing, ZZ and margin terms) and below an unreachable gate
- *           (1) and a broken rule (violationPenalty, 1000): a kept frequency gives way to a rule
- *           or an unreachable crossing, never to a slightly cheaper point.
+ *           (those stay below 0.1: dephasing, ZZ and margin terms) and below a point in the
+ *           qubit's own idle-error band (IDLE_ERROR_BREAK, 0.6, ./cost.ts), an unreachable gate
+ *           (1) and a broken collision rule (violationPenalty, 1000): a kept frequency gives way
+ *           to a rule or an unreachable crossing, never to a slightly cheaper point.
  *
  * A kept frequency outside a qubit's domain (its window in its new planning range: a measured
  * maximum frequency below it, say) cannot be kept; that qubit is placed like any other.

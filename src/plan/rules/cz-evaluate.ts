@@ -250,11 +250,18 @@ function sweep(
     const e = ctx.edgeBetween(Q, X);
     const G = ctx.edges[e].gChargeGHz;
     const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
-    const tx = ctx.tables[X];
-    const sx = tx.at(x.f01GHz, scratchB);
-    const n01x = sx.n01;
-    const n12x = sx.n12;
+    // X's charge matrix elements at its frequency, looked up only when a crossing lies in the sweep
+    let n01x = NaN;
+    let n12x = NaN;
+    const lookX = () => {
+      if (Number.isNaN(n01x)) {
+        const sx = ctx.tables[X].at(x.f01GHz, scratchB);
+        n01x = sx.n01;
+        n12x = sx.n12;
+      }
+    };
     if (inside(x.f01GHz)) {
+      lookX();
       const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
       record('cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
     }
@@ -262,10 +269,12 @@ function sweep(
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
     const f1120 = tq.f01ForF12(x.f01GHz);
     if (!skip1120 && inside(f1120)) {
+      lookX();
       const g = G * tq.at(f1120, scratchA).n12 * n01x;
       record('cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
     }
     if (!skip1102 && inside(x.f12GHz)) {
+      lookX();
       const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
       record('cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
     }

@@ -77,8 +77,14 @@ export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: numb
  * turns it into an error estimate). The same numbers as summing admixtureChecks (tested).
  */
 export function admixtureSum(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): number {
-  const e: TableState = ctx.tables[E].at(fE, scratchE);
-  const s: TableState = ctx.tables[S].at(fS, scratchS);
+  return admixtureSumOf(ctx.tables[E].at(fE, scratchE), fE, ctx.tables[S].at(fS, scratchS), fS, gChargeGHz, withLevel2);
+}
+
+/**
+ * admixtureSum with the two table states given (E's at fE, S's at fS, as their tables return
+ * them): the parking cost keeps the states it has already looked up.
+ */
+export function admixtureSumOf(e: TableState, fE: number, s: TableState, fS: number, gChargeGHz: number, withLevel2: boolean): number {
   const term = (a: number, b: number, n1: number, n2: number): number => {
     const g = gChargeGHz * n1 * n2;
     const d = a - b;
