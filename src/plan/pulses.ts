@@ -143,9 +143,10 @@ function applyDesigns(plan: ChipPlan, designs: readonly (GateDesign | null)[], t
     if (targetPhase !== undefined) planned.targetPhase = targetPhase;
     return planned;
   });
-  // Destinations and spectator moves may have changed: layers and crowding again.
+  // Destinations and spectator moves may have changed: layers and crowding again (the layers
+  // start from the planned ones, src/plan/layer-moves.ts, where those still hold).
   const f12 = plan.states.map((s) => s.f12GHz);
-  plan.layers = planLayers(ctx, plan.edges, f12, plan.parking.parkingGHz);
+  plan.layers = planLayers(ctx, plan.edges, f12, plan.parking.parkingGHz, 1, plan.layers.layerOf);
   plan.crowding = crowding(ctx, plan.parking.parkingGHz, plan.states, calibratedZzScale(ctx, plan.parking.parkingGHz, plan.parking.idle.zzGHz), plan.edges);
   plan.budget = planBudget(plan);
   collectFindings(plan);
