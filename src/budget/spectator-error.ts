@@ -159,8 +159,8 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
  * with 3 partner levels the reduced models put the spectator's share of Reef-49's Q4-Q5 (S Q6)
  * and Q1-Q2 (S Q3) at 3.3e-4 and 6.4e-4, with 5 levels at 1.04e-4 and 2.30e-4, the values of an
  * independent NumPy simulation with a 5-level partner and a 12-state mover basis
- * (test/tools/direct_gate_error.py: 1.04e-4 and 2.30e-4). Measured 2026-12-03; see
- * test/budget/spectator-error.test.ts for the test against a NumPy three-transmon model.
+ * (test/tools/direct_gate_error.py: 1.04e-4 and 2.30e-4). Measured 2026-12-03; the test against
+ * a NumPy three-transmon model is test/budget/spectator-fallback.test.ts.
  */
 export const REDUCED_MODEL_PARTNER_LEVELS = 5;
 

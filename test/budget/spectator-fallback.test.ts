@@ -6,8 +6,9 @@
  * Against an independent NumPy model (test/reference/spectator_gate.py: charge-basis transmons,
  * the mover in 6 eigenstates at parking plus 6 at the waveform's flux extreme, partner 5 levels,
  * spectator 3, fourth-order Magnus, its own dressed states and virtual-Z phases) within 15 % of
- * the error (measured 2026-12-03 on the planned waveform: 1.037e-4 against the direct check's
- * 1.038e-4; with the partner kept to 3 levels the fallback gave 3.3e-4).
+ * the error (measured 2026-12-03: NumPy 1.038e-4; the planned waveform's share 1.037e-4 and the
+ * direct check's 1.038e-4; with the reduced models' partner kept to 3 levels this test fails,
+ * 3.28e-4 against 1.04e-4).
  */
 import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
