@@ -91,7 +91,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   const [lo, hi] = moverEjSpan(mover, traj);
   const built = spectatorFrame(input, lo, hi);
   if (!built) return admixtureFallback(input);
-  const { frame, reduced, moverLevels } = built;
+  const { frame, reduced, moverLevels, partnerLevels } = built;
   const prop = { ...SPECTATOR_PROPAGATION, ...input.propagation };
   // S in |0> and in |1> in one propagation (each step prepared once for both), |1> in |0>'s lab frame
   const [g, x] = simulateSpectatorStates(frame, traj, [[0], [1]], prop);
@@ -102,7 +102,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   let pairError = input.pairError;
   let pairLeakage = input.pairLeakage;
   if (reduced === 'mover-levels') {
-    const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
+    const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels, partnerLevels });
     const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
     pairError = 1 - alone.fidelity;
     pairLeakage = alone.leakage;
@@ -125,27 +125,44 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
  * spectator; their crossings are weak (counter-rotating terms) but sharp, and the dressed
  * manifolds are then not smooth over the mover's E_J range. The frame then keeps three manifolds,
  * then drops the mover's upper levels one by one (down to 3: |2> stays, every 11-20 and 11-02
- * type condition with the spectator stays in the model; the mover's 2-3 transition goes last).
- * `reduced` says which model was simulated.
+ * type condition with the spectator stays in the model; the mover's 2-3 transition goes last),
+ * with the partner kept to REDUCED_MODEL_PARTNER_LEVELS levels in those reduced models; where
+ * none of them converges either (the partner's upper levels bring crossings of their own), the
+ * same reduced models with the partner's own level count. `reduced` says which kind of model was
+ * simulated.
  */
-function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number): { frame: ManifoldFrame; reduced: SpectatorError['reduced']; moverLevels: number } | null {
+function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number): { frame: ManifoldFrame; reduced: SpectatorError['reduced']; moverLevels: number; partnerLevels: number } | null {
   const { mover, partner } = input;
   const full = input.levels?.moverLevels ?? SPECTATOR_LEVELS.moverLevels;
-  const modelOf = (moverLevels: number) =>
-    edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...SPECTATOR_LEVELS, ...input.levels, moverLevels });
+  const partnerFull = input.levels?.partnerLevels ?? SPECTATOR_LEVELS.partnerLevels;
+  const partnerReduced = Math.max(partnerFull, REDUCED_MODEL_PARTNER_LEVELS);
+  const modelOf = (moverLevels: number, partnerLevels: number) =>
+    edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...SPECTATOR_LEVELS, ...input.levels, moverLevels, partnerLevels });
   // In-block propagation never couples manifolds, so the manifolds above the computational
   // states' highest (3: |11> with S in |1>) are never reached and need not be in the frame.
-  const attempts: [number, number, SpectatorError['reduced']][] = inBlock(input) ? [[full, 3, 'none']] : [[full, 4, 'none'], [full, 3, 'manifolds']];
-  for (let m = full - 1; m >= 3; m--) attempts.push([m, 3, 'mover-levels']);
-  for (const [moverLevels, keepExcitations, reduced] of attempts) {
+  const attempts: [number, number, number, SpectatorError['reduced']][] = inBlock(input) ? [[full, partnerFull, 3, 'none']] : [[full, partnerFull, 4, 'none'], [full, partnerFull, 3, 'manifolds']];
+  for (let m = full - 1; m >= 3; m--) attempts.push([m, partnerReduced, 3, 'mover-levels']);
+  if (partnerReduced !== partnerFull) for (let m = full - 1; m >= 3; m--) attempts.push([m, partnerFull, 3, 'mover-levels']);
+  for (const [moverLevels, partnerLevels, keepExcitations, reduced] of attempts) {
     try {
-      return { frame: buildManifoldFrame(modelOf(moverLevels), { ejLo, ejHi, keepExcitations }), reduced, moverLevels };
+      return { frame: buildManifoldFrame(modelOf(moverLevels, partnerLevels), { ejLo, ejHi, keepExcitations }), reduced, moverLevels, partnerLevels };
     } catch (err) {
       if (!(err instanceof RangeError) || !/no convergence/.test(err.message)) throw err;
     }
   }
   return null;
 }
+
+/**
+ * Partner levels of the reduced models (fallback only; the full model keeps SPECTATOR_LEVELS'
+ * 3). On an 11-02 gate the partner's |2> is in the interaction and its |3> and |4> shift it;
+ * with 3 partner levels the reduced models put the spectator's share of Reef-49's Q4-Q5 (S Q6)
+ * and Q1-Q2 (S Q3) at 3.3e-4 and 6.4e-4, with 5 levels at 1.04e-4 and 2.30e-4, the values of an
+ * independent NumPy simulation with a 5-level partner and a 12-state mover basis
+ * (test/tools/direct_gate_error.py: 1.04e-4 and 2.30e-4). Measured 2026-12-03; the test against
+ * a NumPy three-transmon model is test/budget/spectator-fallback.test.ts.
+ */
+export const REDUCED_MODEL_PARTNER_LEVELS = 5;
 
 /** The propagation is in-block (the default, SPECTATOR_PROPAGATION): no coupling between excitation manifolds. */
 function inBlock(input: SpectatorErrorInput): boolean {

@@ -12,8 +12,9 @@ fidelity after its own best virtual-Z phases (scipy.optimize); with S in |1> the
 those phases and the S = 0 lab frame; the spectator's error is their average minus the pair's
 own infidelity (the same waveform without S, best phases).
 
-stdin:  {"mover": {"ec", "ejs", "d"}, "partner": {...}, "spectator": {...}, "gAB", "gAS",
-         "partnerFlux", "spectatorFlux", "time": [...], "flux": [...], "theta", "N", "KA", "KB", "KS", "dt"}
+stdin:  {"mover": {"ec", "ejs", "d"}, "partner": {...}, "spectator": {...}, "gAB", "gAS" (or "gBS": S on the partner),
+         "partnerFlux", "spectatorFlux", "time": [...], "flux": [...], "theta", "N", "KA", "KB", "KS", "dt",
+         optional "KAfar": that many eigenstates at the waveform's farthest mover flux added to the mover's basis}
 stdout: {"error", "leakage", "ground", "excited", "pair"}
 """
 import json
@@ -38,6 +39,26 @@ def eigenbasis(q, flux, N, K):
     return w[:K], v.T @ n @ v, v.T @ cos @ v
 
 
+def mover_basis(q, park, flux, N, KA, KAfar):
+    """K_A eigenstates at parking; with KAfar > 0 also KAfar eigenstates at the waveform's flux of
+    largest |E_J - E_J(park)|, orthonormalised (QR) and re-diagonalised with H at parking (a
+    Rayleigh-Ritz basis that follows a large excursion with few states)."""
+    if not KAfar:
+        return eigenbasis(q, park, N, KA)
+    n = np.diag(np.arange(-N, N + 1, dtype=float))
+    cos = 0.5 * (np.eye(2 * N + 1, k=1) + np.eye(2 * N + 1, k=-1))
+    far = flux[int(np.argmax(np.abs(ej(q, flux) - ej(q, park))))]
+    cols = []
+    for f, k in ((park, KA), (far, KAfar)):
+        _, v = np.linalg.eigh(4 * q["ec"] * n @ n - ej(q, f) * cos)
+        cols.append(v[:, :k])
+    Q, _ = np.linalg.qr(np.hstack(cols))
+    h = Q.T @ (4 * q["ec"] * n @ n - ej(q, park) * cos) @ Q
+    w, y = np.linalg.eigh(0.5 * (h + h.T))
+    v = Q @ y
+    return w, v.T @ n @ v, v.T @ cos @ v
+
+
 def kron(*ops):
     return reduce(np.kron, ops)
 
@@ -52,14 +73,17 @@ def run(doc, with_spectator, s_level, lab=None, vz=None):
     _, nB0, _ = eigenbasis(B, 0.0, N, 2)
     _, nS0, _ = eigenbasis(S, 0.0, N, 2)
     GAB = doc["gAB"] / (abs(nA0[0, 1]) * abs(nB0[0, 1]))
-    GAS = doc["gAS"] / (abs(nA0[0, 1]) * abs(nS0[0, 1]))
-    eA, nA, cA = eigenbasis(A, parkA, N, KA)
+    # the spectator is coupled to the mover (gAS) or, on an 11-02 crossing, to the partner (gBS)
+    GAS = doc.get("gAS", 0.0) / (abs(nA0[0, 1]) * abs(nS0[0, 1]))
+    GBS = doc.get("gBS", 0.0) / (abs(nB0[0, 1]) * abs(nS0[0, 1]))
+    eA, nA, cA = mover_basis(A, parkA, x, N, KA, doc.get("KAfar", 0))
+    KA = len(eA)
     eB, nB, _ = eigenbasis(B, doc["partnerFlux"], N, KB)
     IA, IB = np.eye(KA), np.eye(KB)
     if with_spectator:
         eS, nS, _ = eigenbasis(S, doc["spectatorFlux"], N, KS)
         IS = np.eye(KS)
-        h0 = kron(np.diag(eA), IB, IS) + kron(IA, np.diag(eB), IS) + kron(IA, IB, np.diag(eS)) + GAB * kron(nA, nB, IS) + GAS * kron(nA, IB, nS)
+        h0 = kron(np.diag(eA), IB, IS) + kron(IA, np.diag(eB), IS) + kron(IA, IB, np.diag(eS)) + GAB * kron(nA, nB, IS) + GAS * kron(nA, IB, nS) + GBS * kron(IA, nB, nS)
         C = kron(cA, IB, IS)
         labels = [(0, 0, s_level), (0, 1, s_level), (1, 0, s_level), (1, 1, s_level)]
         index = lambda a, b, s: (a * KB + b) * KS + s
