@@ -24,7 +24,7 @@ import type { PlanContext } from './context.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
 import { dsaturColouring } from './parking/colouring.js';
 import { admixtureHalfWidth } from './rules/spectator-admixture.js';
-import { colourCount, iteratedGreedy } from './iterated-greedy.js';
+import { colourCount, greedyColouring, iteratedGreedy } from './iterated-greedy.js';
 
 export interface MovedQubit {
   qubit: number;
@@ -204,8 +204,9 @@ export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], p
 
 /**
  * The layers of `plans`. `start`, when given, is a colouring of the whole conflict graph (layer of
- * each plan) known to be valid, for example one the layer fitting built (./layer-moves.ts); the
- * final colouring then starts from the better of it and DSATUR (iterated greedy never adds colours).
+ * each plan), for example one the layer fitting built (./layer-moves.ts) or the layers before pulse
+ * design; the final colouring then starts from the better of it (repaired by greedy colouring in
+ * its class order where a conflict appeared) and DSATUR (iterated greedy never adds colours).
  * With `explain: false` the kind-by-kind explanation is left out (its counts NaN; the layer
  * fitting colours candidates it then drops, and explains the one it keeps: explainLayers).
  */
@@ -268,11 +269,21 @@ function colourKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: Readon
     graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
   }
   const ds = dsaturColouring(graph);
-  let first = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
-  if (given && validColouring(adjacency, given) && colourCount(Int32Array.from(given)) < colourCount(first)) first = Int32Array.from(given);
+  let first: Int32Array = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+  if (given && given.length === plans.length) {
+    // a start that no longer holds (a design moved a spectator) is repaired by greedy colouring
+    // class by class in its order, which keeps most of its layers
+    const start: Int32Array = validColouring(adjacency, given) ? Int32Array.from(given) : greedyColouring(adjacency, classOrder(given));
+    if (colourCount(start) < colourCount(first)) first = start;
+  }
   const visits = adjacency.reduce((s, l) => s + l.length, 0) + plans.length;
   const rounds = Math.max(1, Math.min(LAYER_ROUNDS, Math.floor(4e6 / Math.max(1, visits))));
   return iteratedGreedy(adjacency, first, { iterations: rounds, seed, lowerBound: lowerBoundOf(ctx) });
+}
+
+/** Vertices listed colour class by colour class (then by index): the order greedy colouring keeps the classes in. */
+function classOrder(colour: ArrayLike<number>): number[] {
+  return Array.from({ length: colour.length }, (_, v) => v).sort((a, b) => colour[a] - colour[b] || a - b);
 }
 
 /** True when no two adjacent vertices share a colour (and every colour is a non-negative integer). */

@@ -16,7 +16,7 @@
 import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
-import { conflictKind, conflictingPairs, movedQubits, sharedSpectators } from '../../src/plan/layers.js';
+import { conflictKind, conflictingPairs, movedQubits, planLayers, sharedSpectators } from '../../src/plan/layers.js';
 import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
 import { evaluateGate } from '../../src/plan/rules/cz-evaluate.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
@@ -103,5 +103,15 @@ describe('layer fitting on Clove-17', () => {
     expect(withoutSpectators(ec, e, new Set())!.score).toBeCloseTo(e.score, 12);
     const required = e.parked.find((p) => p.reason !== BUDGET_MOVE_REASON)!;
     expect(withoutSpectators(ec, e, new Set([required.qubit]))).toBeNull();
+  });
+
+  it('planLayers repairs a start that no longer holds (two conflicting gates in one layer) into a proper colouring', () => {
+    const pairs = conflictingPairs(clove.ctx, clove.edges, f12, clove.parking.parkingGHz);
+    const [a, b] = pairs[0];
+    const start = [...clove.layers.layerOf];
+    start[b] = start[a];
+    const l = planLayers(clove.ctx, clove.edges, f12, clove.parking.parkingGHz, 1, start);
+    for (const [x, y] of pairs) expect(l.layerOf[x]).not.toBe(l.layerOf[y]);
+    expect(l.layers.length).toBeLessThanOrEqual(clove.layers.layers.length + 1);
   });
 });
