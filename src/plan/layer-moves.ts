@@ -21,7 +21,7 @@
  *     2. edge by edge (in edge order), the edge keeps those of its optional moves no other gate
  *        of its layer touches, when the result holds its rules and conflicts with no gate of its
  *        layer (./layers.ts gatesConflict), else it keeps its plan from step 1;
- *     3. the layers are coloured again starting from that valid assignment (never more layers).
+ *     3. the layers are coloured again starting from that assignment (repaired where needed).
  * Deterministic: the same plans and seed give the same result.
  */
 import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
@@ -79,7 +79,7 @@ export function fitMovesToLayers(
   const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
   const aligned = { edges: alignedEdges, layers: alignedLayers, step: step(alignedEdges, alignedLayers) };
   const fit = fitOptionalMoves(ec, alignedEdges, parkingF12, parkingGHz);
-  // aligning points again only removes conflicts, so the fitting's layers stay a valid start
+  // the fitting's layers are the start (planLayers repairs them where aligning again split a shared point)
   const fittedEdges = alignSpectatorPoints(ec, fit.edges);
   const fittedLayers = planLayers(ctx, fittedEdges, parkingF12, parkingGHz, 1, fit.layerOf, quiet);
   const fitted = { edges: fittedEdges, layers: fittedLayers, step: step(fittedEdges, fittedLayers) };
