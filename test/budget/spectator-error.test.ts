@@ -11,9 +11,8 @@
  *  - the planner's estimate (half the summed admixture, src/plan/interaction/plan-edge.ts) is
  *    within a factor 3 of the simulation (its documented scale).
  */
+import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
-import { loadLayoutFile } from '../../src/layout/load.js';
-import { Transmon } from '../../src/transmon/transmon.js';
 import { designCzGate } from '../../src/gate/design.js';
 import { spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
@@ -23,9 +22,7 @@ import { gateMetrics } from '../../src/sim/gate-metrics.js';
 import { chargeCouplingFromExchange } from '../../src/pair/coupling.js';
 import { runPython } from '../support/python.js';
 
-const layout = loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml');
-const q = (id: string) => Transmon.fromLayout(layout.qubits.find((x) => x.id === id)!);
-const g = (a: string, b: string) => layout.couplings.find((c) => [c.a, c.b].sort().join() === [a, b].sort().join())!.gGHz;
+const { layout, q, g } = demoLayout('clove-17');
 const D4 = q('D4');
 const Z3 = q('Z3');
 const Z1 = q('Z1');

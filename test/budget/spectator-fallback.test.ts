@@ -10,9 +10,8 @@
  * direct check's 1.038e-4; with the reduced models' partner kept to 3 levels this test fails,
  * 3.28e-4 against 1.04e-4).
  */
+import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
-import { loadLayoutFile } from '../../src/layout/load.js';
-import { Transmon } from '../../src/transmon/transmon.js';
 import { designCzGate } from '../../src/gate/design.js';
 import { moverEjSpan, PAIR_TOP_MANIFOLD, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
@@ -21,9 +20,7 @@ import { simulateGate } from '../../src/sim/simulate-gate.js';
 import { gateMetrics } from '../../src/sim/gate-metrics.js';
 import { runPython } from '../support/python.js';
 
-const layout = loadLayoutFile('layouts/reef-49.yaml', 'layouts/reef-49.yaml');
-const q = (id: string) => Transmon.fromLayout(layout.qubits.find((x) => x.id === id)!);
-const g = (a: string, b: string) => layout.couplings.find((c) => [c.a, c.b].sort().join() === [a, b].sort().join())!.gGHz;
+const { layout, q, g } = demoLayout('reef-49');
 const Q4 = q('Q4');
 const Q5 = q('Q5');
 const Q6 = q('Q6');

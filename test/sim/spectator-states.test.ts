@@ -11,9 +11,8 @@
  * The case: Clove-17's D4-Z3 CZ with D4's neighbour Z1 as the spectator, 120 MHz above the
  * mover's 2-3 transition at the hold (a strong spectator effect, so the |1> block differs).
  */
+import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
-import { loadLayoutFile } from '../../src/layout/load.js';
-import { Transmon } from '../../src/transmon/transmon.js';
 import { designCzGate } from '../../src/gate/design.js';
 import { moverEjSpan, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
@@ -21,9 +20,7 @@ import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate, simulateSpectatorStates } from '../../src/sim/simulate-gate.js';
 import { fidelityWithVirtualZ, gateMetrics } from '../../src/sim/gate-metrics.js';
 
-const layout = loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml');
-const q = (id: string) => Transmon.fromLayout(layout.qubits.find((x) => x.id === id)!);
-const g = (a: string, b: string) => layout.couplings.find((c) => [c.a, c.b].sort().join() === [a, b].sort().join())!.gGHz;
+const { layout, q, g } = demoLayout('clove-17');
 
 describe('simulateSpectatorStates', () => {
   it('gives the blocks of two separate simulations (spectator in |0>, then |1> in its lab frame), to the bit', () => {
