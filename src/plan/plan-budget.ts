@@ -24,7 +24,7 @@ export interface PlanBudget {
 }
 
 /** The gate scenario of a planned edge (as src/plan/interaction/plan-edge.ts evaluated it). */
-export function scenarioOf(plan: ChipPlan, e: EdgePlan): GateScenario {
+export function scenarioOf(plan: Pick<ChipPlan, 'states'>, e: EdgePlan): GateScenario {
   const parking: DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const parked = new Map<number, DuringGate>(e.parked.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }]));
   return {
@@ -34,7 +34,7 @@ export function scenarioOf(plan: ChipPlan, e: EdgePlan): GateScenario {
   };
 }
 
-export function planBudget(plan: ChipPlan): PlanBudget {
+export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 'states' | 'edges' | 'layers' | 'gates'>): PlanBudget {
   const { ctx } = plan;
   const ec = { ctx, options: plan.options, blockers: plan.parking.state.blockers, states: plan.states };
   const slotsNs: number[] = [];

@@ -97,7 +97,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   const parkingF12 = states.map((s) => s.f12GHz);
   const ec = { ctx, options, blockers: blockersView, states };
   const cycleError = (list: readonly EdgePlan[], layers: LayerPlan) =>
-    planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null } as unknown as ChipPlan).cycle.error;
+    planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null }).cycle.error;
   const fit = profiler.time('layers', () => fitMovesToLayers(ec, edges, parkingF12, parking.parkingGHz, cycleError));
   edges.splice(0, edges.length, ...fit.edges);
   const layers = fit.layers;
