@@ -27,6 +27,7 @@ import type { FramePropagationOptions } from '../sim/propagate-frame.js';
 import { simulateGate, simulateSpectatorStates } from '../sim/simulate-gate.js';
 import type { Trajectory } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
+import { movingBasisSpectatorError } from './spectator-moving-basis.js';
 
 export interface SpectatorErrorInput {
   mover: Transmon;
@@ -57,10 +58,12 @@ export interface SpectatorError {
    * The model simulated: 'none' the full one; 'manifolds' three excitation manifolds kept (only
    * with a propagation scheme that couples manifolds: in-block propagation never reaches the
    * fourth, so its frame keeps three from the start and that is the full model);
-   * 'mover-levels' also fewer mover levels (see spectatorFrame); 'estimate' no frame converged and
-   * the error is the admixture estimate (admixtureFallback).
+   * 'mover-levels' also fewer mover levels (see spectatorFrame); 'moving-basis' no frame
+   * converged and the full model ran on the moving product basis (movingBasisFallback);
+   * 'estimate' only in a plan written before that fallback existed (the admixture estimate, read
+   * back by `plan --from`).
    */
-  reduced: 'none' | 'manifolds' | 'mover-levels' | 'estimate';
+  reduced: 'none' | 'manifolds' | 'mover-levels' | 'moving-basis' | 'estimate';
 }
 
 export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const, joinRamps: true });
@@ -90,7 +93,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   const { mover, partner, traj } = input;
   const [lo, hi] = moverEjSpan(mover, traj);
   const built = spectatorFrame(input, lo, hi);
-  if (!built) return admixtureFallback(input);
+  if (!built) return movingBasisFallback(input);
   const { frame, reduced, moverLevels, partnerLevels } = built;
   const prop = { ...SPECTATOR_PROPAGATION, ...input.propagation };
   // S in |0> and in |1> in one propagation (each step prepared once for both), |1> in |0>'s lab frame
@@ -128,8 +131,8 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
  * type condition with the spectator stays in the model; the mover's 2-3 transition goes last),
  * with the partner kept to REDUCED_MODEL_PARTNER_LEVELS levels in those reduced models; where
  * none of them converges either (the partner's upper levels bring crossings of their own), the
- * same reduced models with the partner's own level count. `reduced` says which kind of model was
- * simulated.
+ * same reduced models with the partner's own level count; null when none converges (the caller
+ * then runs the full model on the moving basis). `reduced` says which kind of model was simulated.
  */
 function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number): { frame: ManifoldFrame; reduced: SpectatorError['reduced']; moverLevels: number; partnerLevels: number } | null {
   const { mover, partner } = input;
@@ -169,43 +172,26 @@ function inBlock(input: SpectatorErrorInput): boolean {
   return (input.propagation?.scheme ?? SPECTATOR_PROPAGATION.scheme) === 'in-block';
 }
 
-/** A spectator's error per unit of summed admixture (three-transmon simulations of Clove-17: median about 0.5, 0.14-1.0). */
-export const SPECTATOR_ERROR_PER_ADMIXTURE = 0.5;
+/**
+ * Where no frame of the three-transmon model converges (a mover tuned far from a high spectator:
+ * sharp crossings of its upper levels with the spectator's states), the full model (the default
+ * level counts) on the moving product basis (./spectator-moving-basis.ts), which tracks no
+ * dressed states and cannot fail to converge; slower, so only here.
+ */
+function movingBasisFallback(input: SpectatorErrorInput): SpectatorError {
+  const { mover, partner } = input;
+  // the partner to REDUCED_MODEL_PARTNER_LEVELS levels, as the reduced models (its |3> shifts the 11-02 crossing)
+  const given = { ...SPECTATOR_LEVELS, ...input.levels };
+  const levels = { ...given, partnerLevels: Math.max(given.partnerLevels, REDUCED_MODEL_PARTNER_LEVELS) };
+  const three = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, spectators: [input.spectator], ...levels });
+  const pair = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...levels });
+  const r = movingBasisSpectatorError(three, pair, input.traj, input.targetPhase);
+  return { ...r, reduced: 'moving-basis' };
+}
 
 /**
- * Where no frame of the three-transmon model converges (very large excursions past a high
- * spectator), the spectator's share is estimated as the planner estimates it before pulse design
- * (README physics conventions sec. 5): the qubit the spectator is coupled to (the mover at the
- * waveform's plateau, or the static partner), taken to reach |2>, against the spectator where it
- * sits; every pair of transitions that can meet (0-1, 1-2, 2-3 against 0-1, 1-2) adds
- * min(1, (g_c / Delta)^2), g_c = G |<k|n|k+1>| |<l|n|l+1>|; the error is
- * SPECTATOR_ERROR_PER_ADMIXTURE times the sum and the leakage the same for the pairs that leave
- * the computational states (all but 0-1 against 0-1).
+ * A spectator's error per unit of summed admixture, the planner's estimate before pulse design
+ * (src/plan/rules/spectator-admixture.ts; three-transmon simulations of Clove-17: median about
+ * 0.5, 0.14-1.0).
  */
-function admixtureFallback(input: SpectatorErrorInput): SpectatorError {
-  const { mover, partner, traj, spectator: sp } = input;
-  let far = traj.flux[0];
-  for (const x of traj.flux) if (Math.abs(mover.ejGHz(x) - mover.ejGHz(traj.flux[0])) > Math.abs(mover.ejGHz(far) - mover.ejGHz(traj.flux[0]))) far = x;
-  const E = sp.coupledTo === 'mover' ? mover : partner;
-  const eFlux = sp.coupledTo === 'mover' ? far : input.partnerFlux;
-  const levels = (t: typeof mover, flux: number) => {
-    const b = t.chargeBasis(flux, 4);
-    const n = (i: number, j: number) => Math.abs(b.charge[i * 4 + j]);
-    return { f: [b.energies[1] - b.energies[0], b.energies[2] - b.energies[1], b.energies[3] - b.energies[2]], n: [n(0, 1), n(1, 2), n(2, 3)] };
-  };
-  const e = levels(E, eFlux);
-  const s = levels(sp.transmon, sp.flux);
-  const G = sp.gGHz / (E.chargeElement01(0) * sp.transmon.chargeElement01(0));
-  let error = 0;
-  let leak = 0;
-  for (let k = 0; k < 3; k++) {
-    for (let l = 0; l < 2; l++) {
-      const g = G * e.n[k] * s.n[l];
-      const d = e.f[k] - s.f[l];
-      const a = d === 0 ? 1 : Math.min(1, (g * g) / (d * d));
-      error += a;
-      if (k > 0 || l > 0) leak += a;
-    }
-  }
-  return { error: SPECTATOR_ERROR_PER_ADMIXTURE * error, leakage: SPECTATOR_ERROR_PER_ADMIXTURE * leak, ground: NaN, excited: NaN, reduced: 'estimate' };
-}
+export const SPECTATOR_ERROR_PER_ADMIXTURE = 0.5;

@@ -16,7 +16,7 @@ export function budgetLines(nb: Pick<WaveformNoiseBudget, 'coherent' | 't1' | 'w
     `  white dephasing  ${e(nb.whiteDephasing)}`,
     `  flux noise       ${e(nb.fluxNoise)}   (quasi-static 1/f: ${moverId} ${e(nb.fluxNoiseSplit.mover)} at sigma ${e(nb.fluxNoiseSplit.moverSigma)} Phi0, ${partnerId} ${e(nb.fluxNoiseSplit.partner)} at sigma ${e(nb.fluxNoiseSplit.partnerSigma)} Phi0)`,
   ];
-  if (sb) out.push(`  spectators       ${e(sb.spectators)}   (${sb.spectatorShares.length === 0 ? 'no other neighbour of the mover' : `${sb.spectatorShares.map((x) => `${x.qubit} ${e(x.error)}${x.reduced === 'none' ? '' : x.reduced === 'estimate' ? ' (admixture estimate)' : ' (reduced model)'}`).join(', ')}; added leakage ${e(sb.spectatorLeakage)}`})`);
+  if (sb) out.push(`  spectators       ${e(sb.spectators)}   (${sb.spectatorShares.length === 0 ? 'no other neighbour of the mover' : `${sb.spectatorShares.map((x) => `${x.qubit} ${e(x.error)}${x.reduced === 'none' ? '' : x.reduced === 'estimate' ? ' (admixture estimate)' : x.reduced === 'moving-basis' ? ' (moving basis)' : ' (reduced model)'}`).join(', ')}; added leakage ${e(sb.spectatorLeakage)}`})`);
   out.push(`  total            ${e(total)}${sb ? '' : '   (spectators not counted: pass --plan to count the plan\'s spectators where it puts them)'}`);
   return out;
 }

@@ -39,6 +39,9 @@ export function runPython<T = unknown>(script: string, input: unknown, options: 
     encoding: 'utf8',
     maxBuffer: 256 * 1024 * 1024,
     timeout: options.timeoutMs ?? 60_000,
+    // one BLAS thread: test files run in parallel on few cores, and threaded BLAS on small
+    // matrices only adds contention (unless the caller's environment says otherwise)
+    env: { OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1', MKL_NUM_THREADS: '1', ...process.env },
   });
   if (res.error) throw new Error(`runPython: cannot run ${exe} ${file}: ${res.error.message}`);
   if (res.status !== 0) {

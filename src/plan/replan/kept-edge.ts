@@ -138,7 +138,7 @@ export function keptDesign(ec: EdgeContext, edge: number, entry: PlanEdgeInput, 
   // the gate stage's part of its error budget, as the earlier plan recorded it
   const b = g.budget as Record<string, any> | null | undefined;
   if (b && typeof b.total === 'number') {
-    const shares = Array.isArray(b.spectatorShares) ? b.spectatorShares.map((x: any) => ({ qubit: String(x.qubit), error: num(x.error), leakage: num(x.leakage), reduced: x.reducedModel === 'manifolds' || x.reducedModel === 'mover-levels' || x.reducedModel === 'estimate' ? x.reducedModel : 'none' })) : [];
+    const shares = Array.isArray(b.spectatorShares) ? b.spectatorShares.map((x: any) => ({ qubit: String(x.qubit), error: num(x.error), leakage: num(x.leakage), reduced: x.reducedModel === 'manifolds' || x.reducedModel === 'mover-levels' || x.reducedModel === 'moving-basis' || x.reducedModel === 'estimate' ? x.reducedModel : 'none' })) : [];
     design.budget = {
       coherent: num(b.coherent), t1: num(b.t1), whiteDephasing: num(b.whiteDephasing), fluxNoise: num(b.fluxNoise),
       fluxNoiseSplit: { mover: NaN, partner: NaN, moverSigma: NaN, partnerSigma: NaN },
