@@ -3,7 +3,8 @@
  * (a mover's flux at its parking and interaction frequencies in every rule evaluation, the
  * spectrum at a parking or interaction flux in every error estimate). Keyed by the plan context,
  * so they last as long as the chip's planning does; the values are exactly those of the
- * transmon's own calls, so no figure changes.
+ * transmon's own calls, so no figure changes. A transmon whose spectrum is a table look-up
+ * (Transmon.tabulatedSpectrum) is asked directly: remembering would cost more than asking.
  */
 import type { PlanContext } from './context.js';
 import type { SpectrumPoint } from '../transmon/spectrum.js';
@@ -33,6 +34,7 @@ function memoOf(ctx: PlanContext): Memo {
 
 /** ctx.transmons[q].fluxForF01OrNull(fGHz), remembered. */
 export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): number | null {
+  if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].fluxForF01OrNull(fGHz);
   const m = memoOf(ctx).flux;
   const key = `${q},${fGHz}`;
   let v = m.get(key);
@@ -42,6 +44,7 @@ export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): numbe
 
 /** ctx.transmons[q].spectrum(flux), remembered (treat the result as read-only). */
 export function spectrumMemo(ctx: PlanContext, q: number, flux: number): SpectrumPoint {
+  if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].spectrum(flux);
   const m = memoOf(ctx).spectrum;
   const key = `${q},${flux}`;
   let v = m.get(key);
@@ -51,6 +54,7 @@ export function spectrumMemo(ctx: PlanContext, q: number, flux: number): Spectru
 
 /** ctx.transmons[q].fluxCurvatureGHz(flux), remembered. */
 export function fluxCurvatureMemo(ctx: PlanContext, q: number, flux: number): number {
+  if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].fluxCurvatureGHz(flux);
   const m = memoOf(ctx).curvature;
   const key = `${q},${flux}`;
   let v = m.get(key);

@@ -151,6 +151,14 @@ export class Transmon {
     return new Transmon(d.id, d.params, { chargeCutoff: d.chargeCutoff, coherence: d.coherence, coherenceSpec: d.coherenceSpec, source: d.source });
   }
 
+  /**
+   * True when spectrum, f01, the inverse maps and the curvature are table look-ups (a subclass
+   * such as the yield stage's TabulatedTransmon), so callers need not remember their answers.
+   */
+  get tabulatedSpectrum(): boolean {
+    return false;
+  }
+
   get params(): TransmonParams {
     return { ecGHz: this.ecGHz, ejsGHz: this.ejsGHz, asymmetry: this.asymmetry };
   }

@@ -60,8 +60,13 @@ export interface FixedOptions {
 
 export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
 
-/** A qubit whose idle error (with the estimated ZZ) exceeds this fraction of idleErrorLimit gets the exact ZZ of its pairs. */
-const IDLE_EXACT_ABOVE = 0.8;
+/**
+ * A qubit whose idle error (with the estimated ZZ) lies within this fraction of its ZZ part of
+ * idleErrorLimit gets the exact ZZ of its pairs. The ZZ part is quadratic in the ZZ, whose
+ * calibrated estimate is within 1.4e-4 relative of the exact one (above), so the part is good to
+ * ~3e-4 relative: 1e-2 leaves a margin of 30 before an estimate could flip the verdict.
+ */
+const IDLE_EXACT_BAND = 1e-2;
 
 export interface FixedEdge {
   /** Layout edge index. */
@@ -271,11 +276,12 @@ export function evaluateFixed(
   const layerOf: number[] = [];
   for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
   let budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);
-  // A qubit near its idle ceiling is decided with the exact ZZ of its pairs (the estimate's
-  // per-mille error would move its idle error by more than the comparison's round-off).
+  // A qubit whose idle error the estimate's error could carry across its ceiling is decided with
+  // the exact ZZ of its pairs; elsewhere the verdict is the exact one and the reported idle error
+  // is within ~3e-4 of the ZZ part of the exact value.
   let refined = false;
   budget.cycle.qubits.forEach((q, i) => {
-    if (!(q.total > IDLE_EXACT_ABOVE * ctx.rules.idleErrorLimit)) return;
+    if (!(Math.abs(q.total - ctx.rules.idleErrorLimit) <= IDLE_EXACT_BAND * q.zz)) return;
     for (const k of ctx.edgesOf[i]) {
       const e = ctx.edges[k];
       const a = reached[e.a];

@@ -21,6 +21,7 @@ import { Transmon, type SweetSpotLevels } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { SampledSpectrum } from './sampled-spectrum.js';
+import { TabulatedTransmon } from './tabulated-transmon.js';
 
 /** f01, f12 and alpha at the two sweet spots from the reduced table (an exact solve below its range). */
 export function sweetSpotLevels(table: ReducedSpectrum, ecGHz: number, ejsGHz: number, d: number): SweetSpotLevels {
@@ -39,13 +40,16 @@ export function sweetSpotLevels(table: ReducedSpectrum, ecGHz: number, ejsGHz: n
   return { fMaxGHz: fMax, f12MaxGHz: f12Max, anharmonicityMaxGHz: f12Max - fMax, fMinGHz: fMin, f12MinGHz: f12Min };
 }
 
-/** The drawn transmons (exact models; their tunable ranges from the reduced table). */
+/**
+ * The drawn transmons: their tunable ranges, spectra, inverse maps and |<0|n|1>| from the reduced
+ * table (./tabulated-transmon.ts; exact outside it), eigenbases exact.
+ */
 export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum): Transmon[] {
   return chip.ctx.transmons.map((t, i) => {
     const ec = drawn.ecGHz[i];
     const ejs = drawn.ejsGHz[i];
     const d = drawn.asymmetry[i];
-    return new Transmon(t.id, { ecGHz: ec, ejsGHz: ejs, asymmetry: d }, {
+    return new TabulatedTransmon(table, t.id, { ecGHz: ec, ejsGHz: ejs, asymmetry: d }, {
       coherenceSpec: t.coherenceSpec,
       source: t.source,
       range: sweetSpotLevels(table, ec, ejs, d),

@@ -1,0 +1,94 @@
+/**
+ * A drawn transmon whose spectrum questions are answered from the reduced spectrum
+ * (src/transmon/reduced-spectrum.ts: the transmon's levels and charge matrix elements in units
+ * of E_C against r = E_J / E_C, one table for every transmon) instead of new eigen solves.
+ *
+ * The planner's rule evaluations and the error budget ask a transmon for its spectrum at a flux
+ * (f01, f12 and their flux slopes), the flux of a frequency, the flux curvature of f01 (second
+ * order flux noise at a sweet spot) and |<0|n|1>|; for a drawn chip of a Monte Carlo yield run
+ * each of those was an eigen solve (a root search for the inverse maps), and together they were
+ * most of a sample's time. This subclass answers them from the table wherever r lies inside it
+ * and falls back to the exact Transmon where it does not (very small E_J at the lower sweet spot
+ * of a nearly symmetric SQUID); the eigenbasis, charge-basis and level calls (exact coupled pairs,
+ * simulations) stay exact.
+ *
+ * Accuracy (test/yield/tabulated-transmon.test.ts, against the exact Transmon): levels ~1e-10
+ * relative (the table's), flux slopes and the inverse maps ~1e-9, the curvature (a central
+ * difference of the tabulated slope, as the exact one is of the exact slope) ~1e-6 relative.
+ */
+import { fluxForJosephsonEnergy } from '../transmon/josephson.js';
+import { emptyReducedState, type ReducedSpectrum } from '../transmon/reduced-spectrum.js';
+import type { SpectrumPoint } from '../transmon/spectrum.js';
+import { Transmon } from '../transmon/transmon.js';
+
+type TransmonArgs = ConstructorParameters<typeof Transmon>;
+
+export class TabulatedTransmon extends Transmon {
+  private readonly state = emptyReducedState();
+  private readonly slopes = new Float64Array(5);
+
+  constructor(
+    private readonly table: ReducedSpectrum,
+    ...args: TransmonArgs
+  ) {
+    super(...args);
+  }
+
+  override get tabulatedSpectrum(): boolean {
+    return true;
+  }
+
+  private ratio(flux: number): number {
+    return this.ejGHz(flux) / this.ecGHz;
+  }
+
+  override f01(flux: number): number {
+    const r = this.ratio(flux);
+    if (!this.table.covers(r)) return super.f01(flux);
+    return this.ecGHz * this.table.at(r, this.state).e1;
+  }
+
+  override spectrum(flux: number): SpectrumPoint {
+    const ej = this.ejGHz(flux);
+    const r = ej / this.ecGHz;
+    if (!this.table.covers(r)) return super.spectrum(flux);
+    const s = this.table.at(r, this.state);
+    const sl = this.table.levelSlopes(r, this.slopes);
+    const dej = this.ejSlopeGHz(flux);
+    const f01 = this.ecGHz * s.e1;
+    const f12 = this.ecGHz * (s.e2 - s.e1);
+    return { flux, ejGHz: ej, f01GHz: f01, f12GHz: f12, anharmonicityGHz: f12 - f01, df01dFluxGHz: sl[0] * dej, df12dFluxGHz: (sl[1] - sl[0]) * dej };
+  }
+
+  override chargeElement01(flux: number): number {
+    const r = this.ratio(flux);
+    if (!this.table.covers(r)) return super.chargeElement01(flux);
+    return this.table.at(r, this.state).n01;
+  }
+
+  override fluxForF01OrNull(fGHz: number): number | null {
+    return this.inverse('e1', fGHz, this.fMinGHz, this.fMaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF01OrNull(fGHz));
+  }
+
+  override fluxForF12OrNull(fGHz: number): number | null {
+    return this.inverse('e12', fGHz, this.f12MinGHz, this.f12MaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF12OrNull(fGHz));
+  }
+
+  /** The table holds the whole tunable range, E_J from d E_JS to E_JS. */
+  private tableSpansRange(): boolean {
+    const rTop = this.ejsGHz / this.ecGHz;
+    return this.table.covers(rTop) && this.table.covers(this.asymmetry * rTop);
+  }
+
+  /** Flux 0 <= Phi <= 1/2 where the channel equals fGHz (null out of [lo, hi] or when the table does not span the range). */
+  private inverse(c: 'e1' | 'e12', fGHz: number, lo: number, hi: number): number | null {
+    if (!this.tableSpansRange()) return null;
+    const slack = 1e-12 * Math.max(1, Math.abs(fGHz));
+    if (fGHz < lo - slack || fGHz > hi + slack) return null;
+    const rTop = this.ejsGHz / this.ecGHz;
+    const r = this.table.rFor(c, fGHz / this.ecGHz, this.asymmetry * rTop, rTop, slack / this.ecGHz);
+    if (r === null) return null;
+    const x = fluxForJosephsonEnergy(this.ejsGHz, this.asymmetry, Math.min(this.ejsGHz, Math.max(this.asymmetry * this.ejsGHz, r * this.ecGHz)));
+    return Number.isFinite(x) ? x : null;
+  }
+}
