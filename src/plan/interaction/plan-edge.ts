@@ -494,18 +494,20 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
     excited: s.crossing === '11-20' ? 'mover' : 'partner',
     holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
   });
-  let spectators = 0;
-  const during = (q: number): DuringGate => s.parked.get(q) ?? s.parking[q];
-  const add = (E: number, fE: number, withLevel2: boolean, skip: number) => {
-    for (const S of ctx.neighbours[E]) {
-      if (S === skip) continue;
-      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
-      spectators += SPECTATOR_ERROR_PER_ADMIXTURE * admixtureSum(ctx, E, fE, S, during(S).f01GHz, G, withLevel2);
-    }
-  };
-  add(s.mover, s.toGHz, s.crossing === '11-20', s.partner);
-  if (s.crossing === '11-02') add(s.partner, s.parking[s.partner].f01GHz, true, s.mover);
+  let spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
+  if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
   return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
+}
+
+/** `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each where the gate has it (in neighbour order). */
+function spectatorErrorOf(ctx: PlanContext, s: GateScenario, E: number, fE: number, withLevel2: boolean, skip: number, sum: number): number {
+  for (const S of ctx.neighbours[E]) {
+    if (S === skip) continue;
+    const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+    const fS = (s.parked.get(S) ?? s.parking[S]).f01GHz;
+    sum += SPECTATOR_ERROR_PER_ADMIXTURE * admixtureSum(ctx, E, fE, S, fS, G, withLevel2);
+  }
+  return sum;
 }
 
 export { SPECTATOR_ERROR_PER_ADMIXTURE };

@@ -109,27 +109,13 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   const findings: CzFinding[] = [];
   const swept: SweptCrossing[] = [];
   const edgeKey = ctx.edges[s.edge].key;
-  const add = (f: Omit<CzFinding, 'edge'>) => findings.push({ ...f, edge: edgeKey });
+  const add = findingAdder(findings, edgeKey);
   const to = s.toGHz;
   // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
   // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
-  const limit = r.spectatorAdmixture;
-  const spectatorChecks = (E: number, fE: number, withLevel2: boolean, skip: number, where: string) => {
-    for (const S of ctx.neighbours[E]) {
-      if (S === skip) continue;
-      const d = during(s, S);
-      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
-      for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
-        if (c.admixture <= limit) continue;
-        add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
-          message: `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}`,
-          details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
-      }
-    }
-  };
-  spectatorChecks(A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
-  if (s.crossing === '11-02') spectatorChecks(s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
+  spectatorChecks(ctx, s, add, A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
+  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
   // The flux excursion (the flux line's current limit).
   const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
   const xTo = fluxForF01Memo(ctx, A, to);
@@ -210,6 +196,29 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   return { findings, swept, durationNs };
 }
 
+/** The findings collector of one evaluation (each finding tagged with the edge key). */
+function findingAdder(findings: CzFinding[], edgeKey: string): (f: Omit<CzFinding, 'edge'>) => void {
+  return (f) => void findings.push({ ...f, edge: edgeKey });
+}
+
+/** The admixture checks of excited qubit E (f01 = fE) against each of its neighbours but `skip` (their during-gate f01). */
+function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, E: number, fE: number, withLevel2: boolean, skip: number, where: string): void {
+  const id = ctx.ids;
+  const limit = ctx.rules.spectatorAdmixture;
+  const edgeKey = ctx.edges[s.edge].key;
+  for (const S of ctx.neighbours[E]) {
+    if (S === skip) continue;
+    const d = during(s, S);
+    const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+    for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
+      if (c.admixture <= limit) continue;
+      add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
+        message: `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}`,
+        details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
+    }
+  }
+}
+
 /**
  * Every crossing qubit Q passes sweeping from `from` to `to` (open interval), with its transfer.
  * `isMover`: Q is the gate's mover (its crossing with the partner at `to` is the gate itself).
@@ -229,22 +238,11 @@ function sweep(
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
   if (!(hi - lo > 1e-9)) return;
-  const r = ctx.rules;
   const id = ctx.ids;
   const tq = ctx.tables[Q];
-  const limit = r.sweptTransferLimit;
-  const inside = (f: number | null): f is number => f !== null && f > lo + 1e-9 && f < hi - 1e-9;
-  // `what` names the crossing in the message; built only for a finding (most crossings pass).
-  const record = (rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string) => {
-    const transfer = landauZenerTransfer(g, rate);
-    swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
-    if (transfer > limit) {
-      add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
-        message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
-        details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
-        blame });
-    }
-  };
+  // (no closures made per call or per neighbour here: this loop runs millions of times on a
+  // large chip; `what` names the crossing in a message, built only for a finding)
+  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add };
   for (const X of ctx.neighbours[Q]) {
     const x = freqOf(X);
     const e = ctx.edgeBetween(Q, X);
@@ -253,37 +251,40 @@ function sweep(
     // X's charge matrix elements at its frequency, looked up only when a crossing lies in the sweep
     let n01x = NaN;
     let n12x = NaN;
-    const lookX = () => {
+    if (insideSweep(x.f01GHz, lo, hi)) {
+      const sx = ctx.tables[X].at(x.f01GHz, scratchB);
+      n01x = sx.n01;
+      n12x = sx.n12;
+      const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
+      recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
+    }
+    const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
+    const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
+    const f1120 = tq.f01ForF12(x.f01GHz);
+    if (!skip1120 && f1120 !== null && insideSweep(f1120, lo, hi)) {
       if (Number.isNaN(n01x)) {
         const sx = ctx.tables[X].at(x.f01GHz, scratchB);
         n01x = sx.n01;
         n12x = sx.n12;
       }
-    };
-    if (inside(x.f01GHz)) {
-      lookX();
-      const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
-      record('cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
-    }
-    const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
-    const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
-    const f1120 = tq.f01ForF12(x.f01GHz);
-    if (!skip1120 && inside(f1120)) {
-      lookX();
       const g = G * tq.at(f1120, scratchA).n12 * n01x;
-      record('cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
+      recordCrossing(sw, 'cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
     }
-    if (!skip1102 && inside(x.f12GHz)) {
-      lookX();
+    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) {
+      if (Number.isNaN(n01x)) {
+        const sx = ctx.tables[X].at(x.f01GHz, scratchB);
+        n01x = sx.n01;
+        n12x = sx.n12;
+      }
       const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
-      record('cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
+      recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
     }
   }
   for (const p of ctx.nextNearestOf[Q]) {
     const pair = ctx.nextNearest[p];
     const K = pair.a === Q ? pair.b : pair.a;
     const fk = freqOf(K).f01GHz;
-    if (!inside(fk)) continue;
+    if (!insideSweep(fk, lo, hi)) continue;
     const nq = tq.at(fk, scratchA).n01;
     const nk = ctx.tables[K].at(fk, scratchB).n01;
     const mediators: Mediator[] = pair.via.map((S) => {
@@ -294,10 +295,41 @@ function sweep(
       return { giGHz: gq, gkGHz: gk, fGHz: fs };
     });
     const g = Math.abs(mediatedExchange(fk, fk, mediators));
-    record('cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+    recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
   }
   for (const t of ctx.qubits[Q].tls) {
-    if (!inside(t.atGHz)) continue;
-    record('cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
+    if (!insideSweep(t.atGHz, lo, hi)) continue;
+    recordCrossing(sw, 'cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
+  }
+}
+
+/** What recordCrossing needs of the sweep it is called from. */
+interface SweepRecord {
+  ctx: PlanContext;
+  Q: number;
+  lo: number;
+  hi: number;
+  rate: number;
+  swept: SweptCrossing[];
+  add: (f: Omit<CzFinding, 'edge'>) => void;
+}
+
+/** A crossing strictly inside the swept band (lo, hi), 1 Hz margins. */
+function insideSweep(f: number, lo: number, hi: number): boolean {
+  return f > lo + 1e-9 && f < hi - 1e-9;
+}
+
+/** Record a crossing the sweep passes, with its Landau-Zener transfer; a finding when the transfer breaks the limit. */
+function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string): void {
+  const { ctx, Q, lo, hi, rate } = sw;
+  const id = ctx.ids;
+  const limit = ctx.rules.sweptTransferLimit;
+  const transfer = landauZenerTransfer(g, rate);
+  sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
+  if (transfer > limit) {
+    sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
+      message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
+      details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
+      blame });
   }
 }
