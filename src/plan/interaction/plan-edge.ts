@@ -363,6 +363,9 @@ export function parkSpectators(
   return { evaluation: ev, unmovable };
 }
 
+/** Rule evaluations whose findings are only tested, never reported: no messages built. */
+const QUIET = Object.freeze({ messages: false });
+
 /** The reason recorded for a spectator moved by budgetMoves (no rule asked for it). */
 export const BUDGET_MOVE_REASON = 'lower estimated error';
 
@@ -403,7 +406,8 @@ function bestSpectatorPoint(
     const table = ctx.tables[P];
     const f12 = table.at(x).f12;
     parked.set(P, { f01GHz: x, f12GHz: f12 });
-    const ev = evaluateGate(ctx, scenario);
+    // (a screen: its findings are only tested and its score ranks, so no messages are built)
+    const ev = evaluateGate(ctx, scenario, QUIET);
     if (!clears(ev)) continue;
     screened.push({ x, order: score(ev, [...parkedInfo, { qubit: P, fGHz: x, flux: table.fluxAt(x), f12GHz: f12, reason }]) });
   }
@@ -412,7 +416,7 @@ function bestSpectatorPoint(
   for (const { x } of screened) {
     if (!score) {
       parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-      if (!clears(evaluateGate(ctx, scenario))) continue;
+      if (!clears(evaluateGate(ctx, scenario, QUIET))) continue;
     }
     const st = transitionsOf(ctx, P, x);
     parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
@@ -520,7 +524,8 @@ export { SPECTATOR_ERROR_PER_ADMIXTURE };
  * give, so plans do not change.
  */
 const crossingMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof pairResonances>>>();
-const transitionMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof exactTransitions>>>();
+/** Per qubit, the exact transitions by f01 (number keys: distinct doubles are distinct keys). */
+const transitionMemo = new WeakMap<PlanContext, Map<number, ReturnType<typeof exactTransitions>>[]>();
 const CZ_CROSSINGS = ['11-20', '11-02'] as const;
 
 function crossingsOf(ctx: PlanContext, mover: number, partner: number, partnerFlux: number, gChargeGHz: number): ReturnType<typeof pairResonances> {
@@ -533,11 +538,12 @@ function crossingsOf(ctx: PlanContext, mover: number, partner: number, partnerFl
 }
 
 function transitionsOf(ctx: PlanContext, q: number, fGHz: number): ReturnType<typeof exactTransitions> {
-  let memo = transitionMemo.get(ctx);
-  if (!memo) transitionMemo.set(ctx, (memo = new Map()));
-  const key = `${q},${fGHz}`;
-  let hit = memo.get(key);
-  if (!hit) memo.set(key, (hit = exactTransitions(ctx.transmons[q], fGHz)));
+  let perQubit = transitionMemo.get(ctx);
+  if (!perQubit) transitionMemo.set(ctx, (perQubit = []));
+  let memo = perQubit[q];
+  if (!memo) perQubit[q] = memo = new Map();
+  let hit = memo.get(fGHz);
+  if (!hit) memo.set(fGHz, (hit = exactTransitions(ctx.transmons[q], fGHz)));
   return hit;
 }
 
@@ -592,7 +598,8 @@ function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator
     parking: ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz })),
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
-  const ev = evaluateGate(ctx, scenario);
+  // (returned only without findings: no messages needed)
+  const ev = evaluateGate(ctx, scenario, QUIET);
   if (ev.findings.length > 0) return null;
   const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
   const id = ctx.ids;

@@ -102,7 +102,17 @@ function during(s: GateScenario, q: number): DuringGate {
   return s.parked.get(q) ?? s.parking[q];
 }
 
-export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation {
+export interface EvaluateOptions {
+  /**
+   * false: the findings' messages are left empty (every other field as usual). For evaluations
+   * whose findings are only tested (the screening of spectator points, the layer fitting's
+   * re-evaluations): the messages cost more than the rules.
+   */
+  messages?: boolean;
+}
+
+export function evaluateGate(ctx: PlanContext, s: GateScenario, options: EvaluateOptions = {}): GateEvaluation {
+  const m = options.messages !== false;
   const r = ctx.rules;
   const id = ctx.ids;
   const A = s.mover;
@@ -114,14 +124,14 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
   // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
   // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
-  spectatorChecks(ctx, s, add, A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
-  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
+  spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
+  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
   // The flux excursion (the flux line's current limit).
   const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
   const xTo = fluxForF01Memo(ctx, A, to);
   if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
     add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
-      message: `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0`, blame: -1 });
+      message: m ? `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0` : '', blame: -1 });
   }
   for (const p of ctx.nextNearestOf[A]) {
     const pair = ctx.nextNearest[p];
@@ -130,14 +140,14 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
     const v = Math.abs(to - fk);
     if (v < r.detuningNext0101GHz) {
       add({ rule: 'cz-next-01-01', qubits: [id[A], id[K]], value: v, threshold: r.detuningNext0101GHz,
-        message: `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}`, blame: K });
+        message: m ? `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}` : '', blame: K });
     }
   }
   for (const d of ctx.qubits[A].tls) {
     const v = Math.abs(to - d.atGHz) - d.widthGHz;
     if (v < r.tlsClearanceGHz) {
       add({ rule: 'cz-tls', qubits: [id[A]], value: v, threshold: r.tlsClearanceGHz,
-        message: `${id[A]} at the interaction point ${ghz(to)} is ${mhz(v)} beyond the edge of its defect at ${ghz(d.atGHz)}; needs ${mhz(r.tlsClearanceGHz)}`, blame: -1 });
+        message: m ? `${id[A]} at the interaction point ${ghz(to)} is ${mhz(v)} beyond the edge of its defect at ${ghz(d.atGHz)}; needs ${mhz(r.tlsClearanceGHz)}` : '', blame: -1 });
     }
   }
   const lo = Math.min(s.fromGHz, to);
@@ -147,12 +157,12 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
     const v = readout >= lo && readout <= hi ? 0 : Math.min(Math.abs(readout - lo), Math.abs(readout - hi));
     if (v < r.readoutDetuningGHz) {
       add({ rule: 'cz-readout', qubits: [id[A]], value: v, threshold: r.readoutDetuningGHz,
-        message: `${id[A]} sweeps ${band(lo, hi)}, ${mhz(v)} from its readout resonator at ${ghz(readout)}; needs ${mhz(r.readoutDetuningGHz)}`, blame: -1 });
+        message: m ? `${id[A]} sweeps ${band(lo, hi)}, ${mhz(v)} from its readout resonator at ${ghz(readout)}; needs ${mhz(r.readoutDetuningGHz)}` : '', blame: -1 });
     }
   }
   // The mover's sweep (spectators already in place).
   const moverRate = (hi - lo) / s.rampNs;
-  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add);
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
   for (const [P, d] of [...s.parked.entries()].sort((x, y) => x[0] - y[0])) {
     const f = d.f01GHz;
@@ -160,11 +170,11 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
       if (X === A) continue;
       const x = during(s, X);
       const d01 = Math.abs(f - x.f01GHz);
-      if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}`, blame: P });
+      if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}` : '', blame: P });
       const d1 = Math.abs(f - x.f12GHz);
       const d2 = Math.abs(d.f12GHz - x.f01GHz);
       const d12 = Math.min(d1, d2);
-      if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}`, blame: P });
+      if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}` : '', blame: P });
     }
     for (const p of ctx.nextNearestOf[P]) {
       const pair = ctx.nextNearest[p];
@@ -172,37 +182,41 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
       if (K === A) continue;
       const fk = during(s, K).f01GHz;
       const v = Math.abs(f - fk);
-      if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}`, blame: P });
+      if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}` : '', blame: P });
     }
     for (const t of ctx.qubits[P].tls) {
       const v = Math.abs(f - t.atGHz) - t.widthGHz;
-      if (v < r.tlsClearanceGHz) add({ rule: 'cz-parked-tls', qubits: [id[P]], value: v, threshold: r.tlsClearanceGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(v)} beyond the edge of its defect at ${ghz(t.atGHz)}`, blame: P });
+      if (v < r.tlsClearanceGHz) add({ rule: 'cz-parked-tls', qubits: [id[P]], value: v, threshold: r.tlsClearanceGHz, message: m ? `${id[P]} parked at ${ghz(f)} is ${mhz(v)} beyond the edge of its defect at ${ghz(t.atGHz)}` : '', blame: P });
     }
     const rd = ctx.qubits[P].readoutGHz;
     if (rd !== undefined && Math.abs(f - rd) < r.readoutDetuningGHz) {
-      add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator`, blame: P });
+      add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: m ? `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator` : '', blame: P });
     }
     const from = s.parking[P].f01GHz;
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
-    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add);
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m);
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
   const durationNs = slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
-      message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
+      message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
   return { findings, swept, durationNs };
 }
 
 /** The findings collector of one evaluation (each finding tagged with the edge key). */
 function findingAdder(findings: CzFinding[], edgeKey: string): (f: Omit<CzFinding, 'edge'>) => void {
-  return (f) => void findings.push({ ...f, edge: edgeKey });
+  // (the finding literal is fresh: tagged in place, its keys in the same order as a spread copy's)
+  return (f) => {
+    (f as CzFinding).edge = edgeKey;
+    findings.push(f as CzFinding);
+  };
 }
 
 /** The admixture checks of excited qubit E (f01 = fE) against each of its neighbours but `skip` (their during-gate f01). */
-function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, E: number, fE: number, withLevel2: boolean, skip: number, where: string): void {
+function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, m: boolean, E: number, fE: number, withLevel2: boolean, skip: number, where: string): void {
   const id = ctx.ids;
   const limit = ctx.rules.spectatorAdmixture;
   const edgeKey = ctx.edges[s.edge].key;
@@ -213,7 +227,7 @@ function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFind
     for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
       if (c.admixture <= limit) continue;
       add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
-        message: `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}`,
+        message: m ? `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}` : '',
         details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
     }
   }
@@ -234,6 +248,7 @@ function sweep(
   isMover: boolean,
   swept: SweptCrossing[],
   add: (f: Omit<CzFinding, 'edge'>) => void,
+  messages: boolean,
 ): void {
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
@@ -242,7 +257,7 @@ function sweep(
   const tq = ctx.tables[Q];
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
   // large chip; `what` names the crossing in a message, built only for a finding)
-  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add };
+  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
   for (const X of ctx.neighbours[Q]) {
     const x = freqOf(X);
     const e = ctx.edgeBetween(Q, X);
@@ -312,6 +327,7 @@ interface SweepRecord {
   rate: number;
   swept: SweptCrossing[];
   add: (f: Omit<CzFinding, 'edge'>) => void;
+  messages: boolean;
 }
 
 /** A crossing strictly inside the swept band (lo, hi), 1 Hz margins. */
@@ -322,13 +338,14 @@ function insideSweep(f: number, lo: number, hi: number): boolean {
 /** Record a crossing the sweep passes, with its Landau-Zener transfer; a finding when the transfer breaks the limit. */
 function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string): void {
   const { ctx, Q, lo, hi, rate } = sw;
+  const m = sw.messages;
   const id = ctx.ids;
   const limit = ctx.rules.sweptTransferLimit;
   const transfer = landauZenerTransfer(g, rate);
   sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
   if (transfer > limit) {
     sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
-      message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
+      message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',
       details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
       blame });
   }
