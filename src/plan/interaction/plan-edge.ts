@@ -249,7 +249,7 @@ function evaluateOption(
     };
     return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
   }
-  const parking: DuringGate[] = ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz }));
+  const parking = parkingOf(ec.states);
   const moverAt = ctx.transmons[mover].spectrum(res.moverFlux);
   const parked = new Map<number, DuringGate>();
   const parkedInfo: ParkedSpectator[] = [];
@@ -547,6 +547,22 @@ function transitionsOf(ctx: PlanContext, q: number, fGHz: number): ReturnType<ty
   return hit;
 }
 
+/**
+ * Every qubit at parking as a rule evaluation reads it (f01, f12 of each exact state), shared by
+ * the evaluations while `states` holds the same state objects: the list was built anew for each
+ * option and re-evaluation before, one object per qubit of the chip each time. A state replaced
+ * in `states` (the repair's trial moves) gives a new list; a list handed out is never changed.
+ */
+export function parkingOf(states: readonly ExactQubitState[]): readonly DuringGate[] {
+  const hit = parkingLists.get(states);
+  if (hit && hit.from.length === states.length && hit.from.every((st, i) => st === states[i])) return hit.parking;
+  const parking: DuringGate[] = states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz }));
+  parkingLists.set(states, { from: [...states], parking });
+  return parking;
+}
+
+const parkingLists = new WeakMap<readonly ExactQubitState[], { from: ExactQubitState[]; parking: readonly DuringGate[] }>();
+
 function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly OptionReport[], partner: number): string {
   const id = ctx.ids;
   const name = (o: OptionReport) => `${id[o.mover]} ${o.crossing}`;
@@ -595,7 +611,7 @@ function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator
     edge: plan.edge, mover: plan.mover, partner: plan.partner, crossing: plan.crossing,
     fromGHz: ec.states[plan.mover].f01GHz, toGHz: plan.crossingGHz, moverF12AtToGHz: plan.moverF12AtInteractionGHz,
     crossingCouplingGHz: plan.crossingCouplingGHz, rampNs: plan.rampNs,
-    parking: ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz })),
+    parking: parkingOf(ec.states),
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
   // (returned only without findings: no messages needed)
