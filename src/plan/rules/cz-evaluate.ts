@@ -37,7 +37,7 @@ import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
 import type { Finding } from './findings.js';
-import { admixtureChecks } from './spectator-admixture.js';
+import { admixtureChecksBeyond } from './spectator-admixture.js';
 import { shortestGateNs, slotNs } from './cz-duration.js';
 
 export type Crossing = '11-20' | '11-02';
@@ -224,8 +224,7 @@ function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFind
     if (S === skip) continue;
     const d = during(s, S);
     const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
-    for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
-      if (c.admixture <= limit) continue;
+    for (const c of admixtureChecksBeyond(ctx, E, fE, S, d.f01GHz, G, withLevel2, limit)) {
       add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
         message: m ? `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}` : '',
         details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
@@ -254,62 +253,31 @@ function sweep(
   const hi = Math.max(from, to);
   if (!(hi - lo > 1e-9)) return;
   const id = ctx.ids;
-  const tq = ctx.tables[Q];
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
   // large chip; `what` names the crossing in a message, built only for a finding)
   const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
-  for (const X of ctx.neighbours[Q]) {
+  const memo = crossingMemoOf(ctx);
+  const nq = ctx.neighbours[Q];
+  for (let k = 0; k < nq.length; k++) {
+    const X = nq[k];
     const x = freqOf(X);
-    const e = ctx.edgeBetween(Q, X);
-    const G = ctx.edges[e].gChargeGHz;
     const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
-    // X's charge matrix elements at its frequency, looked up only when a crossing lies in the sweep
-    let n01x = NaN;
-    let n12x = NaN;
-    if (insideSweep(x.f01GHz, lo, hi)) {
-      const sx = ctx.tables[X].at(x.f01GHz, scratchB);
-      n01x = sx.n01;
-      n12x = sx.n12;
-      const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
-      recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
-    }
+    // the crossings with X where it stands and their couplings (remembered: X usually stands at its parking)
+    const c = memo.neighbour(ctx, Q, k, x.f01GHz, x.f12GHz);
+    if (insideSweep(x.f01GHz, lo, hi)) recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, c.g0101, blame, () => `${id[X]} f01 (01-10 crossing)`);
     const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
-    const f1120 = tq.f01ForF12(x.f01GHz);
-    if (!skip1120 && f1120 !== null && insideSweep(f1120, lo, hi)) {
-      if (Number.isNaN(n01x)) {
-        const sx = ctx.tables[X].at(x.f01GHz, scratchB);
-        n01x = sx.n01;
-        n12x = sx.n12;
-      }
-      const g = G * tq.at(f1120, scratchA).n12 * n01x;
-      recordCrossing(sw, 'cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
-    }
-    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) {
-      if (Number.isNaN(n01x)) {
-        const sx = ctx.tables[X].at(x.f01GHz, scratchB);
-        n01x = sx.n01;
-        n12x = sx.n12;
-      }
-      const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
-      recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
-    }
+    const f1120 = c.f1120;
+    if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, () => `the 11-20 crossing with ${id[X]}`);
+    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, () => `the 11-02 crossing with ${id[X]}`);
   }
-  for (const p of ctx.nextNearestOf[Q]) {
-    const pair = ctx.nextNearest[p];
+  const nn = ctx.nextNearestOf[Q];
+  for (let j = 0; j < nn.length; j++) {
+    const pair = ctx.nextNearest[nn[j]];
     const K = pair.a === Q ? pair.b : pair.a;
     const fk = freqOf(K).f01GHz;
     if (!insideSweep(fk, lo, hi)) continue;
-    const nq = tq.at(fk, scratchA).n01;
-    const nk = ctx.tables[K].at(fk, scratchB).n01;
-    const mediators: Mediator[] = pair.via.map((S) => {
-      const fs = freqOf(S).f01GHz;
-      const ns = ctx.tables[S].at(fs, scratchB).n01;
-      const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
-      const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
-      return { giGHz: gq, gkGHz: gk, fGHz: fs };
-    });
-    const g = Math.abs(mediatedExchange(fk, fk, mediators));
+    const g = memo.nextNearest(ctx, Q, j, K, fk, pair.via, freqOf);
     recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
   }
   for (const t of ctx.qubits[Q].tls) {
@@ -349,4 +317,140 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
       details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
       blame });
   }
+}
+
+/** The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them. */
+interface NeighbourCrossings {
+  /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table). */
+  f1120: number;
+  /** Couplings of the 01-01 (at X's f01), 11-20 (at f1120) and 11-02 (at X's f12) crossings. */
+  g0101: number;
+  g1120: number;
+  g1102: number;
+}
+
+/** The crossings of Q with X at (f01, f12) from the tables (what sweep computed inline before). */
+function neighbourCrossings(ctx: PlanContext, Q: number, X: number, f01: number, f12: number): NeighbourCrossings {
+  const tq = ctx.tables[Q];
+  const G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
+  const sx = ctx.tables[X].at(f01, scratchB);
+  const n01x = sx.n01;
+  const n12x = sx.n12;
+  const f = tq.f01ForF12(f01);
+  return {
+    f1120: f === null ? NaN : f,
+    g0101: G * tq.at(f01, scratchA).n01 * n01x,
+    g1120: f === null ? NaN : G * tq.at(f, scratchA).n12 * n01x,
+    g1102: G * tq.at(f12, scratchA).n01 * n12x,
+  };
+}
+
+/** The mediated coupling of Q with next-nearest K at fk through `via` where freqOf has them (what sweep computed inline before). */
+function nextNearestCoupling(ctx: PlanContext, Q: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
+  const nq = ctx.tables[Q].at(fk, scratchA).n01;
+  const nk = ctx.tables[K].at(fk, scratchB).n01;
+  const mediators: Mediator[] = via.map((S) => {
+    const fs = freqOf(S).f01GHz;
+    const ns = ctx.tables[S].at(fs, scratchB).n01;
+    const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
+    const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
+    return { giGHz: gq, gkGHz: gk, fGHz: fs };
+  });
+  return Math.abs(mediatedExchange(fk, fk, mediators));
+}
+
+/** Answers remembered per sweeping qubit and neighbour (slot) or next-nearest pair. */
+const CROSSING_MEMO_WAYS = 4;
+
+/**
+ * The crossing couplings sweep needs, remembered per context for the last few positions of each
+ * neighbour (or next-nearest neighbour and its mediators) of each sweeping qubit: a gate's
+ * neighbours stand at their parking in almost every evaluation, and the same gates are evaluated
+ * again and again (options, spectator points, ramps, repair trials). A remembered answer is the
+ * one computing it again gives (the tables are fixed for the context; tested).
+ */
+class CrossingMemo {
+  private readonly slotOf: Int32Array;
+  private readonly nnSlotOf: Int32Array;
+  private readonly keys: Float64Array;
+  private readonly values: NeighbourCrossings[];
+  private readonly next: Uint8Array;
+  private readonly nnKeys: (number[] | undefined)[];
+  private readonly nnValues: Float64Array;
+  private readonly nnNext: Uint8Array;
+
+  constructor(ctx: PlanContext) {
+    const n = ctx.n;
+    this.slotOf = new Int32Array(n + 1);
+    this.nnSlotOf = new Int32Array(n + 1);
+    for (let q = 0; q < n; q++) {
+      this.slotOf[q + 1] = this.slotOf[q] + ctx.neighbours[q].length;
+      this.nnSlotOf[q + 1] = this.nnSlotOf[q] + ctx.nextNearestOf[q].length;
+    }
+    const slots = this.slotOf[n];
+    this.keys = new Float64Array(slots * CROSSING_MEMO_WAYS * 2).fill(NaN);
+    this.values = new Array<NeighbourCrossings>(slots * CROSSING_MEMO_WAYS);
+    this.next = new Uint8Array(slots);
+    const nnSlots = this.nnSlotOf[n];
+    this.nnKeys = new Array<number[] | undefined>(nnSlots * CROSSING_MEMO_WAYS);
+    this.nnValues = new Float64Array(nnSlots * CROSSING_MEMO_WAYS);
+    this.nnNext = new Uint8Array(nnSlots);
+  }
+
+  /** neighbourCrossings of Q with its k-th neighbour at (f01, f12). */
+  neighbour(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): NeighbourCrossings {
+    const slot = this.slotOf[Q] + k;
+    const base = slot * CROSSING_MEMO_WAYS;
+    const keys = this.keys;
+    for (let w = 0; w < CROSSING_MEMO_WAYS; w++) {
+      const i = 2 * (base + w);
+      if (keys[i] === f01 && keys[i + 1] === f12) return this.values[base + w];
+    }
+    const v = neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12);
+    const w = this.next[slot];
+    this.next[slot] = (w + 1) % CROSSING_MEMO_WAYS;
+    keys[2 * (base + w)] = f01;
+    keys[2 * (base + w) + 1] = f12;
+    this.values[base + w] = v;
+    return v;
+  }
+
+  /** nextNearestCoupling of Q with the K of its j-th next-nearest pair at fk, the mediators where freqOf has them. */
+  nextNearest(ctx: PlanContext, Q: number, j: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
+    const slot = this.nnSlotOf[Q] + j;
+    const base = slot * CROSSING_MEMO_WAYS;
+    for (let w = 0; w < CROSSING_MEMO_WAYS; w++) {
+      const key = this.nnKeys[base + w];
+      if (key === undefined || key[0] !== fk) continue;
+      let same = true;
+      for (let v = 0; v < via.length; v++) {
+        if (key[v + 1] !== freqOf(via[v]).f01GHz) {
+          same = false;
+          break;
+        }
+      }
+      if (same) return this.nnValues[base + w];
+    }
+    const g = nextNearestCoupling(ctx, Q, K, fk, via, freqOf);
+    const w = this.nnNext[slot];
+    this.nnNext[slot] = (w + 1) % CROSSING_MEMO_WAYS;
+    const key = [fk];
+    for (const S of via) key.push(freqOf(S).f01GHz);
+    this.nnKeys[base + w] = key;
+    this.nnValues[base + w] = g;
+    return g;
+  }
+}
+
+const crossingMemos = new WeakMap<PlanContext, CrossingMemo>();
+
+function crossingMemoOf(ctx: PlanContext): CrossingMemo {
+  let m = crossingMemos.get(ctx);
+  if (!m) crossingMemos.set(ctx, (m = new CrossingMemo(ctx)));
+  return m;
+}
+
+/** For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12), remembered and computed anew. */
+export function crossingCouplingsForTest(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): { remembered: NeighbourCrossings; computed: NeighbourCrossings } {
+  return { remembered: crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12), computed: neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12) };
 }

@@ -67,6 +67,38 @@ export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: numb
   return out;
 }
 
+/**
+ * The checks of admixtureChecks whose admixture is not within `limit` (not <= limit), in the same
+ * order and with the same fields; the others are not built (the rule evaluation of every gate
+ * scenario asks, and most checks pass).
+ */
+export function admixtureChecksBeyond(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean, limit: number): AdmixtureCheck[] {
+  const e: TableState = ctx.tables[E].at(fE, scratchE);
+  const s: TableState = ctx.tables[S].at(fS, scratchS);
+  const e12 = e.f12;
+  const s12 = s.f12;
+  const G = gChargeGHz;
+  let out: AdmixtureCheck[] | null = null;
+  if (!(admixtureOf(fE, fS, G, e.n01, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-01-01', fE, fS, G, e.n01, s.n01, 'f01', 'f01'));
+  if (!(admixtureOf(fE, s12, G, e.n01, s.n12) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-11-02', fE, s12, G, e.n01, s.n12, 'f01', 'f12'));
+  if (!(admixtureOf(e12, fS, G, e.n12, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-11-20', e12, fS, G, e.n12, s.n01, 'f12', 'f01'));
+  if (withLevel2) {
+    const e23 = e.e3 - e.e2;
+    if (!(admixtureOf(e12, s12, G, e.n12, s.n12) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-21-12', e12, s12, G, e.n12, s.n12, 'f12', 'f12'));
+    if (!(admixtureOf(e23, fS, G, e.n23, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-21-30', e23, fS, G, e.n23, s.n01, 'f23', 'f01'));
+  }
+  return out ?? NONE;
+}
+
+const NONE: AdmixtureCheck[] = [];
+
+/** The admixture of admixtureCheck (the same arithmetic). */
+function admixtureOf(a: number, b: number, gChargeGHz: number, n1: number, n2: number): number {
+  const g = Math.abs(gChargeGHz * n1 * n2);
+  const d = Math.abs(a - b);
+  return d > 0 ? (g / d) ** 2 : Infinity;
+}
+
 /** One check of admixtureChecks (module level: no closure made per call on the planner's hot path). */
 function admixtureCheck(rule: RuleName, a: number, b: number, gChargeGHz: number, n1: number, n2: number, ta: string, tb: string): AdmixtureCheck {
   const g = Math.abs(gChargeGHz * n1 * n2);
