@@ -79,8 +79,10 @@ export function fitMovesToLayers(
   const planned = { edges: [...edges], layers, step: step(edges, layers) };
   const moves: SpectatorMoveMemo = new WeakMap();
   const alignedEdges = alignSpectatorPoints(ec, edges, moves);
-  const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
-  const aligned = { edges: alignedEdges, layers: alignedLayers, step: step(alignedEdges, alignedLayers) };
+  // (aligning changed no plan: the same plans give the same layers and cycle error, not coloured again)
+  const unchanged = samePlans(alignedEdges, edges);
+  const alignedLayers = unchanged ? copyLayers(layers) : planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
+  const aligned = { edges: alignedEdges, layers: alignedLayers, step: unchanged ? { ...planned.step } : step(alignedEdges, alignedLayers) };
   const fit = fitOptionalMoves(ec, alignedEdges, cache);
   // the fitting's layers are the start (planLayers repairs them where aligning again split a shared point)
   const fittedEdges = alignSpectatorPoints(ec, fit.edges, moves);
@@ -92,6 +94,12 @@ export function fitMovesToLayers(
   const keptLayers = explainLayers(ctx, all[kept].edges, parkingF12, parkingGHz, all[kept].layers, 1, cache);
   return { edges: all[kept].edges, layers: keptLayers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
 }
+
+/** The same plan objects in the same order. */
+const samePlans = (a: readonly EdgePlan[], b: readonly EdgePlan[]): boolean => a.length === b.length && a.every((x, i) => x === b[i]);
+
+/** A copy of a layer plan (its lists new). */
+const copyLayers = (l: LayerPlan): LayerPlan => ({ ...l, layerOf: [...l.layerOf], layers: l.layers.map((x) => [...x]), explanation: { ...l.explanation, pairs: { ...l.explanation.pairs } } });
 
 /**
  * One temporary point per spectator where the gates allow it: for each spectator moved by two or

@@ -250,7 +250,7 @@ function evaluateOption(
     return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
   }
   const parking = parkingOf(ec.states);
-  const moverAt = ctx.transmons[mover].spectrum(res.moverFlux);
+  const moverAt = spectrumMemo(ctx, mover, res.moverFlux);
   const parked = new Map<number, DuringGate>();
   const parkedInfo: ParkedSpectator[] = [];
   const scenario: GateScenario = {
