@@ -55,8 +55,8 @@ describe('the sweep\'s remembered crossing couplings', () => {
       for (let k = 0; k < ctx.neighbours[Q].length; k++) {
         const X = ctx.neighbours[Q][k];
         const t = ctx.tables[X];
-        // seven positions (the slot keeps four), each asked twice, then the first ones again
-        const points = Array.from({ length: 7 }, () => t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+        // eleven positions (a slot keeps eight), each asked twice, then the first ones again
+        const points = Array.from({ length: 11 }, () => t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
         for (const f of [...points, ...points, points[0], points[1]]) {
           const f12 = t.at(f).f12;
           const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, f12);

@@ -360,7 +360,7 @@ function nextNearestCoupling(ctx: PlanContext, Q: number, K: number, fk: number,
 }
 
 /** Answers remembered per sweeping qubit and neighbour (slot) or next-nearest pair. */
-const CROSSING_MEMO_WAYS = 4;
+const CROSSING_MEMO_WAYS = 8;
 
 /**
  * The crossing couplings sweep needs, remembered per context for the last few positions of each
