@@ -25,6 +25,7 @@ import { parkingOf, withoutSpectators } from '../../src/plan/interaction/plan-ed
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
 import { Random } from '../../src/util/random.js';
+import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
 
 const clove = planChip(loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml'));
 const { ctx } = clove;
@@ -45,6 +46,25 @@ describe('exact-result memos', () => {
     }
     expect(spectrumMemo(ctx, 0, -0)).toEqual(ctx.transmons[0].spectrum(0));
     expect(fluxForF01Memo(ctx, 1, 1e9)).toBeNull();
+  });
+});
+
+describe('the table\'s remembered flux', () => {
+  it('fluxAt gives the flux of a fresh lookup, for alternating and repeated points', () => {
+    const rng = new Random(11);
+    for (let q = 0; q < ctx.n; q++) {
+      const t = ctx.tables[q];
+      const fixed = t.fLowGHz + 0.7 * (t.fMaxGHz - t.fLowGHz);
+      for (let k = 0; k < 6; k++) {
+        const f = t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform();
+        for (const x of [f, fixed, f, fixed]) {
+          const s = t.at(x).ejRatio;
+          const d = ctx.transmons[q].asymmetry;
+          // the flux of E_J / E_J,max = s on the asymmetric-SQUID law (the table's own conversion, done here anew)
+          expect(t.fluxAt(x)).toBe(fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, s))));
+        }
+      }
+    }
   });
 });
 
