@@ -61,7 +61,10 @@ export function estimateGateBudget(x: GateEstimateInput): GateEstimate {
   const gB = rate(x.partner.coherence?.t1Ns);
   const wA = rate(x.mover.coherence?.tphiNs);
   const wB = rate(x.partner.coherence?.tphiNs);
-  const [gE, gO, wE] = x.excited === 'mover' ? [gA, gB, wA] : [gB, gA, wB];
+  const moverExcited = x.excited === 'mover';
+  const gE = moverExcited ? gA : gB;
+  const gO = moverExcited ? gB : gA;
+  const wE = moverExcited ? wA : wB;
   const t1 = 0.4 * T * (gA + gB) + 0.1 * h * (gE - gO);
   const whiteDephasing = 0.4 * T * (wA + wB) + 0.2 * h * wE;
   const twoPi = 2 * Math.PI;
@@ -73,18 +76,27 @@ export function estimateGateBudget(x: GateEstimateInput): GateEstimate {
   const p = x.partner;
   const sB = twoPi * p.slopeGHz * T;
   const s11B = x.excited === 'partner' ? sB + (twoPi * p.slope12GHz * h) / 2 : sB - (twoPi * p.slopeGHz * h) / 2;
-  const coefficient = (t: [number, number, number, number]): number => {
-    let sq = 0;
-    let sum = 0;
-    for (const v of t) {
-      sq += v * v;
-      sum += v;
-    }
-    return (4 * sq - sum * sum) / 20;
-  };
-  const sigma = (q: GateEstimatePoint): number => quasiStaticFluxSigma(q.coherence?.fluxNoisePhi0 ?? 0, T, x.averagingTimeNs);
-  const sgA = sigma(m);
-  const sgB = sigma(p);
-  const fluxNoise = coefficient([0, 0, sA, s11A]) * sgA * sgA + coefficient([0, sB, 0, s11B]) * sgB * sgB;
+  const sgA = quasiStaticFluxSigma(m.coherence?.fluxNoisePhi0 ?? 0, T, x.averagingTimeNs);
+  const sgB = quasiStaticFluxSigma(p.coherence?.fluxNoisePhi0 ?? 0, T, x.averagingTimeNs);
+  const fluxNoise = phaseCoefficient(0, 0, sA, s11A) * sgA * sgA + phaseCoefficient(0, sB, 0, s11B) * sgB * sgB;
   return { t1, whiteDephasing, fluxNoise };
+}
+
+/**
+ * [4 sum theta^2 - (sum theta)^2] / 20 of the phase vector (t0, t1, t2, t3), summed in that order.
+ * (Module level, not a closure made per call: the planner's search calls estimateGateBudget
+ * millions of times on a large chip.)
+ */
+function phaseCoefficient(t0: number, t1: number, t2: number, t3: number): number {
+  let sq = 0;
+  let sum = 0;
+  sq += t0 * t0;
+  sum += t0;
+  sq += t1 * t1;
+  sum += t1;
+  sq += t2 * t2;
+  sum += t2;
+  sq += t3 * t3;
+  sum += t3;
+  return (4 * sq - sum * sum) / 20;
 }

@@ -9,10 +9,37 @@
 import type { PlanContext } from './context.js';
 import type { SpectrumPoint } from '../transmon/spectrum.js';
 
+/**
+ * One memo per kind: for each qubit a map from the argument (a number key: distinct doubles are
+ * distinct keys, 0 and -0 one key, as their decimal strings were before) to the result. Number
+ * keys, not strings: building a string from a double cost more than the lookup it served.
+ */
+class QubitMemo<V> {
+  private readonly perQubit: (Map<number, V> | undefined)[] = [];
+  private size = 0;
+
+  get(q: number, x: number): V | undefined {
+    return this.perQubit[q]?.get(x);
+  }
+
+  set(q: number, x: number, value: V): V {
+    // bounds its memory on long or hostile runs: starts over at MEMO_LIMIT entries
+    if (this.size >= MEMO_LIMIT) {
+      this.perQubit.length = 0;
+      this.size = 0;
+    }
+    let m = this.perQubit[q];
+    if (!m) this.perQubit[q] = m = new Map();
+    m.set(x, value);
+    this.size++;
+    return value;
+  }
+}
+
 interface Memo {
-  flux: Map<string, number | null>;
-  spectrum: Map<string, SpectrumPoint>;
-  curvature: Map<string, number>;
+  flux: QubitMemo<number | null>;
+  spectrum: QubitMemo<SpectrumPoint>;
+  curvature: QubitMemo<number>;
 }
 
 const memos = new WeakMap<PlanContext, Memo>();
@@ -20,15 +47,9 @@ const memos = new WeakMap<PlanContext, Memo>();
 /** Entries a memo keeps before it starts over (bounds its memory on long or hostile runs). */
 export const MEMO_LIMIT = 200_000;
 
-function remember<V>(m: Map<string, V>, key: string, value: V): V {
-  if (m.size >= MEMO_LIMIT) m.clear();
-  m.set(key, value);
-  return value;
-}
-
 function memoOf(ctx: PlanContext): Memo {
   let m = memos.get(ctx);
-  if (!m) memos.set(ctx, (m = { flux: new Map(), spectrum: new Map(), curvature: new Map() }));
+  if (!m) memos.set(ctx, (m = { flux: new QubitMemo(), spectrum: new QubitMemo(), curvature: new QubitMemo() }));
   return m;
 }
 
@@ -36,9 +57,8 @@ function memoOf(ctx: PlanContext): Memo {
 export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): number | null {
   if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].fluxForF01OrNull(fGHz);
   const m = memoOf(ctx).flux;
-  const key = `${q},${fGHz}`;
-  let v = m.get(key);
-  if (v === undefined) v = remember(m, key, ctx.transmons[q].fluxForF01OrNull(fGHz));
+  let v = m.get(q, fGHz);
+  if (v === undefined) v = m.set(q, fGHz, ctx.transmons[q].fluxForF01OrNull(fGHz));
   return v;
 }
 
@@ -46,9 +66,8 @@ export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): numbe
 export function spectrumMemo(ctx: PlanContext, q: number, flux: number): SpectrumPoint {
   if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].spectrum(flux);
   const m = memoOf(ctx).spectrum;
-  const key = `${q},${flux}`;
-  let v = m.get(key);
-  if (v === undefined) v = remember(m, key, ctx.transmons[q].spectrum(flux));
+  let v = m.get(q, flux);
+  if (v === undefined) v = m.set(q, flux, ctx.transmons[q].spectrum(flux));
   return v;
 }
 
@@ -56,8 +75,7 @@ export function spectrumMemo(ctx: PlanContext, q: number, flux: number): Spectru
 export function fluxCurvatureMemo(ctx: PlanContext, q: number, flux: number): number {
   if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].fluxCurvatureGHz(flux);
   const m = memoOf(ctx).curvature;
-  const key = `${q},${flux}`;
-  let v = m.get(key);
-  if (v === undefined) v = remember(m, key, ctx.transmons[q].fluxCurvatureGHz(flux));
+  let v = m.get(q, flux);
+  if (v === undefined) v = m.set(q, flux, ctx.transmons[q].fluxCurvatureGHz(flux));
   return v;
 }

@@ -111,8 +111,9 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
     const spec = ctx.transmons[p.qubit].coherenceSpec;
     if (!spec?.fluxNoisePhi0) continue;
     const sigma = quasiStaticFluxSigma(spec.fluxNoisePhi0, slotNs, ctx.rules.noiseAveragingTimeNs);
-    const at = (flux: number) => (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, flux).df01dFluxGHz, 0, sigma)) / 3;
-    sum += Math.max(0, at(p.flux) - at(states[p.qubit].flux));
+    const moved = (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, p.flux).df01dFluxGHz, 0, sigma)) / 3;
+    const parked = (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, states[p.qubit].flux).df01dFluxGHz, 0, sigma)) / 3;
+    sum += Math.max(0, moved - parked);
   }
   return sum;
 }

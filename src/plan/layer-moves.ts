@@ -24,8 +24,8 @@
  *     3. the layers are coloured again starting from that assignment (repaired where needed).
  * Deterministic: the same plans and seed give the same result.
  */
-import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators, type EdgeContext, type EdgePlan } from './interaction/plan-edge.js';
-import { explainLayers, gatesConflict, movedQubits, planLayers, touchedQubits, type LayerPlan } from './layers.js';
+import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators, type EdgeContext, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
+import { ConflictCache, explainLayers, gatesConflict, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
   edges: EdgePlan[];
@@ -65,9 +65,11 @@ export function fitMovesToLayers(
   cycleError: CycleError,
 ): FittedLayers {
   const { ctx } = ec;
-  const quiet = { explain: false };
+  // the candidates share most plan objects: their moved qubits and pair conflicts are worked out once
+  const cache = new ConflictCache(parkingF12, parkingGHz);
+  const quiet = { explain: false, cache };
   const layers = planLayers(ctx, edges, parkingF12, parkingGHz, 1, undefined, quiet);
-  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers: explainLayers(ctx, edges, parkingF12, parkingGHz, layers), fitting: null };
+  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers: explainLayers(ctx, edges, parkingF12, parkingGHz, layers, 1, cache), fitting: null };
   const step = (list: readonly EdgePlan[], l: LayerPlan): FittingStep => ({
     layers: l.layers.length,
     cycleError: cycleError(list, l),
@@ -75,20 +77,29 @@ export function fitMovesToLayers(
     optionalMoves: list.reduce((a, e) => a + optionalMoves(e).length, 0),
   });
   const planned = { edges: [...edges], layers, step: step(edges, layers) };
-  const alignedEdges = alignSpectatorPoints(ec, edges);
-  const alignedLayers = planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
-  const aligned = { edges: alignedEdges, layers: alignedLayers, step: step(alignedEdges, alignedLayers) };
-  const fit = fitOptionalMoves(ec, alignedEdges, parkingF12, parkingGHz);
+  const moves: SpectatorMoveMemo = new WeakMap();
+  const alignedEdges = alignSpectatorPoints(ec, edges, moves);
+  // (aligning changed no plan: the same plans give the same layers and cycle error, not coloured again)
+  const unchanged = samePlans(alignedEdges, edges);
+  const alignedLayers = unchanged ? copyLayers(layers) : planLayers(ctx, alignedEdges, parkingF12, parkingGHz, 1, undefined, quiet);
+  const aligned = { edges: alignedEdges, layers: alignedLayers, step: unchanged ? { ...planned.step } : step(alignedEdges, alignedLayers) };
+  const fit = fitOptionalMoves(ec, alignedEdges, cache);
   // the fitting's layers are the start (planLayers repairs them where aligning again split a shared point)
-  const fittedEdges = alignSpectatorPoints(ec, fit.edges);
+  const fittedEdges = alignSpectatorPoints(ec, fit.edges, moves);
   const fittedLayers = planLayers(ctx, fittedEdges, parkingF12, parkingGHz, 1, fit.layerOf, quiet);
   const fitted = { edges: fittedEdges, layers: fittedLayers, step: step(fittedEdges, fittedLayers) };
   const all = { planned, aligned, fitted } as const;
   let kept: LayerFitting['kept'] = 'planned';
   for (const k of ['aligned', 'fitted'] as const) if (all[k].step.cycleError < all[kept].step.cycleError) kept = k;
-  const keptLayers = explainLayers(ctx, all[kept].edges, parkingF12, parkingGHz, all[kept].layers);
+  const keptLayers = explainLayers(ctx, all[kept].edges, parkingF12, parkingGHz, all[kept].layers, 1, cache);
   return { edges: all[kept].edges, layers: keptLayers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
 }
+
+/** The same plan objects in the same order. */
+const samePlans = (a: readonly EdgePlan[], b: readonly EdgePlan[]): boolean => a.length === b.length && a.every((x, i) => x === b[i]);
+
+/** A copy of a layer plan (its lists new). */
+const copyLayers = (l: LayerPlan): LayerPlan => ({ ...l, layerOf: [...l.layerOf], layers: l.layers.map((x) => [...x]), explanation: { ...l.explanation, pairs: { ...l.explanation.pairs } } });
 
 /**
  * One temporary point per spectator where the gates allow it: for each spectator moved by two or
@@ -96,7 +107,7 @@ export function fitMovesToLayers(
  * rules still hold there; ties: the lower sum of their estimated errors, then the lower
  * frequency); each gate that accepts it moves the spectator there.
  */
-export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]): EdgePlan[] {
+export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[], memo: SpectatorMoveMemo = new WeakMap()): EdgePlan[] {
   const out = [...edges];
   const users = new Map<number, number[]>();
   out.forEach((e, k) => {
@@ -118,7 +129,7 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
       const who: number[] = [];
       let error = 0;
       for (const k of list) {
-        const e = pointOf(k).fGHz === at.fGHz ? out[k] : withSpectatorPoints(ec, out[k], new Map([[S, at]]));
+        const e = pointOf(k).fGHz === at.fGHz ? out[k] : movedTo(ec, memo, out[k], S, at);
         if (!e) continue;
         accepted.push(e);
         who.push(k);
@@ -132,19 +143,38 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
 }
 
 /**
+ * withSpectatorPoints(ec, plan, {S: at}) remembered per plan object, spectator and point (the
+ * fitting aligns twice, the second time mostly the same plans): the same plan or null as
+ * evaluating it again, as long as `ec` is the same (one memo per fitMovesToLayers call).
+ */
+export type SpectatorMoveMemo = WeakMap<EdgePlan, Map<string, { flux: number; f12GHz: number; result: EdgePlan | null }>>;
+
+function movedTo(ec: EdgeContext, memo: SpectatorMoveMemo, plan: EdgePlan, S: number, at: Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>): EdgePlan | null {
+  let row = memo.get(plan);
+  if (!row) memo.set(plan, (row = new Map()));
+  const key = `${S},${at.fGHz}`;
+  const hit = row.get(key);
+  if (hit && hit.flux === at.flux && hit.f12GHz === at.f12GHz) return hit.result;
+  const result = withSpectatorPoints(ec, plan, new Map([[S, at]]));
+  row.set(key, { flux: at.flux, f12GHz: at.f12GHz, result });
+  return result;
+}
+
+/**
  * Optional moves fitted to the layers (steps 1-2 of the banner): the layers of the edges without
  * optional moves, then each edge's optional moves back where its layer carries them. Edges are
  * evaluated again with fewer spectators moved, not planned again (the moves a rule asked for
  * stay where they are); an edge whose rules would break keeps its moves.
  */
-function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): { edges: EdgePlan[]; layerOf?: Int32Array } {
+function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: ConflictCache): { edges: EdgePlan[]; layerOf?: Int32Array } {
   const { ctx } = ec;
+  const { parkingF12, parkingGHz } = cache;
   const withMoves = edges.map((e, k) => (optionalMoves(e).length > 0 ? k : -1)).filter((k) => k >= 0);
   if (withMoves.length === 0) return { edges: [...edges] };
   // 1. without optional moves
   const fitted = [...edges];
   for (const k of withMoves) fitted[k] = withoutSpectators(ec, edges[k], new Set(optionalMoves(edges[k]))) ?? edges[k];
-  const bare = planLayers(ctx, fitted, parkingF12, parkingGHz, 1, undefined, { explain: false });
+  const bare = planLayers(ctx, fitted, parkingF12, parkingGHz, 1, undefined, { explain: false, cache });
   const layerOf = Int32Array.from(bare.layerOf);
   // 2. optional moves back where the layers carry them
   const members: number[][] = Array.from({ length: bare.layers.length }, () => []);
@@ -158,8 +188,8 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], parkingF1
     if (dropped.size === optionalMoves(edges[k]).length) continue;
     const candidate = dropped.size === 0 ? edges[k] : withoutSpectators(ec, edges[k], dropped);
     if (!candidate) continue;
-    const moved = movedQubits(ctx, candidate, parkingF12, parkingGHz);
-    const clash = others.some((j) => gatesConflict(ctx, candidate, moved, fitted[j], movedQubits(ctx, fitted[j], parkingF12, parkingGHz)));
+    const moved = cache.movedOf(ctx, candidate);
+    const clash = others.some((j) => gatesConflict(ctx, candidate, moved, fitted[j], cache.movedOf(ctx, fitted[j])));
     if (!clash) fitted[k] = candidate;
   }
   return { edges: fitted, layerOf };

@@ -167,8 +167,9 @@ const LAYER_ROUNDS = 200;
  * The kind of every conflicting pair of gates (key a * plans.length + b, a < b indices into
  * `plans`): the conflict graph's edges, each with the first condition of the banner that holds.
  */
-export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): Map<number, ConflictKind> {
-  const moved = plans.map((p) => movedQubits(ctx, p, parkingF12, parkingGHz));
+export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, cache?: ConflictCache): Map<number, ConflictKind> {
+  if (cache && (cache.parkingF12 !== parkingF12 || cache.parkingGHz !== parkingGHz)) throw new Error('conflictKinds: the cache belongs to other parking frequencies');
+  const moved = plans.map((p) => (cache ? cache.movedOf(ctx, p) : movedQubits(ctx, p, parkingF12, parkingGHz)));
   const touching: number[][] = Array.from({ length: ctx.n }, () => []);
   plans.forEach((p, k) => {
     for (const q of touchedQubits(p)) touching[q].push(k);
@@ -183,7 +184,7 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
     const key = a * plans.length + b;
     if (seen.has(key)) return;
     seen.add(key);
-    const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
+    const kind = cache ? cache.kindOf(ctx, plans[a], moved[a], plans[b], moved[b]) : conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
     if (kind) kinds.set(key, kind);
   };
   for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
@@ -195,6 +196,38 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
     }
   });
   return kinds;
+}
+
+/**
+ * The moved qubits of each plan and the conflict kind of each pair of plans, remembered by plan
+ * object for one set of parking frequencies: the layer fitting (./layer-moves.ts) colours several
+ * candidate sets of plans that share most of their plan objects, and a plan's moved qubits and a
+ * pair's kind depend only on the two plans and the parking (plans are never changed in place).
+ * The same answers as computing them again (tested).
+ */
+export class ConflictCache {
+  private readonly moved = new WeakMap<EdgePlan, MovedQubit[]>();
+  private readonly kinds = new WeakMap<EdgePlan, Map<EdgePlan, ConflictKind | null>>();
+
+  constructor(
+    readonly parkingF12: readonly number[],
+    readonly parkingGHz: ArrayLike<number>,
+  ) {}
+
+  movedOf(ctx: PlanContext, plan: EdgePlan): MovedQubit[] {
+    let m = this.moved.get(plan);
+    if (!m) this.moved.set(plan, (m = movedQubits(ctx, plan, this.parkingF12, this.parkingGHz)));
+    return m;
+  }
+
+  /** conflictKind(ctx, g1, m1, g2, m2), remembered for the ordered pair (g1, g2); m1, m2 their movedOf. */
+  kindOf(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
+    let row = this.kinds.get(g1);
+    if (!row) this.kinds.set(g1, (row = new Map()));
+    let k = row.get(g2);
+    if (k === undefined) row.set(g2, (k = conflictKind(ctx, g1, m1, g2, m2)));
+    return k;
+  }
 }
 
 /** Every pair of gates that cannot share a layer (indices into `plans`, first < second): the conflict graph's edges. Used by planLayers and by verify. */
@@ -217,9 +250,9 @@ export function planLayers(
   parkingGHz: ArrayLike<number>,
   seed = 1,
   start?: ArrayLike<number>,
-  options: { explain?: boolean } = {},
+  options: { explain?: boolean; cache?: ConflictCache } = {},
 ): LayerPlan {
-  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
+  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz, options.cache);
   const lowerBound = lowerBoundOf(ctx);
   const colours = colourKinds(ctx, plans, kinds, new Set(KIND_ORDER), seed, start);
   const layerOf = Array.from(colours);
@@ -232,8 +265,8 @@ export function planLayers(
 }
 
 /** The explanation of a layer plan of `plans` (computed again from their conflicts; its own count stays the final one). */
-export function explainLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, layers: LayerPlan, seed = 1): LayerPlan {
-  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz);
+export function explainLayers(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, layers: LayerPlan, seed = 1, cache?: ConflictCache): LayerPlan {
+  const kinds = conflictKinds(ctx, plans, parkingF12, parkingGHz, cache);
   return { ...layers, explanation: explainKinds(ctx, plans, kinds, layers.layers.length, seed) };
 }
 

@@ -261,9 +261,22 @@ export class QubitTable {
 
   /** Flux (0 <= Phi <= 1/2) at f01 = fGHz. */
   fluxAt(fGHz: number): number {
+    // the last two answers are remembered (the parking cost asks for the flux excursion from one
+    // fixed end to each point it tries)
+    if (fGHz === this.fluxMemoF[0]) return this.fluxMemo[0];
+    if (fGHz === this.fluxMemoF[1]) return this.fluxMemo[1];
     const s = this.at(fGHz).ejRatio;
-    return fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, s)));
+    const flux = fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, s)));
+    const k = this.fluxMemoNext;
+    this.fluxMemoNext = 1 - k;
+    this.fluxMemoF[k] = fGHz;
+    this.fluxMemo[k] = flux;
+    return flux;
   }
+
+  private readonly fluxMemoF = new Float64Array(2).fill(NaN);
+  private readonly fluxMemo = new Float64Array(2);
+  private fluxMemoNext = 0;
 
   /** df01/dPhi (GHz per Phi0) at f01 = fGHz. */
   slopeAt(fGHz: number): number {

@@ -249,8 +249,8 @@ function evaluateOption(
     };
     return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
   }
-  const parking: DuringGate[] = ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz }));
-  const moverAt = ctx.transmons[mover].spectrum(res.moverFlux);
+  const parking = parkingOf(ec.states);
+  const moverAt = spectrumMemo(ctx, mover, res.moverFlux);
   const parked = new Map<number, DuringGate>();
   const parkedInfo: ParkedSpectator[] = [];
   const scenario: GateScenario = {
@@ -363,6 +363,9 @@ export function parkSpectators(
   return { evaluation: ev, unmovable };
 }
 
+/** Rule evaluations whose findings are only tested, never reported: no messages built. */
+const QUIET = Object.freeze({ messages: false });
+
 /** The reason recorded for a spectator moved by budgetMoves (no rule asked for it). */
 export const BUDGET_MOVE_REASON = 'lower estimated error';
 
@@ -403,7 +406,8 @@ function bestSpectatorPoint(
     const table = ctx.tables[P];
     const f12 = table.at(x).f12;
     parked.set(P, { f01GHz: x, f12GHz: f12 });
-    const ev = evaluateGate(ctx, scenario);
+    // (a screen: its findings are only tested and its score ranks, so no messages are built)
+    const ev = evaluateGate(ctx, scenario, QUIET);
     if (!clears(ev)) continue;
     screened.push({ x, order: score(ev, [...parkedInfo, { qubit: P, fGHz: x, flux: table.fluxAt(x), f12GHz: f12, reason }]) });
   }
@@ -412,7 +416,7 @@ function bestSpectatorPoint(
   for (const { x } of screened) {
     if (!score) {
       parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-      if (!clears(evaluateGate(ctx, scenario))) continue;
+      if (!clears(evaluateGate(ctx, scenario, QUIET))) continue;
     }
     const st = transitionsOf(ctx, P, x);
     parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
@@ -494,18 +498,20 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
     excited: s.crossing === '11-20' ? 'mover' : 'partner',
     holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
   });
-  let spectators = 0;
-  const during = (q: number): DuringGate => s.parked.get(q) ?? s.parking[q];
-  const add = (E: number, fE: number, withLevel2: boolean, skip: number) => {
-    for (const S of ctx.neighbours[E]) {
-      if (S === skip) continue;
-      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
-      spectators += SPECTATOR_ERROR_PER_ADMIXTURE * admixtureSum(ctx, E, fE, S, during(S).f01GHz, G, withLevel2);
-    }
-  };
-  add(s.mover, s.toGHz, s.crossing === '11-20', s.partner);
-  if (s.crossing === '11-02') add(s.partner, s.parking[s.partner].f01GHz, true, s.mover);
+  let spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
+  if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
   return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
+}
+
+/** `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each where the gate has it (in neighbour order). */
+function spectatorErrorOf(ctx: PlanContext, s: GateScenario, E: number, fE: number, withLevel2: boolean, skip: number, sum: number): number {
+  for (const S of ctx.neighbours[E]) {
+    if (S === skip) continue;
+    const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+    const fS = (s.parked.get(S) ?? s.parking[S]).f01GHz;
+    sum += SPECTATOR_ERROR_PER_ADMIXTURE * admixtureSum(ctx, E, fE, S, fS, G, withLevel2);
+  }
+  return sum;
 }
 
 export { SPECTATOR_ERROR_PER_ADMIXTURE };
@@ -518,7 +524,8 @@ export { SPECTATOR_ERROR_PER_ADMIXTURE };
  * give, so plans do not change.
  */
 const crossingMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof pairResonances>>>();
-const transitionMemo = new WeakMap<PlanContext, Map<string, ReturnType<typeof exactTransitions>>>();
+/** Per qubit, the exact transitions by f01 (number keys: distinct doubles are distinct keys). */
+const transitionMemo = new WeakMap<PlanContext, Map<number, ReturnType<typeof exactTransitions>>[]>();
 const CZ_CROSSINGS = ['11-20', '11-02'] as const;
 
 function crossingsOf(ctx: PlanContext, mover: number, partner: number, partnerFlux: number, gChargeGHz: number): ReturnType<typeof pairResonances> {
@@ -531,13 +538,30 @@ function crossingsOf(ctx: PlanContext, mover: number, partner: number, partnerFl
 }
 
 function transitionsOf(ctx: PlanContext, q: number, fGHz: number): ReturnType<typeof exactTransitions> {
-  let memo = transitionMemo.get(ctx);
-  if (!memo) transitionMemo.set(ctx, (memo = new Map()));
-  const key = `${q},${fGHz}`;
-  let hit = memo.get(key);
-  if (!hit) memo.set(key, (hit = exactTransitions(ctx.transmons[q], fGHz)));
+  let perQubit = transitionMemo.get(ctx);
+  if (!perQubit) transitionMemo.set(ctx, (perQubit = []));
+  let memo = perQubit[q];
+  if (!memo) perQubit[q] = memo = new Map();
+  let hit = memo.get(fGHz);
+  if (!hit) memo.set(fGHz, (hit = exactTransitions(ctx.transmons[q], fGHz)));
   return hit;
 }
+
+/**
+ * Every qubit at parking as a rule evaluation reads it (f01, f12 of each exact state), shared by
+ * the evaluations while `states` holds the same state objects: the list was built anew for each
+ * option and re-evaluation before, one object per qubit of the chip each time. A state replaced
+ * in `states` (the repair's trial moves) gives a new list; a list handed out is never changed.
+ */
+export function parkingOf(states: readonly ExactQubitState[]): readonly DuringGate[] {
+  const hit = parkingLists.get(states);
+  if (hit && hit.from.length === states.length && hit.from.every((st, i) => st === states[i])) return hit.parking;
+  const parking: DuringGate[] = states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz }));
+  parkingLists.set(states, { from: [...states], parking });
+  return parking;
+}
+
+const parkingLists = new WeakMap<readonly ExactQubitState[], { from: ExactQubitState[]; parking: readonly DuringGate[] }>();
 
 function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly OptionReport[], partner: number): string {
   const id = ctx.ids;
@@ -587,10 +611,11 @@ function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator
     edge: plan.edge, mover: plan.mover, partner: plan.partner, crossing: plan.crossing,
     fromGHz: ec.states[plan.mover].f01GHz, toGHz: plan.crossingGHz, moverF12AtToGHz: plan.moverF12AtInteractionGHz,
     crossingCouplingGHz: plan.crossingCouplingGHz, rampNs: plan.rampNs,
-    parking: ec.states.map((st) => ({ f01GHz: st.f01GHz, f12GHz: st.f12GHz })),
+    parking: parkingOf(ec.states),
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
-  const ev = evaluateGate(ctx, scenario);
+  // (returned only without findings: no messages needed)
+  const ev = evaluateGate(ctx, scenario, QUIET);
   if (ev.findings.length > 0) return null;
   const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
   const id = ctx.ids;

@@ -84,5 +84,7 @@ export function recalibrate(ctx: PlanContext, state: ParkingState): boolean {
     if (Math.abs(exact) > ctx.rules.zzLimitGHz) broken = true;
   }
   state.blockers.clearZzCache();
+  // the ZZ calibration changed: every cost and every settled visit is out of date
+  state.touch();
   return broken;
 }

@@ -42,6 +42,8 @@ function currentCost(state: ParkingState, i: number): number {
  * interval when `refine`; returns true when it moved.
  */
 export function improveQubit(state: ParkingState, i: number, refine = true): boolean {
+  // nothing it reads changed since a visit that found no better point: the same answer again
+  if (state.settled(i, refine)) return false;
   const blockers = state.blockersOf(i);
   const cands = state.candidates(i, blockers);
   let bestF = state.freq[i];
@@ -93,6 +95,7 @@ export function improveQubit(state: ParkingState, i: number, refine = true): boo
     state.set(i, bestF);
     return true;
   }
+  state.markSettled(i, refine);
   return false;
 }
 

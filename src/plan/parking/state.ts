@@ -37,6 +37,17 @@ export class ParkingState implements FrequencyView {
     this.blockers = new IdleBlockers(ctx);
     this.cost = new ParkingCost(ctx, options);
     this.kept = new KeptParking(ctx, options.keep);
+    this.changedAt = new Float64Array(n);
+    this.settledAt = [new Float64Array(n).fill(-1), new Float64Array(n).fill(-1)];
+    this.reads = ctx.neighbours.map((ns, i) => {
+      const set = new Set<number>([i]);
+      for (const j of ns) {
+        set.add(j);
+        for (const k of ctx.neighbours[j]) set.add(k);
+      }
+      for (const p of ctx.nextNearestOf[i]) set.add(ctx.nextNearest[p].a === i ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
+      return Int32Array.from([...set].sort((a, b) => a - b));
+    });
     for (let i = 0; i < n; i++) this.set(i, this.startOf(i));
   }
 
@@ -66,10 +77,39 @@ export class ParkingState implements FrequencyView {
   /** Changes whenever a frequency or the set of active qubits changes (cost caches key on it). */
   stamp = 0;
 
+  /** The stamp at which each qubit's frequency was last set, and at which the active set or the ZZ calibration last changed (touch). */
+  private readonly changedAt: Float64Array;
+  private changedAll = 0;
+  /** Per qubit, the stamp of its last visit that found no better point, without and with refinement (-1: none). */
+  private readonly settledAt: [Float64Array, Float64Array];
+  /** Per qubit, the qubits its visit reads: itself, its neighbours and theirs (next-nearest included). */
+  private readonly reads: Int32Array[];
+
   set(i: number, f: number): void {
     this.stamp++;
+    this.changedAt[i] = this.stamp;
     this.freq[i] = f;
     this.ctx.tables[i].at(f, this.states[i]);
+  }
+
+  /**
+   * True when qubit i's last visit (with the same `refine`) found no better point and nothing it
+   * reads has changed since: its own frequency, its neighbours' and their neighbours' (the
+   * blocked intervals read the neighbours and next-nearest neighbours; the cost the neighbours'
+   * gates and their spectators), the active set and the ZZ calibration (touch). A visit then
+   * finds no better point again (the search is deterministic), so it can be skipped.
+   */
+  settled(i: number, refine: boolean): boolean {
+    const t = this.settledAt[refine ? 1 : 0][i];
+    if (t < 0 || t < this.changedAll) return false;
+    const reads = this.reads[i];
+    for (let k = 0; k < reads.length; k++) if (this.changedAt[reads[k]] > t) return false;
+    return true;
+  }
+
+  /** Record that a visit of qubit i (with `refine`) found no better point where the state stands now. */
+  markSettled(i: number, refine: boolean): void {
+    this.settledAt[refine ? 1 : 0][i] = this.stamp;
   }
 
   /** Blocked intervals of qubit i with the others where they are (into a shared scratch array). */
@@ -84,9 +124,10 @@ export class ParkingState implements FrequencyView {
     return change > 0 ? { violation: c.violation, soft: c.soft + change } : c;
   }
 
-  /** Mark a change of the active set (invalidates cost caches). */
+  /** Mark a change of the active set or of the ZZ calibration (zzScale): invalidates cost caches and settled visits. */
   touch(): void {
     this.stamp++;
+    this.changedAll = this.stamp;
   }
 
   /** The allowed parking set of qubit i: its domain minus the blocked intervals. */

@@ -37,7 +37,7 @@ import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
 import type { Finding } from './findings.js';
-import { admixtureChecks } from './spectator-admixture.js';
+import { admixtureChecksBeyond } from './spectator-admixture.js';
 import { shortestGateNs, slotNs } from './cz-duration.js';
 
 export type Crossing = '11-20' | '11-02';
@@ -102,40 +102,36 @@ function during(s: GateScenario, q: number): DuringGate {
   return s.parked.get(q) ?? s.parking[q];
 }
 
-export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation {
+export interface EvaluateOptions {
+  /**
+   * false: the findings' messages are left empty (every other field as usual). For evaluations
+   * whose findings are only tested (the screening of spectator points, the layer fitting's
+   * re-evaluations): the messages cost more than the rules.
+   */
+  messages?: boolean;
+}
+
+export function evaluateGate(ctx: PlanContext, s: GateScenario, options: EvaluateOptions = {}): GateEvaluation {
+  const m = options.messages !== false;
   const r = ctx.rules;
   const id = ctx.ids;
   const A = s.mover;
   const findings: CzFinding[] = [];
   const swept: SweptCrossing[] = [];
   const edgeKey = ctx.edges[s.edge].key;
-  const add = (f: Omit<CzFinding, 'edge'>) => findings.push({ ...f, edge: edgeKey });
+  const add = findingAdder(findings, edgeKey);
   const to = s.toGHz;
   // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
   // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
-  const limit = r.spectatorAdmixture;
-  const spectatorChecks = (E: number, fE: number, withLevel2: boolean, skip: number, where: string) => {
-    for (const S of ctx.neighbours[E]) {
-      if (S === skip) continue;
-      const d = during(s, S);
-      const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
-      for (const c of admixtureChecks(ctx, E, fE, S, d.f01GHz, G, withLevel2)) {
-        if (c.admixture <= limit) continue;
-        add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
-          message: `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}`,
-          details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
-      }
-    }
-  };
-  spectatorChecks(A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
-  if (s.crossing === '11-02') spectatorChecks(s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
+  spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
+  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
   // The flux excursion (the flux line's current limit).
   const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
   const xTo = fluxForF01Memo(ctx, A, to);
   if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
     add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
-      message: `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0`, blame: -1 });
+      message: m ? `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0` : '', blame: -1 });
   }
   for (const p of ctx.nextNearestOf[A]) {
     const pair = ctx.nextNearest[p];
@@ -144,14 +140,14 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
     const v = Math.abs(to - fk);
     if (v < r.detuningNext0101GHz) {
       add({ rule: 'cz-next-01-01', qubits: [id[A], id[K]], value: v, threshold: r.detuningNext0101GHz,
-        message: `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}`, blame: K });
+        message: m ? `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}` : '', blame: K });
     }
   }
   for (const d of ctx.qubits[A].tls) {
     const v = Math.abs(to - d.atGHz) - d.widthGHz;
     if (v < r.tlsClearanceGHz) {
       add({ rule: 'cz-tls', qubits: [id[A]], value: v, threshold: r.tlsClearanceGHz,
-        message: `${id[A]} at the interaction point ${ghz(to)} is ${mhz(v)} beyond the edge of its defect at ${ghz(d.atGHz)}; needs ${mhz(r.tlsClearanceGHz)}`, blame: -1 });
+        message: m ? `${id[A]} at the interaction point ${ghz(to)} is ${mhz(v)} beyond the edge of its defect at ${ghz(d.atGHz)}; needs ${mhz(r.tlsClearanceGHz)}` : '', blame: -1 });
     }
   }
   const lo = Math.min(s.fromGHz, to);
@@ -161,12 +157,12 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
     const v = readout >= lo && readout <= hi ? 0 : Math.min(Math.abs(readout - lo), Math.abs(readout - hi));
     if (v < r.readoutDetuningGHz) {
       add({ rule: 'cz-readout', qubits: [id[A]], value: v, threshold: r.readoutDetuningGHz,
-        message: `${id[A]} sweeps ${band(lo, hi)}, ${mhz(v)} from its readout resonator at ${ghz(readout)}; needs ${mhz(r.readoutDetuningGHz)}`, blame: -1 });
+        message: m ? `${id[A]} sweeps ${band(lo, hi)}, ${mhz(v)} from its readout resonator at ${ghz(readout)}; needs ${mhz(r.readoutDetuningGHz)}` : '', blame: -1 });
     }
   }
   // The mover's sweep (spectators already in place).
   const moverRate = (hi - lo) / s.rampNs;
-  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add);
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
   for (const [P, d] of [...s.parked.entries()].sort((x, y) => x[0] - y[0])) {
     const f = d.f01GHz;
@@ -174,11 +170,11 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
       if (X === A) continue;
       const x = during(s, X);
       const d01 = Math.abs(f - x.f01GHz);
-      if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}`, blame: P });
+      if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}` : '', blame: P });
       const d1 = Math.abs(f - x.f12GHz);
       const d2 = Math.abs(d.f12GHz - x.f01GHz);
       const d12 = Math.min(d1, d2);
-      if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}`, blame: P });
+      if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}` : '', blame: P });
     }
     for (const p of ctx.nextNearestOf[P]) {
       const pair = ctx.nextNearest[p];
@@ -186,28 +182,54 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario): GateEvaluation 
       if (K === A) continue;
       const fk = during(s, K).f01GHz;
       const v = Math.abs(f - fk);
-      if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}`, blame: P });
+      if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}` : '', blame: P });
     }
     for (const t of ctx.qubits[P].tls) {
       const v = Math.abs(f - t.atGHz) - t.widthGHz;
-      if (v < r.tlsClearanceGHz) add({ rule: 'cz-parked-tls', qubits: [id[P]], value: v, threshold: r.tlsClearanceGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(v)} beyond the edge of its defect at ${ghz(t.atGHz)}`, blame: P });
+      if (v < r.tlsClearanceGHz) add({ rule: 'cz-parked-tls', qubits: [id[P]], value: v, threshold: r.tlsClearanceGHz, message: m ? `${id[P]} parked at ${ghz(f)} is ${mhz(v)} beyond the edge of its defect at ${ghz(t.atGHz)}` : '', blame: P });
     }
     const rd = ctx.qubits[P].readoutGHz;
     if (rd !== undefined && Math.abs(f - rd) < r.readoutDetuningGHz) {
-      add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator`, blame: P });
+      add({ rule: 'cz-parked-readout', qubits: [id[P]], value: Math.abs(f - rd), threshold: r.readoutDetuningGHz, message: m ? `${id[P]} parked at ${ghz(f)} is ${mhz(Math.abs(f - rd))} from its readout resonator` : '', blame: P });
     }
     const from = s.parking[P].f01GHz;
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
-    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add);
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m);
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
   const durationNs = slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
-      message: `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}`, blame: -1 });
+      message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
   return { findings, swept, durationNs };
+}
+
+/** The findings collector of one evaluation (each finding tagged with the edge key). */
+function findingAdder(findings: CzFinding[], edgeKey: string): (f: Omit<CzFinding, 'edge'>) => void {
+  // (the finding literal is fresh: tagged in place, its keys in the same order as a spread copy's)
+  return (f) => {
+    (f as CzFinding).edge = edgeKey;
+    findings.push(f as CzFinding);
+  };
+}
+
+/** The admixture checks of excited qubit E (f01 = fE) against each of its neighbours but `skip` (their during-gate f01). */
+function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, m: boolean, E: number, fE: number, withLevel2: boolean, skip: number, where: string): void {
+  const id = ctx.ids;
+  const limit = ctx.rules.spectatorAdmixture;
+  const edgeKey = ctx.edges[s.edge].key;
+  for (const S of ctx.neighbours[E]) {
+    if (S === skip) continue;
+    const d = during(s, S);
+    const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
+    for (const c of admixtureChecksBeyond(ctx, E, fE, S, d.f01GHz, G, withLevel2, limit)) {
+      add({ rule: c.rule, qubits: [id[E], id[S]], value: c.admixture, threshold: limit,
+        message: m ? `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}` : '',
+        details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
+    }
+  }
 }
 
 /**
@@ -225,79 +247,210 @@ function sweep(
   isMover: boolean,
   swept: SweptCrossing[],
   add: (f: Omit<CzFinding, 'edge'>) => void,
+  messages: boolean,
 ): void {
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
   if (!(hi - lo > 1e-9)) return;
-  const r = ctx.rules;
   const id = ctx.ids;
-  const tq = ctx.tables[Q];
-  const limit = r.sweptTransferLimit;
-  const inside = (f: number | null): f is number => f !== null && f > lo + 1e-9 && f < hi - 1e-9;
-  // `what` names the crossing in the message; built only for a finding (most crossings pass).
-  const record = (rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string) => {
-    const transfer = landauZenerTransfer(g, rate);
-    swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
-    if (transfer > limit) {
-      add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
-        message: `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}`,
-        details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
-        blame });
-    }
-  };
-  for (const X of ctx.neighbours[Q]) {
+  // (no closures made per call or per neighbour here: this loop runs millions of times on a
+  // large chip; `what` names the crossing in a message, built only for a finding)
+  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
+  const memo = crossingMemoOf(ctx);
+  const nq = ctx.neighbours[Q];
+  for (let k = 0; k < nq.length; k++) {
+    const X = nq[k];
     const x = freqOf(X);
-    const e = ctx.edgeBetween(Q, X);
-    const G = ctx.edges[e].gChargeGHz;
     const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
-    // X's charge matrix elements at its frequency, looked up only when a crossing lies in the sweep
-    let n01x = NaN;
-    let n12x = NaN;
-    const lookX = () => {
-      if (Number.isNaN(n01x)) {
-        const sx = ctx.tables[X].at(x.f01GHz, scratchB);
-        n01x = sx.n01;
-        n12x = sx.n12;
-      }
-    };
-    if (inside(x.f01GHz)) {
-      lookX();
-      const g = G * tq.at(x.f01GHz, scratchA).n01 * n01x;
-      record('cz-swept-01-01', X, x.f01GHz, g, blame, () => `${id[X]} f01 (01-10 crossing)`);
-    }
+    // the crossings with X where it stands and their couplings (remembered: X usually stands at its parking)
+    const c = memo.neighbour(ctx, Q, k, x.f01GHz, x.f12GHz);
+    if (insideSweep(x.f01GHz, lo, hi)) recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, c.g0101, blame, () => `${id[X]} f01 (01-10 crossing)`);
     const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
-    const f1120 = tq.f01ForF12(x.f01GHz);
-    if (!skip1120 && inside(f1120)) {
-      lookX();
-      const g = G * tq.at(f1120, scratchA).n12 * n01x;
-      record('cz-swept-11-20', X, f1120, g, blame, () => `the 11-20 crossing with ${id[X]}`);
-    }
-    if (!skip1102 && inside(x.f12GHz)) {
-      lookX();
-      const g = G * tq.at(x.f12GHz, scratchA).n01 * n12x;
-      record('cz-swept-11-02', X, x.f12GHz, g, blame, () => `the 11-02 crossing with ${id[X]}`);
-    }
+    const f1120 = c.f1120;
+    if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, () => `the 11-20 crossing with ${id[X]}`);
+    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, () => `the 11-02 crossing with ${id[X]}`);
   }
-  for (const p of ctx.nextNearestOf[Q]) {
-    const pair = ctx.nextNearest[p];
+  const nn = ctx.nextNearestOf[Q];
+  for (let j = 0; j < nn.length; j++) {
+    const pair = ctx.nextNearest[nn[j]];
     const K = pair.a === Q ? pair.b : pair.a;
     const fk = freqOf(K).f01GHz;
-    if (!inside(fk)) continue;
-    const nq = tq.at(fk, scratchA).n01;
-    const nk = ctx.tables[K].at(fk, scratchB).n01;
-    const mediators: Mediator[] = pair.via.map((S) => {
-      const fs = freqOf(S).f01GHz;
-      const ns = ctx.tables[S].at(fs, scratchB).n01;
-      const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
-      const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
-      return { giGHz: gq, gkGHz: gk, fGHz: fs };
-    });
-    const g = Math.abs(mediatedExchange(fk, fk, mediators));
-    record('cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+    if (!insideSweep(fk, lo, hi)) continue;
+    const g = memo.nextNearest(ctx, Q, j, K, fk, pair.via, freqOf);
+    recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
   }
   for (const t of ctx.qubits[Q].tls) {
-    if (!inside(t.atGHz)) continue;
-    record('cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
+    if (!insideSweep(t.atGHz, lo, hi)) continue;
+    recordCrossing(sw, 'cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
   }
+}
+
+/** What recordCrossing needs of the sweep it is called from. */
+interface SweepRecord {
+  ctx: PlanContext;
+  Q: number;
+  lo: number;
+  hi: number;
+  rate: number;
+  swept: SweptCrossing[];
+  add: (f: Omit<CzFinding, 'edge'>) => void;
+  messages: boolean;
+}
+
+/** A crossing strictly inside the swept band (lo, hi), 1 Hz margins. */
+function insideSweep(f: number, lo: number, hi: number): boolean {
+  return f > lo + 1e-9 && f < hi - 1e-9;
+}
+
+/** Record a crossing the sweep passes, with its Landau-Zener transfer; a finding when the transfer breaks the limit. */
+function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string): void {
+  const { ctx, Q, lo, hi, rate } = sw;
+  const m = sw.messages;
+  const id = ctx.ids;
+  const limit = ctx.rules.sweptTransferLimit;
+  const transfer = landauZenerTransfer(g, rate);
+  sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
+  if (transfer > limit) {
+    sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
+      message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',
+      details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
+      blame });
+  }
+}
+
+/** The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them. */
+interface NeighbourCrossings {
+  /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table). */
+  f1120: number;
+  /** Couplings of the 01-01 (at X's f01), 11-20 (at f1120) and 11-02 (at X's f12) crossings. */
+  g0101: number;
+  g1120: number;
+  g1102: number;
+}
+
+/** The crossings of Q with X at (f01, f12) from the tables (what sweep computed inline before). */
+function neighbourCrossings(ctx: PlanContext, Q: number, X: number, f01: number, f12: number): NeighbourCrossings {
+  const tq = ctx.tables[Q];
+  const G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
+  const sx = ctx.tables[X].at(f01, scratchB);
+  const n01x = sx.n01;
+  const n12x = sx.n12;
+  const f = tq.f01ForF12(f01);
+  return {
+    f1120: f === null ? NaN : f,
+    g0101: G * tq.at(f01, scratchA).n01 * n01x,
+    g1120: f === null ? NaN : G * tq.at(f, scratchA).n12 * n01x,
+    g1102: G * tq.at(f12, scratchA).n01 * n12x,
+  };
+}
+
+/** The mediated coupling of Q with next-nearest K at fk through `via` where freqOf has them (what sweep computed inline before). */
+function nextNearestCoupling(ctx: PlanContext, Q: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
+  const nq = ctx.tables[Q].at(fk, scratchA).n01;
+  const nk = ctx.tables[K].at(fk, scratchB).n01;
+  const mediators: Mediator[] = via.map((S) => {
+    const fs = freqOf(S).f01GHz;
+    const ns = ctx.tables[S].at(fs, scratchB).n01;
+    const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
+    const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
+    return { giGHz: gq, gkGHz: gk, fGHz: fs };
+  });
+  return Math.abs(mediatedExchange(fk, fk, mediators));
+}
+
+/** Answers remembered per sweeping qubit and neighbour (slot) or next-nearest pair. */
+const CROSSING_MEMO_WAYS = 8;
+
+/**
+ * The crossing couplings sweep needs, remembered per context for the last few positions of each
+ * neighbour (or next-nearest neighbour and its mediators) of each sweeping qubit: a gate's
+ * neighbours stand at their parking in almost every evaluation, and the same gates are evaluated
+ * again and again (options, spectator points, ramps, repair trials). A remembered answer is the
+ * one computing it again gives (the tables are fixed for the context; tested).
+ */
+class CrossingMemo {
+  private readonly slotOf: Int32Array;
+  private readonly nnSlotOf: Int32Array;
+  private readonly keys: Float64Array;
+  private readonly values: NeighbourCrossings[];
+  private readonly next: Uint8Array;
+  private readonly nnKeys: (number[] | undefined)[];
+  private readonly nnValues: Float64Array;
+  private readonly nnNext: Uint8Array;
+
+  constructor(ctx: PlanContext) {
+    const n = ctx.n;
+    this.slotOf = new Int32Array(n + 1);
+    this.nnSlotOf = new Int32Array(n + 1);
+    for (let q = 0; q < n; q++) {
+      this.slotOf[q + 1] = this.slotOf[q] + ctx.neighbours[q].length;
+      this.nnSlotOf[q + 1] = this.nnSlotOf[q] + ctx.nextNearestOf[q].length;
+    }
+    const slots = this.slotOf[n];
+    this.keys = new Float64Array(slots * CROSSING_MEMO_WAYS * 2).fill(NaN);
+    this.values = new Array<NeighbourCrossings>(slots * CROSSING_MEMO_WAYS);
+    this.next = new Uint8Array(slots);
+    const nnSlots = this.nnSlotOf[n];
+    this.nnKeys = new Array<number[] | undefined>(nnSlots * CROSSING_MEMO_WAYS);
+    this.nnValues = new Float64Array(nnSlots * CROSSING_MEMO_WAYS);
+    this.nnNext = new Uint8Array(nnSlots);
+  }
+
+  /** neighbourCrossings of Q with its k-th neighbour at (f01, f12). */
+  neighbour(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): NeighbourCrossings {
+    const slot = this.slotOf[Q] + k;
+    const base = slot * CROSSING_MEMO_WAYS;
+    const keys = this.keys;
+    for (let w = 0; w < CROSSING_MEMO_WAYS; w++) {
+      const i = 2 * (base + w);
+      if (keys[i] === f01 && keys[i + 1] === f12) return this.values[base + w];
+    }
+    const v = neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12);
+    const w = this.next[slot];
+    this.next[slot] = (w + 1) % CROSSING_MEMO_WAYS;
+    keys[2 * (base + w)] = f01;
+    keys[2 * (base + w) + 1] = f12;
+    this.values[base + w] = v;
+    return v;
+  }
+
+  /** nextNearestCoupling of Q with the K of its j-th next-nearest pair at fk, the mediators where freqOf has them. */
+  nextNearest(ctx: PlanContext, Q: number, j: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
+    const slot = this.nnSlotOf[Q] + j;
+    const base = slot * CROSSING_MEMO_WAYS;
+    for (let w = 0; w < CROSSING_MEMO_WAYS; w++) {
+      const key = this.nnKeys[base + w];
+      if (key === undefined || key[0] !== fk) continue;
+      let same = true;
+      for (let v = 0; v < via.length; v++) {
+        if (key[v + 1] !== freqOf(via[v]).f01GHz) {
+          same = false;
+          break;
+        }
+      }
+      if (same) return this.nnValues[base + w];
+    }
+    const g = nextNearestCoupling(ctx, Q, K, fk, via, freqOf);
+    const w = this.nnNext[slot];
+    this.nnNext[slot] = (w + 1) % CROSSING_MEMO_WAYS;
+    const key = [fk];
+    for (const S of via) key.push(freqOf(S).f01GHz);
+    this.nnKeys[base + w] = key;
+    this.nnValues[base + w] = g;
+    return g;
+  }
+}
+
+const crossingMemos = new WeakMap<PlanContext, CrossingMemo>();
+
+function crossingMemoOf(ctx: PlanContext): CrossingMemo {
+  let m = crossingMemos.get(ctx);
+  if (!m) crossingMemos.set(ctx, (m = new CrossingMemo(ctx)));
+  return m;
+}
+
+/** For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12), remembered and computed anew. */
+export function crossingCouplingsForTest(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): { remembered: NeighbourCrossings; computed: NeighbourCrossings } {
+  return { remembered: crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12), computed: neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12) };
 }

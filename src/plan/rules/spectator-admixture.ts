@@ -56,19 +56,54 @@ export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: numb
   const e23 = e.e3 - e.e2;
   const s12 = s.f12;
   const out: AdmixtureCheck[] = [];
-  const add = (rule: RuleName, a: number, b: number, n1: number, n2: number, ta: string, tb: string) => {
-    const g = Math.abs(gChargeGHz * n1 * n2);
-    const d = Math.abs(a - b);
-    out.push({ rule, excitedGHz: a, spectatorGHz: b, distanceGHz: d, couplingGHz: g, admixture: d > 0 ? (g / d) ** 2 : Infinity, excitedTransition: ta, spectatorTransition: tb });
-  };
-  add('cz-spectator-01-01', fE, fS, e.n01, s.n01, 'f01', 'f01');
-  add('cz-spectator-11-02', fE, s12, e.n01, s.n12, 'f01', 'f12');
-  add('cz-spectator-11-20', e12, fS, e.n12, s.n01, 'f12', 'f01');
+  const G = gChargeGHz;
+  out.push(admixtureCheck('cz-spectator-01-01', fE, fS, G, e.n01, s.n01, 'f01', 'f01'));
+  out.push(admixtureCheck('cz-spectator-11-02', fE, s12, G, e.n01, s.n12, 'f01', 'f12'));
+  out.push(admixtureCheck('cz-spectator-11-20', e12, fS, G, e.n12, s.n01, 'f12', 'f01'));
   if (withLevel2) {
-    add('cz-spectator-21-12', e12, s12, e.n12, s.n12, 'f12', 'f12');
-    add('cz-spectator-21-30', e23, fS, e.n23, s.n01, 'f23', 'f01');
+    out.push(admixtureCheck('cz-spectator-21-12', e12, s12, G, e.n12, s.n12, 'f12', 'f12'));
+    out.push(admixtureCheck('cz-spectator-21-30', e23, fS, G, e.n23, s.n01, 'f23', 'f01'));
   }
   return out;
+}
+
+/**
+ * The checks of admixtureChecks whose admixture is not within `limit` (not <= limit), in the same
+ * order and with the same fields; the others are not built (the rule evaluation of every gate
+ * scenario asks, and most checks pass).
+ */
+export function admixtureChecksBeyond(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean, limit: number): AdmixtureCheck[] {
+  const e: TableState = ctx.tables[E].at(fE, scratchE);
+  const s: TableState = ctx.tables[S].at(fS, scratchS);
+  const e12 = e.f12;
+  const s12 = s.f12;
+  const G = gChargeGHz;
+  let out: AdmixtureCheck[] | null = null;
+  if (!(admixtureOf(fE, fS, G, e.n01, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-01-01', fE, fS, G, e.n01, s.n01, 'f01', 'f01'));
+  if (!(admixtureOf(fE, s12, G, e.n01, s.n12) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-11-02', fE, s12, G, e.n01, s.n12, 'f01', 'f12'));
+  if (!(admixtureOf(e12, fS, G, e.n12, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-11-20', e12, fS, G, e.n12, s.n01, 'f12', 'f01'));
+  if (withLevel2) {
+    const e23 = e.e3 - e.e2;
+    if (!(admixtureOf(e12, s12, G, e.n12, s.n12) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-21-12', e12, s12, G, e.n12, s.n12, 'f12', 'f12'));
+    if (!(admixtureOf(e23, fS, G, e.n23, s.n01) <= limit)) (out ??= []).push(admixtureCheck('cz-spectator-21-30', e23, fS, G, e.n23, s.n01, 'f23', 'f01'));
+  }
+  return out ?? NONE;
+}
+
+const NONE: AdmixtureCheck[] = [];
+
+/** The admixture of admixtureCheck (the same arithmetic). */
+function admixtureOf(a: number, b: number, gChargeGHz: number, n1: number, n2: number): number {
+  const g = Math.abs(gChargeGHz * n1 * n2);
+  const d = Math.abs(a - b);
+  return d > 0 ? (g / d) ** 2 : Infinity;
+}
+
+/** One check of admixtureChecks (module level: no closure made per call on the planner's hot path). */
+function admixtureCheck(rule: RuleName, a: number, b: number, gChargeGHz: number, n1: number, n2: number, ta: string, tb: string): AdmixtureCheck {
+  const g = Math.abs(gChargeGHz * n1 * n2);
+  const d = Math.abs(a - b);
+  return { rule, excitedGHz: a, spectatorGHz: b, distanceGHz: d, couplingGHz: g, admixture: d > 0 ? (g / d) ** 2 : Infinity, excitedTransition: ta, spectatorTransition: tb };
 }
 
 /**
@@ -85,14 +120,21 @@ export function admixtureSum(ctx: PlanContext, E: number, fE: number, S: number,
  * them): the parking cost keeps the states it has already looked up.
  */
 export function admixtureSumOf(e: TableState, fE: number, s: TableState, fS: number, gChargeGHz: number, withLevel2: boolean): number {
-  const term = (a: number, b: number, n1: number, n2: number): number => {
-    const g = gChargeGHz * n1 * n2;
-    const d = a - b;
-    return d === 0 ? 1 : Math.min(1, (g * g) / (d * d));
-  };
-  let sum = term(fE, fS, e.n01, s.n01) + term(fE, s.f12, e.n01, s.n12) + term(e.f12, fS, e.n12, s.n01);
-  if (withLevel2) sum += term(e.f12, s.f12, e.n12, s.n12) + term(e.e3 - e.e2, fS, e.n23, s.n01);
+  const G = gChargeGHz;
+  let sum = admixtureTerm(fE, fS, G * e.n01 * s.n01) + admixtureTerm(fE, s.f12, G * e.n01 * s.n12) + admixtureTerm(e.f12, fS, G * e.n12 * s.n01);
+  if (withLevel2) sum += admixtureTerm(e.f12, s.f12, G * e.n12 * s.n12) + admixtureTerm(e.e3 - e.e2, fS, G * e.n23 * s.n01);
   return sum;
+}
+
+/**
+ * One term of admixtureSumOf: min(1, (g / (a - b))^2), 1 at a = b. A module-level function, not a
+ * closure made on each call: the parking cost calls admixtureSumOf millions of times on a large
+ * chip, and a closure made per call (named by the TypeScript runner's helper) cost more than the
+ * arithmetic.
+ */
+function admixtureTerm(a: number, b: number, g: number): number {
+  const d = a - b;
+  return d === 0 ? 1 : Math.min(1, (g * g) / (d * d));
 }
 
 /**

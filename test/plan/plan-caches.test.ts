@@ -1,0 +1,197 @@
+/**
+ * The planner's speed-ups of issue 13 remember or skip work; each must give exactly what the
+ * work it replaces gives. The reference here is that work done again from scratch (the recomputed
+ * result), compared for exact equality:
+ * - the exact-result memos (src/plan/exact-memo.ts) against the transmon's own calls;
+ * - the sweep's remembered crossing couplings (src/plan/rules/cz-evaluate.ts CrossingMemo)
+ *   against computing them again, also after their slots were overwritten;
+ * - a rule evaluation without messages against the full one with its messages blanked, on gate
+ *   scenarios that break rules (spectators put on the mover's interaction point);
+ * - the admixture checks beyond the limit against filtering all of them;
+ * - the layer fitting's conflict cache against conflictKinds without it, on the planned edges and
+ *   on a list where some plans were replaced;
+ * - the shared parking list of the rule evaluations against building it anew.
+ * The physics of each routine is tested against its outside references in its own test file
+ * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
+ */
+import { describe, expect, it } from 'vitest';
+import { loadLayoutFile } from '../../src/layout/load.js';
+import { planChip } from '../../src/plan/plan.js';
+import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
+import { crossingCouplingsForTest, evaluateGate, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
+import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
+import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
+import { parkingOf, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
+import { exactQubitState } from '../../src/plan/exact-state.js';
+import { scenarioOf } from '../../src/plan/plan-budget.js';
+import { Random } from '../../src/util/random.js';
+import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
+
+const clove = planChip(loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml'));
+const { ctx } = clove;
+
+describe('exact-result memos', () => {
+  it('give the transmon calls\' own results, for repeated and new arguments (0 and -0 one key)', () => {
+    const rng = new Random(3);
+    for (let k = 0; k < 40; k++) {
+      const q = rng.int(ctx.n);
+      const t = ctx.transmons[q];
+      const flux = 0.45 * rng.uniform();
+      const f = t.fMinGHz + (t.fMaxGHz - t.fMinGHz) * rng.uniform();
+      for (let again = 0; again < 2; again++) {
+        expect(spectrumMemo(ctx, q, flux)).toEqual(t.spectrum(flux));
+        expect(fluxForF01Memo(ctx, q, f)).toBe(t.fluxForF01OrNull(f));
+        expect(fluxCurvatureMemo(ctx, q, flux)).toBe(t.fluxCurvatureGHz(flux));
+      }
+    }
+    expect(spectrumMemo(ctx, 0, -0)).toEqual(ctx.transmons[0].spectrum(0));
+    expect(fluxForF01Memo(ctx, 1, 1e9)).toBeNull();
+  });
+});
+
+describe('the table\'s remembered flux', () => {
+  it('fluxAt gives the flux of a fresh lookup, for alternating and repeated points', () => {
+    const rng = new Random(11);
+    for (let q = 0; q < ctx.n; q++) {
+      const t = ctx.tables[q];
+      const fixed = t.fLowGHz + 0.7 * (t.fMaxGHz - t.fLowGHz);
+      for (let k = 0; k < 6; k++) {
+        const f = t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform();
+        for (const x of [f, fixed, f, fixed]) {
+          const s = t.at(x).ejRatio;
+          const d = ctx.transmons[q].asymmetry;
+          // the flux of E_J / E_J,max = s on the asymmetric-SQUID law (the table's own conversion, done here anew)
+          expect(t.fluxAt(x)).toBe(fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, s))));
+        }
+      }
+    }
+  });
+});
+
+describe('the sweep\'s remembered crossing couplings', () => {
+  it('equal the couplings computed anew, also after more positions than a slot keeps', () => {
+    const rng = new Random(5);
+    for (let Q = 0; Q < ctx.n; Q++) {
+      for (let k = 0; k < ctx.neighbours[Q].length; k++) {
+        const X = ctx.neighbours[Q][k];
+        const t = ctx.tables[X];
+        // eleven positions (a slot keeps eight), each asked twice, then the first ones again
+        const points = Array.from({ length: 11 }, () => t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+        for (const f of [...points, ...points, points[0], points[1]]) {
+          const f12 = t.at(f).f12;
+          const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, f12);
+          expect(remembered).toEqual(computed);
+        }
+      }
+    }
+  });
+});
+
+/** Gate scenarios of the planned edges, and the same with a neighbour of the mover moved onto the interaction point (rules break). */
+function scenarios(): GateScenario[] {
+  const out: GateScenario[] = [];
+  for (const e of clove.edges) {
+    if (!Number.isFinite(e.interactionGHz)) continue;
+    const base = scenarioOf(clove, e);
+    out.push(base);
+    for (const S of ctx.neighbours[e.mover]) {
+      if (S === e.partner) continue;
+      for (const dx of [0.003, -0.04]) {
+        const f = Math.min(ctx.tables[S].fMaxGHz, Math.max(ctx.tables[S].fLowGHz, e.interactionGHz + dx));
+        const parked = new Map(base.parked);
+        parked.set(S, { f01GHz: f, f12GHz: ctx.tables[S].at(f).f12 });
+        out.push({ ...base, parked });
+      }
+    }
+  }
+  return out;
+}
+
+describe('rule evaluation without messages', () => {
+  it('gives the same findings (messages aside), swept crossings and duration as the full evaluation', () => {
+    let findings = 0;
+    for (const s of scenarios()) {
+      const full = evaluateGate(ctx, s);
+      const quiet = evaluateGate(ctx, s, { messages: false });
+      findings += full.findings.length;
+      expect(full.findings.every((f) => f.message.length > 0)).toBe(true);
+      expect(quiet.findings.every((f) => f.message === '')).toBe(true);
+      expect(quiet.findings).toEqual(full.findings.map((f) => ({ ...f, message: '' })));
+      expect(quiet.swept).toEqual(full.swept);
+      expect(quiet.durationNs).toBe(full.durationNs);
+      // the keys of each finding in the order a spread copy gave them (the JSON output's order)
+      for (const f of full.findings) expect(Object.keys(f).at(-1)).toBe('edge');
+    }
+    expect(findings).toBeGreaterThan(50);
+  });
+
+  it('evaluating the same scenarios again (remembered couplings) gives the same results', () => {
+    const list = scenarios();
+    const first = list.map((s) => evaluateGate(ctx, s));
+    const again = list.map((s) => evaluateGate(ctx, s));
+    expect(again).toEqual(first);
+  });
+});
+
+describe('admixture checks beyond the limit', () => {
+  it('are the checks of admixtureChecks not within the limit, in order', () => {
+    const rng = new Random(7);
+    let kept = 0;
+    for (let k = 0; k < 400; k++) {
+      const e = ctx.edges[rng.int(ctx.edges.length)];
+      const [E, S] = rng.uniform() < 0.5 ? [e.a, e.b] : [e.b, e.a];
+      const tE = ctx.tables[E];
+      const fE = tE.fLowGHz + (tE.fMaxGHz - tE.fLowGHz) * rng.uniform();
+      // spectators near the excited qubit's transitions, so that some checks break the limit
+      const fS = Math.min(ctx.tables[S].fMaxGHz, Math.max(ctx.tables[S].fLowGHz, fE + 0.4 * (rng.uniform() - 0.5)));
+      const level2 = rng.uniform() < 0.5;
+      const limit = ctx.rules.spectatorAdmixture;
+      const all = admixtureChecks(ctx, E, fE, S, fS, e.gChargeGHz, level2).filter((c) => !(c.admixture <= limit));
+      const beyond = admixtureChecksBeyond(ctx, E, fE, S, fS, e.gChargeGHz, level2, limit);
+      expect(beyond).toEqual(all);
+      kept += beyond.length;
+    }
+    expect(kept).toBeGreaterThan(5);
+  });
+});
+
+describe('the layer fitting\'s conflict cache', () => {
+  const f12 = clove.states.map((s) => s.f12GHz);
+  const ghz = clove.parking.parkingGHz;
+  const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+
+  it('gives the conflict kinds computed without it, on the plans and on a list with some plans replaced', () => {
+    const cache = new ConflictCache(f12, ghz);
+    const plain = conflictKinds(ctx, clove.edges, f12, ghz);
+    expect(conflictKinds(ctx, clove.edges, f12, ghz, cache)).toEqual(plain);
+    expect(plain.size).toBeGreaterThan(0);
+    // the same again from the cache
+    expect(conflictKinds(ctx, clove.edges, f12, ghz, cache)).toEqual(plain);
+    // some plans without their moved spectators (new plan objects), the rest the same objects
+    const replaced = clove.edges.map((e) => (e.parked.length > 0 ? (withoutSpectators(ec, e, new Set(e.parked.map((p) => p.qubit))) ?? e) : e));
+    expect(replaced.some((e, k) => e !== clove.edges[k])).toBe(true);
+    expect(conflictKinds(ctx, replaced, f12, ghz, cache)).toEqual(conflictKinds(ctx, replaced, f12, ghz));
+  });
+
+  it('refuses parking frequencies other than its own', () => {
+    const cache = new ConflictCache(f12, ghz);
+    expect(() => conflictKinds(ctx, clove.edges, [...f12], ghz, cache)).toThrow();
+  });
+});
+
+describe('the shared parking list', () => {
+  it('is the list built anew; a replaced state gives a new list and leaves the old one as it was', () => {
+    const states = [...clove.states];
+    const a = parkingOf(states);
+    expect(a).toEqual(states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })));
+    expect(parkingOf(states)).toBe(a);
+    const before = a.map((d) => ({ ...d }));
+    const q = 3;
+    const f = states[q].f01GHz - 0.05;
+    states[q] = exactQubitState(ctx.transmons[q], f, ctx.rules.resistanceSpread);
+    const b = parkingOf(states);
+    expect(b).not.toBe(a);
+    expect(b).toEqual(states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })));
+    expect(a).toEqual(before);
+  });
+});
