@@ -27,6 +27,7 @@ import { subtract, type Interval } from '../intervals.js';
 import type { IdleBlockers } from '../rules/idle-blockers.js';
 import type { DuringGate, GateScenario } from '../rules/cz-evaluate.js';
 import { admixtureHalfWidth } from '../rules/spectator-admixture.js';
+import { emptyTableState } from '../qubit-table.js';
 
 
 /** How far inside its allowed band a moved spectator is placed when the band is wide enough (GHz; our choice). */
@@ -53,7 +54,8 @@ export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlock
   };
   const to = s.toGHz;
   const limit = r.spectatorAdmixture;
-  const sp = tp.at(f0);
+  // its own object: the table's shared scratch is overwritten by the f12 preimages below
+  const sp = tp.at(f0, emptyTableState());
   // The admixture checks of ../rules/spectator-admixture.ts as bands of P's f01 (P's matrix
   // elements taken at its parking point; the caller checks the chosen point exactly).
   const admixtureBands = (E: number, fE: number, withLevel2: boolean) => {
