@@ -27,7 +27,7 @@ import { trajectoryDuration } from '../sim/trajectory.js';
 import type { Transmon } from '../transmon/transmon.js';
 import { quasiStaticFluxSigma } from '../transmon/coherence.js';
 import { gateFluxNoise } from './gate-flux-noise.js';
-import { moverEjSpan, PAIR_TOP_MANIFOLD, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
+import { moverEjSpan, PAIR_TOP_MANIFOLD, REDUCED_MODEL_PARTNER_LEVELS, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, spectatorError, type SpectatorError } from './spectator-error.js';
 
 export { moverEjSpan };
 
@@ -119,20 +119,41 @@ export interface SpectatorBudget {
 
 
 /**
+ * Level counts of the spectator budget's three-transmon models for this waveform: SPECTATOR_LEVELS,
+ * with the partner kept to REDUCED_MODEL_PARTNER_LEVELS (5) when the gate is an 11-02 one (the
+ * mover's f01 meets the partner's f12): the partner's |2> is then in the interaction and its |3>
+ * and |4> shift it, and with 3 partner levels the spectator shares of Reef-49's Q1-Q2 (Q3 and Q9)
+ * came out 2.8 and 3.7 times those of the direct simulation with a 5-level partner (6.4e-4 and
+ * 2.0e-4 against 2.3e-4 and 5.4e-5, test/tools/direct_gate_error.py, 2026-12-03). Which crossing:
+ * at the waveform's far point, the nearer of |f01_mover - f12_partner| and |f12_mover - f01_partner|.
+ */
+export function spectatorModelLevels(pair: WaveformPair): { moverLevels: number; partnerLevels: number; spectatorLevels: number } {
+  const { mover, partner, traj } = pair;
+  const park = mover.ejGHz(traj.flux[0]);
+  let far = traj.flux[0];
+  for (const x of traj.flux) if (Math.abs(mover.ejGHz(x) - park) > Math.abs(mover.ejGHz(far) - park)) far = x;
+  const m = mover.spectrum(far);
+  const p = partner.spectrum(pair.partnerFlux);
+  const elevenOhTwo = Math.abs(m.f01GHz - p.f12GHz) < Math.abs(m.f12GHz - p.f01GHz);
+  return { ...SPECTATOR_LEVELS, partnerLevels: elevenOhTwo ? Math.max(SPECTATOR_LEVELS.partnerLevels, REDUCED_MODEL_PARTNER_LEVELS) : SPECTATOR_LEVELS.partnerLevels };
+}
+
+/**
  * The spectators' share of a waveform's budget: each listed spectator simulated on the waveform as
  * a third transmon (./spectator-error.ts), against the pair alone on the same model size and scheme.
  */
 export function spectatorBudget(pair: WaveformPair, list: readonly EdgeSpectator[]): SpectatorBudget {
   if (list.length === 0) return { spectators: 0, spectatorLeakage: 0, spectatorShares: [], simulations: 0 };
   const { mover, partner, gGHz, partnerFlux, traj, targetPhase } = pair;
-  const pairModel = edgeSimModel({ mover, partner, gGHz, partnerFlux, ...SPECTATOR_LEVELS });
+  const levels = spectatorModelLevels(pair);
+  const pairModel = edgeSimModel({ mover, partner, gGHz, partnerFlux, ...levels });
   const [ejLo, ejHi] = moverEjSpan(mover, traj);
   const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
   const pairMetrics = gateMetrics(alone.m, targetPhase);
   const shares = list.map((sp) => {
     const r = spectatorError({
       mover, partner, gGHz, partnerFlux, spectator: sp, traj, targetPhase,
-      pairError: 1 - pairMetrics.fidelity, pairLeakage: pairMetrics.leakage, levels: SPECTATOR_LEVELS,
+      pairError: 1 - pairMetrics.fidelity, pairLeakage: pairMetrics.leakage, levels,
     });
     return { qubit: sp.transmon.id, error: Math.max(0, r.error), leakage: Math.max(0, r.leakage), reduced: r.reduced };
   });

@@ -8,12 +8,14 @@
  * spectator 3, fourth-order Magnus, its own dressed states and virtual-Z phases) within 15 % of
  * the error (measured 2026-12-03: NumPy 1.038e-4; the planned waveform's share 1.037e-4 and the
  * direct check's 1.038e-4; with the reduced models' partner kept to 3 levels this test fails,
- * 3.28e-4 against 1.04e-4).
+ * 3.28e-4 against 1.04e-4). The budget's own call (spectatorBudget, which on an 11-02 gate keeps
+ * the partner to 5 levels in every model) is held to the same value.
  */
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
-import { moverEjSpan, PAIR_TOP_MANIFOLD, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
+import { moverEjSpan, PAIR_TOP_MANIFOLD, REDUCED_MODEL_PARTNER_LEVELS, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
+import { spectatorBudget, spectatorModelLevels } from '../../src/budget/waveform-budget.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate } from '../../src/sim/simulate-gate.js';
@@ -52,5 +54,20 @@ describe('spectatorError where the full frame does not converge (reduced model)'
     }, { timeoutMs: 600_000 });
     expect(ref.error).toBeGreaterThan(1e-5);
     expect(Math.abs(ours.error - ref.error) / ref.error, `ours ${ours.error}, NumPy ${ref.error}`).toBeLessThan(0.15);
+    // the budget as the commands compute it (spectatorBudget): on this 11-02 gate its models keep
+    // the partner to 5 levels (spectatorModelLevels), and the share agrees with the same NumPy value
+    const pair = { ...pairIn, traj, targetPhase: Math.PI };
+    expect(spectatorModelLevels(pair).partnerLevels).toBe(REDUCED_MODEL_PARTNER_LEVELS);
+    const share = spectatorBudget(pair, [{ transmon: Q6, coupledTo: 'partner', gGHz: g('Q5', 'Q6'), flux: SPECTATOR_FLUX }]).spectatorShares[0];
+    expect(Math.abs(share.error - ref.error) / ref.error, `budget ${share.error} (${share.reduced}), NumPy ${ref.error}`).toBeLessThan(0.15);
+  }, 600_000);
+
+  it('spectatorModelLevels: 5 partner levels on an 11-02 gate, the usual 3 on an 11-20 gate (Reef-49 Q4-Q5 both ways)', () => {
+    for (const crossing of ['11-02', '11-20'] as const) {
+      const d = designCzGate({ mover: Q4, partner: Q5, gGHz: g('Q4', 'Q5'), moverParkFlux: MOVER_PARK, partnerFlux: PARTNER_FLUX, crossing, rules: layout.rules });
+      expect(d.feasible, crossing).toBe(true);
+      const levels = spectatorModelLevels({ mover: Q4, partner: Q5, gGHz: g('Q4', 'Q5'), partnerFlux: PARTNER_FLUX, traj: d.waveform, targetPhase: Math.PI });
+      expect(levels.partnerLevels, crossing).toBe(crossing === '11-02' ? REDUCED_MODEL_PARTNER_LEVELS : SPECTATOR_LEVELS.partnerLevels);
+    }
   }, 600_000);
 });
