@@ -421,18 +421,37 @@ export class ManifoldFrameBuilder {
     const sizes = this.setups.map((st) => st.keptRows.length);
     const dt = sizes[0] + sizes[1];
     const w = dt * dt;
+    // Only the entries that are non-zero at some sample are interpolated (a ladder operator
+    // connects the two sectors and a number operator keeps them, so most of the Dt x Dt entries
+    // are zero at every sample). Each entry's series is computed on its own, so the kept entries
+    // are the same numbers as with all of them and the others are exactly 0, as before.
     const table = (field: 'ladder' | 'number', i: number): [Float64Array, Float64Array] => {
-      const vals = new Float64Array((degree + 1) * w);
-      samples.forEach((smp, j) => vals.set((smp[field] as Float64Array[])[i], j * w));
-      const c = chebyshevCoefficients(vals, degree, w);
-      const dc = chebyshevDerivative(c, degree, w, lo, hi);
+      const cols: number[] = [];
+      for (let q = 0; q < w; q++) {
+        for (const smp of samples) {
+          if ((smp[field] as Float64Array[])[i][q] !== 0) {
+            cols.push(q);
+            break;
+          }
+        }
+      }
+      const nc = cols.length;
+      const vals = new Float64Array((degree + 1) * nc);
+      samples.forEach((smp, j) => {
+        const src = (smp[field] as Float64Array[])[i];
+        for (let c = 0; c < nc; c++) vals[j * nc + c] = src[cols[c]];
+      });
+      const c = chebyshevCoefficients(vals, degree, nc);
+      const dc = chebyshevDerivative(c, degree, nc, lo, hi);
       const v = new Float64Array((nT + 1) * w);
       const sl = new Float64Array((nT + 1) * w);
-      const tmp = new Float64Array(w);
+      const tmp = new Float64Array(nc);
       for (let k = 0; k <= nT; k++) {
         const u = k === nT ? hi : lo + ((hi - lo) * k) / nT;
-        v.set(chebyshevEvaluate(c, degree, w, lo, hi, u, tmp), k * w);
-        sl.set(chebyshevEvaluate(dc, degree, w, lo, hi, u, tmp), k * w);
+        chebyshevEvaluate(c, degree, nc, lo, hi, u, tmp);
+        for (let q = 0; q < nc; q++) v[k * w + cols[q]] = tmp[q];
+        chebyshevEvaluate(dc, degree, nc, lo, hi, u, tmp);
+        for (let q = 0; q < nc; q++) sl[k * w + cols[q]] = tmp[q];
       }
       return [v, sl];
     };
