@@ -53,6 +53,14 @@ export interface ManifoldFrameOptions {
   ejHi: number;
   /** Keep the frame states of manifolds with total excitation <= this. */
   keepExcitations?: number;
+  /**
+   * Leave the bare product states with more than this many excitations out of the model (default
+   * all kept). The charge coupling changes the total excitation by 0 or 2, so with
+   * modelExcitations >= keepExcitations + 2 every state that couples directly to a kept manifold
+   * stays, and the ones left out shift the kept manifolds only at fourth order in g over the
+   * transmon frequencies (src/budget/spectator-error.ts uses it for the three-transmon frames).
+   */
+  modelExcitations?: number;
   /** Tolerance on the Chebyshev tail of Vt (dimensionless) and of E (GHz). */
   vectorTol?: number;
   energyTolGHz?: number;
@@ -175,7 +183,7 @@ export class ManifoldFrameBuilder {
   private readonly setups: SectorSetup[];
   private readonly moverCouplings: SimModel['couplings'];
 
-  constructor(readonly model: SimModel, keepExcitations: number = MANIFOLD_FRAME_DEFAULTS.keepExcitations) {
+  constructor(readonly model: SimModel, keepExcitations: number = MANIFOLD_FRAME_DEFAULTS.keepExcitations, modelExcitations = Infinity) {
     if (model.transmons.length < 1) throw new RangeError('manifold frame: no transmons');
     this.nCut = model.chargeCutoff ?? DEFAULT_CHARGE_CUTOFF;
     this.space = productSpace(model.transmons.map((t) => t.levels));
@@ -185,8 +193,10 @@ export class ManifoldFrameBuilder {
       const lv = transmonLevels(t.ecGHz, josephsonEnergy(t.ejsGHz, t.asymmetry, t.flux), { levels: t.levels, chargeCutoff: this.nCut, vectors: true });
       return { energies: lv.energies, charge: chargeMatrix(lv) };
     });
-    const { even, odd } = paritySectors(this.space);
-    this.setups = [even, odd].map((indices) => {
+    const sectors = paritySectors(this.space);
+    const inModel = (indices: Int32Array): Int32Array =>
+      Number.isFinite(modelExcitations) ? indices.filter((p) => productLevels(this.space, p).reduce((a, b) => a + b, 0) <= modelExcitations) : indices;
+    this.setups = [inModel(sectors.even), inModel(sectors.odd)].map((indices) => {
       const byExc = new Map<number, number[]>();
       indices.forEach((p, row) => {
         const exc = productLevels(this.space, p).reduce((a, b) => a + b, 0);
@@ -215,18 +225,9 @@ export class ManifoldFrameBuilder {
   sample(u: number, noise = false): Sample {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
-    const lv = transmonLevels(t0.ecGHz, u, { levels: k0, chargeCutoff: this.nCut, vectors: true });
-    const der = transmonLevelDerivatives(t0.ecGHz, u, lv);
-    const dim = 2 * this.nCut + 1;
-    const tm = new Float64Array(k0 * k0);
-    for (let m = 0; m < k0; m++)
-      for (let q = 0; q < k0; q++) {
-        let acc = 0;
-        for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
-        tm[m * k0 + q] = acc;
-      }
+    const { energies, charge, tm } = moverAt(t0.ecGHz, u, k0, this.nCut);
     const parts = this.statics.slice();
-    parts[0] = { energies: lv.energies, charge: chargeMatrix(lv) };
+    parts[0] = { energies, charge };
     const n = this.space.size;
     const h = productHamiltonian(this.space, parts, this.model.couplings);
     const stride0 = this.space.strides[0];
@@ -479,7 +480,7 @@ export class ManifoldFrameBuilder {
    * degree removes: ~1e-6 on most edges, 3e-5 on Reef-49 Q9-Q10 (E_J 7.6-16.7 GHz, f01 3.3-4.95 GHz), where the
    * frame still agrees with the moving-basis integration to 3e-6 (test/sim/propagate-frame.test.ts).
    */
-  private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
+  private converged(samples: Sample[], degree: number, o: Required<Omit<ManifoldFrameOptions, 'modelExcitations'>>): boolean {
     for (let s = 0; s < this.setups.length; s++) {
       const setup = this.setups[s];
       const d = setup.keptRows.length;
@@ -606,9 +607,46 @@ export class ManifoldFrameBuilder {
   }
 }
 
+/** The mover's levels, charge matrix and wave-function derivative T_mm' = <m|d/du m'> at one E_J. */
+interface MoverSample {
+  energies: Float64Array;
+  charge: Float64Array;
+  tm: Float64Array;
+}
+
+/**
+ * The frames of one gate's budget (the pair alone and each spectator's three-transmon model, or the
+ * nominal and the partner-offset frames) sample the mover at the same Chebyshev points of the same
+ * E_J range; its levels there are computed once and kept (deterministic, never modified by the
+ * callers, so a kept sample gives the same numbers as a new one). A small first-in first-out
+ * store: the points of a few frames' ranges.
+ */
+const MOVER_SAMPLES = new Map<string, MoverSample>();
+const MOVER_SAMPLES_KEPT = 512;
+
+function moverAt(ecGHz: number, u: number, k0: number, nCut: number): MoverSample {
+  const key = `${ecGHz} ${u} ${k0} ${nCut}`;
+  const kept = MOVER_SAMPLES.get(key);
+  if (kept) return kept;
+  const lv = transmonLevels(ecGHz, u, { levels: k0, chargeCutoff: nCut, vectors: true });
+  const der = transmonLevelDerivatives(ecGHz, u, lv);
+  const dim = 2 * nCut + 1;
+  const tm = new Float64Array(k0 * k0);
+  for (let m = 0; m < k0; m++)
+    for (let q = 0; q < k0; q++) {
+      let acc = 0;
+      for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
+      tm[m * k0 + q] = acc;
+    }
+  const out = { energies: lv.energies, charge: chargeMatrix(lv), tm };
+  if (MOVER_SAMPLES.size >= MOVER_SAMPLES_KEPT) MOVER_SAMPLES.delete(MOVER_SAMPLES.keys().next().value as string);
+  MOVER_SAMPLES.set(key, out);
+  return out;
+}
+
 export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {
   // (The builder's keepExcitations fixes the frame's state set; the rest are build options.)
-  return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations).build(options);
+  return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations, options.modelExcitations).build(options);
 }
 
 /** Locate the frame state labelled `levels`. */
