@@ -43,8 +43,6 @@ export interface SpectatorErrorInput {
   propagation?: FramePropagationOptions;
   /** Levels kept (default mover 5, partner 3, spectator 3); the pair baseline must use the same. */
   levels?: { moverLevels?: number; partnerLevels?: number; spectatorLevels?: number };
-  /** Bare states kept up to this many excitations above the frame's manifolds (default SPECTATOR_MODEL_MARGIN; Infinity keeps them all). */
-  modelMargin?: number;
   /** Intervals of the frame's Hermite tables (default SPECTATOR_TABLE_INTERVALS). */
   tableIntervals?: number;
 }
@@ -149,28 +147,14 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
   if (partnerReduced !== partnerFull) for (let m = full - 1; m >= 3; m--) attempts.push([m, partnerFull, 3, 'mover-levels']);
   for (const [moverLevels, partnerLevels, keepExcitations, reduced] of attempts) {
     try {
-      const modelExcitations = keepExcitations + (input.modelMargin ?? SPECTATOR_MODEL_MARGIN);
       const tableIntervals = input.tableIntervals ?? SPECTATOR_TABLE_INTERVALS;
-      return { frame: buildManifoldFrame(modelOf(moverLevels, partnerLevels), { ejLo, ejHi, keepExcitations, modelExcitations, tableIntervals }), reduced, moverLevels, partnerLevels };
+      return { frame: buildManifoldFrame(modelOf(moverLevels, partnerLevels), { ejLo, ejHi, keepExcitations, tableIntervals }), reduced, moverLevels, partnerLevels };
     } catch (err) {
       if (!(err instanceof RangeError) || !/no convergence/.test(err.message)) throw err;
     }
   }
   return null;
 }
-
-/**
- * The three-transmon frames leave out the bare states more than this many excitations above the
- * kept manifolds (src/sim/manifold-frame.ts modelExcitations): every state that couples directly
- * to a kept manifold stays (the charge coupling changes the excitation number by 0 or 2), and the
- * model's parity sectors shrink from 23 and 22 states to 16 and 19 (mover 5, partner 3,
- * spectator 3 levels), so each sample's diagonalisation costs about half. The error of Clove-17
- * D4-Z3's spectator Z1 changes by 1e-5 to 1e-4 of itself (leakage by < 1e-7 absolute), as much
- * as keeping one more excitation moves it: the frame's own tolerance on its three-excitation
- * states (test/budget/spectator-error.test.ts); the demo plans' spectator shares move by
- * < 1e-6 absolute (measured 2026-12-03).
- */
-export const SPECTATOR_MODEL_MARGIN = 2;
 
 /**
  * Intervals of the three-transmon frames' cubic Hermite tables (src/sim/manifold-frame.ts; its

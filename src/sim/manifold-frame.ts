@@ -53,14 +53,6 @@ export interface ManifoldFrameOptions {
   ejHi: number;
   /** Keep the frame states of manifolds with total excitation <= this. */
   keepExcitations?: number;
-  /**
-   * Leave the bare product states with more than this many excitations out of the model (default
-   * all kept). The charge coupling changes the total excitation by 0 or 2, so with
-   * modelExcitations >= keepExcitations + 2 every state that couples directly to a kept manifold
-   * stays, and the ones left out shift the kept manifolds only at fourth order in g over the
-   * transmon frequencies (src/budget/spectator-error.ts uses it for the three-transmon frames).
-   */
-  modelExcitations?: number;
   /** Tolerance on the Chebyshev tail of Vt (dimensionless) and of E (GHz). */
   vectorTol?: number;
   energyTolGHz?: number;
@@ -183,7 +175,7 @@ export class ManifoldFrameBuilder {
   private readonly setups: SectorSetup[];
   private readonly moverCouplings: SimModel['couplings'];
 
-  constructor(readonly model: SimModel, keepExcitations: number = MANIFOLD_FRAME_DEFAULTS.keepExcitations, modelExcitations = Infinity) {
+  constructor(readonly model: SimModel, keepExcitations: number = MANIFOLD_FRAME_DEFAULTS.keepExcitations) {
     if (model.transmons.length < 1) throw new RangeError('manifold frame: no transmons');
     this.nCut = model.chargeCutoff ?? DEFAULT_CHARGE_CUTOFF;
     this.space = productSpace(model.transmons.map((t) => t.levels));
@@ -193,10 +185,8 @@ export class ManifoldFrameBuilder {
       const lv = transmonLevels(t.ecGHz, josephsonEnergy(t.ejsGHz, t.asymmetry, t.flux), { levels: t.levels, chargeCutoff: this.nCut, vectors: true });
       return { energies: lv.energies, charge: chargeMatrix(lv) };
     });
-    const sectors = paritySectors(this.space);
-    const inModel = (indices: Int32Array): Int32Array =>
-      Number.isFinite(modelExcitations) ? indices.filter((p) => productLevels(this.space, p).reduce((a, b) => a + b, 0) <= modelExcitations) : indices;
-    this.setups = [inModel(sectors.even), inModel(sectors.odd)].map((indices) => {
+    const { even, odd } = paritySectors(this.space);
+    this.setups = [even, odd].map((indices) => {
       const byExc = new Map<number, number[]>();
       indices.forEach((p, row) => {
         const exc = productLevels(this.space, p).reduce((a, b) => a + b, 0);
@@ -480,7 +470,7 @@ export class ManifoldFrameBuilder {
    * degree removes: ~1e-6 on most edges, 3e-5 on Reef-49 Q9-Q10 (E_J 7.6-16.7 GHz, f01 3.3-4.95 GHz), where the
    * frame still agrees with the moving-basis integration to 3e-6 (test/sim/propagate-frame.test.ts).
    */
-  private converged(samples: Sample[], degree: number, o: Required<Omit<ManifoldFrameOptions, 'modelExcitations'>>): boolean {
+  private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
     for (let s = 0; s < this.setups.length; s++) {
       const setup = this.setups[s];
       const d = setup.keptRows.length;
@@ -646,7 +636,7 @@ function moverAt(ecGHz: number, u: number, k0: number, nCut: number): MoverSampl
 
 export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {
   // (The builder's keepExcitations fixes the frame's state set; the rest are build options.)
-  return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations, options.modelExcitations).build(options);
+  return new ManifoldFrameBuilder(model, options.keepExcitations ?? MANIFOLD_FRAME_DEFAULTS.keepExcitations).build(options);
 }
 
 /** Locate the frame state labelled `levels`. */
