@@ -49,6 +49,13 @@ export interface WaveformNoiseInput extends WaveformPair {
   /** The waveform simulated with the first-order estimate (and the Lindblad result for 'lindblad'). */
   simulation: GateSimulation;
   method: 'lindblad' | 'estimate';
+  /**
+   * Optional store of frames by key (src/gate/design.ts keeps one per design call): the
+   * partner-offset frames are looked up under `partner <delta>` (the key needs nothing else when
+   * the store belongs to one edge model and nominal frame), so the ramp times a design tries
+   * share them.
+   */
+  frameCache?: (key: string, build: () => ManifoldFrame) => ManifoldFrame;
 }
 
 export interface WaveformNoiseBudget {
@@ -81,9 +88,11 @@ export function waveformNoiseBudget(input: WaveformNoiseInput): WaveformNoiseBud
     frame, traj, targetPhase: input.targetPhase, virtualZ: s.virtualZ,
     labEnergies: [s.energies['00'], s.energies['01'], s.energies['10']],
     moverSigma, partnerSigma,
-    partnerFrame: (delta) =>
+    partnerFrame: (delta) => {
       // in-block propagation: the computational states (spectators in |0>) stay in manifolds <= 2
-      buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD }),
+      const build = () => buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD });
+      return input.frameCache ? input.frameCache(`partner ${delta}`, build) : build();
+    },
     propagation: FLUX_NOISE_PROPAGATION,
   });
   const fluxNoise = Math.max(0, fn.total);

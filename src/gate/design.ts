@@ -187,15 +187,16 @@ export const DESIGN_DEFAULTS = Object.freeze({
 export function designCzGate(req: GateDesignRequest): GateDesign {
   let used = req;
   let chosen: GateDesign;
+  const frames = frameCache();
   try {
-    chosen = chooseDesign(req);
+    chosen = chooseDesign(req, frames);
   } catch (err) {
     // A spectator in the design model whose levels meet the mover's upper levels along the
     // excursion can make the dressed manifolds too sharp for the frame (src/sim/manifold-frame.ts):
     // design on the pair alone and say so; the budget still simulates every budget spectator.
     if (!(req.spectators?.length && err instanceof RangeError && /no convergence/.test(err.message))) throw err;
     used = { ...req, spectators: undefined };
-    chosen = chooseDesign(used);
+    chosen = chooseDesign(used, frames);
     chosen.notes = [...(chosen.notes ?? []), `designed without the spectator(s) ${req.spectators.map((s) => s.transmon.id).join(', ')} in the model: ${err.message.replace(/^manifold frame: /, 'the frame with them ')}`];
   }
   const d = withSpectatorBudget(used, chosen);
@@ -204,12 +205,33 @@ export function designCzGate(req: GateDesignRequest): GateDesign {
   return d;
 }
 
-function chooseDesign(req: GateDesignRequest): GateDesign {
-  const best = designWithFamily(req);
+/**
+ * Frames built during one designCzGate call, by what they depend on beyond the call's edge
+ * (mover, partner, g, partner flux, noise): every ramp time and family tried uses the same
+ * design frame (its E_J range runs from parking to beyond the crossing, whatever the ramp), and
+ * the flux-noise average the same partner-offset frames. Frames are never modified after they
+ * are built, so sharing one changes no number.
+ */
+type FrameCache = (key: string, build: () => ManifoldFrame) => ManifoldFrame;
+
+function frameCache(): FrameCache {
+  const frames = new Map<string, ManifoldFrame>();
+  return (key, build) => {
+    let f = frames.get(key);
+    if (!f) {
+      f = build();
+      frames.set(key, f);
+    }
+    return f;
+  };
+}
+
+function chooseDesign(req: GateDesignRequest, frames: FrameCache): GateDesign {
+  const best = designWithFamily(req, frames);
   // No family asked for and the default one misses the goals (or fails): try the fallback family,
   // whose schedule slows down wherever any of the crossings it watches is near.
   if (req.family !== undefined || meetsGoals(best) || best.family === FALLBACK_FAMILY) return best;
-  const alt = designWithFamily({ ...req, family: FALLBACK_FAMILY });
+  const alt = designWithFamily({ ...req, family: FALLBACK_FAMILY }, frames);
   alt.evaluations += best.evaluations;
   if (designScore(alt) < designScore(best)) return alt;
   best.evaluations = alt.evaluations;
@@ -265,17 +287,17 @@ function designScore(d: GateDesign): number {
   return (meetsGoals(d) ? 0 : 1) + 1 - d.fidelity + (decoherence > 0 ? decoherence : 0) + 1e3 * Math.max(0, d.leakage - LEAKAGE_GOAL);
 }
 
-function designWithFamily(req: GateDesignRequest): GateDesign {
+function designWithFamily(req: GateDesignRequest, frames: FrameCache): GateDesign {
   const family = rampFamily(req.family ?? DEFAULT_FAMILY);
   if (!family) throw new RangeError(`unknown ramp family ${req.family}; known: ${RAMP_FAMILIES.map((f) => f.name).join(', ')}`);
-  if (req.rampNs !== undefined) return designWithRamp(req, family, req.rampNs);
+  if (req.rampNs !== undefined) return designWithRamp(req, family, req.rampNs, frames);
   const base = DEFAULT_RAMP_NS[family.name] ?? 8;
-  let best = designWithRamp(req, family, base);
+  let best = designWithRamp(req, family, base, frames);
   if (meetsGoals(best)) return best;
   for (const factor of RAMP_RETRY_FACTORS) {
     const ramp = base * factor;
     if (2 * ramp + 2 / req.rules.sampleRateGHz >= req.rules.maxGateNs) continue;
-    const d = designWithRamp(req, family, ramp);
+    const d = designWithRamp(req, family, ramp, frames);
     d.evaluations += best.evaluations;
     if (designScore(d) < designScore(best)) best = d;
     else best.evaluations = d.evaluations;
@@ -295,7 +317,7 @@ export const RAMP_RETRY_FACTORS: readonly number[] = Object.freeze([1.5, 2, 0.62
 /** The leakage a default design aims below (the acceptance goal of the gate stage). */
 export const LEAKAGE_GOAL = 1e-4;
 
-function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: number): GateDesign {
+function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: number, frames: FrameCache): GateDesign {
   const theta = req.targetPhase ?? Math.PI;
   const { mover, partner } = req;
   const gCharge = chargeCouplingFromExchange(req.gGHz, mover.chargeElement01(0), partner.chargeElement01(0));
@@ -339,7 +361,8 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
   const model = edgeSimModel({ mover, partner, gGHz: req.gGHz, partnerFlux: req.partnerFlux, noise: !!req.noise, spectators: req.spectators as EdgeSpectator[] | undefined });
   const ejPark = mover.ejGHz(park);
   const ejFar = mover.ejGHz(far);
-  const frame = buildManifoldFrame(model, { ejLo: Math.min(ejPark, ejFar), ejHi: Math.max(ejPark, ejFar), noiseOperators: !!req.noise });
+  const inModel = (req.spectators ?? []).map((s) => `${s.transmon.id}@${s.flux}:${s.gGHz}:${s.coupledTo}`).join(',');
+  const frame = frames(`design ${ejPark} ${ejFar} ${inModel}`, () => buildManifoldFrame(model, { ejLo: Math.min(ejPark, ejFar), ejHi: Math.max(ejPark, ejFar), noiseOperators: !!req.noise }));
   const ejOf = (x: number): number => mover.ejGHz(x);
   // 2. Exact crossing near the bare one.
   const w = Math.max(0.2 * span, 0.005);
@@ -516,6 +539,7 @@ function designWithRamp(req: GateDesignRequest, family: RampFamily, rampNs: numb
     const nb = waveformNoiseBudget({
       mover, partner, gGHz: req.gGHz, partnerFlux: req.partnerFlux, traj, targetPhase: theta,
       frame, modelSpectators: req.spectators as EdgeSpectator[] | undefined, simulation: final, method,
+      frameCache: (key, build) => frames(`${key} ${ejPark} ${ejFar} ${inModel}`, build),
     });
     evaluations += nb.simulations;
     budget = {

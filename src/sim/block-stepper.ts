@@ -91,6 +91,12 @@ export class BlockStepper {
   private readonly ni: Float64Array;
   /** Whether the current step has an inter-manifold part. */
   private coupled = false;
+  /**
+   * In-block only: the blocks that carry amplitude (setActiveBlocks); the others are skipped.
+   * Without coupling between blocks a block that starts at exactly zero stays exactly zero, so
+   * skipping its exponential changes no number.
+   */
+  private active: Uint8Array | undefined;
 
   /**
    * `inBlockOnly`: skip the inter-manifold part (an approximation for fast scans; its effect on
@@ -131,10 +137,24 @@ export class BlockStepper {
     this.ni = new Float64Array(d);
   }
 
+  /**
+   * In-block only (ignored otherwise): propagate just the blocks flagged in `active` (one flag per
+   * block); the caller guarantees the columns it applies are exactly zero on the others.
+   */
+  setActiveBlocks(active: Uint8Array | undefined): void {
+    this.active = this.inBlockOnly ? active : undefined;
+  }
+
+  private skipped(bi: number): boolean {
+    return this.active !== undefined && this.active[bi] === 0;
+  }
+
   /** A hold of length dt with E (D x D, block diagonal): U = exp(-i 2 pi E dt), no coupling. */
   setHold(e: Float64Array, dt: number): void {
     const d = this.d;
-    for (const b of this.blocks) {
+    for (let bi = 0; bi < this.blocks.length; bi++) {
+      const b = this.blocks[bi];
+      if (this.skipped(bi)) continue;
       const m = b.size;
       for (let i = 0; i < m; i++)
         for (let j = 0; j < m; j++) {
@@ -155,7 +175,9 @@ export class BlockStepper {
     const d = this.d;
     const c = (Math.sqrt(3) * h * h) / 12;
     const bo = this.blockOf;
-    for (const b of this.blocks) {
+    for (let bi = 0; bi < this.blocks.length; bi++) {
+      const b = this.blocks[bi];
+      if (this.skipped(bi)) continue;
       const m = b.size;
       const o = b.start;
       for (let i = 0; i < m; i++) {
@@ -468,6 +490,10 @@ export class BlockStepper {
       }
     }
     // x <- U_in x per block: V e^{-i w} V^dag x
-    for (const b of this.blocks) applyEigenExponential(b.u.vectorsRe, b.u.vectorsIm, b.u.values, b.size, re, im, ur, ui, b.start);
+    for (let bi = 0; bi < this.blocks.length; bi++) {
+      if (this.skipped(bi)) continue;
+      const b = this.blocks[bi];
+      applyEigenExponential(b.u.vectorsRe, b.u.vectorsIm, b.u.values, b.size, re, im, ur, ui, b.start);
+    }
   }
 }

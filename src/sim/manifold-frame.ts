@@ -215,18 +215,9 @@ export class ManifoldFrameBuilder {
   sample(u: number, noise = false): Sample {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
-    const lv = transmonLevels(t0.ecGHz, u, { levels: k0, chargeCutoff: this.nCut, vectors: true });
-    const der = transmonLevelDerivatives(t0.ecGHz, u, lv);
-    const dim = 2 * this.nCut + 1;
-    const tm = new Float64Array(k0 * k0);
-    for (let m = 0; m < k0; m++)
-      for (let q = 0; q < k0; q++) {
-        let acc = 0;
-        for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
-        tm[m * k0 + q] = acc;
-      }
+    const { energies, charge, tm } = moverAt(t0.ecGHz, u, k0, this.nCut);
     const parts = this.statics.slice();
-    parts[0] = { energies: lv.energies, charge: chargeMatrix(lv) };
+    parts[0] = { energies, charge };
     const n = this.space.size;
     const h = productHamiltonian(this.space, parts, this.model.couplings);
     const stride0 = this.space.strides[0];
@@ -421,18 +412,37 @@ export class ManifoldFrameBuilder {
     const sizes = this.setups.map((st) => st.keptRows.length);
     const dt = sizes[0] + sizes[1];
     const w = dt * dt;
+    // Only the entries that are non-zero at some sample are interpolated (a ladder operator
+    // connects the two sectors and a number operator keeps them, so most of the Dt x Dt entries
+    // are zero at every sample). Each entry's series is computed on its own, so the kept entries
+    // are the same numbers as with all of them and the others are exactly 0, as before.
     const table = (field: 'ladder' | 'number', i: number): [Float64Array, Float64Array] => {
-      const vals = new Float64Array((degree + 1) * w);
-      samples.forEach((smp, j) => vals.set((smp[field] as Float64Array[])[i], j * w));
-      const c = chebyshevCoefficients(vals, degree, w);
-      const dc = chebyshevDerivative(c, degree, w, lo, hi);
+      const cols: number[] = [];
+      for (let q = 0; q < w; q++) {
+        for (const smp of samples) {
+          if ((smp[field] as Float64Array[])[i][q] !== 0) {
+            cols.push(q);
+            break;
+          }
+        }
+      }
+      const nc = cols.length;
+      const vals = new Float64Array((degree + 1) * nc);
+      samples.forEach((smp, j) => {
+        const src = (smp[field] as Float64Array[])[i];
+        for (let c = 0; c < nc; c++) vals[j * nc + c] = src[cols[c]];
+      });
+      const c = chebyshevCoefficients(vals, degree, nc);
+      const dc = chebyshevDerivative(c, degree, nc, lo, hi);
       const v = new Float64Array((nT + 1) * w);
       const sl = new Float64Array((nT + 1) * w);
-      const tmp = new Float64Array(w);
+      const tmp = new Float64Array(nc);
       for (let k = 0; k <= nT; k++) {
         const u = k === nT ? hi : lo + ((hi - lo) * k) / nT;
-        v.set(chebyshevEvaluate(c, degree, w, lo, hi, u, tmp), k * w);
-        sl.set(chebyshevEvaluate(dc, degree, w, lo, hi, u, tmp), k * w);
+        chebyshevEvaluate(c, degree, nc, lo, hi, u, tmp);
+        for (let q = 0; q < nc; q++) v[k * w + cols[q]] = tmp[q];
+        chebyshevEvaluate(dc, degree, nc, lo, hi, u, tmp);
+        for (let q = 0; q < nc; q++) sl[k * w + cols[q]] = tmp[q];
       }
       return [v, sl];
     };
@@ -585,6 +595,43 @@ export class ManifoldFrameBuilder {
     const labelIndex = Int32Array.from(setup.keptRows, (r) => setup.indices[r]);
     return { parity: s, size: d, labels: setup.labels, labelIndex, blocks: setup.blocks, blockOf, energy, energySlope, coupling, couplingSlope, maxCoupling };
   }
+}
+
+/** The mover's levels, charge matrix and wave-function derivative T_mm' = <m|d/du m'> at one E_J. */
+interface MoverSample {
+  energies: Float64Array;
+  charge: Float64Array;
+  tm: Float64Array;
+}
+
+/**
+ * The frames of one gate's budget (the pair alone and each spectator's three-transmon model, or the
+ * nominal and the partner-offset frames) sample the mover at the same Chebyshev points of the same
+ * E_J range; its levels there are computed once and kept (deterministic, never modified by the
+ * callers, so a kept sample gives the same numbers as a new one). A small first-in first-out
+ * store: the points of a few frames' ranges.
+ */
+const MOVER_SAMPLES = new Map<string, MoverSample>();
+const MOVER_SAMPLES_KEPT = 512;
+
+function moverAt(ecGHz: number, u: number, k0: number, nCut: number): MoverSample {
+  const key = `${ecGHz} ${u} ${k0} ${nCut}`;
+  const kept = MOVER_SAMPLES.get(key);
+  if (kept) return kept;
+  const lv = transmonLevels(ecGHz, u, { levels: k0, chargeCutoff: nCut, vectors: true });
+  const der = transmonLevelDerivatives(ecGHz, u, lv);
+  const dim = 2 * nCut + 1;
+  const tm = new Float64Array(k0 * k0);
+  for (let m = 0; m < k0; m++)
+    for (let q = 0; q < k0; q++) {
+      let acc = 0;
+      for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
+      tm[m * k0 + q] = acc;
+    }
+  const out = { energies: lv.energies, charge: chargeMatrix(lv), tm };
+  if (MOVER_SAMPLES.size >= MOVER_SAMPLES_KEPT) MOVER_SAMPLES.delete(MOVER_SAMPLES.keys().next().value as string);
+  MOVER_SAMPLES.set(key, out);
+  return out;
 }
 
 export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {

@@ -212,6 +212,19 @@ export class SectorStepper {
     this.hasStart = true;
   }
 
+  /**
+   * In-block scheme only: propagate just the manifold blocks where some of `columns` is non-zero
+   * (they never leave their blocks, so the others stay exactly zero and need no exponential).
+   */
+  restrictToColumns(columns: readonly { re: Float64Array; im: Float64Array }[]): void {
+    if (!this.blocks || this.scheme !== 'in-block') return;
+    const active = new Uint8Array(this.sector.blocks.length);
+    this.sector.blocks.forEach((blk, bi) => {
+      for (const c of columns) for (let k = blk.start; k < blk.start + blk.size; k++) if (c.re[k] !== 0 || c.im[k] !== 0) active[bi] = 1;
+    });
+    this.blocks.setActiveBlocks(active);
+  }
+
   /** x <- V exp(-i w) V^H x with the decomposition in eig. */
   apply(re: Float64Array, im: Float64Array): void {
     if (this.blocks) {
@@ -387,9 +400,13 @@ export function propagateInFrame(
     const cols = initial.map((x, i) => (x.sector === s ? i : -1)).filter((i) => i >= 0);
     if (cols.length === 0) continue;
     const stepper = new SectorStepper(frame, frame.sectors[s], o.scheme);
+    stepper.restrictToColumns(cols.map((c) => ({ re: re[c], im: im[c] })));
     observer?.(-1, s, re, im, cols);
     schedule.forEach((step, i) => {
-      stepper.prepare(step);
+      // a hold split into equal pieces (maxHoldStepNs) has the same propagator for each piece:
+      // prepared once (the same numbers: preparing a hold does not depend on earlier steps)
+      const prev = i > 0 ? schedule[i - 1] : undefined;
+      if (!(step.hold && prev?.hold && prev.x0 === step.x0 && prev.h === step.h)) stepper.prepare(step);
       for (const c of cols) stepper.apply(re[c], im[c]);
       observer?.(i, s, re, im, cols);
     });

@@ -11,7 +11,7 @@ import { josephsonEnergy } from '../transmon/josephson.js';
 import { averageFromProcessInfidelity, jumpRates } from './decoherence.js';
 import { dressedStatesAt, type DressedState } from './dressed-states.js';
 import { conditionalPhase, gateMetrics, wrapAngle, type Block4 } from './gate-metrics.js';
-import { evaluateNoiseTable, frameState, type ManifoldFrame } from './manifold-frame.js';
+import { evaluateNoiseTable, frameState, tableInterval, type ManifoldFrame } from './manifold-frame.js';
 import { propagateInFrame, SectorStepper, stepSchedule, type FrameInitial, type FramePropagationOptions } from './propagate-frame.js';
 import type { Trajectory } from './trajectory.js';
 
@@ -223,8 +223,12 @@ class FirstOrderEstimate {
     this.schedule = schedule;
     this.nOps = 2 * model.transmons.length;
     const dt = noise.size;
-    const opBuf = new Float64Array(dt * dt);
     const mover = model.transmons[0];
+    // Per sector and jump operator: the operator's columns of that sector (all dt rows) at the
+    // last u evaluated (a hold split into pieces keeps u: the same numbers, computed once).
+    const nT = 2 * model.transmons.length;
+    const opCols = frame.sectors.map((sec) => Array.from({ length: nT }, () => new Float64Array(dt * sec.size)));
+    const opAt = frame.sectors.map(() => new Float64Array(nT).fill(NaN));
     this.observer = (stepIndex, sector, re, im, columns) => {
       const b = stepIndex + 1;
       if (this.p[b] === undefined) {
@@ -242,7 +246,12 @@ class FirstOrderEstimate {
         for (let kind = 0; kind < 2; kind++) {
           const rate = kind === 0 ? rates.relax : rates.dephase * 2;
           if (rate === 0) continue;
-          evaluateNoiseTable(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], u, opBuf);
+          const j0 = 2 * i + kind;
+          const opBuf = opCols[sector][j0];
+          if (opAt[sector][j0] !== u) {
+            noiseColumns(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], u, off, ds, opBuf);
+            opAt[sector][j0] = u;
+          }
           let pSum = 0;
           let qSum = 0;
           for (const c of columns) {
@@ -253,7 +262,7 @@ class FirstOrderEstimate {
               let yr = 0;
               let yi = 0;
               for (let k = 0; k < ds; k++) {
-                const ok = opBuf[r * dt + off + k];
+                const ok = opBuf[r * ds + k];
                 yr += ok * xr[k];
                 yi += ok * xi[k];
               }
@@ -295,6 +304,32 @@ class FirstOrderEstimate {
     };
     return { t1: part(0), dephasing: part(1) };
   }
+}
+
+/**
+ * Columns [off, off + ds) of a noise table's operator at u (all Dt rows), into out (Dt x ds): the
+ * same cubic Hermite, entry by entry, as evaluateNoiseTable (src/sim/manifold-frame.ts), so the
+ * same numbers, for the columns the observer reads.
+ */
+function noiseColumns(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, off: number, ds: number, out: Float64Array): void {
+  const i = tableInterval(frame, u);
+  const h = frame.tableStep;
+  const t = (u - (frame.ejLo + i * h)) / h;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  const h00 = 2 * t3 - 3 * t2 + 1;
+  const h10 = (t3 - 2 * t2 + t) * h;
+  const h01 = -2 * t3 + 3 * t2;
+  const h11 = (t3 - t2) * h;
+  const dt = frame.noise!.size;
+  const w = dt * dt;
+  const p0 = i * w;
+  const p1 = p0 + w;
+  for (let r = 0; r < dt; r++)
+    for (let k = 0; k < ds; k++) {
+      const q = r * dt + off + k;
+      out[r * ds + k] = h00 * values[p0 + q] + h10 * slopes[p0 + q] + h01 * values[p1 + q] + h11 * slopes[p1 + q];
+    }
 }
 
 /**

@@ -9,12 +9,15 @@
  *    other meeting points above it), the error falls by about 4x (between 2.5x and 6x: the
  *    phase part goes as (g/Delta)^2, common practice);
  *  - the planner's estimate (half the summed admixture, src/plan/interaction/plan-edge.ts) is
- *    within a factor 3 of the simulation (its documented scale).
+ *    within a factor 3 of the simulation (its documented scale);
+ *  - the frame's Hermite tables at SPECTATOR_TABLE_INTERVALS (32) intervals give the error of the
+ *    frame builder's default 128 to 1e-7 of itself and the leakage to 1e-9 absolute (measured
+ *    2026-12-03: 1.7e-9 and 1.0e-9 relative; leakage 7.5e-11 near the meeting point).
  */
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
-import { spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
+import { spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, SPECTATOR_TABLE_INTERVALS } from '../../src/budget/spectator-error.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate } from '../../src/sim/simulate-gate.js';
@@ -39,11 +42,11 @@ const pair = (() => {
   const sim = simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
   return gateMetrics(sim.m);
 })();
-const errorAt = (fS: number) =>
+const errorAt = (fS: number, tableIntervals?: number) =>
   spectatorError({
     mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX,
     spectator: { transmon: Z1, coupledTo: 'mover', gGHz: g('D4', 'Z1'), flux: Z1.fluxForF01(fS) },
-    traj, targetPhase: Math.PI, pairError: 1 - pair.fidelity, pairLeakage: pair.leakage,
+    traj, targetPhase: Math.PI, pairError: 1 - pair.fidelity, pairLeakage: pair.leakage, tableIntervals,
   });
 /** f23 of the mover at the interaction point: the spectator frequency where |21> meets |30>. */
 const f23 = (() => {
@@ -86,5 +89,15 @@ describe('spectatorError (three transmons)', () => {
     const estimate = 0.5 * sum;
     expect(estimate / base.error).toBeGreaterThan(1 / 3);
     expect(estimate / base.error).toBeLessThan(3);
+  });
+
+  it('Hermite tables of 32 intervals give the error of the default 128 to 1e-7 of itself', () => {
+    expect(SPECTATOR_TABLE_INTERVALS).toBe(32);
+    for (const fS of [near, f23 - 0.24]) {
+      const coarse = fS === near ? base : errorAt(fS);
+      const fine = errorAt(fS, 128);
+      expect(Math.abs(coarse.error - fine.error) / fine.error, `at ${fS} GHz: ${coarse.error} vs ${fine.error}`).toBeLessThan(1e-7);
+      expect(Math.abs(coarse.leakage - fine.leakage), `leakage at ${fS} GHz`).toBeLessThan(1e-9);
+    }
   });
 });
