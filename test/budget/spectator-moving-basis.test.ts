@@ -22,7 +22,7 @@ import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
 import { moverEjSpan, PAIR_TOP_MANIFOLD, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
-import { MOVING_BASIS_MAX_EXCITATIONS, MOVING_BASIS_STEP_NS, movingBasisSpectatorBlocks, movingBasisSpectatorError, pathSteps } from '../../src/budget/spectator-moving-basis.js';
+import { MOVING_BASIS_MAX_EXCITATIONS, MOVING_BASIS_STEP_NS, movingBasisSpectatorBlocks, movingBasisSpectatorError } from '../../src/budget/spectator-moving-basis.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate } from '../../src/sim/simulate-gate.js';
@@ -90,15 +90,4 @@ describe('spectatorError on the moving basis (no frame converges)', () => {
     // the counter-rotating coupling of the three-excitation states to the fifth manifold matters here (measured 5.45e-5 against 1.435e-4)
     expect(Math.abs(share(4) - full) / full).toBeGreaterThan(0.3);
   }, 600_000);
-
-  it('pathSteps: holds are single steps, ramps are joined up to the step and cover the waveform exactly', () => {
-    const traj = { timeNs: Float64Array.from([0, 0.06, 0.12, 0.18, 0.24, 1.24, 2.24, 2.3, 2.36]), flux: Float64Array.from([0, 0.1, 0.2, 0.3, 0.4, 0.4, 0.4, 0.2, 0]) };
-    const steps = pathSteps(traj, 0.13);
-    expect(steps.map((s) => [+s.t0.toFixed(6), +s.t1.toFixed(6), s.hold])).toEqual([
-      [0, 0.12, false],
-      [0.12, 0.24, false],
-      [0.24, 2.24, true],
-      [2.24, 2.36, false],
-    ]);
-  });
 });
