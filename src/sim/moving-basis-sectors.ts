@@ -5,6 +5,7 @@
  * from the last step's). Used by the spectator budget's last-resort model
  * (src/budget/spectator-moving-basis.ts), where no dressed-manifold frame converges.
  */
+import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { paritySectors, subMatrix } from '../pair/product-basis.js';
@@ -160,36 +161,15 @@ export function propagateMovingBasisJoined(mb: MovingBasisModel, traj: Trajector
       s.eig = hermitianEigen(mr, mi, m, { sort: false, work: s.work, start, out: s.eig ?? undefined });
       const { vectorsRe: vr, vectorsIm: vi, values: w } = s.eig;
       for (let col = 0; col < re.length; col++) {
-        // y = V exp(-i w) V^H x on the sector's components
+        // exp(-i M) on the sector's components: gathered, applied, scattered back
         for (let i = 0; i < m; i++) {
           s.xr[i] = re[col][idx[i]];
           s.xi[i] = im[col][idx[i]];
         }
-        for (let k = 0; k < m; k++) {
-          let sr = 0;
-          let si = 0;
-          for (let r = 0; r < m; r++) {
-            const ar = vr[r * m + k];
-            const ai = -vi[r * m + k];
-            sr += ar * s.xr[r] - ai * s.xi[r];
-            si += ar * s.xi[r] + ai * s.xr[r];
-          }
-          const cw = Math.cos(w[k]);
-          const sw = -Math.sin(w[k]);
-          s.yr[k] = cw * sr - sw * si;
-          s.yi[k] = sw * sr + cw * si;
-        }
-        for (let r = 0; r < m; r++) {
-          let sr = 0;
-          let si = 0;
-          for (let k = 0; k < m; k++) {
-            const ar = vr[r * m + k];
-            const ai = vi[r * m + k];
-            sr += ar * s.yr[k] - ai * s.yi[k];
-            si += ar * s.yi[k] + ai * s.yr[k];
-          }
-          re[col][idx[r]] = sr;
-          im[col][idx[r]] = si;
+        applyEigenExponential(vr, vi, w, m, s.xr, s.xi, s.yr, s.yi);
+        for (let i = 0; i < m; i++) {
+          re[col][idx[i]] = s.xr[i];
+          im[col][idx[i]] = s.xi[i];
         }
       }
     }
