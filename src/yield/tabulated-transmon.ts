@@ -12,9 +12,11 @@
  * of a nearly symmetric SQUID); the eigenbasis, charge-basis and level calls (exact coupled pairs,
  * simulations) stay exact.
  *
- * Accuracy (test/yield/tabulated-transmon.test.ts, against the exact Transmon): levels ~1e-10
- * relative (the table's), flux slopes and the inverse maps ~1e-9, the curvature (a central
- * difference of the tabulated slope, as the exact one is of the exact slope) ~1e-6 relative.
+ * Accuracy, as tested (test/yield/tabulated-transmon.test.ts): f01 and f12 within 1e-9 relative
+ * of SciPy's Mathieu values (the table itself is good to ~1e-10), df01/dPhi within 1e-6 of a
+ * finite difference of them; the inverse maps within 1e-9 Phi0, the curvature (a central
+ * difference of the tabulated slope, as the exact one is of the exact slope) within 1e-5
+ * relative and |<0|n|1>| within 1e-9 relative of the exact Transmon.
  */
 import { fluxForJosephsonEnergy } from '../transmon/josephson.js';
 import { emptyReducedState, type ReducedSpectrum } from '../transmon/reduced-spectrum.js';
