@@ -49,6 +49,35 @@ export function chebyshevCoefficients(values: ArrayLike<number>, n: number, widt
   return c;
 }
 
+/**
+ * Only the coefficient rows `ks` of chebyshevCoefficients (the same sums, in the same order, so
+ * the same numbers): coeffs[i * width + q] = c_{ks[i]} of function q. Cost O(|ks| n width), for
+ * tail checks that need the last few coefficients, not all n + 1.
+ */
+export function chebyshevCoefficientRows(values: ArrayLike<number>, n: number, width: number, ks: readonly number[]): Float64Array {
+  const c = new Float64Array(ks.length * width);
+  if (n === 0) {
+    ks.forEach((k, i) => {
+      if (k === 0) for (let q = 0; q < width; q++) c[i * width + q] = values[q];
+    });
+    return c;
+  }
+  const cosTable = new Float64Array(2 * n);
+  for (let m = 0; m < 2 * n; m++) cosTable[m] = Math.cos((Math.PI * m) / n);
+  ks.forEach((k, i) => {
+    if (!(k >= 0 && k <= n)) throw new RangeError(`chebyshevCoefficientRows: row ${k} outside 0..${n}`);
+    const scale = (k === 0 || k === n ? 1 : 2) / n;
+    const out = i * width;
+    for (let j = 0; j <= n; j++) {
+      const w = (j === 0 || j === n ? 0.5 : 1) * cosTable[(j * k) % (2 * n)] * scale;
+      if (w === 0) continue;
+      const row = j * width;
+      for (let q = 0; q < width; q++) c[out + q] += w * values[row + q];
+    }
+  });
+  return c;
+}
+
 /** Coefficients of the derivative d/dx (on [a, b]) of the series with coefficients c. */
 export function chebyshevDerivative(c: ArrayLike<number>, n: number, width: number, a: number, b: number): Float64Array {
   const d = new Float64Array((n + 1) * width);

@@ -43,9 +43,18 @@ import { chargeMatrix } from '../transmon/matrix-elements.js';
 import { transmonLevelDerivatives } from '../transmon/level-derivatives.js';
 import { josephsonEnergy } from '../transmon/josephson.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
-import { chebyshevCoefficients, chebyshevDerivative, chebyshevEvaluate, chebyshevPoints } from '../linalg/chebyshev-series.js';
+import { symmetricEigenQL, symmetricEigenQLScratch, type SymmetricEigenQLScratch } from '../linalg/symmetric-eigen-ql.js';
+import { chebyshevCoefficientRows, chebyshevCoefficients, chebyshevDerivative, chebyshevEvaluate, chebyshevPoints } from '../linalg/chebyshev-series.js';
 import { paritySectors, productHamiltonian, productLevels, productSpace, subMatrix, type ProductSpace, type TransmonPart } from '../pair/product-basis.js';
 import { DEFAULT_CHARGE_CUTOFF, type SimModel } from './model.js';
+
+/**
+ * Sector size from which the dressed states come from Householder + QL (src/linalg/
+ * symmetric-eigen-ql.ts) instead of Jacobi: measured on Reef-49's three-transmon sectors (37-38
+ * states) 1.8x faster; below ~25 states the two cost the same. The frame uses only the subspace
+ * each manifold's eigenvectors span (Lowdin orthonormalisation below), which both give to ~1e-14.
+ */
+const QL_FROM_SIZE = 28;
 
 export interface ManifoldFrameOptions {
   /** Range of the mover's E_J (GHz) to cover. */
@@ -63,6 +72,8 @@ export interface ManifoldFrameOptions {
   maxDegree?: number;
   /** Intervals of the Hermite table. */
   tableIntervals?: number;
+  /** Give up before maxDegree when the tail has stopped shrinking (see frameTailHopeless). */
+  stopHopeless?: boolean;
   /** Also tabulate each transmon's ladder b and number b^dag b in the frame (for decoherence). */
   noiseOperators?: boolean;
   /**
@@ -80,6 +91,7 @@ export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
   firstDegree: 16,
   maxDegree: 256,
   tableIntervals: 128,
+  stopHopeless: true,
   noiseOperators: false,
   dropWavefunctionDerivative: false,
 });
@@ -156,6 +168,17 @@ interface SectorSetup {
   blocks: FrameBlock[];
   /** rows (positions in `indices`) of the bare states of each block, in frame order */
   blockRows: Int32Array[];
+  /**
+   * For each row: the rows holding the same states of the other transmons with the mover in
+   * level m (m = 0..K_0-1; -1 where that state is not in the sector), row-major rows x K_0: the
+   * non-zeros of T (x) 1 (T conserves the mover's parity, so they stay in the sector).
+   */
+  moverRows: Int32Array;
+  /** mover level of each row */
+  moverLevel: Int32Array;
+  /** Frame states [start, end) of the block of each frame state. */
+  blockStart: Int32Array;
+  blockEnd: Int32Array;
 }
 
 interface Sample {
@@ -207,8 +230,39 @@ export class ManifoldFrameBuilder {
           labels.push(productLevels(this.space, indices[r]));
         }
       }
-      return { indices, keptRows: Int32Array.from(keptRows), labels, blocks, blockRows };
+      const k0 = this.space.dims[0];
+      const stride0 = this.space.strides[0];
+      const rowOf = new Map<number, number>();
+      indices.forEach((p, r) => rowOf.set(p, r));
+      const moverRows = new Int32Array(indices.length * k0).fill(-1);
+      const moverLevel = new Int32Array(indices.length);
+      indices.forEach((p, r) => {
+        const m0 = Math.floor(p / stride0) % k0;
+        moverLevel[r] = m0;
+        const rest = p - m0 * stride0;
+        for (let m = 0; m < k0; m++) moverRows[r * k0 + m] = rowOf.get(rest + m * stride0) ?? -1;
+      });
+      const d = keptRows.length;
+      const blockStart = new Int32Array(d);
+      const blockEnd = new Int32Array(d);
+      for (const b of blocks)
+        for (let q = 0; q < b.size; q++) {
+          blockStart[b.start + q] = b.start;
+          blockEnd[b.start + q] = b.start + b.size;
+        }
+      return { indices, keptRows: Int32Array.from(keptRows), labels, blocks, blockRows, moverRows, moverLevel, blockStart, blockEnd };
     });
+  }
+
+  private readonly qlScratches = new Map<number, SymmetricEigenQLScratch>();
+
+  private qlScratch(size: number): SymmetricEigenQLScratch {
+    let s = this.qlScratches.get(size);
+    if (!s) {
+      s = symmetricEigenQLScratch(size);
+      this.qlScratches.set(size, s);
+    }
+    return s;
   }
 
   /** Frame quantities at one value of the mover's E_J. */
@@ -220,7 +274,6 @@ export class ManifoldFrameBuilder {
     parts[0] = { energies, charge };
     const n = this.space.size;
     const h = productHamiltonian(this.space, parts, this.model.couplings);
-    const stride0 = this.space.strides[0];
     const out: Sample = { vt: [], e: [], x: [] };
     for (const setup of this.setups) {
       const idx = setup.indices;
@@ -229,7 +282,7 @@ export class ManifoldFrameBuilder {
       const vt = new Float64Array(size * d);
       const block = subMatrix(h, n, idx);
       if (size > 0 && d > 0) {
-        const eig = symmetricEigen(block, size);
+        const eig = size >= QL_FROM_SIZE ? symmetricEigenQL(block, size, undefined, this.qlScratch(size)) : symmetricEigen(block, size);
         const used = new Uint8Array(size);
         for (let bIdx = 0; bIdx < setup.blocks.length; bIdx++) {
           const blk = setup.blocks[bIdx];
@@ -282,35 +335,38 @@ export class ManifoldFrameBuilder {
             }
         }
       }
-      // E = Vt^T H Vt (block diagonal), X = Vt^T (T (x) 1) Vt
+      // E = Vt^T H Vt (block diagonal: only the in-block entries are formed, the others are 0 to
+      // rounding), X = Vt^T (T (x) 1) Vt. HV = H Vt skips the block's zeros (H couples few
+      // states); (T (x) 1) Vt has K_0 non-zeros per row (setup.moverRows).
       const e = new Float64Array(d * d);
       const xm = new Float64Array(d * d);
-      const hv = new Float64Array(size);
-      const tv = new Float64Array(size);
-      const full = new Float64Array(n);
-      for (let b = 0; b < d; b++) {
-        full.fill(0);
-        for (let r = 0; r < size; r++) full[idx[r]] = vt[r * d + b];
-        for (let r = 0; r < size; r++) {
-          let acc = 0;
-          for (let q = 0; q < size; q++) acc += block[r * size + q] * vt[q * d + b];
-          hv[r] = acc;
-          const p = idx[r];
-          const m0 = Math.floor(p / stride0) % k0;
-          const rest = p - m0 * stride0;
-          let tacc = 0;
-          for (let m = 0; m < k0; m++) tacc += tm[m0 * k0 + m] * full[rest + m * stride0];
-          tv[r] = tacc;
+      const hv = new Float64Array(size * d);
+      const tv = new Float64Array(size * d);
+      for (let r = 0; r < size; r++) {
+        const ro = r * d;
+        for (let q = 0; q < size; q++) {
+          const hrq = block[r * size + q];
+          if (hrq === 0) continue;
+          const qo = q * d;
+          for (let b = 0; b < d; b++) hv[ro + b] += hrq * vt[qo + b];
         }
+        const m0 = setup.moverLevel[r];
+        for (let m = 0; m < k0; m++) {
+          const rr = setup.moverRows[r * k0 + m];
+          const t = tm[m0 * k0 + m];
+          if (rr < 0 || t === 0) continue;
+          const qo = rr * d;
+          for (let b = 0; b < d; b++) tv[ro + b] += t * vt[qo + b];
+        }
+      }
+      for (let r = 0; r < size; r++) {
+        const ro = r * d;
         for (let a = 0; a < d; a++) {
-          let acc = 0;
-          let tacc = 0;
-          for (let r = 0; r < size; r++) {
-            acc += vt[r * d + a] * hv[r];
-            tacc += vt[r * d + a] * tv[r];
-          }
-          e[a * d + b] = acc;
-          xm[a * d + b] = tacc;
+          const va = vt[ro + a];
+          if (va === 0) continue;
+          const ao = a * d;
+          for (let b = 0; b < d; b++) xm[ao + b] += va * tv[ro + b];
+          for (let b = setup.blockStart[a]; b < setup.blockEnd[a]; b++) e[ao + b] += va * hv[ro + b];
         }
       }
       out.vt.push(vt);
@@ -390,9 +446,12 @@ export class ManifoldFrameBuilder {
     let points = chebyshevPoints(lo, hi, degree);
     const noise = o.noiseOperators;
     let samples = Array.from(points, (u) => this.sample(u, noise));
+    const tails: number[] = [];
     for (;;) {
-      if (this.converged(samples, degree, o)) break;
-      if (2 * degree > o.maxDegree) throw new RangeError(`manifold frame: no convergence at Chebyshev degree ${degree} (the dressed manifolds are not smooth over E_J in [${lo}, ${hi}] GHz; fewer levels or a smaller excursion may help)`);
+      const tail = this.tailRatio(samples, degree, o);
+      tails.push(tail);
+      if (tail <= 1) break;
+      if (2 * degree > o.maxDegree || (o.stopHopeless && frameTailHopeless(tails, degree, o.maxDegree))) throw new RangeError(`manifold frame: no convergence at Chebyshev degree ${degree} (the dressed manifolds are not smooth over E_J in [${lo}, ${hi}] GHz; fewer levels or a smaller excursion may help)`);
       const next = chebyshevPoints(lo, hi, 2 * degree);
       const merged: Sample[] = new Array(2 * degree + 1);
       for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j], noise);
@@ -471,6 +530,15 @@ export class ManifoldFrameBuilder {
    * frame still agrees with the moving-basis integration to 3e-6 (test/sim/propagate-frame.test.ts).
    */
   private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
+    return this.tailRatio(samples, degree, o) <= 1;
+  }
+
+  /**
+   * Largest ratio of a last-two Chebyshev coefficient to its tolerance (see converged()); the
+   * frame has converged when it is <= 1. Only those two coefficient rows are computed.
+   */
+  private tailRatio(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): number {
+    let worst = 0;
     for (let s = 0; s < this.setups.length; s++) {
       const setup = this.setups[s];
       const d = setup.keptRows.length;
@@ -478,21 +546,20 @@ export class ManifoldFrameBuilder {
       if (d === 0) continue;
       const excitation = new Int32Array(d);
       for (const b of setup.blocks) for (let q = 0; q < b.size; q++) excitation[b.start + q] = b.excitation;
-      const check = (field: 'vt' | 'e', width: number, columnOf: (q: number) => number, tol: number): boolean => {
+      const check = (field: 'vt' | 'e', width: number, columnOf: (q: number) => number, tol: number): void => {
         const vals = new Float64Array((degree + 1) * width);
         samples.forEach((smp, j) => vals.set(smp[field][s], j * width));
-        const c = chebyshevCoefficients(vals, degree, width);
-        for (let k = degree - 1; k <= degree; k++)
-          for (let q = 0; q < width; q++) {
-            const limit = excitation[columnOf(q)] <= 2 ? tol : Math.max(tol, o.highTol);
-            if (Math.abs(c[k * width + q]) > limit) return false;
-          }
-        return true;
+        const c = chebyshevCoefficientRows(vals, degree, width, [degree - 1, degree]);
+        for (let q = 0; q < 2 * width; q++) {
+          const limit = excitation[columnOf(q % width)] <= 2 ? tol : Math.max(tol, o.highTol);
+          const r = Math.abs(c[q]) / limit;
+          if (r > worst) worst = r;
+        }
       };
-      if (!check('vt', size * d, (q) => q % d, o.vectorTol)) return false;
-      if (!check('e', d * d, (q) => Math.max(Math.floor(q / d), q % d), o.energyTolGHz)) return false;
+      check('vt', size * d, (q) => q % d, o.vectorTol);
+      check('e', d * d, (q) => Math.max(Math.floor(q / d), q % d), o.energyTolGHz);
     }
-    return true;
+    return worst;
   }
 
   private tabulate(setup: SectorSetup, s: number, samples: Sample[], degree: number, lo: number, hi: number, nT: number, dropT: boolean): FrameSector {
@@ -595,6 +662,31 @@ export class ManifoldFrameBuilder {
     const labelIndex = Int32Array.from(setup.keptRows, (r) => setup.indices[r]);
     return { parity: s, size: d, labels: setup.labels, labelIndex, blocks: setup.blocks, blockOf, energy, energySlope, coupling, couplingSlope, maxCoupling };
   }
+}
+
+/**
+ * Give up before the largest degree (each doubling doubles the samples, so a frame that fails at
+ * degree 256 costs eight times one that fails at 32). A frame that converges does so
+ * geometrically (the dressed manifolds are analytic in u: coefficients fall like rho^-N,
+ * Trefethen, "Approximation Theory and Approximation Practice", ch. 8), so the tail is
+ * extrapolated from the last doubling at that rate, exp(-kappa N) with kappa from tail(N/2) /
+ * tail(N); if even then it stays above its tolerance at the largest reachable degree, the frame is
+ * given up (the caller takes its fallback model, as for a frame that fails at maxDegree). Frames
+ * that never converge (a sharp crossing with a dropped manifold inside the range) plateau or fall
+ * as a power law (about 0.5 per doubling, ~1/N). Measured on the four demo plans (2026-12-03):
+ * the 53 non-converging frames stop at degree 32 (46), 64 (5) or 128 (2); none of the 873
+ * converging ones stops (they lose a factor 20-300 per doubling). `tails`: the tail ratios (last
+ * two coefficients over their tolerance) at degrees firstDegree, 2 firstDegree, ..., `degree`.
+ */
+export function frameTailHopeless(tails: readonly number[], degree: number, maxDegree: number): boolean {
+  if (tails.length < 2) return false;
+  const last = tails[tails.length - 1];
+  const prev = tails[tails.length - 2];
+  if (!(last > 1)) return false;
+  let top = degree;
+  while (2 * top <= maxDegree) top *= 2;
+  const kappa = last < prev ? Math.log(prev / last) / (degree / 2) : 0;
+  return last * Math.exp(-kappa * (top - degree)) > 1;
 }
 
 /** The mover's levels, charge matrix and wave-function derivative T_mm' = <m|d/du m'> at one E_J. */

@@ -80,6 +80,25 @@ describe('spectatorError on the moving basis (no frame converges)', () => {
     }
   }, 600_000);
 
+  it("no frame converges here, and the full model's frame gives up before the largest degree (at 128; without the early stop at 256)", () => {
+    const [lo, hi] = moverEjSpan(Q42, design.waveform);
+    const three = edgeSimModel({ ...pairIn, ...SPECTATOR_LEVELS, spectators: [spectator] });
+    const failDegree = (stopHopeless: boolean): number => {
+      try {
+        buildManifoldFrame(three, { ejLo: lo, ejHi: hi, keepExcitations: 3, tableIntervals: 32, stopHopeless });
+      } catch (err) {
+        const m = /no convergence at Chebyshev degree (\d+)/.exec((err as Error).message);
+        if (m) return Number(m[1]);
+        throw err;
+      }
+      return 0;
+    };
+    const early = failDegree(true);
+    expect(early).toBeGreaterThan(0);
+    expect(early).toBeLessThan(256);
+    expect(failDegree(false)).toBe(256);
+  }, 600_000);
+
   it('the basis cut to 5 excitations gives the untruncated share to 1e-3 relative (to 4 it does not)', () => {
     const lv = { moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 };
     const three = edgeSimModel({ ...pairIn, ...lv, spectators: [spectator] });
