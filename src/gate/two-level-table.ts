@@ -7,6 +7,7 @@
  */
 import { josephsonEnergySlope } from '../transmon/josephson.js';
 import { twoLevelModel, type EdgeContext, type TwoLevelPoint } from './context.js';
+import { hermite } from '../linalg/cubic-hermite.js';
 
 export class TwoLevelTable {
   readonly flux: Float64Array;
@@ -39,9 +40,7 @@ export class TwoLevelTable {
     const t = (x - f[i]) / h;
     const m0 = i > 0 ? 0.5 * (values[i + 1] - values[i - 1]) : values[i + 1] - values[i];
     const m1 = i + 2 < n ? 0.5 * (values[i + 2] - values[i]) : values[i + 1] - values[i];
-    const t2 = t * t;
-    const t3 = t2 * t;
-    return (2 * t3 - 3 * t2 + 1) * values[i] + (t3 - 2 * t2 + t) * m0 + (-2 * t3 + 3 * t2) * values[i + 1] + (t3 - t2) * m1;
+    return hermite(values[i], values[i + 1], m0, m1, t);
   }
 
   private point(d: number, j: number): TwoLevelPoint {

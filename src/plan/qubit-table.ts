@@ -26,6 +26,10 @@
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
 import type { Transmon } from '../transmon/transmon.js';
+import { finiteDifferenceSlopes, hermite, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
+
+/** Scratch of the cubic Hermite weights (single-threaded use, filled and read in one call). */
+const HERMITE_WEIGHTS = new Float64Array(4);
 
 export interface QubitTableOptions {
   /** Grid points (>= 8). */
@@ -216,13 +220,11 @@ export class QubitTable {
     const h = this.h;
     const v = this.v;
     const dv = this.dv;
-    // Hermite basis at t
-    const t2 = t * t;
-    const t3 = t2 * t;
-    const b00 = 2 * t3 - 3 * t2 + 1;
-    const b10 = (t3 - 2 * t2 + t) * h;
-    const b01 = -2 * t3 + 3 * t2;
-    const b11 = (t3 - t2) * h;
+    const w = hermiteWeights(t, h, HERMITE_WEIGHTS);
+    const b00 = w[0];
+    const b10 = w[1];
+    const b01 = w[2];
+    const b11 = w[3];
     const v0 = v;
     let k = cell;
     out.f01 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
@@ -401,37 +403,4 @@ function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number
     if (done) break;
   }
   return { cell: lo, t };
-}
-
-/** Cubic Hermite on [0, 1] with end values y0, y1 and end slopes (already scaled by the cell width). */
-function hermite(y0: number, y1: number, d0: number, d1: number, t: number): number {
-  const t2 = t * t;
-  const t3 = t2 * t;
-  return (2 * t3 - 3 * t2 + 1) * y0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * y1 + (t3 - t2) * d1;
-}
-
-function hermiteSlope(y0: number, y1: number, d0: number, d1: number, t: number): number {
-  const t2 = t * t;
-  return (6 * t2 - 6 * t) * y0 + (3 * t2 - 4 * t + 1) * d0 + (-6 * t2 + 6 * t) * y1 + (3 * t2 - 2 * t) * d1;
-}
-
-/**
- * Slopes of samples on a uniform grid (spacing h): fourth-order central differences inside,
- * fourth-order one-sided stencils at the two points next to each end (Fornberg, Math. Comp. 51,
- * 699 (1988) weights).
- */
-function finiteDifferenceSlopes(v: Float64Array, out: Float64Array, offset: number, m: number, h: number): void {
-  if (h === 0 || m < 5) {
-    for (let k = 0; k < m; k++) out[offset + k] = 0;
-    if (h > 0 && m >= 2) for (let k = 0; k < m; k++) out[offset + k] = (v[offset + Math.min(k + 1, m - 1)] - v[offset + Math.max(k - 1, 0)]) / (h * (Math.min(k + 1, m - 1) - Math.max(k - 1, 0)));
-    return;
-  }
-  const y = (k: number) => v[offset + k];
-  for (let k = 0; k < m; k++) {
-    let d: number;
-    if (k >= 2 && k <= m - 3) d = (y(k - 2) - 8 * y(k - 1) + 8 * y(k + 1) - y(k + 2)) / (12 * h);
-    else if (k < 2) d = (-25 * y(k) + 48 * y(k + 1) - 36 * y(k + 2) + 16 * y(k + 3) - 3 * y(k + 4)) / (12 * h);
-    else d = (25 * y(k) - 48 * y(k - 1) + 36 * y(k - 2) - 16 * y(k - 3) + 3 * y(k - 4)) / (12 * h);
-    out[offset + k] = d;
-  }
 }

@@ -43,6 +43,7 @@ import { chargeMatrix } from '../transmon/matrix-elements.js';
 import { transmonLevelDerivatives } from '../transmon/level-derivatives.js';
 import { josephsonEnergy } from '../transmon/josephson.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
+import { hermiteWeights } from '../linalg/cubic-hermite.js';
 import { symmetricEigenQL, symmetricEigenQLScratch, type SymmetricEigenQLScratch } from '../linalg/symmetric-eigen-ql.js';
 import { chebyshevCoefficientRows, chebyshevCoefficients, chebyshevDerivative, chebyshevEvaluate, chebyshevPoints } from '../linalg/chebyshev-series.js';
 import { paritySectors, productHamiltonian, productLevels, productSpace, subMatrix, type ProductSpace, type TransmonPart } from '../pair/product-basis.js';
@@ -747,20 +748,30 @@ export function tableInterval(frame: ManifoldFrame, u: number): number {
   return i < 0 ? 0 : i >= frame.tableIntervals ? frame.tableIntervals - 1 : i;
 }
 
+const HERMITE_WEIGHTS = new Float64Array(4);
+
+/**
+ * The table interval of u (clamped) and the cubic Hermite weights there (src/linalg/cubic-hermite.ts
+ * hermiteWeights: value, slope, value, slope of the interval's two ends) into `out`; every
+ * reader of the frame's tables interpolates with these.
+ */
+export function frameHermite(frame: ManifoldFrame, u: number, out: Float64Array): number {
+  const i = tableInterval(frame, u);
+  const h = frame.tableStep;
+  hermiteWeights((u - (frame.ejLo + i * h)) / h, h, out);
+  return i;
+}
+
 /**
  * E (GHz) and A (per GHz of E_J) of a sector at u, by cubic Hermite on the table; `outE` and
  * `outA` are D x D.
  */
 export function evaluateFrame(frame: ManifoldFrame, sector: FrameSector, u: number, outE: Float64Array, outA: Float64Array): void {
-  const i = tableInterval(frame, u);
-  const h = frame.tableStep;
-  const t = (u - (frame.ejLo + i * h)) / h;
-  const t2 = t * t;
-  const t3 = t2 * t;
-  const h00 = 2 * t3 - 3 * t2 + 1;
-  const h10 = (t3 - 2 * t2 + t) * h;
-  const h01 = -2 * t3 + 3 * t2;
-  const h11 = (t3 - t2) * h;
+  const i = frameHermite(frame, u, HERMITE_WEIGHTS);
+  const h00 = HERMITE_WEIGHTS[0];
+  const h10 = HERMITE_WEIGHTS[1];
+  const h01 = HERMITE_WEIGHTS[2];
+  const h11 = HERMITE_WEIGHTS[3];
   const w = sector.size * sector.size;
   const p0 = i * w;
   const p1 = p0 + w;
@@ -776,15 +787,11 @@ export function evaluateFrame(frame: ManifoldFrame, sector: FrameSector, u: numb
 
 /** Interpolate a noise table (values, slopes; Dt x Dt per point) at u into out. */
 export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, out: Float64Array): Float64Array {
-  const i = tableInterval(frame, u);
-  const h = frame.tableStep;
-  const t = (u - (frame.ejLo + i * h)) / h;
-  const t2 = t * t;
-  const t3 = t2 * t;
-  const h00 = 2 * t3 - 3 * t2 + 1;
-  const h10 = (t3 - 2 * t2 + t) * h;
-  const h01 = -2 * t3 + 3 * t2;
-  const h11 = (t3 - t2) * h;
+  const i = frameHermite(frame, u, HERMITE_WEIGHTS);
+  const h00 = HERMITE_WEIGHTS[0];
+  const h10 = HERMITE_WEIGHTS[1];
+  const h01 = HERMITE_WEIGHTS[2];
+  const h11 = HERMITE_WEIGHTS[3];
   const w = out.length;
   const p0 = i * w;
   const p1 = p0 + w;

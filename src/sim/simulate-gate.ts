@@ -11,7 +11,7 @@ import { josephsonEnergy } from '../transmon/josephson.js';
 import { averageFromProcessInfidelity, jumpRates } from './decoherence.js';
 import { dressedStatesAt, type DressedState } from './dressed-states.js';
 import { conditionalPhase, gateMetrics, wrapAngle, type Block4 } from './gate-metrics.js';
-import { evaluateNoiseTable, frameState, tableInterval, type ManifoldFrame } from './manifold-frame.js';
+import { evaluateNoiseTable, frameHermite, frameState, type ManifoldFrame } from './manifold-frame.js';
 import { propagateInFrame, SectorStepper, stepSchedule, type FrameInitial, type FramePropagationOptions } from './propagate-frame.js';
 import type { Trajectory } from './trajectory.js';
 
@@ -306,21 +306,19 @@ class FirstOrderEstimate {
   }
 }
 
+const NOISE_WEIGHTS = new Float64Array(4);
+
 /**
  * Columns [off, off + ds) of a noise table's operator at u (all Dt rows), into out (Dt x ds): the
- * same cubic Hermite, entry by entry, as evaluateNoiseTable (src/sim/manifold-frame.ts), so the
- * same numbers, for the columns the observer reads.
+ * same cubic Hermite weights (frameHermite), entry by entry, as evaluateNoiseTable
+ * (src/sim/manifold-frame.ts), so the same numbers, for the columns the observer reads.
  */
 function noiseColumns(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, off: number, ds: number, out: Float64Array): void {
-  const i = tableInterval(frame, u);
-  const h = frame.tableStep;
-  const t = (u - (frame.ejLo + i * h)) / h;
-  const t2 = t * t;
-  const t3 = t2 * t;
-  const h00 = 2 * t3 - 3 * t2 + 1;
-  const h10 = (t3 - 2 * t2 + t) * h;
-  const h01 = -2 * t3 + 3 * t2;
-  const h11 = (t3 - t2) * h;
+  const i = frameHermite(frame, u, NOISE_WEIGHTS);
+  const h00 = NOISE_WEIGHTS[0];
+  const h10 = NOISE_WEIGHTS[1];
+  const h01 = NOISE_WEIGHTS[2];
+  const h11 = NOISE_WEIGHTS[3];
   const dt = frame.noise!.size;
   const w = dt * dt;
   const p0 = i * w;

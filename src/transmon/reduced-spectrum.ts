@@ -24,6 +24,10 @@
  */
 import { chargeCutoffFor } from './charge-cutoff.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from './parity-eigenbasis.js';
+import { finiteDifferenceSlopes, hermite, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
+
+/** Scratch of the cubic Hermite weights (single-threaded use, filled and read in one call). */
+const HERMITE_WEIGHTS = new Float64Array(4);
 
 /** Level differences (E_k - E_0) / E_C and matrix elements at one r. */
 export interface ReducedState {
@@ -254,12 +258,11 @@ export class ReducedSpectrum {
     const h = this.h;
     const v = this.v;
     const dv = this.dv;
-    const t2 = t * t;
-    const t3 = t2 * t;
-    const b00 = 2 * t3 - 3 * t2 + 1;
-    const b10 = (t3 - 2 * t2 + t) * h;
-    const b01 = -2 * t3 + 3 * t2;
-    const b11 = (t3 - t2) * h;
+    const w = hermiteWeights(t, h, HERMITE_WEIGHTS);
+    const b00 = w[0];
+    const b10 = w[1];
+    const b01 = w[2];
+    const b11 = w[3];
     let k = cell;
     out.e1 = b00 * v[k] + b10 * dv[k] + b01 * v[k + 1] + b11 * dv[k + 1];
     k += m;
@@ -293,32 +296,4 @@ let shared: ReducedSpectrum | undefined;
 export function sharedReducedSpectrum(): ReducedSpectrum {
   shared ??= new ReducedSpectrum();
   return shared;
-}
-
-/** Cubic Hermite on [0, 1] with end values y0, y1 and end slopes (already scaled by the cell width). */
-function hermite(y0: number, y1: number, d0: number, d1: number, t: number): number {
-  const t2 = t * t;
-  const t3 = t2 * t;
-  return (2 * t3 - 3 * t2 + 1) * y0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * y1 + (t3 - t2) * d1;
-}
-
-function hermiteSlope(y0: number, y1: number, d0: number, d1: number, t: number): number {
-  const t2 = t * t;
-  return (6 * t2 - 6 * t) * y0 + (3 * t2 - 4 * t + 1) * d0 + (-6 * t2 + 6 * t) * y1 + (3 * t2 - 2 * t) * d1;
-}
-
-/**
- * Slopes of samples on a uniform grid (spacing h): fourth-order central differences inside,
- * fourth-order one-sided stencils at the two points next to each end (Fornberg, Math. Comp. 51,
- * 699 (1988) weights).
- */
-function finiteDifferenceSlopes(v: Float64Array, out: Float64Array, offset: number, m: number, h: number): void {
-  const y = (k: number) => v[offset + k];
-  for (let k = 0; k < m; k++) {
-    let d: number;
-    if (k >= 2 && k <= m - 3) d = (y(k - 2) - 8 * y(k - 1) + 8 * y(k + 1) - y(k + 2)) / (12 * h);
-    else if (k < 2) d = (-25 * y(k) + 48 * y(k + 1) - 36 * y(k + 2) + 16 * y(k + 3) - 3 * y(k + 4)) / (12 * h);
-    else d = (25 * y(k) - 48 * y(k - 1) + 36 * y(k - 2) - 16 * y(k - 3) + 3 * y(k - 4)) / (12 * h);
-    out[offset + k] = d;
-  }
 }
