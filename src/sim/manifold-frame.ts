@@ -38,16 +38,13 @@
  * and A are tabulated with exact derivatives on a fine uniform u grid for cubic Hermite
  * evaluation inside the time loop.
  */
-import { transmonLevels } from '../transmon/levels.js';
-import { chargeMatrix } from '../transmon/matrix-elements.js';
-import { transmonLevelDerivatives } from '../transmon/level-derivatives.js';
-import { josephsonEnergy } from '../transmon/josephson.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { hermiteWeights } from '../linalg/cubic-hermite.js';
 import { symmetricEigenQL, symmetricEigenQLScratch, type SymmetricEigenQLScratch } from '../linalg/symmetric-eigen-ql.js';
 import { chebyshevCoefficientRows, chebyshevCoefficients, chebyshevDerivative, chebyshevEvaluate, chebyshevPoints } from '../linalg/chebyshev-series.js';
 import { paritySectors, productHamiltonian, productLevels, productSpace, subMatrix, type ProductSpace, type TransmonPart } from '../pair/product-basis.js';
 import { DEFAULT_CHARGE_CUTOFF, type SimModel } from './model.js';
+import { keptMoverSample, staticTransmonParts } from './mover-sample.js';
 
 /**
  * Sector size from which the dressed states come from Householder + QL (src/linalg/
@@ -204,11 +201,7 @@ export class ManifoldFrameBuilder {
     this.nCut = model.chargeCutoff ?? DEFAULT_CHARGE_CUTOFF;
     this.space = productSpace(model.transmons.map((t) => t.levels));
     this.moverCouplings = model.couplings.filter((c) => c.a === 0 || c.b === 0);
-    this.statics = model.transmons.map((t, i) => {
-      if (i === 0) return { energies: new Float64Array(t.levels), charge: new Float64Array(t.levels * t.levels) };
-      const lv = transmonLevels(t.ecGHz, josephsonEnergy(t.ejsGHz, t.asymmetry, t.flux), { levels: t.levels, chargeCutoff: this.nCut, vectors: true });
-      return { energies: lv.energies, charge: chargeMatrix(lv) };
-    });
+    this.statics = staticTransmonParts(model, this.nCut);
     const { even, odd } = paritySectors(this.space);
     this.setups = [even, odd].map((indices) => {
       const byExc = new Map<number, number[]>();
@@ -270,7 +263,7 @@ export class ManifoldFrameBuilder {
   sample(u: number, noise = false): Sample {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
-    const { energies, charge, tm } = moverAt(t0.ecGHz, u, k0, this.nCut);
+    const { energies, charge, tm } = keptMoverSample(t0.ecGHz, u, k0, this.nCut);
     const parts = this.statics.slice();
     parts[0] = { energies, charge };
     const n = this.space.size;
@@ -688,43 +681,6 @@ export function frameTailHopeless(tails: readonly number[], degree: number, maxD
   while (2 * top <= maxDegree) top *= 2;
   const kappa = last < prev ? Math.log(prev / last) / (degree / 2) : 0;
   return last * Math.exp(-kappa * (top - degree)) > 1;
-}
-
-/** The mover's levels, charge matrix and wave-function derivative T_mm' = <m|d/du m'> at one E_J. */
-interface MoverSample {
-  energies: Float64Array;
-  charge: Float64Array;
-  tm: Float64Array;
-}
-
-/**
- * The frames of one gate's budget (the pair alone and each spectator's three-transmon model, or the
- * nominal and the partner-offset frames) sample the mover at the same Chebyshev points of the same
- * E_J range; its levels there are computed once and kept (deterministic, never modified by the
- * callers, so a kept sample gives the same numbers as a new one). A small first-in first-out
- * store: the points of a few frames' ranges.
- */
-const MOVER_SAMPLES = new Map<string, MoverSample>();
-const MOVER_SAMPLES_KEPT = 512;
-
-function moverAt(ecGHz: number, u: number, k0: number, nCut: number): MoverSample {
-  const key = `${ecGHz} ${u} ${k0} ${nCut}`;
-  const kept = MOVER_SAMPLES.get(key);
-  if (kept) return kept;
-  const lv = transmonLevels(ecGHz, u, { levels: k0, chargeCutoff: nCut, vectors: true });
-  const der = transmonLevelDerivatives(ecGHz, u, lv);
-  const dim = 2 * nCut + 1;
-  const tm = new Float64Array(k0 * k0);
-  for (let m = 0; m < k0; m++)
-    for (let q = 0; q < k0; q++) {
-      let acc = 0;
-      for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
-      tm[m * k0 + q] = acc;
-    }
-  const out = { energies: lv.energies, charge: chargeMatrix(lv), tm };
-  if (MOVER_SAMPLES.size >= MOVER_SAMPLES_KEPT) MOVER_SAMPLES.delete(MOVER_SAMPLES.keys().next().value as string);
-  MOVER_SAMPLES.set(key, out);
-  return out;
 }
 
 export function buildManifoldFrame(model: SimModel, options: ManifoldFrameOptions): ManifoldFrame {

@@ -15,13 +15,11 @@
 import { applyEigenExponential } from '../linalg/complex.js';
 import { hermitianEigen } from '../linalg/hermitian-eigen.js';
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
-import { chargeMatrix } from '../transmon/matrix-elements.js';
 import { josephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
-import { transmonLevelDerivatives } from '../transmon/level-derivatives.js';
-import { transmonLevels } from '../transmon/levels.js';
 import { paritySectors, productHamiltonian, productLevels, productSpace, subMatrix, type ProductSpace, type TransmonPart } from '../pair/product-basis.js';
 import { DEFAULT_CHARGE_CUTOFF, type SimModel } from './model.js';
 import type { Trajectory } from './trajectory.js';
+import { moverSample, staticTransmonParts } from './mover-sample.js';
 
 export interface MovingBasisPoint {
   /** H_b (size x size, GHz). */
@@ -38,28 +36,15 @@ export class MovingBasisModel {
   constructor(readonly model: SimModel) {
     this.nCut = model.chargeCutoff ?? DEFAULT_CHARGE_CUTOFF;
     this.space = productSpace(model.transmons.map((t) => t.levels));
-    this.statics = model.transmons.map((t, i) => {
-      if (i === 0) return { energies: new Float64Array(t.levels), charge: new Float64Array(t.levels * t.levels) };
-      const lv = transmonLevels(t.ecGHz, josephsonEnergy(t.ejsGHz, t.asymmetry, t.flux), { levels: t.levels, chargeCutoff: this.nCut, vectors: true });
-      return { energies: lv.energies, charge: chargeMatrix(lv) };
-    });
+    this.statics = staticTransmonParts(model, this.nCut);
   }
 
   at(u: number): MovingBasisPoint {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
-    const lv = transmonLevels(t0.ecGHz, u, { levels: k0, chargeCutoff: this.nCut, vectors: true });
-    const der = transmonLevelDerivatives(t0.ecGHz, u, lv);
-    const dim = 2 * this.nCut + 1;
-    const tm = new Float64Array(k0 * k0);
-    for (let m = 0; m < k0; m++)
-      for (let q = 0; q < k0; q++) {
-        let acc = 0;
-        for (let j = 0; j < dim; j++) acc += lv.vectors[m * dim + j] * der.vectors[q * dim + j];
-        tm[m * k0 + q] = acc;
-      }
+    const { energies, charge, tm } = moverSample(t0.ecGHz, u, k0, this.nCut);
     const parts = this.statics.slice();
-    parts[0] = { energies: lv.energies, charge: chargeMatrix(lv) };
+    parts[0] = { energies, charge };
     const h = productHamiltonian(this.space, parts, this.model.couplings);
     const n = this.space.size;
     const t = new Float64Array(n * n);

@@ -14,13 +14,9 @@
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
-import { moverEjSpan, PAIR_TOP_MANIFOLD, REDUCED_MODEL_PARTNER_LEVELS, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
+import { REDUCED_MODEL_PARTNER_LEVELS, spectatorError, SPECTATOR_LEVELS } from '../../src/budget/spectator-error.js';
 import { spectatorBudget, spectatorModelLevels } from '../../src/budget/waveform-budget.js';
-import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
-import { edgeSimModel } from '../../src/sim/pair-model.js';
-import { simulateGate } from '../../src/sim/simulate-gate.js';
-import { gateMetrics } from '../../src/sim/gate-metrics.js';
-import { runPython } from '../support/python.js';
+import { numpySpectatorShare, pairAloneBaseline } from './support.js';
 
 const { layout, q, g } = demoLayout('reef-49');
 const Q4 = q('Q4');
@@ -35,30 +31,19 @@ describe('spectatorError where the full frame does not converge (reduced model)'
     const design = designCzGate({ mover: Q4, partner: Q5, gGHz: g('Q4', 'Q5'), moverParkFlux: MOVER_PARK, partnerFlux: PARTNER_FLUX, crossing: '11-02', rules: layout.rules });
     expect(design.feasible).toBe(true);
     const traj = design.waveform;
-    const [lo, hi] = moverEjSpan(Q4, traj);
     const pairIn = { mover: Q4, partner: Q5, gGHz: g('Q4', 'Q5'), partnerFlux: PARTNER_FLUX };
-    const alone = gateMetrics(
-      simulateGate(buildManifoldFrame(edgeSimModel({ ...pairIn, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase: Math.PI, estimate: false }).m,
-      Math.PI,
-    );
-    const ours = spectatorError({
-      ...pairIn, traj, targetPhase: Math.PI, pairError: 1 - alone.fidelity, pairLeakage: alone.leakage, levels: SPECTATOR_LEVELS,
-      spectator: { transmon: Q6, coupledTo: 'partner', gGHz: g('Q5', 'Q6'), flux: SPECTATOR_FLUX },
-    });
+    const spectator = { transmon: Q6, coupledTo: 'partner' as const, gGHz: g('Q5', 'Q6'), flux: SPECTATOR_FLUX };
+    const ours = spectatorError({ ...pairIn, traj, targetPhase: Math.PI, ...pairAloneBaseline(pairIn, traj), levels: SPECTATOR_LEVELS, spectator });
     // the case this test is about: the full model's frame does not converge
     expect(ours.reduced).toBe('mover-levels');
-    const ref = runPython<{ error: number; leakage: number }>('spectator_gate.py', {
-      mover: { ec: Q4.ecGHz, ejs: Q4.ejsGHz, d: Q4.asymmetry }, partner: { ec: Q5.ecGHz, ejs: Q5.ejsGHz, d: Q5.asymmetry }, spectator: { ec: Q6.ecGHz, ejs: Q6.ejsGHz, d: Q6.asymmetry },
-      gAB: g('Q4', 'Q5'), gBS: g('Q5', 'Q6'), partnerFlux: PARTNER_FLUX, spectatorFlux: SPECTATOR_FLUX,
-      time: Array.from(traj.timeNs), flux: Array.from(traj.flux), theta: Math.PI, KA: 6, KAfar: 6, KB: 5, KS: 3, dt: 0.03,
-    }, { timeoutMs: 600_000 });
+    const ref = numpySpectatorShare(pairIn, spectator, traj, { KA: 6, KAfar: 6, KB: 5, KS: 3, dt: 0.03 });
     expect(ref.error).toBeGreaterThan(1e-5);
     expect(Math.abs(ours.error - ref.error) / ref.error, `ours ${ours.error}, NumPy ${ref.error}`).toBeLessThan(0.15);
     // the budget as the commands compute it (spectatorBudget): on this 11-02 gate its models keep
     // the partner to 5 levels (spectatorModelLevels), and the share agrees with the same NumPy value
     const pair = { ...pairIn, traj, targetPhase: Math.PI };
     expect(spectatorModelLevels(pair).partnerLevels).toBe(REDUCED_MODEL_PARTNER_LEVELS);
-    const share = spectatorBudget(pair, [{ transmon: Q6, coupledTo: 'partner', gGHz: g('Q5', 'Q6'), flux: SPECTATOR_FLUX }]).spectatorShares[0];
+    const share = spectatorBudget(pair, [spectator]).spectatorShares[0];
     expect(Math.abs(share.error - ref.error) / ref.error, `budget ${share.error} (${share.reduced}), NumPy ${ref.error}`).toBeLessThan(0.15);
   }, 600_000);
 

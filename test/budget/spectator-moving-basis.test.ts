@@ -21,14 +21,12 @@
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
-import { moverEjSpan, PAIR_TOP_MANIFOLD, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION } from '../../src/budget/spectator-error.js';
+import { moverEjSpan, spectatorError, SPECTATOR_LEVELS } from '../../src/budget/spectator-error.js';
 import { MOVING_BASIS_MAX_EXCITATIONS, MOVING_BASIS_STEP_NS, movingBasisSpectatorBlocks, movingBasisSpectatorError } from '../../src/budget/spectator-moving-basis.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
-import { simulateGate } from '../../src/sim/simulate-gate.js';
-import { gateMetrics } from '../../src/sim/gate-metrics.js';
 import { movingBasisBlock } from '../../src/sim/moving-basis.js';
-import { runPython } from '../support/python.js';
+import { numpySpectatorShare, pairAloneBaseline } from './support.js';
 
 const { layout, q, g } = demoLayout('reef-49');
 const Q42 = q('Q42');
@@ -46,19 +44,10 @@ describe('spectatorError on the moving basis (no frame converges)', () => {
   it('Reef-49 Q42-Q43 (11-20) with Q35: agrees with a NumPy three-transmon simulation within 15 %', () => {
     expect(design.feasible).toBe(true);
     const traj = design.waveform;
-    const [lo, hi] = moverEjSpan(Q42, traj);
-    const alone = gateMetrics(
-      simulateGate(buildManifoldFrame(edgeSimModel({ ...pairIn, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase: Math.PI, estimate: false }).m,
-      Math.PI,
-    );
-    const ours = spectatorError({ ...pairIn, traj, targetPhase: Math.PI, pairError: 1 - alone.fidelity, pairLeakage: alone.leakage, levels: SPECTATOR_LEVELS, spectator });
+    const ours = spectatorError({ ...pairIn, traj, targetPhase: Math.PI, ...pairAloneBaseline(pairIn, traj), levels: SPECTATOR_LEVELS, spectator });
     // the case this test is about: no frame converges
     expect(ours.reduced).toBe('moving-basis');
-    const ref = runPython<{ error: number; leakage: number }>('spectator_gate.py', {
-      mover: { ec: Q42.ecGHz, ejs: Q42.ejsGHz, d: Q42.asymmetry }, partner: { ec: Q43.ecGHz, ejs: Q43.ejsGHz, d: Q43.asymmetry }, spectator: { ec: Q35.ecGHz, ejs: Q35.ejsGHz, d: Q35.asymmetry },
-      gAB: g('Q42', 'Q43'), gAS: g('Q35', 'Q42'), partnerFlux: PARTNER_FLUX, spectatorFlux: SPECTATOR_FLUX,
-      time: Array.from(traj.timeNs), flux: Array.from(traj.flux), theta: Math.PI, KA: 6, KAfar: 6, KB: 4, KS: 3, dt: 0.03,
-    }, { timeoutMs: 600_000 });
+    const ref = numpySpectatorShare(pairIn, spectator, traj, { KA: 6, KAfar: 6, KB: 4, KS: 3, dt: 0.03 });
     expect(ref.error).toBeGreaterThan(1e-5);
     expect(Math.abs(ours.error - ref.error) / ref.error, `ours ${ours.error}, NumPy ${ref.error}`).toBeLessThan(0.15);
   }, 600_000);

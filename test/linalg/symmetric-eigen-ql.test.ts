@@ -8,21 +8,14 @@ import { describe, expect, it } from 'vitest';
 import { symmetricEigenQL, symmetricEigenQLScratch } from '../../src/linalg/symmetric-eigen-ql.js';
 import { Random } from '../../src/util/random.js';
 import { expectAllClose } from '../support/close.js';
-import { normInf, randomSymmetric } from '../support/matrices.js';
+import { eigenResiduals, identityPlusRankOne, normInf, randomSymmetric } from '../support/matrices.js';
 import { runPython } from '../support/python.js';
 
 const rng = new Random(4242);
 const cases: { name: string; n: number; a: Float64Array }[] = [];
 for (const n of [1, 2, 3, 5, 8, 17, 36, 64]) cases.push({ name: `random n=${n}`, n, a: randomSymmetric(rng, n) });
 cases.push({ name: 'random scale 100 n=12', n: 12, a: randomSymmetric(rng, 12, 100) });
-{
-  // I + u u^T: eigenvalue 1 with multiplicity n - 1.
-  const n = 10;
-  const a = new Float64Array(n * n);
-  const u = Array.from({ length: n }, () => rng.between(-1, 1));
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] = (i === j ? 1 : 0) + u[i] * u[j];
-  cases.push({ name: 'identity plus rank one (degenerate)', n, a });
-}
+cases.push({ name: 'identity plus rank one (degenerate)', n: 10, a: identityPlusRankOne(rng, 10) });
 {
   // Already diagonal with repeats and a zero block: every reflection is skipped.
   const n = 7;
@@ -79,21 +72,11 @@ describe('symmetricEigenQL(a, n)', () => {
   it('satisfies A V = V D and V^T V = I to 1e-13 n ||A||', () => {
     for (const c of cases) {
       const { n, a } = c;
-      const { values, vectors: v } = symmetricEigenQL(a, n);
+      const { values, vectors } = symmetricEigenQL(a, n);
       const scale = Math.max(1, normInf(a, n));
-      let res = 0;
-      let orth = 0;
-      for (let i = 0; i < n; i++)
-        for (let k = 0; k < n; k++) {
-          let av = 0;
-          for (let j = 0; j < n; j++) av += a[i * n + j] * v[j * n + k];
-          res = Math.max(res, Math.abs(av - v[i * n + k] * values[k]));
-          let g = 0;
-          for (let j = 0; j < n; j++) g += v[j * n + i] * v[j * n + k];
-          orth = Math.max(orth, Math.abs(g - (i === k ? 1 : 0)));
-        }
-      expect(res, `${c.name} residual`).toBeLessThanOrEqual(1e-13 * n * scale);
-      expect(orth, `${c.name} orthogonality`).toBeLessThanOrEqual(1e-13 * n);
+      const { residual, orthogonality } = eigenResiduals(a, n, values, vectors);
+      expect(residual, `${c.name} residual`).toBeLessThanOrEqual(1e-13 * n * scale);
+      expect(orthogonality, `${c.name} orthogonality`).toBeLessThanOrEqual(1e-13 * n);
     }
   });
 

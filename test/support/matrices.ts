@@ -86,3 +86,30 @@ export function normInf(a: ArrayLike<number>, n: number): number {
   }
   return best;
 }
+
+/**
+ * Largest entry of A V - V diag(w) (`residual`) and of V^T V - I (`orthogonality`) for an
+ * eigen-decomposition with V row-major, column k the vector of w[k].
+ */
+export function eigenResiduals(a: ArrayLike<number>, n: number, w: ArrayLike<number>, v: ArrayLike<number>): { residual: number; orthogonality: number } {
+  let residual = 0;
+  let orthogonality = 0;
+  for (let i = 0; i < n; i++)
+    for (let k = 0; k < n; k++) {
+      let av = 0;
+      for (let j = 0; j < n; j++) av += a[i * n + j] * v[j * n + k];
+      residual = Math.max(residual, Math.abs(av - v[i * n + k] * w[k]));
+      let g = 0;
+      for (let j = 0; j < n; j++) g += v[j * n + i] * v[j * n + k];
+      orthogonality = Math.max(orthogonality, Math.abs(g - (i === k ? 1 : 0)));
+    }
+  return { residual, orthogonality };
+}
+
+/** I + u u^T with u uniform in [-1, 1): eigenvalue 1 with multiplicity n - 1 (a degenerate case). */
+export function identityPlusRankOne(rng: Random, n: number): Float64Array {
+  const a = new Float64Array(n * n);
+  const u = Array.from({ length: n }, () => rng.between(-1, 1));
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] = (i === j ? 1 : 0) + u[i] * u[j];
+  return a;
+}
