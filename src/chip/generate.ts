@@ -62,6 +62,10 @@ export interface GenerateOptions {
   readoutBaseGHz: number;
   tlsFraction: number;
   tlsWidthRangeMHz: [number, number];
+  /** How far below f_max a listed defect lies (GHz). */
+  tlsBelowMaxGHz: [number, number];
+  /** Each qubit's parking window [f_max - w, f_max]; 0 for none. */
+  parkingWindowGHz: number;
   /** Text after `fluxlane generate` for the header comment, e.g. `square --rows 7 --cols 7 --seed 1`. */
   commandLine?: string;
 }
@@ -73,16 +77,18 @@ export const GENERATE_DEFAULTS: Readonly<Omit<GenerateOptions, 'kind' | 'rows' |
   levelStepGHz: 0.045,
   groupJitterGHz: 0.005,
   fabSigmaGHz: 0.003,
-  ecRangeGHz: [0.18, 0.26] as [number, number],
+  ecRangeGHz: [0.2, 0.24] as [number, number],
   asymmetryRange: [0.2, 0.5] as [number, number],
-  t1RangeUs: [40, 200] as [number, number],
-  fluxNoiseRangeUPhi0: [1.5, 5] as [number, number],
+  t1RangeUs: [60, 250] as [number, number],
+  fluxNoiseRangeUPhi0: [1, 3] as [number, number],
   tphiFraction: 0.5,
   tphiRangeUs: [60, 300] as [number, number],
   gRangeMHz: [5, 10] as [number, number],
   readoutBaseGHz: 7.1,
   tlsFraction: 0.15,
   tlsWidthRangeMHz: [0.5, 2] as [number, number],
+  tlsBelowMaxGHz: [0.6, 1.5] as [number, number],
+  parkingWindowGHz: 0.05,
 });
 
 /** Hard bounds on the size of a synthetic chip. */
@@ -118,7 +124,7 @@ export function generateLayout(options: Partial<GenerateOptions> & Pick<Generate
     const tphi = rng.between(o.tphiRangeUs[0], o.tphiRangeUs[1]);
     const readout = o.readoutBaseGHz + 0.07 * (i % 8) + rng.between(-0.01, 0.01);
     const withTls = rng.uniform() < o.tlsFraction;
-    const tlsAt = fMax - rng.between(0.1, 1.5);
+    const tlsAt = fMax - rng.between(o.tlsBelowMaxGHz[0], o.tlsBelowMaxGHz[1]);
     const tlsWidth = rng.between(o.tlsWidthRangeMHz[0] / 1000, o.tlsWidthRangeMHz[1] / 1000);
 
     const q: QubitDocument = {
@@ -130,6 +136,7 @@ export function generateLayout(options: Partial<GenerateOptions> & Pick<Generate
       fluxNoise: `${fluxNoise.toFixed(1)} uPhi0/sqrt(Hz)`,
       readout: ghz(readout),
     };
+    if (o.parkingWindowGHz > 0) q.window = [ghz(fMax - o.parkingWindowGHz), ghz(fMax)];
     if (withTphi) q.tphi = `${Math.round(tphi)} us`;
     if (withTls) q.tls = [{ at: ghz(tlsAt), width: mhz(tlsWidth, 2) }];
     return [site.id, q];
