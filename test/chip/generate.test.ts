@@ -72,6 +72,24 @@ describe('generateLayout', () => {
     expect(nnn).toBeGreaterThan(100);
   });
 
+  it('parkingWindowGHz 0 leaves the windows out; tlsBelowMaxGHz places the defects; the other draws stay the same', () => {
+    const base = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 4, cols: 4, seed: 9 })), 'a.yaml');
+    const open = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 4, cols: 4, seed: 9, parkingWindowGHz: 0, tlsFraction: 1, tlsBelowMaxGHz: [0.1, 0.2] })), 'b.yaml');
+    for (let i = 0; i < base.qubits.length; i++) {
+      const a = base.qubits[i];
+      const b = open.qubits[i];
+      expect(b.windowGHz).toBeUndefined();
+      if (a.transmon.kind !== 'frequencies' || b.transmon.kind !== 'frequencies') throw new Error('generated qubits are given by frequencies');
+      // the same stream of draws: the options change no other parameter
+      expect(b.transmon.fMaxGHz).toBe(a.transmon.fMaxGHz);
+      expect(b.t1Ns).toBe(a.t1Ns);
+      expect(b.tls).toHaveLength(1);
+      // f_max and the defect printed to 1 MHz each
+      expect(b.transmon.fMaxGHz - b.tls[0].atGHz).toBeGreaterThanOrEqual(0.1 - 0.0011);
+      expect(b.transmon.fMaxGHz - b.tls[0].atGHz).toBeLessThanOrEqual(0.2 + 0.0011);
+    }
+  });
+
   it('same seed -> byte-identical YAML; other seed -> different parameters, same structure', () => {
     const a = layoutToYaml(generateLayout({ kind: 'heavy-hex', rows: 3, cols: 3, seed: 11 }));
     const b = layoutToYaml(generateLayout({ kind: 'heavy-hex', rows: 3, cols: 3, seed: 11 }));
