@@ -6,8 +6,7 @@
  * (gate-error 1 %, idle-error 2 % per cycle) included: measured without pulse design on square
  * 5 x 5 (seeds 1-6), 7 x 7 (seed 1), 10 x 10 (seeds 1-5) and heavy-hex 2 x 2, 3 x 3 (seeds 1-2) and
  * 6 x 6 cells (seed 1), and with pulse design on the 5 x 5 and 10 x 10 of seed 1
- * (test/chip/generate-plan.test.ts, test/cli/generate.test.ts); the 16 x 16 of seed 1 still breaks
- * idle-error on 7 of 256 qubits (14 layers: longer idles).
+ * (test/chip/generate-plan.test.ts, test/cli/generate.test.ts), and square 16 x 16 (seed 1).
  * Why the earlier defaults broke the ceilings (open issue 13, item 6; README "fluxlane generate"):
  * a mover's four low-group neighbours lie within ~135 MHz, so every CZ moves some of them out of
  * the way (or parks its partner far below its sweet spot), and the moved spectators, the mover far
@@ -43,9 +42,10 @@
  *   the sweet spot echo-limited pure dephasing of such devices is of order T1 or longer) for a
  *   fraction of the qubits. (The demo layouts, an invented scenario of mixed quality, use T1
  *   22-146 us and 2-5 uPhi0/sqrt(Hz).)
- * - couplings g uniform in gRangeMHz (7-10 MHz: a CZ at the 11-20 crossing takes about
- *   1 / (2 sqrt(2) g) = 35-50 ns plus ramps, which leaves room for spectator moves within maxGate
- *   (100 ns; at 5-6 MHz it did not); residual ZZ of tens of kHz across the groups);
+ * - couplings g uniform in gRangeMHz (7-9 MHz: a CZ at the 11-20 crossing takes about
+ *   1 / (2 sqrt(2) g) = 39-51 ns plus ramps, which leaves room for spectator moves within maxGate
+ *   (100 ns; at 5-6 MHz it did not); residual ZZ of tens of kHz across the groups, small enough
+ *   over the cycles of a 16 x 16 chip (at up to 10 MHz it broke the idle ceiling there));
  *   readout resonators on a 70 MHz comb above readoutBaseGHz;
  * - a two-level defect 0.6-1.5 GHz below f_max (tlsBelowMaxGHz) on a fraction of the qubits, of
  *   half-width tlsWidthRangeMHz (coupling width / 2, weak enough that a CZ sweep passes it): below
@@ -108,7 +108,7 @@ export const GENERATE_DEFAULTS: Readonly<Omit<GenerateOptions, 'kind' | 'rows' |
   fluxNoiseRangeUPhi0: [1, 3] as [number, number],
   tphiFraction: 0.5,
   tphiRangeUs: [100, 400] as [number, number],
-  gRangeMHz: [7, 10] as [number, number],
+  gRangeMHz: [7, 9] as [number, number],
   readoutBaseGHz: 7.1,
   tlsFraction: 0.15,
   tlsWidthRangeMHz: [0.5, 2] as [number, number],

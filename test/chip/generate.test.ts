@@ -22,7 +22,7 @@ describe('generateLayout', () => {
       expect(-t.anharmonicityGHz).toBeLessThanOrEqual(0.24);
       expect(t.asymmetry).toBeGreaterThanOrEqual(0.2);
       expect(t.asymmetry).toBeLessThanOrEqual(0.5);
-      // the documented ranges (README, fluxlane generate; src/chip/generate.ts GENERATE_DEFAULTS): T1 60-250 us, g 5-10 MHz,
+      // the documented ranges (README, fluxlane generate; src/chip/generate.ts GENERATE_DEFAULTS): T1 60-250 us, g 7-9 MHz,
       // flux noise 1-3 uPhi0/sqrt(Hz)
       expect(q.t1Ns).toBeGreaterThanOrEqual(60_000);
       expect(q.t1Ns).toBeLessThanOrEqual(250_000);
@@ -41,8 +41,8 @@ describe('generateLayout', () => {
       for (const d of q.tls) expect(d.widthGHz).toBeLessThanOrEqual(0.002);
     }
     for (const c of layout.couplings) {
-      expect(c.gGHz).toBeGreaterThanOrEqual(0.005);
-      expect(c.gGHz).toBeLessThanOrEqual(0.01);
+      expect(c.gGHz).toBeGreaterThanOrEqual(0.007);
+      expect(c.gGHz).toBeLessThanOrEqual(0.009);
     }
   });
 
