@@ -4,9 +4,10 @@
  *
  * The defaults make chips whose nominal plan holds every default rule, the error ceilings
  * (gate-error 1 %, idle-error 2 % per cycle) included: measured without pulse design on square
- * 5 x 5 (seeds 1-6), 7 x 7 (seed 1), 10 x 10 (seeds 1-5) and heavy-hex 2 x 2, 3 x 3 (seeds 1-2) and
- * 6 x 6 cells (seed 1), and with pulse design on the 5 x 5 and 10 x 10 of seed 1
- * (test/chip/generate-plan.test.ts, test/cli/generate.test.ts), and square 16 x 16 (seed 1).
+ * 5 x 5 (seeds 1-6), 7 x 7 (seed 1), 10 x 10 (seeds 1-5), 16 x 16 (seed 1; seed 2 breaks
+ * idle-error on one qubit, 0.021) and heavy-hex 2 x 2, 3 x 3 (seeds 1-2) and 6 x 6 cells (seed 1),
+ * and with pulse design on the 5 x 5 and 10 x 10 of seed 1 (README "fluxlane generate";
+ * test/chip/generate-plan.test.ts, test/cli/generate.test.ts).
  * Why the earlier defaults broke the ceilings (open issue 13, item 6; README "fluxlane generate"):
  * a mover's four low-group neighbours lie within ~135 MHz, so every CZ moves some of them out of
  * the way (or parks its partner far below its sweet spot), and the moved spectators, the mover far
