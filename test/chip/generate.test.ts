@@ -18,21 +18,31 @@ describe('generateLayout', () => {
       // the documented range of maximum frequencies (README, fluxlane generate)
       expect(t.fMaxGHz).toBeGreaterThanOrEqual(4.9);
       expect(t.fMaxGHz).toBeLessThanOrEqual(6.6);
-      expect(-t.anharmonicityGHz).toBeGreaterThanOrEqual(0.18);
-      expect(-t.anharmonicityGHz).toBeLessThanOrEqual(0.26);
+      expect(-t.anharmonicityGHz).toBeGreaterThanOrEqual(0.2);
+      expect(-t.anharmonicityGHz).toBeLessThanOrEqual(0.24);
       expect(t.asymmetry).toBeGreaterThanOrEqual(0.2);
       expect(t.asymmetry).toBeLessThanOrEqual(0.5);
-      // the documented ranges (README, fluxlane generate; src/chip/generate.ts GENERATE_DEFAULTS): T1 40-200 us, g 5-10 MHz
-      expect(q.t1Ns).toBeGreaterThanOrEqual(40_000);
-      expect(q.t1Ns).toBeLessThanOrEqual(200_000);
-      expect(q.fluxNoisePhi0).toBeGreaterThanOrEqual(1.5e-6);
-      expect(q.fluxNoisePhi0).toBeLessThanOrEqual(5e-6);
+      // the documented ranges (README, fluxlane generate; src/chip/generate.ts GENERATE_DEFAULTS): T1 60-250 us, g 7-9 MHz,
+      // flux noise 1-3 uPhi0/sqrt(Hz)
+      expect(q.t1Ns).toBeGreaterThanOrEqual(60_000);
+      expect(q.t1Ns).toBeLessThanOrEqual(250_000);
+      expect(q.fluxNoisePhi0).toBeGreaterThanOrEqual(1e-6);
+      expect(q.fluxNoisePhi0).toBeLessThanOrEqual(3e-6);
       expect(q.readoutGHz! - t.fMaxGHz).toBeGreaterThan(0.3);
+      // parking window: the top 50 MHz below the upper sweet spot (f_max printed to 1 MHz)
+      expect(q.windowGHz).toBeDefined();
+      expect(q.windowGHz![1]).toBeCloseTo(t.fMaxGHz, 9);
+      expect(t.fMaxGHz - q.windowGHz![0]).toBeCloseTo(0.05, 9);
+      // defects 0.6-1.5 GHz below f_max (f_max and the defect printed to 1 MHz each)
+      for (const d of q.tls) {
+        expect(t.fMaxGHz - d.atGHz).toBeGreaterThanOrEqual(0.6 - 0.0011);
+        expect(t.fMaxGHz - d.atGHz).toBeLessThanOrEqual(1.5 + 0.0011);
+      }
       for (const d of q.tls) expect(d.widthGHz).toBeLessThanOrEqual(0.002);
     }
     for (const c of layout.couplings) {
-      expect(c.gGHz).toBeGreaterThanOrEqual(0.005);
-      expect(c.gGHz).toBeLessThanOrEqual(0.01);
+      expect(c.gGHz).toBeGreaterThanOrEqual(0.007);
+      expect(c.gGHz).toBeLessThanOrEqual(0.009);
     }
   });
 
@@ -60,6 +70,24 @@ describe('generateLayout', () => {
       }
     }
     expect(nnn).toBeGreaterThan(100);
+  });
+
+  it('parkingWindowGHz 0 leaves the windows out; tlsBelowMaxGHz places the defects; the other draws stay the same', () => {
+    const base = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 4, cols: 4, seed: 9 })), 'a.yaml');
+    const open = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 4, cols: 4, seed: 9, parkingWindowGHz: 0, tlsFraction: 1, tlsBelowMaxGHz: [0.1, 0.2] })), 'b.yaml');
+    for (let i = 0; i < base.qubits.length; i++) {
+      const a = base.qubits[i];
+      const b = open.qubits[i];
+      expect(b.windowGHz).toBeUndefined();
+      if (a.transmon.kind !== 'frequencies' || b.transmon.kind !== 'frequencies') throw new Error('generated qubits are given by frequencies');
+      // the same stream of draws: the options change no other parameter
+      expect(b.transmon.fMaxGHz).toBe(a.transmon.fMaxGHz);
+      expect(b.t1Ns).toBe(a.t1Ns);
+      expect(b.tls).toHaveLength(1);
+      // f_max and the defect printed to 1 MHz each
+      expect(b.transmon.fMaxGHz - b.tls[0].atGHz).toBeGreaterThanOrEqual(0.1 - 0.0011);
+      expect(b.transmon.fMaxGHz - b.tls[0].atGHz).toBeLessThanOrEqual(0.2 + 0.0011);
+    }
   });
 
   it('same seed -> byte-identical YAML; other seed -> different parameters, same structure', () => {
