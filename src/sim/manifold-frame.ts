@@ -741,6 +741,38 @@ export function evaluateFrame(frame: ManifoldFrame, sector: FrameSector, u: numb
   }
 }
 
+/**
+ * evaluateFrame restricted to the entries inside the manifold blocks (E is block diagonal; A's
+ * in-block part), and to the blocks flagged in `active` when given (one flag per block): the
+ * same numbers there, the other entries of outE / outA left as they were. For propagation that
+ * never couples blocks (holds, the in-block scheme), which reads nothing else.
+ */
+export function evaluateFrameInBlocks(frame: ManifoldFrame, sector: FrameSector, u: number, outE: Float64Array, outA: Float64Array, active?: Uint8Array): void {
+  const i = frameHermite(frame, u, HERMITE_WEIGHTS);
+  const h00 = HERMITE_WEIGHTS[0];
+  const h10 = HERMITE_WEIGHTS[1];
+  const h01 = HERMITE_WEIGHTS[2];
+  const h11 = HERMITE_WEIGHTS[3];
+  const d = sector.size;
+  const p0 = i * d * d;
+  const p1 = p0 + d * d;
+  const e = sector.energy;
+  const es = sector.energySlope;
+  const a = sector.coupling;
+  const as = sector.couplingSlope;
+  const blocks = sector.blocks;
+  for (let bi = 0; bi < blocks.length; bi++) {
+    if (active && active[bi] === 0) continue;
+    const lo = blocks[bi].start;
+    const hi = lo + blocks[bi].size;
+    for (let r = lo; r < hi; r++)
+      for (let q = r * d + lo; q < r * d + hi; q++) {
+        outE[q] = h00 * e[p0 + q] + h10 * es[p0 + q] + h01 * e[p1 + q] + h11 * es[p1 + q];
+        outA[q] = h00 * a[p0 + q] + h10 * as[p0 + q] + h01 * a[p1 + q] + h11 * as[p1 + q];
+      }
+  }
+}
+
 /** Interpolate a noise table (values, slopes; Dt x Dt per point) at u into out. */
 export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, out: Float64Array): Float64Array {
   const i = frameHermite(frame, u, HERMITE_WEIGHTS);

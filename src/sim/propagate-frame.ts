@@ -30,7 +30,7 @@ import { hermitianEigen, type HermitianEigen } from '../linalg/hermitian-eigen.j
 import { symmetricEigen } from '../linalg/symmetric-eigen.js';
 import { josephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { BlockStepper } from './block-stepper.js';
-import { evaluateFrame, maxCouplingBetween, type FrameSector, type ManifoldFrame } from './manifold-frame.js';
+import { evaluateFrame, evaluateFrameInBlocks, maxCouplingBetween, type FrameSector, type ManifoldFrame } from './manifold-frame.js';
 import type { Trajectory } from './trajectory.js';
 
 export interface FramePropagationOptions {
@@ -91,6 +91,8 @@ export class SectorStepper {
   readonly eig: HermitianEigen;
   hasStart = false;
   private readonly blocks: BlockStepper | undefined;
+  /** In-block scheme: the blocks that carry amplitude (restrictToColumns), or all. */
+  private active: Uint8Array | undefined;
 
   constructor(readonly frame: ManifoldFrame, readonly sector: FrameSector, private readonly scheme: 'blocks' | 'full' | 'in-block' = 'blocks') {
     const d = sector.size;
@@ -121,17 +123,31 @@ export class SectorStepper {
     const d = this.d;
     const xa = nd ? nd.xa : x0 + v * GL1 * h;
     const xb = nd ? nd.xb : x0 + v * GL2 * h;
-    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xa), this.e1, this.a1);
-    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xb), this.e2, this.a2);
     const ra = (nd ? nd.va : v) * josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, xa);
     const rb = (nd ? nd.vb : v) * josephsonEnergySlope(mover.ejsGHz, mover.asymmetry, xb);
+    if (this.blocks && this.scheme === 'in-block') {
+      // the in-block step reads only the (active) blocks' entries: evaluate and scale just those
+      evaluateFrameInBlocks(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xa), this.e1, this.a1, this.active);
+      evaluateFrameInBlocks(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xb), this.e2, this.a2, this.active);
+      const blocks = this.sector.blocks;
+      for (let bi = 0; bi < blocks.length; bi++) {
+        if (this.active && this.active[bi] === 0) continue;
+        const lo = blocks[bi].start;
+        const hi = lo + blocks[bi].size;
+        for (let r = lo; r < hi; r++)
+          for (let q = r * d + lo; q < r * d + hi; q++) {
+            this.a1[q] *= ra;
+            this.a2[q] *= rb;
+          }
+      }
+      this.blocks.setStep(this.e1, this.e2, this.a1, this.a2, h);
+      return;
+    }
+    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xa), this.e1, this.a1);
+    evaluateFrame(this.frame, this.sector, josephsonEnergy(mover.ejsGHz, mover.asymmetry, xb), this.e2, this.a2);
     for (let q = 0; q < d * d; q++) {
       this.a1[q] *= ra;
       this.a2[q] *= rb;
-    }
-    if (this.blocks && this.scheme === 'in-block') {
-      this.blocks.setStep(this.e1, this.e2, this.a1, this.a2, h);
-      return;
     }
     if (this.blocks) {
       const xm = nd ? nd.xm : x0 + 0.5 * v * h;
@@ -147,11 +163,13 @@ export class SectorStepper {
   /** Unitary of a hold of length dt at E_J = u: U = exp(-i 2 pi E dt), stored as eigen-decomposition in eig (real vectors). */
   holdPropagator(u: number, dt: number): void {
     const d = this.d;
-    evaluateFrame(this.frame, this.sector, u, this.e1, this.a1);
     if (this.blocks) {
+      // a hold reads only the in-block energies (of the active blocks, in the in-block scheme)
+      evaluateFrameInBlocks(this.frame, this.sector, u, this.e1, this.a1, this.scheme === 'in-block' ? this.active : undefined);
       this.blocks.setHold(this.e1, dt);
       return;
     }
+    evaluateFrame(this.frame, this.sector, u, this.e1, this.a1);
     const vr = this.eig.vectorsRe;
     const vi = this.eig.vectorsIm;
     vr.fill(0);
@@ -223,6 +241,7 @@ export class SectorStepper {
       for (const c of columns) for (let k = blk.start; k < blk.start + blk.size; k++) if (c.re[k] !== 0 || c.im[k] !== 0) active[bi] = 1;
     });
     this.blocks.setActiveBlocks(active);
+    this.active = active;
   }
 
   /** x <- V exp(-i w) V^H x with the decomposition in eig. */
