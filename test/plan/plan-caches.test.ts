@@ -10,7 +10,9 @@
  * - the admixture checks beyond the limit against filtering all of them;
  * - the layer fitting's conflict cache against conflictKinds without it, on the planned edges and
  *   on a list where some plans were replaced;
- * - the shared parking list of the rule evaluations against building it anew.
+ * - the shared parking list of the rule evaluations against building it anew;
+ * - a spectator's screening with the parts of the evaluation that do not read its point
+ *   replayed (SpectatorScreen) against evaluating each point from scratch.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -18,7 +20,7 @@ import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
 import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
-import { crossingCouplingsForTest, evaluateGate, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
+import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
 import { parkingOf, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
@@ -130,6 +132,51 @@ describe('rule evaluation without messages', () => {
     const first = list.map((s) => evaluateGate(ctx, s));
     const again = list.map((s) => evaluateGate(ctx, s));
     expect(again).toEqual(first);
+  });
+});
+
+describe('a spectator\'s screening with the unchanged parts replayed', () => {
+  it('gives, point after point, the findings, swept crossings and duration of evaluating each point from scratch', () => {
+    let compared = 0;
+    let findings = 0;
+    let swept = 0;
+    for (const base of scenarios()) {
+      // every neighbour of the mover and partner and every next-nearest neighbour of the mover can be the screened one
+      const candidates = new Set<number>([...ctx.neighbours[base.mover], ...ctx.neighbours[base.partner]]);
+      for (const p of ctx.nextNearestOf[base.mover]) candidates.add(ctx.nextNearest[p].a === base.mover ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
+      candidates.delete(base.mover);
+      candidates.delete(base.partner);
+      for (const P of [...candidates].sort((a, b) => a - b)) {
+        const t = ctx.tables[P];
+        const screen = new SpectatorScreen(P);
+        const parked = new Map(base.parked);
+        const s: GateScenario = { ...base, parked };
+        // points across P's range and next to the interaction point (some break rules), one repeated
+        const points = [0.1, 0.35, 0.6, 0.85, 0.99].map((u) => t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz));
+        points.push(Math.min(t.fMaxGHz, Math.max(t.fLowGHz, base.toGHz + 0.002)), points[1]);
+        for (const f of points) {
+          parked.set(P, { f01GHz: f, f12GHz: t.at(f).f12 });
+          const replayed = evaluateGate(ctx, s, { messages: false, screen });
+          const fresh = evaluateGate(ctx, s, { messages: false });
+          expect(replayed.findings).toEqual(fresh.findings);
+          expect(replayed.swept).toEqual(fresh.swept);
+          expect(replayed.durationNs).toBe(fresh.durationNs);
+          compared++;
+          findings += fresh.findings.length;
+          swept += fresh.swept.length;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(500);
+    expect(findings).toBeGreaterThan(200);
+    expect(swept).toBeGreaterThan(200);
+  });
+
+  it('is not used for a scenario without the screened spectator parked (the full evaluation instead)', () => {
+    const base = scenarios().find((s) => s.parked.size === 0)!;
+    const P = ctx.neighbours[base.mover].find((q) => q !== base.partner)!;
+    const screen = new SpectatorScreen(P);
+    expect(evaluateGate(ctx, base, { messages: false, screen })).toEqual(evaluateGate(ctx, base, { messages: false }));
   });
 });
 

@@ -22,7 +22,7 @@ import { exactTransitions } from '../exact-state.js';
 import { band, ghz, prob } from '../format.js';
 import type { PlanOptions } from '../options.js';
 import type { IdleBlockers } from '../rules/idle-blockers.js';
-import { evaluateGate, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
+import { evaluateGate, SpectatorScreen, type EvaluateOptions, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
 import type { ExactQubitState } from '../exact-state.js';
 import { spectatorParkingCandidates } from './spectator-parking.js';
 import { tuningRoomGHz, tuningRoomShortfall } from '../rules/tuning-room.js';
@@ -398,6 +398,9 @@ function bestSpectatorPoint(
   // the first that still clears wins, so the exact solves are spent on about one point.
   // Without a score the points are taken nearest first, each screened and confirmed in turn.
   const screened: { x: number; order: number }[] = [];
+  // (the screens differ only in P's point: the parts of the evaluation that do not read it are
+  // evaluated once and replayed, src/plan/rules/cz-evaluate.ts SpectatorScreen)
+  const screen: EvaluateOptions = { messages: false, screen: new SpectatorScreen(P) };
   for (const x of points.slice(0, SPECTATOR_POINTS_TRIED)) {
     if (!score) {
       screened.push({ x, order: screened.length });
@@ -407,7 +410,7 @@ function bestSpectatorPoint(
     const f12 = table.at(x).f12;
     parked.set(P, { f01GHz: x, f12GHz: f12 });
     // (a screen: its findings are only tested and its score ranks, so no messages are built)
-    const ev = evaluateGate(ctx, scenario, QUIET);
+    const ev = evaluateGate(ctx, scenario, screen);
     if (!clears(ev)) continue;
     screened.push({ x, order: score(ev, [...parkedInfo, { qubit: P, fGHz: x, flux: table.fluxAt(x), f12GHz: f12, reason }]) });
   }
@@ -416,7 +419,7 @@ function bestSpectatorPoint(
   for (const { x } of screened) {
     if (!score) {
       parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-      if (!clears(evaluateGate(ctx, scenario, QUIET))) continue;
+      if (!clears(evaluateGate(ctx, scenario, screen))) continue;
     }
     const st = transitionsOf(ctx, P, x);
     parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
