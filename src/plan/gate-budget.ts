@@ -104,9 +104,7 @@ function idleAt(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: 
 /** The spectator-move term: the pair idling through the extra two ramps, and each moved spectator's extra dephasing. */
 export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' | 'partner' | 'parked' | 'rampNs'>, states: readonly ExactQubitState[], slotNs: number): number {
   if (e.parked.length === 0) return 0;
-  const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
-  const pair = idleAt(ctx, e.mover, states[e.mover].flux, states[e.mover].f01GHz, extra).total + idleAt(ctx, e.partner, states[e.partner].flux, states[e.partner].f01GHz, extra).total;
-  let sum = 1.2 * pair;
+  let sum = spectatorMovePairError(ctx, e, states);
   for (const p of e.parked) {
     const spec = ctx.transmons[p.qubit].coherenceSpec;
     if (!spec?.fluxNoisePhi0) continue;
@@ -116,6 +114,17 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
     sum += Math.max(0, moved - parked);
   }
   return sum;
+}
+
+/**
+ * The pair's part of the spectator-move term (the pair idling through the two extra ramps), the
+ * term's value before the moved spectators' dephasing is added (each addition >= 0): with
+ * spectators moved, spectatorMoveError is at least this.
+ */
+export function spectatorMovePairError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' | 'partner' | 'rampNs'>, states: readonly ExactQubitState[]): number {
+  const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
+  const pair = idleAt(ctx, e.mover, states[e.mover].flux, states[e.mover].f01GHz, extra).total + idleAt(ctx, e.partner, states[e.partner].flux, states[e.partner].f01GHz, extra).total;
+  return 1.2 * pair;
 }
 
 /** The gate stage's part of a designed gate's budget (src/gate/design.ts DesignBudget, or verify's recomputation). */

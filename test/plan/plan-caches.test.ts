@@ -12,7 +12,9 @@
  *   on a list where some plans were replaced;
  * - the shared parking list of the rule evaluations against building it anew;
  * - a spectator's screening with the parts of the evaluation that do not read its point
- *   replayed (SpectatorScreen) against evaluating each point from scratch.
+ *   replayed (SpectatorScreen) against evaluating each point from scratch;
+ * - the lazy screening of spectator points by their score's floor against screening every point
+ *   (spectator parking with and without the floor), and the floor against the score itself.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -23,7 +25,7 @@ import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/
 import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
-import { parkingOf, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
+import { bestSpectatorPointForTest, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
 import { Random } from '../../src/util/random.js';
@@ -177,6 +179,88 @@ describe('a spectator\'s screening with the unchanged parts replayed', () => {
     const P = ctx.neighbours[base.mover].find((q) => q !== base.partner)!;
     const screen = new SpectatorScreen(P);
     expect(evaluateGate(ctx, base, { messages: false, screen })).toEqual(evaluateGate(ctx, base, { messages: false }));
+  });
+});
+
+describe('the lazy screening of spectator points by their score\'s floor', () => {
+  const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+
+  it('parks the same spectators at the same points with the same evaluation as screening every point', () => {
+    let parkedSome = 0;
+    let runs = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      const run = (withFloor: boolean) => {
+        const s = { ...base, parked: new Map(base.parked) };
+        const info: ParkedSpectator[] = [];
+        const full = optionScore(ec, s, e.moverInteractionFlux);
+        // without a floor bestSpectatorPoint screens every point (the code before the floor)
+        const score = withFloor ? full : (t: Parameters<typeof full>[0], i: Parameters<typeof full>[1]) => full(t, i);
+        const r = parkSpectators(ec, s, info, score);
+        return { evaluation: r.evaluation, unmovable: r.unmovable, info, parked: [...s.parked.entries()] };
+      };
+      const lazy = run(true);
+      const every = run(false);
+      expect(lazy).toEqual(every);
+      runs++;
+      if (every.info.length > 0) parkedSome++;
+    }
+    expect(runs).toBeGreaterThan(100);
+    expect(parkedSome).toBeGreaterThan(20);
+  });
+
+  it('picks the same point as screening every point, for each spectator of each gate and points across its range', () => {
+    let picked = 0;
+    let calls = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      for (const P of [...ctx.neighbours[base.mover], ...ctx.neighbours[base.partner]]) {
+        if (P === base.partner || P === base.mover || base.parked.has(P)) continue;
+        const t = ctx.tables[P];
+        // eight points across the range, nearest to the interaction point first (as the candidates come)
+        const points = [0.03, 0.17, 0.3, 0.45, 0.6, 0.72, 0.86, 0.98].map((u) => t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz)).sort((a, b) => Math.abs(a - base.toGHz) - Math.abs(b - base.toGHz));
+        for (const clears of [(ev: ReturnType<typeof evaluateGate>) => ev.findings.length === 0, (ev: ReturnType<typeof evaluateGate>) => !ev.findings.some((f) => f.blame === P)]) {
+          const pick = (withFloor: boolean) => {
+            const s = { ...base, parked: new Map(base.parked) };
+            const full = optionScore(ec, s, e.moverInteractionFlux);
+            const score = withFloor ? full : (x: Parameters<typeof full>[0], i: Parameters<typeof full>[1]) => full(x, i);
+            const r = bestSpectatorPointForTest(ec, s, [], P, points, clears, 'test', score);
+            expect(s.parked.has(P)).toBe(false);
+            return r;
+          };
+          const every = pick(false);
+          expect(pick(true)).toEqual(every);
+          calls++;
+          if (every) picked++;
+        }
+      }
+    }
+    expect(calls).toBeGreaterThan(300);
+    expect(picked).toBeGreaterThan(100);
+  });
+
+  it('the floor is at most the score, for points across each spectator\'s range', () => {
+    let compared = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      const s = { ...base, parked: new Map(base.parked) };
+      const score = optionScore(ec, s, e.moverInteractionFlux);
+      for (const P of ctx.neighbours[base.mover]) {
+        if (P === base.partner || s.parked.has(P)) continue;
+        const t = ctx.tables[P];
+        for (const u of [0.05, 0.5, 0.95]) {
+          const f = t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz);
+          s.parked.set(P, { f01GHz: f, f12GHz: t.at(f).f12 });
+          const ev = evaluateGate(ctx, s, { messages: false });
+          const info: ParkedSpectator[] = [{ qubit: P, fGHz: f, flux: t.fluxAt(f), f12GHz: t.at(f).f12, reason: 'test' }];
+          expect(score.floor!()).toBeLessThanOrEqual(score(ev, info));
+          expect(score.floor!()).toBeGreaterThan(0);
+          compared++;
+        }
+        s.parked.delete(P);
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
   });
 });
 

@@ -22,13 +22,13 @@ import { exactTransitions } from '../exact-state.js';
 import { band, ghz, prob } from '../format.js';
 import type { PlanOptions } from '../options.js';
 import type { IdleBlockers } from '../rules/idle-blockers.js';
-import { evaluateGate, SpectatorScreen, type EvaluateOptions, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
+import { evaluateGate, gateSlotNs, SpectatorScreen, type EvaluateOptions, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
 import type { ExactQubitState } from '../exact-state.js';
 import { spectatorParkingCandidates } from './spectator-parking.js';
 import { tuningRoomGHz, tuningRoomShortfall } from '../rules/tuning-room.js';
 import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
 import { estimateGateBudget } from '../../budget/gate-estimate.js';
-import { spectatorMoveError, sweptCrossingError } from '../gate-budget.js';
+import { spectatorMoveError, spectatorMovePairError, sweptCrossingError } from '../gate-budget.js';
 import { budgetSpectatorList } from '../budget-spectators.js';
 
 export interface ParkedSpectator {
@@ -263,7 +263,7 @@ function evaluateOption(
     parking,
     parked,
   };
-  const scoreOf = (t: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => estimateError(ec, scenario, res.moverFlux, info, t);
+  const scoreOf = optionScore(ec, scenario, res.moverFlux);
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
   // and the result with fewer problems kept.
@@ -312,7 +312,7 @@ export function parkSpectators(
   scenario: GateScenario,
   parkedInfo: ParkedSpectator[],
   /** The option's estimated error with the spectators where `scenario.parked` and `info` put them (evaluateOption's estimateError); with it, the clearing point of least error wins, and budgetMoves runs. */
-  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score?: OptionScore,
 ): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
   const { ctx } = ec;
   const id = ctx.ids;
@@ -375,6 +375,25 @@ const SPECTATOR_POINTS_TRIED = 8;
 /** A move must lower the option's estimated error by more than this to be made (our choice: a move costs slot time and control). */
 const BUDGET_MOVE_GAIN = 1e-4;
 
+/** For tests: bestSpectatorPoint (with the score's floor when it has one). */
+export const bestSpectatorPointForTest = (...a: Parameters<typeof bestSpectatorPoint>): ReturnType<typeof bestSpectatorPoint> => bestSpectatorPoint(...a);
+
+/**
+ * An option's estimated error with the spectators where the scenario and `info` put them
+ * (evaluateOption's estimateError), and, as `floor`, a lower bound of it that needs no rule
+ * evaluation: the estimate's terms before the swept crossings and the spectator moves, for the
+ * scenario as it stands with a spectator parked (both later terms are >= 0, and a floating-point
+ * sum never falls as non-negative terms are added, so the full sum is at least this prefix).
+ */
+export type OptionScore = ((ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number) & { floor?: () => number };
+
+/** The OptionScore of an option (its scenario and the mover's flux at the interaction point), with its floor. */
+export function optionScore(ec: EdgeContext, scenario: GateScenario, moverFlux: number): OptionScore {
+  return Object.assign((t: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => estimateError(ec, scenario, moverFlux, info, t), {
+    floor: () => estimateErrorFloor(ec, scenario, moverFlux),
+  });
+}
+
 /**
  * The temporary point of spectator P among `points` (nearest first, the first SPECTATOR_POINTS_TRIED)
  * that `clears` the evaluation: without `score` the nearest such point, with it the one of least
@@ -389,8 +408,12 @@ function bestSpectatorPoint(
   points: readonly number[],
   clears: (ev: ReturnType<typeof evaluateGate>) => boolean,
   reason: string,
-  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score?: OptionScore,
 ): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
+  if (score?.floor) {
+    const lazy = bestSpectatorPointByFloor(ec, scenario, parkedInfo, P, points, clears, reason, score, score.floor);
+    if (lazy !== undefined) return lazy;
+  }
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
   // Screen every point with the tabulated f12 (and, with a score, rank the ones that clear by
@@ -421,13 +444,96 @@ function bestSpectatorPoint(
       parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
       if (!clears(evaluateGate(ctx, scenario, screen))) continue;
     }
-    const st = transitionsOf(ctx, P, x);
-    parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
-    const trial = evaluateGate(ctx, scenario);
-    if (!clears(trial)) continue;
-    const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
-    best = { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
-    break;
+    best = confirmPoint(ec, scenario, parkedInfo, P, x, clears, reason, score);
+    if (best) break;
+  }
+  parked.delete(P);
+  return best;
+}
+
+/** P at the exact transitions of point x: its record, evaluation and score when the gate still clears there, else null (P left parked there). */
+function confirmPoint(
+  ec: EdgeContext, scenario: GateScenario, parkedInfo: readonly ParkedSpectator[], P: number, x: number,
+  clears: (ev: ReturnType<typeof evaluateGate>) => boolean, reason: string, score?: OptionScore,
+): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
+  const { ctx } = ec;
+  const st = transitionsOf(ctx, P, x);
+  (scenario.parked as Map<number, DuringGate>).set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
+  const trial = evaluateGate(ctx, scenario);
+  if (!clears(trial)) return null;
+  const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
+  return { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
+}
+
+/**
+ * bestSpectatorPoint with a score, screening lazily: the points are confirmed in the order of
+ * their screened scores (ties: the lower point), as when every point is screened first, but a
+ * point is screened only while its floor (a lower bound of its score: OptionScore) does not
+ * already put it behind a point that cleared its screen. The next point to confirm is the
+ * clearing point of least score once every unscreened point's floor lies strictly above that
+ * score, so the points are confirmed in the same order and the same one wins. Returns undefined
+ * (the caller screens every point) when a floor or score is NaN, where that order is not defined
+ * by the comparison alone.
+ */
+function bestSpectatorPointByFloor(
+  ec: EdgeContext,
+  scenario: GateScenario,
+  parkedInfo: readonly ParkedSpectator[],
+  P: number,
+  points: readonly number[],
+  clears: (ev: ReturnType<typeof evaluateGate>) => boolean,
+  reason: string,
+  score: OptionScore,
+  floorOf: () => number,
+): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null | undefined {
+  const { ctx } = ec;
+  const parked = scenario.parked as Map<number, DuringGate>;
+  const table = ctx.tables[P];
+  const xs = points.slice(0, SPECTATOR_POINTS_TRIED);
+  const n = xs.length;
+  const f12 = new Float64Array(n);
+  const floor = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    f12[k] = table.at(xs[k]).f12;
+    parked.set(P, { f01GHz: xs[k], f12GHz: f12[k] });
+    floor[k] = floorOf();
+    if (Number.isNaN(floor[k])) {
+      parked.delete(P);
+      return undefined;
+    }
+  }
+  // 0: not screened; 1: cleared its screen, not confirmed yet; 2: did not clear, or confirmed and failed
+  const status = new Uint8Array(n);
+  const order = new Float64Array(n);
+  const screen: EvaluateOptions = { messages: false, screen: new SpectatorScreen(P) };
+  let best: { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null = null;
+  for (;;) {
+    let c = -1;
+    let u = -1;
+    for (let k = 0; k < n; k++) {
+      if (status[k] === 1 && (c < 0 || order[k] < order[c] || (order[k] === order[c] && xs[k] < xs[c]))) c = k;
+      if (status[k] === 0 && (u < 0 || floor[k] < floor[u])) u = k;
+    }
+    if (u >= 0 && (c < 0 || !(order[c] < floor[u]))) {
+      // screen u (a screen: its findings are only tested and its score ranks, so no messages are built)
+      parked.set(P, { f01GHz: xs[u], f12GHz: f12[u] });
+      const ev = evaluateGate(ctx, scenario, screen);
+      if (!clears(ev)) {
+        status[u] = 2;
+        continue;
+      }
+      order[u] = score(ev, [...parkedInfo, { qubit: P, fGHz: xs[u], flux: table.fluxAt(xs[u]), f12GHz: f12[u], reason }]);
+      if (Number.isNaN(order[u])) {
+        parked.delete(P);
+        return undefined;
+      }
+      status[u] = 1;
+      continue;
+    }
+    if (c < 0) break;
+    best = confirmPoint(ec, scenario, parkedInfo, P, xs[c], clears, reason, score);
+    if (best) break;
+    status[c] = 2;
   }
   parked.delete(P);
   return best;
@@ -445,7 +551,7 @@ function budgetMoves(
   scenario: GateScenario,
   parkedInfo: ParkedSpectator[],
   ev: ReturnType<typeof evaluateGate>,
-  score: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score: OptionScore,
 ): ReturnType<typeof evaluateGate> {
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
@@ -469,6 +575,21 @@ function budgetMoves(
     }
   }
   return ev;
+}
+
+/**
+ * A lower bound of estimateError for the scenario as it stands (a spectator parked), without its
+ * rule evaluation: the same sum up to the spectators' term, with the slot the evaluation gives
+ * (gateSlotNs), plus the pair's part of the spectator-move term. The full sum adds the swept
+ * crossings (>= 0) before the moves term, which is at least its pair part
+ * (spectatorMovePairError); floating-point addition never falls when an argument grows, so the
+ * full sum is at least this.
+ */
+function estimateErrorFloor(ec: EdgeContext, s: GateScenario, fluxA: number): number {
+  const parts = estimateEdgeBudget(ec, s, fluxA, gateSlotNs(ec.ctx, s));
+  const prefix = parts.t1 + parts.whiteDephasing + parts.fluxNoise + parts.spectators;
+  if (s.parked.size === 0) return prefix;
+  return prefix + spectatorMovePairError(ec.ctx, { mover: s.mover, partner: s.partner, rampNs: s.spectatorRampNs ?? s.rampNs }, ec.states);
 }
 
 function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], ev: ReturnType<typeof evaluateGate>): number {

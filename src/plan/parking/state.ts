@@ -118,8 +118,12 @@ export class ParkingState implements FrequencyView {
     return this.blockers.of(i, this, this.scratch);
   }
 
-  costAt(i: number, f: number, blockers: readonly Blocker[]): CostParts {
-    const c = this.cost.at(i, f, blockers, this, this.stamp);
+  /**
+   * Cost of qubit i at f. With a `ceiling`, for callers that only ask whether violation + soft <
+   * ceiling: at or above it the result may be a lower bound (ParkingCost.at), the same answer.
+   */
+  costAt(i: number, f: number, blockers: readonly Blocker[], ceiling = Infinity): CostParts {
+    const c = this.cost.at(i, f, blockers, this, this.stamp, ceiling);
     const change = this.kept.costOf(i, f);
     return change > 0 ? { violation: c.violation, soft: c.soft + change } : c;
   }

@@ -267,12 +267,18 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
-  const durationNs = slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
+  const durationNs = gateSlotNs(ctx, s);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
       message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
   return { findings, swept, durationNs };
+}
+
+/** The slot of a gate scenario by the shared duration model (./cz-duration.ts): evaluateGate's durationNs. */
+export function gateSlotNs(ctx: PlanContext, s: GateScenario): number {
+  const r = ctx.rules;
+  return slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
 }
 
 /** The findings collector of one evaluation (each finding tagged with the edge key). */
