@@ -122,10 +122,20 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
  * spectators moved, spectatorMoveError is at least this.
  */
 export function spectatorMovePairError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' | 'partner' | 'rampNs'>, states: readonly ExactQubitState[]): number {
+  const a = states[e.mover];
+  const b = states[e.partner];
+  // (the last answer is remembered: the planner asks for the same pair at every spectator point
+  // it tries; the key is everything the answer reads but the context's fixed transmons and rules)
+  const k = lastPairError;
+  if (k !== null && k.ctx === ctx && k.mover === e.mover && k.partner === e.partner && k.rampNs === e.rampNs && k.fluxA === a.flux && k.fA === a.f01GHz && k.fluxB === b.flux && k.fB === b.f01GHz) return k.value;
   const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
-  const pair = idleAt(ctx, e.mover, states[e.mover].flux, states[e.mover].f01GHz, extra).total + idleAt(ctx, e.partner, states[e.partner].flux, states[e.partner].f01GHz, extra).total;
-  return 1.2 * pair;
+  const pair = idleAt(ctx, e.mover, a.flux, a.f01GHz, extra).total + idleAt(ctx, e.partner, b.flux, b.f01GHz, extra).total;
+  const value = 1.2 * pair;
+  lastPairError = { ctx, mover: e.mover, partner: e.partner, rampNs: e.rampNs, fluxA: a.flux, fA: a.f01GHz, fluxB: b.flux, fB: b.f01GHz, value };
+  return value;
 }
+
+let lastPairError: { ctx: PlanContext; mover: number; partner: number; rampNs: number; fluxA: number; fA: number; fluxB: number; fB: number; value: number } | null = null;
 
 /** The gate stage's part of a designed gate's budget (src/gate/design.ts DesignBudget, or verify's recomputation). */
 export type StageBudget = Pick<DesignBudget, 'coherent' | 't1' | 'whiteDephasing' | 'fluxNoise' | 'spectators' | 'spectatorLeakage' | 'spectatorShares'>;

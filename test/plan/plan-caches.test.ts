@@ -14,7 +14,9 @@
  * - a spectator's screening with the parts of the evaluation that do not read its point
  *   replayed (SpectatorScreen) against evaluating each point from scratch;
  * - the lazy screening of spectator points by their score's floor against screening every point
- *   (spectator parking with and without the floor), and the floor against the score itself.
+ *   (spectator parking with and without the floor), and the floor against the score itself;
+ * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
+ *   (spectatorMovePairError) against the answers computed after another question.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -25,9 +27,10 @@ import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/
 import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
-import { bestSpectatorPointForTest, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
+import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
+import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
 
@@ -261,6 +264,30 @@ describe('the lazy screening of spectator points by their score\'s floor', () =>
       }
     }
     expect(compared).toBeGreaterThan(100);
+  });
+});
+
+describe('the remembered last gate estimate and pair move error', () => {
+  it('give, asked twice in a row, what they give when asked after another question', () => {
+    const ec = { ctx, states: clove.states };
+    const list = clove.edges.filter((e) => Number.isFinite(e.interactionGHz));
+    expect(list.length).toBeGreaterThan(10);
+    list.forEach((e, k) => {
+      const other = list[(k + 1) % list.length];
+      const s = scenarioOf(clove, e);
+      const o = scenarioOf(clove, other);
+      for (const d of [e.durationNs, e.durationNs + 12.5]) {
+        estimateEdgeBudget(ec, o, other.moverInteractionFlux, other.durationNs);
+        const fresh = estimateEdgeBudget(ec, s, e.moverInteractionFlux, d);
+        expect(estimateEdgeBudget(ec, s, e.moverInteractionFlux, d)).toEqual(fresh);
+        // another duration or flux is not the remembered answer
+        expect(estimateEdgeBudget(ec, s, e.moverInteractionFlux, d + 40).t1).toBeGreaterThan(fresh.t1);
+        spectatorMovePairError(ctx, { mover: other.mover, partner: other.partner, rampNs: other.rampNs }, clove.states);
+        const pair = spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: e.rampNs }, clove.states);
+        expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: e.rampNs }, clove.states)).toBe(pair);
+        expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: 2 * e.rampNs }, clove.states)).toBeGreaterThan(pair);
+      }
+    });
   });
 });
 

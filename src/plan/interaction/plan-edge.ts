@@ -612,20 +612,33 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
   const tB = ctx.transmons[s.partner];
   const r = ctx.rules;
   const hold = 1 / (2 * s.crossingCouplingGHz);
-  const a = spectrumMemo(ctx, s.mover, fluxA);
-  const b = spectrumMemo(ctx, s.partner, ec.states[s.partner].flux);
-  const est = estimateGateBudget({
-    mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
-    partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },
-    // the gate as one speed limit at the interaction point (designs spend 1.02-1.38 times it in
-    // their ramps and hold, src/plan/rules/cz-duration.ts), over the whole slot
-    excited: s.crossing === '11-20' ? 'mover' : 'partner',
-    holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
-  });
+  const partnerFlux = ec.states[s.partner].flux;
+  // (the last answer is remembered: an option's screening asks for the same one at every point;
+  // the inputs below are all it reads, so a remembered answer is the one computing it gives)
+  const last = lastGateEstimate;
+  let est: ReturnType<typeof estimateGateBudget>;
+  if (last !== null && last.ctx === ctx && last.mover === s.mover && last.partner === s.partner && last.fluxA === fluxA && last.partnerFlux === partnerFlux &&
+    last.crossing === s.crossing && last.hold === hold && last.durationNs === durationNs) est = last.est;
+  else {
+    const a = spectrumMemo(ctx, s.mover, fluxA);
+    const b = spectrumMemo(ctx, s.partner, partnerFlux);
+    est = estimateGateBudget({
+      mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
+      partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },
+      // the gate as one speed limit at the interaction point (designs spend 1.02-1.38 times it in
+      // their ramps and hold, src/plan/rules/cz-duration.ts), over the whole slot
+      excited: s.crossing === '11-20' ? 'mover' : 'partner',
+      holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
+    });
+    lastGateEstimate = { ctx, mover: s.mover, partner: s.partner, fluxA, partnerFlux, crossing: s.crossing, hold, durationNs, est };
+  }
   let spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
   if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
   return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
 }
+
+/** estimateEdgeBudget's last gate estimate and what it was computed from (the coherence and rules are the context's). */
+let lastGateEstimate: { ctx: PlanContext; mover: number; partner: number; fluxA: number; partnerFlux: number; crossing: Crossing; hold: number; durationNs: number; est: ReturnType<typeof estimateGateBudget> } | null = null;
 
 /** `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each where the gate has it (in neighbour order). */
 function spectatorErrorOf(ctx: PlanContext, s: GateScenario, E: number, fE: number, withLevel2: boolean, skip: number, sum: number): number {
