@@ -16,9 +16,9 @@ import { Random } from '../../src/util/random.js';
 /** The definition, step by step (lists of classes). */
 function reference(adjacency: number[][], start: Int32Array, o: { iterations: number; seed: number; lowerBound: number }): Int32Array {
   const rng = new Random(o.seed);
-  let best = Int32Array.from(start);
+  let best: Int32Array = Int32Array.from(start);
   let bestCount = colourCount(best);
-  let cur = best;
+  let cur: Int32Array = best;
   for (let it = 0; it < o.iterations && bestCount > o.lowerBound; it++) {
     const classes: number[][] = Array.from({ length: colourCount(cur) }, () => []);
     cur.forEach((c, v) => classes[c].push(v));
