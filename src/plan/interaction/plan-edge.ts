@@ -98,6 +98,8 @@ export interface EdgeContext {
    * and estimated error may differ from the full plan's.
    */
   feasibilityOnly?: boolean;
+  /** parkingOf(states), when the caller has it (planEdge looks it up once per edge). */
+  parking?: readonly DuringGate[];
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -114,6 +116,9 @@ export function rampLadder(options: PlanOptions): number[] {
  * feasible plan's choice may differ from the full plan's).
  */
 export function planEdge(ec: EdgeContext, edge: number, tryFirst?: { mover: number; crossing: Crossing }): EdgePlan {
+  // (the parking list of ec.states, looked up once for every option and ramp of this edge: the
+  // states do not change while one edge is planned)
+  if (!ec.parking) ec = { ...ec, parking: parkingOf(ec.states) };
   let best: EdgePlan | undefined;
   for (const ramp of rampLadder(ec.options)) {
     if (best && !fasterRampMayHelp(ec, best, ramp)) break;
@@ -249,7 +254,7 @@ function evaluateOption(
     };
     return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
   }
-  const parking = parkingOf(ec.states);
+  const parking = ec.parking ?? parkingOf(ec.states);
   const moverAt = spectrumMemo(ctx, mover, res.moverFlux);
   const parked = new Map<number, DuringGate>();
   const parkedInfo: ParkedSpectator[] = [];
@@ -317,7 +322,9 @@ export function parkSpectators(
   const { ctx } = ec;
   const id = ctx.ids;
   const parked = scenario.parked as Map<number, DuringGate>;
-  let ev = evaluateGate(ctx, scenario);
+  // (the evaluations while spectators are placed are only tested: no messages; the final one is
+  // evaluated again with its messages when it has findings, below)
+  let ev = evaluateGate(ctx, scenario, QUIET);
   const tried = new Set<number>();
   const unmovable: string[] = [];
   for (let round = 0; round < MAX_PARKING_ROUNDS; round++) {
@@ -349,7 +356,7 @@ export function parkSpectators(
         }
         // Every trial since `ev` was computed has been undone, so the scenario is the one `ev`
         // describes again (unless an earlier point of P could not be put back).
-        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario);
+        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario, QUIET);
         unmovable.push(
           search.points.length === 0
             ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
@@ -359,6 +366,8 @@ export function parkSpectators(
     }
   }
   if (score && ev.findings.length === 0) ev = budgetMoves(ec, scenario, parkedInfo, ev, score);
+  // the scenario is the one `ev` describes (every trial since was undone): its findings with their messages
+  if (ev.findings.length > 0) ev = evaluateGate(ctx, scenario);
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   return { evaluation: ev, unmovable };
 }
@@ -459,7 +468,8 @@ function confirmPoint(
   const { ctx } = ec;
   const st = transitionsOf(ctx, P, x);
   (scenario.parked as Map<number, DuringGate>).set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
-  const trial = evaluateGate(ctx, scenario);
+  // (its findings are only tested here; parkSpectators evaluates its final scenario again with messages)
+  const trial = evaluateGate(ctx, scenario, QUIET);
   if (!clears(trial)) return null;
   const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
   return { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
