@@ -16,7 +16,9 @@
  * - the lazy screening of spectator points by their score's floor against screening every point
  *   (spectator parking with and without the floor), and the floor against the score itself;
  * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
- *   (spectatorMovePairError) against the answers computed after another question.
+ *   (spectatorMovePairError) against the answers computed after another question;
+ * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, through
+ *   moves, changes of the active set and of the ZZ calibration.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -31,6 +33,7 @@ import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, 
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { scenarioOf } from '../../src/plan/plan-budget.js';
 import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
+import { ParkingState } from '../../src/plan/parking/state.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
 
@@ -288,6 +291,40 @@ describe('the remembered last gate estimate and pair move error', () => {
         expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: 2 * e.rampNs }, clove.states)).toBeGreaterThan(pair);
       }
     });
+  });
+});
+
+describe('the parking state\'s remembered blocked intervals', () => {
+  it('equal the intervals computed anew through moves, active-set and calibration changes', () => {
+    const state = new ParkingState(ctx, clove.options);
+    const rng = new Random(13);
+    for (let i = 0; i < ctx.n; i++) state.active[i] = 1;
+    state.touch();
+    let checked = 0;
+    for (let step = 0; step < 600; step++) {
+      const q = rng.int(ctx.n);
+      const u = rng.uniform();
+      if (u < 0.5) {
+        const t = ctx.tables[q];
+        state.set(q, t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+      } else if (u < 0.55) {
+        state.active[q] = state.active[q] ? 0 : 1;
+        state.touch();
+      } else if (u < 0.58) {
+        state.zzScale[rng.int(ctx.edges.length)] = 0.5 + rng.uniform();
+        state.blockers.clearZzCache();
+        state.touch();
+      }
+      // ask for a few qubits (some twice: remembered), compare with a fresh computation
+      for (let k = 0; k < 3; k++) {
+        const i = rng.int(ctx.n);
+        const got = state.blockersOf(i).map((b) => ({ ...b }));
+        expect(state.blockersOf(i)).toEqual(got);
+        expect(got).toEqual(state.blockers.of(i, state, []));
+        checked++;
+      }
+    }
+    expect(checked).toBe(1800);
   });
 });
 
