@@ -37,7 +37,15 @@ export function scenarioOf(plan: Pick<ChipPlan, 'states'>, e: EdgePlan, parking:
   };
 }
 
-export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 'states' | 'edges' | 'layers' | 'gates'>): PlanBudget {
+/**
+ * Estimated gate budgets (and slots) of edge plans without a design, remembered by plan object:
+ * planChip's layer fitting asks for the cycle of several candidate lists that share most plan
+ * objects, then for the plan's own budget. Valid while the context and the states stay the same
+ * (an estimate reads the plan, the states and the context only): one memo per such stretch.
+ */
+export type EstimateMemo = WeakMap<EdgePlan, { budget: GateBudget | null; slot: number }>;
+
+export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 'states' | 'edges' | 'layers' | 'gates'>, estimates?: EstimateMemo): PlanBudget {
   const { ctx } = plan;
   const ec = { ctx, options: plan.options, blockers: plan.parking.state.blockers, states: plan.states };
   const slotsNs: number[] = [];
@@ -58,13 +66,22 @@ export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 
       slotsNs.push(slot);
       return estimatedGateBudget(ctx, { ...e, durationNs: slot }, plan.states, estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, slot));
     }
+    const hit = estimates?.get(e);
+    if (hit) {
+      slotsNs.push(hit.slot);
+      return hit.budget;
+    }
     if (!Number.isFinite(e.interactionGHz) || !Number.isFinite(e.moverInteractionFlux)) {
       slotsNs.push(NaN);
+      estimates?.set(e, { budget: null, slot: NaN });
       return null;
     }
-    slotsNs.push(slotDurationNs(ctx, e));
+    const slot = slotDurationNs(ctx, e);
+    slotsNs.push(slot);
     const est = estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, e.durationNs);
-    return estimatedGateBudget(ctx, e, plan.states, est);
+    const budget = estimatedGateBudget(ctx, e, plan.states, est);
+    estimates?.set(e, { budget, slot });
+    return budget;
   });
   const cycle = cycleBudget(ctx, plan.edges, plan.layers, plan.states, plan.parking.idle.zzGHz, gates, slotsNs);
   return { gates, slotsNs, cycle };

@@ -18,7 +18,8 @@
  * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
  *   (spectatorMovePairError) against the answers computed after another question;
  * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, through
- *   moves, changes of the active set and of the ZZ calibration.
+ *   moves, changes of the active set and of the ZZ calibration;
+ * - the plan budget with remembered gate estimates against computing them anew.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -31,7 +32,7 @@ import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spe
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
 import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
-import { scenarioOf } from '../../src/plan/plan-budget.js';
+import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
 import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
 import { ParkingState } from '../../src/plan/parking/state.js';
 import { Random } from '../../src/util/random.js';
@@ -325,6 +326,21 @@ describe('the parking state\'s remembered blocked intervals', () => {
       }
     }
     expect(checked).toBe(1800);
+  });
+});
+
+describe('the plan budget with remembered gate estimates', () => {
+  it('equals the budget computed anew, for the plan and for a list with some plans replaced', () => {
+    const memo: EstimateMemo = new WeakMap();
+    const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+    const fresh = planBudget(clove);
+    expect(planBudget(clove, memo)).toEqual(fresh);
+    expect(planBudget(clove, memo)).toEqual(fresh);
+    const replaced = clove.edges.map((e) => (e.parked.length > 0 ? (withoutSpectators(ec, e, new Set(e.parked.map((p) => p.qubit))) ?? e) : e));
+    expect(replaced.some((e, k) => e !== clove.edges[k])).toBe(true);
+    const other = { ...clove, edges: replaced };
+    expect(planBudget(other, memo)).toEqual(planBudget(other));
+    expect(planBudget(other).cycle.error).not.toBe(fresh.cycle.error);
   });
 });
 
