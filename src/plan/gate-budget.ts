@@ -104,9 +104,7 @@ function idleAt(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: 
 /** The spectator-move term: the pair idling through the extra two ramps, and each moved spectator's extra dephasing. */
 export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' | 'partner' | 'parked' | 'rampNs'>, states: readonly ExactQubitState[], slotNs: number): number {
   if (e.parked.length === 0) return 0;
-  const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
-  const pair = idleAt(ctx, e.mover, states[e.mover].flux, states[e.mover].f01GHz, extra).total + idleAt(ctx, e.partner, states[e.partner].flux, states[e.partner].f01GHz, extra).total;
-  let sum = 1.2 * pair;
+  let sum = spectatorMovePairError(ctx, e, states);
   for (const p of e.parked) {
     const spec = ctx.transmons[p.qubit].coherenceSpec;
     if (!spec?.fluxNoisePhi0) continue;
@@ -117,6 +115,27 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
   }
   return sum;
 }
+
+/**
+ * The pair's part of the spectator-move term (the pair idling through the two extra ramps), the
+ * term's value before the moved spectators' dephasing is added (each addition >= 0): with
+ * spectators moved, spectatorMoveError is at least this.
+ */
+export function spectatorMovePairError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' | 'partner' | 'rampNs'>, states: readonly ExactQubitState[]): number {
+  const a = states[e.mover];
+  const b = states[e.partner];
+  // (the last answer is remembered: the planner asks for the same pair at every spectator point
+  // it tries; the key is everything the answer reads but the context's fixed transmons and rules)
+  const k = lastPairError;
+  if (k !== null && k.ctx === ctx && k.mover === e.mover && k.partner === e.partner && k.rampNs === e.rampNs && k.fluxA === a.flux && k.fA === a.f01GHz && k.fluxB === b.flux && k.fB === b.f01GHz) return k.value;
+  const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
+  const pair = idleAt(ctx, e.mover, a.flux, a.f01GHz, extra).total + idleAt(ctx, e.partner, b.flux, b.f01GHz, extra).total;
+  const value = 1.2 * pair;
+  lastPairError = { ctx, mover: e.mover, partner: e.partner, rampNs: e.rampNs, fluxA: a.flux, fA: a.f01GHz, fluxB: b.flux, fB: b.f01GHz, value };
+  return value;
+}
+
+let lastPairError: { ctx: PlanContext; mover: number; partner: number; rampNs: number; fluxA: number; fA: number; fluxB: number; fB: number; value: number } | null = null;
 
 /** The gate stage's part of a designed gate's budget (src/gate/design.ts DesignBudget, or verify's recomputation). */
 export type StageBudget = Pick<DesignBudget, 'coherent' | 't1' | 'whiteDephasing' | 'fluxNoise' | 'spectators' | 'spectatorLeakage' | 'spectatorShares'>;

@@ -32,18 +32,34 @@ export function colourCount(colour: Int32Array): number {
 /**
  * Improve `start` by iterated greedy for at most `iterations` rounds (stopping at `lowerBound`).
  * Colours of the result are renumbered by first appearance in vertex order.
+ *
+ * Each round lists the vertices class by class (each class in vertex order; classes ordered
+ * largest first with ties in colour order, reversed, or shuffled with the seeded generator) and
+ * colours greedily in that order. Done on flat arrays (adjacency in compressed rows, one
+ * colour-stamp buffer for every round): the same colourings as greedyColouring over the flattened
+ * lists of classes (tested), without building them.
  */
 export function iteratedGreedy(adjacency: readonly number[][], start: Int32Array, options: { iterations: number; seed: number; lowerBound: number }): Int32Array {
   const rng = new Random(options.seed);
+  const n = adjacency.length;
+  const rowStart = new Int32Array(n + 1);
+  for (let v = 0; v < n; v++) rowStart[v + 1] = rowStart[v] + adjacency[v].length;
+  const targets = new Int32Array(rowStart[n]);
+  for (let v = 0; v < n; v++) targets.set(adjacency[v], rowStart[v]);
+  // mark[c] === stamp: colour c is used by a coloured neighbour of the vertex being coloured (a new stamp per vertex visit)
+  const mark = new Int32Array(n + 1);
+  let stamp = 0;
+  const order = new Int32Array(n);
   let best: Int32Array = Int32Array.from(start);
   let bestCount = colourCount(best);
   let cur: Int32Array = best;
   for (let it = 0; it < options.iterations && bestCount > options.lowerBound; it++) {
     const k = colourCount(cur);
-    const classes: number[][] = Array.from({ length: k }, () => []);
-    cur.forEach((c, v) => classes[c].push(v));
+    const size = new Int32Array(k);
+    for (let v = 0; v < n; v++) size[cur[v]]++;
+    const classes: number[] = Array.from({ length: k }, (_, c) => c);
     const mode = it % 3;
-    if (mode === 0) classes.sort((a, b) => b.length - a.length);
+    if (mode === 0) classes.sort((a, b) => size[b] - size[a]);
     else if (mode === 1) classes.reverse();
     else {
       for (let i = classes.length - 1; i > 0; i--) {
@@ -51,7 +67,26 @@ export function iteratedGreedy(adjacency: readonly number[][], start: Int32Array
         [classes[i], classes[j]] = [classes[j], classes[i]];
       }
     }
-    cur = greedyColouring(adjacency, classes.flat());
+    const at = new Int32Array(k);
+    let pos = 0;
+    for (const c of classes) {
+      at[c] = pos;
+      pos += size[c];
+    }
+    for (let v = 0; v < n; v++) order[at[cur[v]]++] = v;
+    const next = new Int32Array(n).fill(-1);
+    for (let p = 0; p < n; p++) {
+      const v = order[p];
+      stamp++;
+      for (let q = rowStart[v]; q < rowStart[v + 1]; q++) {
+        const c = next[targets[q]];
+        if (c >= 0) mark[c] = stamp;
+      }
+      let c = 0;
+      while (mark[c] === stamp) c++;
+      next[v] = c;
+    }
+    cur = next;
     const count = colourCount(cur);
     if (count < bestCount) {
       best = cur;

@@ -12,17 +12,16 @@
  *       destinations are closer than detuningNext0101.
  * Rules (b) and (c) skip a spectator both gates park at the same point: each gate's own rules
  * checked its sweep against the qubits that gate moves.
- * The conflict graph (graphology, one node per edge key) is coloured with DSATUR (Brelaz 1979,
+ * The conflict graph (adjacency lists, one vertex per gate) is coloured with DSATUR (Brelaz 1979,
  * src/plan/parking/colouring.ts), improved by iterated greedy (./iterated-greedy.ts, seeded);
  * colours are layers. The number of layers is at least the chip's maximum degree (the gates on
  * one qubit all conflict), reported as the lower bound; the explanation colours the conflicts
  * kind by kind (shared qubits, moved spectators, close excursions, next-nearest) and says how
  * many layers each kind adds.
  */
-import { UndirectedGraph } from 'graphology';
 import type { PlanContext } from './context.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
-import { dsaturColouring } from './parking/colouring.js';
+import { dsaturOfAdjacency } from './parking/colouring.js';
 import { admixtureHalfWidth } from './rules/spectator-admixture.js';
 import { colourCount, greedyColouring, iteratedGreedy } from './iterated-greedy.js';
 
@@ -188,15 +187,34 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
     if (kind) kinds.set(key, kind);
   };
   for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
+  const nearOf = nearLists(ctx);
   plans.forEach((_, k1) => {
     for (const x of moved[k1]) {
-      const near = new Set<number>(ctx.neighbours[x.qubit]);
-      for (const p of ctx.nextNearestOf[x.qubit]) near.add(ctx.nextNearest[p].a === x.qubit ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
-      for (const q of near) for (const k2 of touching[q]) consider(k1, k2);
+      const near = nearOf[x.qubit];
+      for (let i = 0; i < near.length; i++) for (const k2 of touching[near[i]]) consider(k1, k2);
     }
   });
   return kinds;
 }
+
+/**
+ * Per qubit, its neighbours and then its next-nearest neighbours not already listed (the order a
+ * set built the same way iterates in), worked out once per context.
+ */
+function nearLists(ctx: PlanContext): readonly Int32Array[] {
+  let lists = nearListMemo.get(ctx);
+  if (!lists) {
+    lists = ctx.neighbours.map((ns, q) => {
+      const near = new Set<number>(ns);
+      for (const p of ctx.nextNearestOf[q]) near.add(ctx.nextNearest[p].a === q ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
+      return Int32Array.from(near);
+    });
+    nearListMemo.set(ctx, lists);
+  }
+  return lists;
+}
+
+const nearListMemo = new WeakMap<PlanContext, readonly Int32Array[]>();
 
 /**
  * The moved qubits of each plan and the conflict kind of each pair of plans, remembered by plan
@@ -290,19 +308,17 @@ function explainKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: Reado
 
 /** Colour the conflict graph restricted to the `allowed` kinds (DSATUR or a valid `given` start, then iterated greedy). */
 function colourKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>, allowed: ReadonlySet<ConflictKind>, seed: number, given?: ArrayLike<number>): Int32Array {
-  const graph = new UndirectedGraph();
+  // (DSATUR on the adjacency lists: the same colours as on a graphology graph with one node per
+  // plan in this order, without building one; src/plan/parking/colouring.ts)
   const adjacency: number[][] = plans.map(() => []);
-  plans.forEach((p) => graph.addNode(ctx.edges[p.edge].key));
   for (const [key, kind] of kinds) {
     if (!allowed.has(kind)) continue;
     const a = Math.floor(key / plans.length);
     const b = key % plans.length;
     adjacency[a].push(b);
     adjacency[b].push(a);
-    graph.addEdge(ctx.edges[plans[a].edge].key, ctx.edges[plans[b].edge].key);
   }
-  const ds = dsaturColouring(graph);
-  let first: Int32Array = Int32Array.from(plans, (p) => ds.get(ctx.edges[p.edge].key)!);
+  let first: Int32Array = dsaturOfAdjacency(adjacency);
   if (given && given.length === plans.length) {
     // a start that no longer holds (a design moved a spectator) is repaired by greedy colouring
     // class by class in its order, which keeps most of its layers

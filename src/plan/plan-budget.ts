@@ -8,7 +8,7 @@ import type { ChipPlan } from './plan.js';
 import type { PlanContext } from './context.js';
 import type { ExactQubitState } from './exact-state.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
-import { estimateEdgeBudget } from './interaction/plan-edge.js';
+import { estimateEdgeBudget, parkingOf } from './interaction/plan-edge.js';
 import type { DuringGate, GateScenario } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
 import { designedGateBudget, estimatedGateBudget, type GateBudget } from './gate-budget.js';
@@ -23,9 +23,12 @@ export interface PlanBudget {
   cycle: CycleBudget;
 }
 
-/** The gate scenario of a planned edge (as src/plan/interaction/plan-edge.ts evaluated it). */
-export function scenarioOf(plan: Pick<ChipPlan, 'states'>, e: EdgePlan): GateScenario {
-  const parking: DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
+/**
+ * The gate scenario of a planned edge (as src/plan/interaction/plan-edge.ts evaluated it).
+ * `parking`: every qubit at parking as the states give it (default: built anew; planBudget
+ * passes one list, parkingOf, for all its edges instead of one per edge).
+ */
+export function scenarioOf(plan: Pick<ChipPlan, 'states'>, e: EdgePlan, parking: readonly DuringGate[] = plan.states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }))): GateScenario {
   const parked = new Map<number, DuringGate>(e.parked.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }]));
   return {
     edge: e.edge, mover: e.mover, partner: e.partner, crossing: e.crossing,
@@ -34,10 +37,21 @@ export function scenarioOf(plan: Pick<ChipPlan, 'states'>, e: EdgePlan): GateSce
   };
 }
 
-export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 'states' | 'edges' | 'layers' | 'gates'>): PlanBudget {
+/**
+ * Estimated gate budgets (and slots) of edge plans without a design, remembered by plan object:
+ * planChip's layer fitting asks for the cycle of several candidate lists that share most plan
+ * objects, then for the plan's own budget. Valid while the context and the states stay the same
+ * (an estimate reads the plan, the states and the context only): one memo per such stretch.
+ */
+export type EstimateMemo = WeakMap<EdgePlan, { budget: GateBudget | null; slot: number }>;
+
+export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 'states' | 'edges' | 'layers' | 'gates'>, estimates?: EstimateMemo): PlanBudget {
   const { ctx } = plan;
   const ec = { ctx, options: plan.options, blockers: plan.parking.state.blockers, states: plan.states };
   const slotsNs: number[] = [];
+  // (one parking list for every edge's scenario: it was built anew, one object per qubit, per edge)
+  let parking: readonly DuringGate[] | null = null;
+  const parkingList = () => (parking ??= parkingOf(plan.states));
   const gates = plan.edges.map((e, k) => {
     const design = plan.gates?.[k]?.design;
     if (design && (design.budget || !design.feasible)) {
@@ -50,15 +64,24 @@ export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 
     if (design) {
       const slot = slotDurationNs(ctx, e, design.durationNs);
       slotsNs.push(slot);
-      return estimatedGateBudget(ctx, { ...e, durationNs: slot }, plan.states, estimateEdgeBudget(ec, scenarioOf(plan, e), e.moverInteractionFlux, slot));
+      return estimatedGateBudget(ctx, { ...e, durationNs: slot }, plan.states, estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, slot));
+    }
+    const hit = estimates?.get(e);
+    if (hit) {
+      slotsNs.push(hit.slot);
+      return hit.budget;
     }
     if (!Number.isFinite(e.interactionGHz) || !Number.isFinite(e.moverInteractionFlux)) {
       slotsNs.push(NaN);
+      estimates?.set(e, { budget: null, slot: NaN });
       return null;
     }
-    slotsNs.push(slotDurationNs(ctx, e));
-    const est = estimateEdgeBudget(ec, scenarioOf(plan, e), e.moverInteractionFlux, e.durationNs);
-    return estimatedGateBudget(ctx, e, plan.states, est);
+    const slot = slotDurationNs(ctx, e);
+    slotsNs.push(slot);
+    const est = estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, e.durationNs);
+    const budget = estimatedGateBudget(ctx, e, plan.states, est);
+    estimates?.set(e, { budget, slot });
+    return budget;
   });
   const cycle = cycleBudget(ctx, plan.edges, plan.layers, plan.states, plan.parking.idle.zzGHz, gates, slotsNs);
   return { gates, slotsNs, cycle };

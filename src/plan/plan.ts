@@ -28,7 +28,7 @@ import type { Explanation } from './parking/explain.js';
 import { COLLISION_RULES } from './rules/catalogue.js';
 import { sortFindings, type Finding } from './rules/findings.js';
 import type { GateDesign } from './gate-seam.js';
-import { budgetFindings, planBudget, type PlanBudget } from './plan-budget.js';
+import { budgetFindings, planBudget, type EstimateMemo, type PlanBudget } from './plan-budget.js';
 
 export interface PlannedGate {
   design: GateDesign;
@@ -96,8 +96,11 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   parking.stats.repairMoves = repair.moves;
   const parkingF12 = states.map((s) => s.f12GHz);
   const ec = { ctx, options, blockers: blockersView, states };
+  // (the states stay as they are from here on: the fitting's candidates and the plan's own budget
+  // share the estimates of the plan objects they have in common)
+  const estimates: EstimateMemo = new WeakMap();
   const cycleError = (list: readonly EdgePlan[], layers: LayerPlan) =>
-    planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null }).cycle.error;
+    planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null }, estimates).cycle.error;
   const fit = profiler.time('layers', () => fitMovesToLayers(ec, edges, parkingF12, parking.parkingGHz, cycleError));
   edges.splice(0, edges.length, ...fit.edges);
   const layers = fit.layers;
@@ -107,7 +110,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
     ctx, options, parking, states, edges, layers, crowding: crowd, gates: null, violations: [], flags: [], explanations: parking.explanations,
     budget: { gates: [], slotsNs: [], cycle: { durationNs: 0, layerNs: [], gates: 0, idles: 0, error: 0, qubits: [], uncounted: 0 } },
   };
-  plan.budget = profiler.time('budget', () => planBudget(plan));
+  plan.budget = profiler.time('budget', () => planBudget(plan, estimates));
   collectFindings(plan);
   plan.explanations = [...parking.explanations, ...edgeExplanations(plan)];
   return plan;

@@ -10,7 +10,16 @@
  * - the admixture checks beyond the limit against filtering all of them;
  * - the layer fitting's conflict cache against conflictKinds without it, on the planned edges and
  *   on a list where some plans were replaced;
- * - the shared parking list of the rule evaluations against building it anew.
+ * - the shared parking list of the rule evaluations against building it anew;
+ * - a spectator's screening with the parts of the evaluation that do not read its point
+ *   replayed (SpectatorScreen) against evaluating each point from scratch;
+ * - the lazy screening of spectator points by their score's floor against screening every point
+ *   (spectator parking with and without the floor), and the floor against the score itself;
+ * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
+ *   (spectatorMovePairError) against the answers computed after another question;
+ * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, through
+ *   moves, changes of the active set and of the ZZ calibration;
+ * - the plan budget with remembered gate estimates against computing them anew.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -18,12 +27,14 @@ import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
 import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
-import { crossingCouplingsForTest, evaluateGate, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
+import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
-import { parkingOf, withoutSpectators } from '../../src/plan/interaction/plan-edge.js';
+import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
-import { scenarioOf } from '../../src/plan/plan-budget.js';
+import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
+import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
+import { ParkingState } from '../../src/plan/parking/state.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
 
@@ -130,6 +141,206 @@ describe('rule evaluation without messages', () => {
     const first = list.map((s) => evaluateGate(ctx, s));
     const again = list.map((s) => evaluateGate(ctx, s));
     expect(again).toEqual(first);
+  });
+});
+
+describe('a spectator\'s screening with the unchanged parts replayed', () => {
+  it('gives, point after point, the findings, swept crossings and duration of evaluating each point from scratch', () => {
+    let compared = 0;
+    let findings = 0;
+    let swept = 0;
+    for (const base of scenarios()) {
+      // every neighbour of the mover and partner and every next-nearest neighbour of the mover can be the screened one
+      const candidates = new Set<number>([...ctx.neighbours[base.mover], ...ctx.neighbours[base.partner]]);
+      for (const p of ctx.nextNearestOf[base.mover]) candidates.add(ctx.nextNearest[p].a === base.mover ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
+      candidates.delete(base.mover);
+      candidates.delete(base.partner);
+      for (const P of [...candidates].sort((a, b) => a - b)) {
+        const t = ctx.tables[P];
+        const screen = new SpectatorScreen(P);
+        const parked = new Map(base.parked);
+        const s: GateScenario = { ...base, parked };
+        // points across P's range and next to the interaction point (some break rules), one repeated
+        const points = [0.1, 0.35, 0.6, 0.85, 0.99].map((u) => t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz));
+        points.push(Math.min(t.fMaxGHz, Math.max(t.fLowGHz, base.toGHz + 0.002)), points[1]);
+        for (const f of points) {
+          parked.set(P, { f01GHz: f, f12GHz: t.at(f).f12 });
+          const replayed = evaluateGate(ctx, s, { messages: false, screen });
+          const fresh = evaluateGate(ctx, s, { messages: false });
+          expect(replayed.findings).toEqual(fresh.findings);
+          expect(replayed.swept).toEqual(fresh.swept);
+          expect(replayed.durationNs).toBe(fresh.durationNs);
+          compared++;
+          findings += fresh.findings.length;
+          swept += fresh.swept.length;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(500);
+    expect(findings).toBeGreaterThan(200);
+    expect(swept).toBeGreaterThan(200);
+  });
+
+  it('is not used for a scenario without the screened spectator parked (the full evaluation instead)', () => {
+    const base = scenarios().find((s) => s.parked.size === 0)!;
+    const P = ctx.neighbours[base.mover].find((q) => q !== base.partner)!;
+    const screen = new SpectatorScreen(P);
+    expect(evaluateGate(ctx, base, { messages: false, screen })).toEqual(evaluateGate(ctx, base, { messages: false }));
+  });
+});
+
+describe('the lazy screening of spectator points by their score\'s floor', () => {
+  const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+
+  it('parks the same spectators at the same points with the same evaluation as screening every point', () => {
+    let parkedSome = 0;
+    let runs = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      const run = (withFloor: boolean) => {
+        const s = { ...base, parked: new Map(base.parked) };
+        const info: ParkedSpectator[] = [];
+        const full = optionScore(ec, s, e.moverInteractionFlux);
+        // without a floor bestSpectatorPoint screens every point (the code before the floor)
+        const score = withFloor ? full : (t: Parameters<typeof full>[0], i: Parameters<typeof full>[1]) => full(t, i);
+        const r = parkSpectators(ec, s, info, score);
+        return { evaluation: r.evaluation, unmovable: r.unmovable, info, parked: [...s.parked.entries()] };
+      };
+      const lazy = run(true);
+      const every = run(false);
+      expect(lazy).toEqual(every);
+      runs++;
+      if (every.info.length > 0) parkedSome++;
+    }
+    expect(runs).toBeGreaterThan(100);
+    expect(parkedSome).toBeGreaterThan(20);
+  });
+
+  it('picks the same point as screening every point, for each spectator of each gate and points across its range', () => {
+    let picked = 0;
+    let calls = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      for (const P of [...ctx.neighbours[base.mover], ...ctx.neighbours[base.partner]]) {
+        if (P === base.partner || P === base.mover || base.parked.has(P)) continue;
+        const t = ctx.tables[P];
+        // eight points across the range, nearest to the interaction point first (as the candidates come)
+        const points = [0.03, 0.17, 0.3, 0.45, 0.6, 0.72, 0.86, 0.98].map((u) => t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz)).sort((a, b) => Math.abs(a - base.toGHz) - Math.abs(b - base.toGHz));
+        for (const clears of [(ev: ReturnType<typeof evaluateGate>) => ev.findings.length === 0, (ev: ReturnType<typeof evaluateGate>) => !ev.findings.some((f) => f.blame === P)]) {
+          const pick = (withFloor: boolean) => {
+            const s = { ...base, parked: new Map(base.parked) };
+            const full = optionScore(ec, s, e.moverInteractionFlux);
+            const score = withFloor ? full : (x: Parameters<typeof full>[0], i: Parameters<typeof full>[1]) => full(x, i);
+            const r = bestSpectatorPointForTest(ec, s, [], P, points, clears, 'test', score);
+            expect(s.parked.has(P)).toBe(false);
+            return r;
+          };
+          const every = pick(false);
+          expect(pick(true)).toEqual(every);
+          calls++;
+          if (every) picked++;
+        }
+      }
+    }
+    expect(calls).toBeGreaterThan(300);
+    expect(picked).toBeGreaterThan(100);
+  });
+
+  it('the floor is at most the score, for points across each spectator\'s range', () => {
+    let compared = 0;
+    for (const base of scenarios()) {
+      const e = clove.edges.find((x) => x.edge === base.edge)!;
+      const s = { ...base, parked: new Map(base.parked) };
+      const score = optionScore(ec, s, e.moverInteractionFlux);
+      for (const P of ctx.neighbours[base.mover]) {
+        if (P === base.partner || s.parked.has(P)) continue;
+        const t = ctx.tables[P];
+        for (const u of [0.05, 0.5, 0.95]) {
+          const f = t.fLowGHz + u * (t.fMaxGHz - t.fLowGHz);
+          s.parked.set(P, { f01GHz: f, f12GHz: t.at(f).f12 });
+          const ev = evaluateGate(ctx, s, { messages: false });
+          const info: ParkedSpectator[] = [{ qubit: P, fGHz: f, flux: t.fluxAt(f), f12GHz: t.at(f).f12, reason: 'test' }];
+          expect(score.floor!()).toBeLessThanOrEqual(score(ev, info));
+          expect(score.floor!()).toBeGreaterThan(0);
+          compared++;
+        }
+        s.parked.delete(P);
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
+  });
+});
+
+describe('the remembered last gate estimate and pair move error', () => {
+  it('give, asked twice in a row, what they give when asked after another question', () => {
+    const ec = { ctx, states: clove.states };
+    const list = clove.edges.filter((e) => Number.isFinite(e.interactionGHz));
+    expect(list.length).toBeGreaterThan(10);
+    list.forEach((e, k) => {
+      const other = list[(k + 1) % list.length];
+      const s = scenarioOf(clove, e);
+      const o = scenarioOf(clove, other);
+      for (const d of [e.durationNs, e.durationNs + 12.5]) {
+        estimateEdgeBudget(ec, o, other.moverInteractionFlux, other.durationNs);
+        const fresh = estimateEdgeBudget(ec, s, e.moverInteractionFlux, d);
+        expect(estimateEdgeBudget(ec, s, e.moverInteractionFlux, d)).toEqual(fresh);
+        // another duration or flux is not the remembered answer
+        expect(estimateEdgeBudget(ec, s, e.moverInteractionFlux, d + 40).t1).toBeGreaterThan(fresh.t1);
+        spectatorMovePairError(ctx, { mover: other.mover, partner: other.partner, rampNs: other.rampNs }, clove.states);
+        const pair = spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: e.rampNs }, clove.states);
+        expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: e.rampNs }, clove.states)).toBe(pair);
+        expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: 2 * e.rampNs }, clove.states)).toBeGreaterThan(pair);
+      }
+    });
+  });
+});
+
+describe('the parking state\'s remembered blocked intervals', () => {
+  it('equal the intervals computed anew through moves, active-set and calibration changes', () => {
+    const state = new ParkingState(ctx, clove.options);
+    const rng = new Random(13);
+    for (let i = 0; i < ctx.n; i++) state.active[i] = 1;
+    state.touch();
+    let checked = 0;
+    for (let step = 0; step < 600; step++) {
+      const q = rng.int(ctx.n);
+      const u = rng.uniform();
+      if (u < 0.5) {
+        const t = ctx.tables[q];
+        state.set(q, t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+      } else if (u < 0.55) {
+        state.active[q] = state.active[q] ? 0 : 1;
+        state.touch();
+      } else if (u < 0.58) {
+        state.zzScale[rng.int(ctx.edges.length)] = 0.5 + rng.uniform();
+        state.blockers.clearZzCache();
+        state.touch();
+      }
+      // ask for a few qubits (some twice: remembered), compare with a fresh computation
+      for (let k = 0; k < 3; k++) {
+        const i = rng.int(ctx.n);
+        const got = state.blockersOf(i).map((b) => ({ ...b }));
+        expect(state.blockersOf(i)).toEqual(got);
+        expect(got).toEqual(state.blockers.of(i, state, []));
+        checked++;
+      }
+    }
+    expect(checked).toBe(1800);
+  });
+});
+
+describe('the plan budget with remembered gate estimates', () => {
+  it('equals the budget computed anew, for the plan and for a list with some plans replaced', () => {
+    const memo: EstimateMemo = new WeakMap();
+    const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+    const fresh = planBudget(clove);
+    expect(planBudget(clove, memo)).toEqual(fresh);
+    expect(planBudget(clove, memo)).toEqual(fresh);
+    const replaced = clove.edges.map((e) => (e.parked.length > 0 ? (withoutSpectators(ec, e, new Set(e.parked.map((p) => p.qubit))) ?? e) : e));
+    expect(replaced.some((e, k) => e !== clove.edges[k])).toBe(true);
+    const other = { ...clove, edges: replaced };
+    expect(planBudget(other, memo)).toEqual(planBudget(other));
+    expect(planBudget(other).cycle.error).not.toBe(fresh.cycle.error);
   });
 });
 

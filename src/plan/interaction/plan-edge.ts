@@ -22,13 +22,13 @@ import { exactTransitions } from '../exact-state.js';
 import { band, ghz, prob } from '../format.js';
 import type { PlanOptions } from '../options.js';
 import type { IdleBlockers } from '../rules/idle-blockers.js';
-import { evaluateGate, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
+import { evaluateGate, gateSlotNs, SpectatorScreen, type EvaluateOptions, type Crossing, type CzFinding, type DuringGate, type GateScenario, type SweptCrossing } from '../rules/cz-evaluate.js';
 import type { ExactQubitState } from '../exact-state.js';
 import { spectatorParkingCandidates } from './spectator-parking.js';
 import { tuningRoomGHz, tuningRoomShortfall } from '../rules/tuning-room.js';
 import { admixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from '../rules/spectator-admixture.js';
 import { estimateGateBudget } from '../../budget/gate-estimate.js';
-import { spectatorMoveError, sweptCrossingError } from '../gate-budget.js';
+import { spectatorMoveError, spectatorMovePairError, sweptCrossingError } from '../gate-budget.js';
 import { budgetSpectatorList } from '../budget-spectators.js';
 
 export interface ParkedSpectator {
@@ -98,6 +98,8 @@ export interface EdgeContext {
    * and estimated error may differ from the full plan's.
    */
   feasibilityOnly?: boolean;
+  /** parkingOf(states), when the caller has it (planEdge looks it up once per edge). */
+  parking?: readonly DuringGate[];
 }
 
 const MAX_PARKING_ROUNDS = 3;
@@ -114,6 +116,9 @@ export function rampLadder(options: PlanOptions): number[] {
  * feasible plan's choice may differ from the full plan's).
  */
 export function planEdge(ec: EdgeContext, edge: number, tryFirst?: { mover: number; crossing: Crossing }): EdgePlan {
+  // (the parking list of ec.states, looked up once for every option and ramp of this edge: the
+  // states do not change while one edge is planned)
+  if (!ec.parking) ec = { ...ec, parking: parkingOf(ec.states) };
   let best: EdgePlan | undefined;
   for (const ramp of rampLadder(ec.options)) {
     if (best && !fasterRampMayHelp(ec, best, ramp)) break;
@@ -249,7 +254,7 @@ function evaluateOption(
     };
     return { report: { mover, crossing, feasible: false, score: Infinity, interactionGHz: res ? res.moverF01GHz : null, moverFlux: null, parked: [], problems: [problem], note: `${crossing} crossing ${where}` }, scenario: null, eval: null, g: NaN };
   }
-  const parking = parkingOf(ec.states);
+  const parking = ec.parking ?? parkingOf(ec.states);
   const moverAt = spectrumMemo(ctx, mover, res.moverFlux);
   const parked = new Map<number, DuringGate>();
   const parkedInfo: ParkedSpectator[] = [];
@@ -263,7 +268,7 @@ function evaluateOption(
     parking,
     parked,
   };
-  const scoreOf = (t: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => estimateError(ec, scenario, res.moverFlux, info, t);
+  const scoreOf = optionScore(ec, scenario, res.moverFlux);
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
   // and the result with fewer problems kept.
@@ -312,12 +317,14 @@ export function parkSpectators(
   scenario: GateScenario,
   parkedInfo: ParkedSpectator[],
   /** The option's estimated error with the spectators where `scenario.parked` and `info` put them (evaluateOption's estimateError); with it, the clearing point of least error wins, and budgetMoves runs. */
-  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score?: OptionScore,
 ): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
   const { ctx } = ec;
   const id = ctx.ids;
   const parked = scenario.parked as Map<number, DuringGate>;
-  let ev = evaluateGate(ctx, scenario);
+  // (the evaluations while spectators are placed are only tested: no messages; the final one is
+  // evaluated again with its messages when it has findings, below)
+  let ev = evaluateGate(ctx, scenario, QUIET);
   const tried = new Set<number>();
   const unmovable: string[] = [];
   for (let round = 0; round < MAX_PARKING_ROUNDS; round++) {
@@ -349,7 +356,7 @@ export function parkSpectators(
         }
         // Every trial since `ev` was computed has been undone, so the scenario is the one `ev`
         // describes again (unless an earlier point of P could not be put back).
-        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario);
+        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario, QUIET);
         unmovable.push(
           search.points.length === 0
             ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
@@ -359,6 +366,8 @@ export function parkSpectators(
     }
   }
   if (score && ev.findings.length === 0) ev = budgetMoves(ec, scenario, parkedInfo, ev, score);
+  // the scenario is the one `ev` describes (every trial since was undone): its findings with their messages
+  if (ev.findings.length > 0) ev = evaluateGate(ctx, scenario);
   parkedInfo.sort((a, b) => a.qubit - b.qubit);
   return { evaluation: ev, unmovable };
 }
@@ -375,6 +384,25 @@ const SPECTATOR_POINTS_TRIED = 8;
 /** A move must lower the option's estimated error by more than this to be made (our choice: a move costs slot time and control). */
 const BUDGET_MOVE_GAIN = 1e-4;
 
+/** For tests: bestSpectatorPoint (with the score's floor when it has one). */
+export const bestSpectatorPointForTest = (...a: Parameters<typeof bestSpectatorPoint>): ReturnType<typeof bestSpectatorPoint> => bestSpectatorPoint(...a);
+
+/**
+ * An option's estimated error with the spectators where the scenario and `info` put them
+ * (evaluateOption's estimateError), and, as `floor`, a lower bound of it that needs no rule
+ * evaluation: the estimate's terms before the swept crossings and the spectator moves, for the
+ * scenario as it stands with a spectator parked (both later terms are >= 0, and a floating-point
+ * sum never falls as non-negative terms are added, so the full sum is at least this prefix).
+ */
+export type OptionScore = ((ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number) & { floor?: () => number };
+
+/** The OptionScore of an option (its scenario and the mover's flux at the interaction point), with its floor. */
+export function optionScore(ec: EdgeContext, scenario: GateScenario, moverFlux: number): OptionScore {
+  return Object.assign((t: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => estimateError(ec, scenario, moverFlux, info, t), {
+    floor: () => estimateErrorFloor(ec, scenario, moverFlux),
+  });
+}
+
 /**
  * The temporary point of spectator P among `points` (nearest first, the first SPECTATOR_POINTS_TRIED)
  * that `clears` the evaluation: without `score` the nearest such point, with it the one of least
@@ -389,8 +417,12 @@ function bestSpectatorPoint(
   points: readonly number[],
   clears: (ev: ReturnType<typeof evaluateGate>) => boolean,
   reason: string,
-  score?: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score?: OptionScore,
 ): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
+  if (score?.floor) {
+    const lazy = bestSpectatorPointByFloor(ec, scenario, parkedInfo, P, points, clears, reason, score, score.floor);
+    if (lazy !== undefined) return lazy;
+  }
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
   // Screen every point with the tabulated f12 (and, with a score, rank the ones that clear by
@@ -398,6 +430,9 @@ function bestSpectatorPoint(
   // the first that still clears wins, so the exact solves are spent on about one point.
   // Without a score the points are taken nearest first, each screened and confirmed in turn.
   const screened: { x: number; order: number }[] = [];
+  // (the screens differ only in P's point: the parts of the evaluation that do not read it are
+  // evaluated once and replayed, src/plan/rules/cz-evaluate.ts SpectatorScreen)
+  const screen: EvaluateOptions = { messages: false, screen: new SpectatorScreen(P) };
   for (const x of points.slice(0, SPECTATOR_POINTS_TRIED)) {
     if (!score) {
       screened.push({ x, order: screened.length });
@@ -407,7 +442,7 @@ function bestSpectatorPoint(
     const f12 = table.at(x).f12;
     parked.set(P, { f01GHz: x, f12GHz: f12 });
     // (a screen: its findings are only tested and its score ranks, so no messages are built)
-    const ev = evaluateGate(ctx, scenario, QUIET);
+    const ev = evaluateGate(ctx, scenario, screen);
     if (!clears(ev)) continue;
     screened.push({ x, order: score(ev, [...parkedInfo, { qubit: P, fGHz: x, flux: table.fluxAt(x), f12GHz: f12, reason }]) });
   }
@@ -416,15 +451,99 @@ function bestSpectatorPoint(
   for (const { x } of screened) {
     if (!score) {
       parked.set(P, { f01GHz: x, f12GHz: ctx.tables[P].at(x).f12 });
-      if (!clears(evaluateGate(ctx, scenario, QUIET))) continue;
+      if (!clears(evaluateGate(ctx, scenario, screen))) continue;
     }
-    const st = transitionsOf(ctx, P, x);
-    parked.set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
-    const trial = evaluateGate(ctx, scenario);
-    if (!clears(trial)) continue;
-    const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
-    best = { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
-    break;
+    best = confirmPoint(ec, scenario, parkedInfo, P, x, clears, reason, score);
+    if (best) break;
+  }
+  parked.delete(P);
+  return best;
+}
+
+/** P at the exact transitions of point x: its record, evaluation and score when the gate still clears there, else null (P left parked there). */
+function confirmPoint(
+  ec: EdgeContext, scenario: GateScenario, parkedInfo: readonly ParkedSpectator[], P: number, x: number,
+  clears: (ev: ReturnType<typeof evaluateGate>) => boolean, reason: string, score?: OptionScore,
+): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null {
+  const { ctx } = ec;
+  const st = transitionsOf(ctx, P, x);
+  (scenario.parked as Map<number, DuringGate>).set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
+  // (its findings are only tested here; parkSpectators evaluates its final scenario again with messages)
+  const trial = evaluateGate(ctx, scenario, QUIET);
+  if (!clears(trial)) return null;
+  const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
+  return { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
+}
+
+/**
+ * bestSpectatorPoint with a score, screening lazily: the points are confirmed in the order of
+ * their screened scores (ties: the lower point), as when every point is screened first, but a
+ * point is screened only while its floor (a lower bound of its score: OptionScore) does not
+ * already put it behind a point that cleared its screen. The next point to confirm is the
+ * clearing point of least score once every unscreened point's floor lies strictly above that
+ * score, so the points are confirmed in the same order and the same one wins. Returns undefined
+ * (the caller screens every point) when a floor or score is NaN, where that order is not defined
+ * by the comparison alone.
+ */
+function bestSpectatorPointByFloor(
+  ec: EdgeContext,
+  scenario: GateScenario,
+  parkedInfo: readonly ParkedSpectator[],
+  P: number,
+  points: readonly number[],
+  clears: (ev: ReturnType<typeof evaluateGate>) => boolean,
+  reason: string,
+  score: OptionScore,
+  floorOf: () => number,
+): { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null | undefined {
+  const { ctx } = ec;
+  const parked = scenario.parked as Map<number, DuringGate>;
+  const table = ctx.tables[P];
+  const xs = points.slice(0, SPECTATOR_POINTS_TRIED);
+  const n = xs.length;
+  const f12 = new Float64Array(n);
+  const floor = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    f12[k] = table.at(xs[k]).f12;
+    parked.set(P, { f01GHz: xs[k], f12GHz: f12[k] });
+    floor[k] = floorOf();
+    if (Number.isNaN(floor[k])) {
+      parked.delete(P);
+      return undefined;
+    }
+  }
+  // 0: not screened; 1: cleared its screen, not confirmed yet; 2: did not clear, or confirmed and failed
+  const status = new Uint8Array(n);
+  const order = new Float64Array(n);
+  const screen: EvaluateOptions = { messages: false, screen: new SpectatorScreen(P) };
+  let best: { info: ParkedSpectator; ev: ReturnType<typeof evaluateGate>; score: number } | null = null;
+  for (;;) {
+    let c = -1;
+    let u = -1;
+    for (let k = 0; k < n; k++) {
+      if (status[k] === 1 && (c < 0 || order[k] < order[c] || (order[k] === order[c] && xs[k] < xs[c]))) c = k;
+      if (status[k] === 0 && (u < 0 || floor[k] < floor[u])) u = k;
+    }
+    if (u >= 0 && (c < 0 || !(order[c] < floor[u]))) {
+      // screen u (a screen: its findings are only tested and its score ranks, so no messages are built)
+      parked.set(P, { f01GHz: xs[u], f12GHz: f12[u] });
+      const ev = evaluateGate(ctx, scenario, screen);
+      if (!clears(ev)) {
+        status[u] = 2;
+        continue;
+      }
+      order[u] = score(ev, [...parkedInfo, { qubit: P, fGHz: xs[u], flux: table.fluxAt(xs[u]), f12GHz: f12[u], reason }]);
+      if (Number.isNaN(order[u])) {
+        parked.delete(P);
+        return undefined;
+      }
+      status[u] = 1;
+      continue;
+    }
+    if (c < 0) break;
+    best = confirmPoint(ec, scenario, parkedInfo, P, xs[c], clears, reason, score);
+    if (best) break;
+    status[c] = 2;
   }
   parked.delete(P);
   return best;
@@ -442,7 +561,7 @@ function budgetMoves(
   scenario: GateScenario,
   parkedInfo: ParkedSpectator[],
   ev: ReturnType<typeof evaluateGate>,
-  score: (ev: ReturnType<typeof evaluateGate>, info: readonly ParkedSpectator[]) => number,
+  score: OptionScore,
 ): ReturnType<typeof evaluateGate> {
   const { ctx } = ec;
   const parked = scenario.parked as Map<number, DuringGate>;
@@ -468,6 +587,21 @@ function budgetMoves(
   return ev;
 }
 
+/**
+ * A lower bound of estimateError for the scenario as it stands (a spectator parked), without its
+ * rule evaluation: the same sum up to the spectators' term, with the slot the evaluation gives
+ * (gateSlotNs), plus the pair's part of the spectator-move term. The full sum adds the swept
+ * crossings (>= 0) before the moves term, which is at least its pair part
+ * (spectatorMovePairError); floating-point addition never falls when an argument grows, so the
+ * full sum is at least this.
+ */
+function estimateErrorFloor(ec: EdgeContext, s: GateScenario, fluxA: number): number {
+  const parts = estimateEdgeBudget(ec, s, fluxA, gateSlotNs(ec.ctx, s));
+  const prefix = parts.t1 + parts.whiteDephasing + parts.fluxNoise + parts.spectators;
+  if (s.parked.size === 0) return prefix;
+  return prefix + spectatorMovePairError(ec.ctx, { mover: s.mover, partner: s.partner, rampNs: s.spectatorRampNs ?? s.rampNs }, ec.states);
+}
+
 function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], ev: ReturnType<typeof evaluateGate>): number {
   const parts = estimateEdgeBudget(ec, s, fluxA, ev.durationNs);
   const e = { mover: s.mover, partner: s.partner, swept: ev.swept, parked: [...parked], rampNs: s.spectatorRampNs ?? s.rampNs };
@@ -488,20 +622,33 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
   const tB = ctx.transmons[s.partner];
   const r = ctx.rules;
   const hold = 1 / (2 * s.crossingCouplingGHz);
-  const a = spectrumMemo(ctx, s.mover, fluxA);
-  const b = spectrumMemo(ctx, s.partner, ec.states[s.partner].flux);
-  const est = estimateGateBudget({
-    mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
-    partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },
-    // the gate as one speed limit at the interaction point (designs spend 1.02-1.38 times it in
-    // their ramps and hold, src/plan/rules/cz-duration.ts), over the whole slot
-    excited: s.crossing === '11-20' ? 'mover' : 'partner',
-    holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
-  });
+  const partnerFlux = ec.states[s.partner].flux;
+  // (the last answer is remembered: an option's screening asks for the same one at every point;
+  // the inputs below are all it reads, so a remembered answer is the one computing it gives)
+  const last = lastGateEstimate;
+  let est: ReturnType<typeof estimateGateBudget>;
+  if (last !== null && last.ctx === ctx && last.mover === s.mover && last.partner === s.partner && last.fluxA === fluxA && last.partnerFlux === partnerFlux &&
+    last.crossing === s.crossing && last.hold === hold && last.durationNs === durationNs) est = last.est;
+  else {
+    const a = spectrumMemo(ctx, s.mover, fluxA);
+    const b = spectrumMemo(ctx, s.partner, partnerFlux);
+    est = estimateGateBudget({
+      mover: { coherence: tA.coherenceSpec, slopeGHz: a.df01dFluxGHz, slope12GHz: a.df12dFluxGHz },
+      partner: { coherence: tB.coherenceSpec, slopeGHz: b.df01dFluxGHz, slope12GHz: b.df12dFluxGHz },
+      // the gate as one speed limit at the interaction point (designs spend 1.02-1.38 times it in
+      // their ramps and hold, src/plan/rules/cz-duration.ts), over the whole slot
+      excited: s.crossing === '11-20' ? 'mover' : 'partner',
+      holdNs: hold, rampNs: 0, durationNs, averagingTimeNs: r.noiseAveragingTimeNs,
+    });
+    lastGateEstimate = { ctx, mover: s.mover, partner: s.partner, fluxA, partnerFlux, crossing: s.crossing, hold, durationNs, est };
+  }
   let spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
   if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
   return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
 }
+
+/** estimateEdgeBudget's last gate estimate and what it was computed from (the coherence and rules are the context's). */
+let lastGateEstimate: { ctx: PlanContext; mover: number; partner: number; fluxA: number; partnerFlux: number; crossing: Crossing; hold: number; durationNs: number; est: ReturnType<typeof estimateGateBudget> } | null = null;
 
 /** `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each where the gate has it (in neighbour order). */
 function spectatorErrorOf(ctx: PlanContext, s: GateScenario, E: number, fE: number, withLevel2: boolean, skip: number, sum: number): number {

@@ -31,9 +31,19 @@ export function idleConflictGraph(ctx: PlanContext): UndirectedGraph {
  */
 export function dsaturColouring(graph: UndirectedGraph): Map<string, number> {
   const nodes = graph.nodes();
-  const n = nodes.length;
   const index = new Map(nodes.map((node, k) => [node, k]));
-  const neighbours: number[][] = nodes.map((node) => graph.neighbors(node).map((m) => index.get(m)!));
+  const colourOf = dsaturOfAdjacency(nodes.map((node) => graph.neighbors(node).map((m) => index.get(m)!)));
+  return new Map(nodes.map((node, k) => [node, colourOf[k]]));
+}
+
+/**
+ * DSATUR on adjacency lists over vertices 0..n-1 (each edge listed at both ends, no loops or
+ * repeats): the colour of each vertex, ties to the lower index. The choice at each step does not
+ * depend on the order of a vertex's list, so this is dsaturColouring of the graph with these
+ * edges and nodes in index order (tested), without building a graph.
+ */
+export function dsaturOfAdjacency(neighbours: readonly (readonly number[])[]): Int32Array {
+  const n = neighbours.length;
   const colourOf = new Int32Array(n).fill(-1);
   const seen: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
   const uncolouredDegree = Int32Array.from(neighbours, (list) => list.length);
@@ -55,7 +65,7 @@ export function dsaturColouring(graph: UndirectedGraph): Map<string, number> {
       if (colourOf[m] < 0) heap.push(seen[m].size, uncolouredDegree[m], m);
     }
   }
-  return new Map(nodes.map((node, k) => [node, colourOf[k]]));
+  return colourOf;
 }
 
 /** Max-heap of (saturation, degree, node) by saturation, then degree, then the lower node index. */

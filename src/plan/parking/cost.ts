@@ -86,6 +86,9 @@ export class ParkingCost {
     this.crossingVisit.clear();
   }
 
+  /** Every weight of the soft cost is >= 0 (the ceiling of `at` relies on it). */
+  private readonly weightsNonNegative: boolean;
+
   /** Per qubit, aligned with ctx.neighbours: the edge index and the charge coupling G of each neighbour's coupling. */
   private readonly edgeOf: Int32Array[];
   private readonly gOf: Float64Array[];
@@ -96,11 +99,23 @@ export class ParkingCost {
   ) {
     this.edgeOf = ctx.neighbours.map((ns, i) => Int32Array.from(ns, (j) => ctx.edgeBetween(i, j)));
     this.gOf = this.edgeOf.map((es) => Float64Array.from(es, (e) => ctx.edges[e].gChargeGHz));
+    this.weightsNonNegative = Object.values(options.weights).every((x) => x >= 0) && options.search.violationPenalty >= 0;
   }
 
-  /** Violation measure and soft cost of qubit i at f (pair terms with active neighbours included). */
-  at(i: number, f: number, blockers: readonly Blocker[], view: FrequencyView, stamp = -2): CostParts {
+  /**
+   * Violation measure and soft cost of qubit i at f (pair terms with active neighbours included).
+   *
+   * `ceiling`: the caller only asks whether violation + soft < ceiling. Every term of the soft
+   * cost is non-negative (with non-negative weights), and a floating-point sum of non-negative
+   * terms never falls as terms are added (rounding is monotone), so once the violation plus the
+   * terms summed so far reach the ceiling, the full sum does too: the cost then returns that
+   * partial sum (a lower bound, at or above the ceiling) without the remaining terms. The answer
+   * to the caller's question is the one the full sum gives. Only within a visit (the per-visit
+   * caches stay as a full evaluation leaves them).
+   */
+  at(i: number, f: number, blockers: readonly Blocker[], view: FrequencyView, stamp = -2, ceiling = Infinity): CostParts {
     const cached = stamp === this.visitStamp && i === this.visitI;
+    const bound = cached && ceiling < Infinity && this.weightsNonNegative;
     const ctx = this.ctx;
     const w = this.options.weights;
     const T = this.options.cycleNs;
@@ -121,6 +136,8 @@ export class ParkingCost {
     const below = table.fMaxGHz - f;
     soft += w.band * below * below;
     soft += w.dephasing * this.idleError(i, f, table.fluxSlopeOf(st));
+    const penalty = this.options.search.violationPenalty;
+    if (bound && violation * penalty + soft >= ceiling) return { violation: violation * penalty, soft };
     const ni = ctx.neighbours[i];
     for (let q = 0; q < ni.length; q++) {
       const j = ni[q];
@@ -139,6 +156,7 @@ export class ParkingCost {
         gate = c;
       } else gate = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
       soft += w.gate * gate;
+      if (bound && violation * penalty + soft >= ceiling) return { violation: violation * penalty, soft };
     }
     // (a point that breaks a rule is ranked by its violation; the spectator term only orders the clean ones)
     if (violation === 0) soft += w.gate * PARKING_SPECTATOR_ERROR_PER_ADMIXTURE * this.spectatorAdmixture(i, f, st, view, cached);

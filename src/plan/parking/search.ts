@@ -51,7 +51,10 @@ export function improveQubit(state: ParkingState, i: number, refine = true): boo
   let best = here.violation + here.soft;
   const start = best;
   for (const f of cands) {
-    const c = state.costAt(i, f, blockers);
+    // (the point where it stands costs `here` again, never less: skipped; the others need only
+    // be known below best - IMPROVEMENT: a bound at or above it answers the same)
+    if (f === state.freq[i]) continue;
+    const c = state.costAt(i, f, blockers, best - IMPROVEMENT);
     const total = c.violation + c.soft;
     if (total < best - IMPROVEMENT) {
       best = total;
@@ -76,7 +79,9 @@ export function improveQubit(state: ParkingState, i: number, refine = true): boo
       let c0 = best;
       for (let k = 0; k <= samples; k++) {
         const f = lo + k * step;
-        const c = total(f);
+        // (only whether it is below c0 matters: a bound at or above c0 answers the same)
+        const cs = state.costAt(i, f, blockers, c0);
+        const c = cs.violation + cs.soft;
         if (c < c0) {
           c0 = c;
           x0 = f;
@@ -277,7 +282,8 @@ export function jointMoves(state: ParkingState, rng: Random): number {
     const cands = state
       .candidates(i, own)
       .filter((f) => f > saved[0] + 1e-6)
-      .map((f) => ({ f, c: state.costAt(i, f, own) }))
+      // (only the points below hereTotal - JOINT_MIN_GAIN are kept and ranked: a bound at or above it answers the same)
+      .map((f) => ({ f, c: state.costAt(i, f, own, hereTotal - JOINT_MIN_GAIN) }))
       // only points that would pay for themselves without the neighbours' terms
       .filter((x) => x.c.violation + x.c.soft < hereTotal - JOINT_MIN_GAIN)
       .sort((a, b) => a.c.violation + a.c.soft - (b.c.violation + b.c.soft) || a.f - b.f)

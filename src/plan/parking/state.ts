@@ -22,7 +22,6 @@ export class ParkingState implements FrequencyView {
   readonly cost: ParkingCost;
   /** Parking kept from an earlier plan (options.keep; ./keep.ts). */
   readonly kept: KeptParking;
-  private readonly scratch: Blocker[] = [];
 
   constructor(
     readonly ctx: PlanContext,
@@ -48,6 +47,13 @@ export class ParkingState implements FrequencyView {
       for (const p of ctx.nextNearestOf[i]) set.add(ctx.nextNearest[p].a === i ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
       return Int32Array.from([...set].sort((a, b) => a - b));
     });
+    this.blockerReads = ctx.neighbours.map((ns, i) => {
+      const set = new Set<number>(ns);
+      for (const p of ctx.nextNearestOf[i]) set.add(ctx.nextNearest[p].a === i ? ctx.nextNearest[p].b : ctx.nextNearest[p].a);
+      return Int32Array.from([...set].sort((a, b) => a - b));
+    });
+    this.blockerList = new Array<Blocker[] | undefined>(n);
+    this.blockerAt = new Float64Array(n).fill(-1);
     for (let i = 0; i < n; i++) this.set(i, this.startOf(i));
   }
 
@@ -112,14 +118,44 @@ export class ParkingState implements FrequencyView {
     this.settledAt[refine ? 1 : 0][i] = this.stamp;
   }
 
-  /** Blocked intervals of qubit i with the others where they are (into a shared scratch array). */
+  /**
+   * Blocked intervals of qubit i with the others where they are (treat as read-only). Remembered
+   * per qubit: the list is what IdleBlockers.of gives again while nothing it reads has changed (the
+   * frequencies, states and activity of the qubit's neighbours and next-nearest neighbours, and the
+   * active set and ZZ calibration, which touch() marks); a list handed out is never changed.
+   */
   blockersOf(i: number): Blocker[] {
     this.cost.beginVisit(i, this.stamp);
-    return this.blockers.of(i, this, this.scratch);
+    const t = this.blockerAt[i];
+    const hit = this.blockerList[i];
+    if (hit !== undefined && t >= this.changedAll) {
+      const reads = this.blockerReads[i];
+      let same = true;
+      for (let k = 0; k < reads.length; k++) {
+        if (this.changedAt[reads[k]] > t) {
+          same = false;
+          break;
+        }
+      }
+      if (same) return hit;
+    }
+    const list = this.blockers.of(i, this, []);
+    this.blockerList[i] = list;
+    this.blockerAt[i] = this.stamp;
+    return list;
   }
 
-  costAt(i: number, f: number, blockers: readonly Blocker[]): CostParts {
-    const c = this.cost.at(i, f, blockers, this, this.stamp);
+  /** Per qubit, the qubits its blocked intervals read (neighbours and next-nearest neighbours), its remembered list and the stamp it was computed at. */
+  private readonly blockerReads: Int32Array[];
+  private readonly blockerList: (Blocker[] | undefined)[];
+  private readonly blockerAt: Float64Array;
+
+  /**
+   * Cost of qubit i at f. With a `ceiling`, for callers that only ask whether violation + soft <
+   * ceiling: at or above it the result may be a lower bound (ParkingCost.at), the same answer.
+   */
+  costAt(i: number, f: number, blockers: readonly Blocker[], ceiling = Infinity): CostParts {
+    const c = this.cost.at(i, f, blockers, this, this.stamp, ceiling);
     const change = this.kept.costOf(i, f);
     return change > 0 ? { violation: c.violation, soft: c.soft + change } : c;
   }

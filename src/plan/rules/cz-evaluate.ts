@@ -109,6 +109,47 @@ export interface EvaluateOptions {
    * re-evaluations): the messages cost more than the rules.
    */
   messages?: boolean;
+  /**
+   * Reuse across evaluations that differ only in where one parked spectator stands (the
+   * screening of that spectator's candidate points): see SpectatorScreen.
+   */
+  screen?: SpectatorScreen;
+}
+
+/**
+ * The outputs (findings and swept crossings) of the parts of a gate's evaluation that do not read
+ * where spectator P stands, remembered on the first evaluation and replayed in later ones, in
+ * their places: the same findings and swept crossings, in the same order, as evaluating again.
+ * An evaluation is cut into units (one per spectator check, per next-nearest check, per
+ * neighbour, next-nearest pair or defect list of a sweep, per parked spectator's check of one
+ * neighbour, ...); a unit reads P's point only when P is the neighbour, the next-nearest
+ * neighbour or a mediator it looks at, or P's own block (its checks and its sweep), and only such
+ * units are evaluated again. Valid while nothing of the scenario changes but P's point (P parked
+ * in every evaluation; one instance per screening: src/plan/interaction/plan-edge.ts).
+ */
+export class SpectatorScreen {
+  /** Unit counter of the evaluation under way. */
+  unit = 0;
+  private readonly findings: (CzFinding[] | undefined)[] = [];
+  private readonly swept: (SweptCrossing[] | undefined)[] = [];
+
+  constructor(readonly P: number) {}
+
+  /** Append unit u's remembered output; false when it has none yet. */
+  replay(u: number, findings: CzFinding[], swept: SweptCrossing[]): boolean {
+    const f = this.findings[u];
+    if (f === undefined) return false;
+    for (let k = 0; k < f.length; k++) findings.push(f[k]);
+    const w = this.swept[u]!;
+    for (let k = 0; k < w.length; k++) swept.push(w[k]);
+    return true;
+  }
+
+  /** Remember unit u's output: what it appended after positions f0 and s0. */
+  record(u: number, findings: readonly CzFinding[], f0: number, swept: readonly SweptCrossing[], s0: number): void {
+    this.findings[u] = findings.slice(f0);
+    this.swept[u] = swept.slice(s0);
+  }
 }
 
 export function evaluateGate(ctx: PlanContext, s: GateScenario, options: EvaluateOptions = {}): GateEvaluation {
@@ -121,27 +162,41 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
   const edgeKey = ctx.edges[s.edge].key;
   const add = findingAdder(findings, edgeKey);
   const to = s.toGHz;
+  // (reuse across a spectator's candidate points: only while that spectator is parked, and never the mover or partner)
+  const sc = options.screen && s.parked.has(options.screen.P) && options.screen.P !== A && options.screen.P !== s.partner ? options.screen : undefined;
+  if (sc) sc.unit = 0;
   // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
   // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
-  spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point');
-  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking');
+  spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point', sc, findings, swept);
+  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking', sc, findings, swept);
   // The flux excursion (the flux line's current limit).
-  const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
-  const xTo = fluxForF01Memo(ctx, A, to);
-  if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
-    add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
-      message: m ? `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0` : '', blame: -1 });
+  let u = sc ? sc.unit++ : -1;
+  if (!(sc && sc.replay(u, findings, swept))) {
+    const f0 = findings.length;
+    const xFrom = fluxForF01Memo(ctx, A, s.fromGHz);
+    const xTo = fluxForF01Memo(ctx, A, to);
+    if (xFrom !== null && xTo !== null && Math.abs(xTo - xFrom) > r.maxFluxExcursion) {
+      add({ rule: 'cz-excursion', qubits: [id[A]], value: Math.abs(xTo - xFrom), threshold: r.maxFluxExcursion,
+        message: m ? `${id[A]} moves ${Math.abs(xTo - xFrom).toFixed(3)} Phi0 from parking (${ghz(s.fromGHz)}) to the interaction point (${ghz(to)}) for the CZ on ${edgeKey}; the limit is ${r.maxFluxExcursion} Phi0` : '', blame: -1 });
+    }
+    if (sc) sc.record(u, findings, f0, swept, swept.length);
   }
   for (const p of ctx.nextNearestOf[A]) {
     const pair = ctx.nextNearest[p];
     const K = pair.a === A ? pair.b : pair.a;
+    // (a unit of its own: it reads K's point)
+    u = sc ? sc.unit++ : -1;
+    const reuse = sc !== undefined && K !== sc.P;
+    if (reuse && sc.replay(u, findings, swept)) continue;
+    const f0 = findings.length;
     const fk = during(s, K).f01GHz;
     const v = Math.abs(to - fk);
     if (v < r.detuningNext0101GHz) {
       add({ rule: 'cz-next-01-01', qubits: [id[A], id[K]], value: v, threshold: r.detuningNext0101GHz,
         message: m ? `${id[A]} at ${ghz(to)} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)} during the CZ on ${edgeKey}` : '', blame: K });
     }
+    if (reuse) sc.record(u, findings, f0, swept, swept.length);
   }
   for (const d of ctx.qubits[A].tls) {
     const v = Math.abs(to - d.atGHz) - d.widthGHz;
@@ -162,12 +217,20 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
   }
   // The mover's sweep (spectators already in place).
   const moverRate = (hi - lo) / s.rampNs;
-  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m);
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
   for (const [P, d] of [...s.parked.entries()].sort((x, y) => x[0] - y[0])) {
+    // (the screened spectator's own block reads its point throughout: one unit, never remembered)
+    const own = sc !== undefined && P === sc.P;
+    if (own) sc.unit++;
+    const psc = own ? undefined : sc;
     const f = d.f01GHz;
     for (const X of ctx.neighbours[P]) {
+      u = psc ? psc.unit++ : -1;
       if (X === A) continue;
+      const reuse = psc !== undefined && X !== psc.P;
+      if (reuse && psc.replay(u, findings, swept)) continue;
+      const f0 = findings.length;
       const x = during(s, X);
       const d01 = Math.abs(f - x.f01GHz);
       if (d01 < r.detuning0101GHz) add({ rule: 'cz-parked-01-01', qubits: [id[P], id[X]], value: d01, threshold: r.detuning0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d01)} from ${id[X]} (${ghz(x.f01GHz)}); needs ${mhz(r.detuning0101GHz)}` : '', blame: P });
@@ -175,14 +238,20 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
       const d2 = Math.abs(d.f12GHz - x.f01GHz);
       const d12 = Math.min(d1, d2);
       if (d12 < r.detuning0112GHz) add({ rule: 'cz-parked-01-12', qubits: [id[P], id[X]], value: d12, threshold: r.detuning0112GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(d12)} from an 11-20/11-02 crossing with ${id[X]}; needs ${mhz(r.detuning0112GHz)}` : '', blame: P });
+      if (reuse) psc.record(u, findings, f0, swept, swept.length);
     }
     for (const p of ctx.nextNearestOf[P]) {
       const pair = ctx.nextNearest[p];
       const K = pair.a === P ? pair.b : pair.a;
+      u = psc ? psc.unit++ : -1;
       if (K === A) continue;
+      const reuse = psc !== undefined && K !== psc.P;
+      if (reuse && psc.replay(u, findings, swept)) continue;
+      const f0 = findings.length;
       const fk = during(s, K).f01GHz;
       const v = Math.abs(f - fk);
       if (v < r.detuningNext0101GHz) add({ rule: 'cz-parked-next-01-01', qubits: [id[P], id[K]], value: v, threshold: r.detuningNext0101GHz, message: m ? `${id[P]} parked at ${ghz(f)} for the CZ on ${edgeKey} is ${mhz(v)} from next-nearest ${id[K]} (${ghz(fk)}); needs ${mhz(r.detuningNext0101GHz)}` : '', blame: P });
+      if (reuse) psc.record(u, findings, f0, swept, swept.length);
     }
     for (const t of ctx.qubits[P].tls) {
       const v = Math.abs(f - t.atGHz) - t.widthGHz;
@@ -194,16 +263,22 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
     }
     const from = s.parking[P].f01GHz;
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
-    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m);
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m, psc, findings);
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
-  const durationNs = slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
+  const durationNs = gateSlotNs(ctx, s);
   if (!(durationNs <= r.maxGateNs)) {
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
       message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
   return { findings, swept, durationNs };
+}
+
+/** The slot of a gate scenario by the shared duration model (./cz-duration.ts): evaluateGate's durationNs. */
+export function gateSlotNs(ctx: PlanContext, s: GateScenario): number {
+  const r = ctx.rules;
+  return slotNs(shortestGateNs(s.crossingCouplingGHz, r), s.parked.size > 0, s.spectatorRampNs ?? s.rampNs, r);
 }
 
 /** The findings collector of one evaluation (each finding tagged with the edge key). */
@@ -216,12 +291,20 @@ function findingAdder(findings: CzFinding[], edgeKey: string): (f: Omit<CzFindin
 }
 
 /** The admixture checks of excited qubit E (f01 = fE) against each of its neighbours but `skip` (their during-gate f01). */
-function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, m: boolean, E: number, fE: number, withLevel2: boolean, skip: number, where: string): void {
+function spectatorChecks(
+  ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, m: boolean, E: number, fE: number, withLevel2: boolean, skip: number, where: string,
+  sc: SpectatorScreen | undefined, findings: CzFinding[], swept: SweptCrossing[],
+): void {
   const id = ctx.ids;
   const limit = ctx.rules.spectatorAdmixture;
   const edgeKey = ctx.edges[s.edge].key;
   for (const S of ctx.neighbours[E]) {
+    // (one unit per neighbour: it reads S's point)
+    const u = sc ? sc.unit++ : -1;
     if (S === skip) continue;
+    const reuse = sc !== undefined && S !== sc.P;
+    if (reuse && sc.replay(u, findings, swept)) continue;
+    const f0 = findings.length;
     const d = during(s, S);
     const G = ctx.edges[ctx.edgeBetween(E, S)].gChargeGHz;
     for (const c of admixtureChecksBeyond(ctx, E, fE, S, d.f01GHz, G, withLevel2, limit)) {
@@ -229,6 +312,7 @@ function spectatorChecks(ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFind
         message: m ? `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}` : '',
         details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
     }
+    if (reuse) sc.record(u, findings, f0, swept, swept.length);
   }
 }
 
@@ -248,6 +332,9 @@ function sweep(
   swept: SweptCrossing[],
   add: (f: Omit<CzFinding, 'edge'>) => void,
   messages: boolean,
+  /** Reuse of the units that do not read the screened spectator's point (undefined: none). */
+  sc: SpectatorScreen | undefined,
+  findings: CzFinding[],
 ): void {
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
@@ -260,6 +347,12 @@ function sweep(
   const nq = ctx.neighbours[Q];
   for (let k = 0; k < nq.length; k++) {
     const X = nq[k];
+    // (one unit per neighbour: it reads X's point)
+    const u = sc ? sc.unit++ : -1;
+    const reuse = sc !== undefined && X !== sc.P;
+    if (reuse && sc.replay(u, findings, swept)) continue;
+    const f0 = findings.length;
+    const s0 = swept.length;
     const x = freqOf(X);
     const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
     // the crossings with X where it stands and their couplings (remembered: X usually stands at its parking)
@@ -270,15 +363,24 @@ function sweep(
     const f1120 = c.f1120;
     if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, () => `the 11-20 crossing with ${id[X]}`);
     if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, () => `the 11-02 crossing with ${id[X]}`);
+    if (reuse) sc.record(u, findings, f0, swept, s0);
   }
   const nn = ctx.nextNearestOf[Q];
   for (let j = 0; j < nn.length; j++) {
     const pair = ctx.nextNearest[nn[j]];
     const K = pair.a === Q ? pair.b : pair.a;
+    // (one unit per next-nearest pair: it reads K's point and, for a crossing, the mediators')
+    const u = sc ? sc.unit++ : -1;
+    const reuse = sc !== undefined && K !== sc.P && !pair.via.includes(sc.P);
+    if (reuse && sc.replay(u, findings, swept)) continue;
+    const f0 = findings.length;
+    const s0 = swept.length;
     const fk = freqOf(K).f01GHz;
-    if (!insideSweep(fk, lo, hi)) continue;
-    const g = memo.nextNearest(ctx, Q, j, K, fk, pair.via, freqOf);
-    recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+    if (insideSweep(fk, lo, hi)) {
+      const g = memo.nextNearest(ctx, Q, j, K, fk, pair.via, freqOf);
+      recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+    }
+    if (reuse) sc.record(u, findings, f0, swept, s0);
   }
   for (const t of ctx.qubits[Q].tls) {
     if (!insideSweep(t.atGHz, lo, hi)) continue;
