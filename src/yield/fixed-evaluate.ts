@@ -51,6 +51,8 @@ import type { DrawnChip } from './draw.js';
 import { sampledContext } from './sampled-context.js';
 import { recomputeBudget, type EdgeGateSource } from '../plan/verify-budget.js';
 import { budgetFindings } from '../plan/plan-budget.js';
+import { cycleBudget } from '../plan/cycle-budget.js';
+import type { LayerPlan } from '../plan/layers.js';
 import type { SampledSpectrum } from './sampled-spectrum.js';
 
 export interface FixedOptions {
@@ -89,6 +91,8 @@ export interface FixedPlan {
   conflictCandidates: [number, number][];
   /** Nominal per-edge factor of the second-order ZZ estimate (exact / estimate at the plan's parking). */
   zzScale: Float64Array;
+  /** The plan's layers as recomputeBudget orders them (src/plan/verify-budget.ts). */
+  layers: LayerPlan;
 }
 
 /** The plan (as `fluxlane verify` reads it) in the form the evaluation uses. */
@@ -115,7 +119,19 @@ export function fixedPlan(chip: NominalChip, plan: PlanInput): FixedPlan {
   }
   const states = exactStates(ctx, parkingGHz);
   const zzScale = calibratedZzScale(ctx, parkingGHz, exactZz(ctx, states));
-  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale };
+  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale, layers: budgetLayers(edges) };
+}
+
+/** The layers by number, in order, each with its edges in layout order (as recomputeBudget builds them). */
+function budgetLayers(edges: readonly FixedEdge[]): LayerPlan {
+  const named = [...new Set(edges.map((e) => e.layer).filter((l) => Number.isInteger(l) && l >= 0))].sort((a, b) => a - b);
+  const position = new Map(named.map((l, k) => [l, k]));
+  const layers: number[][] = named.map(() => []);
+  for (const e of edges) {
+    const k = position.get(e.layer);
+    if (k !== undefined) layers[k].push(e.edge);
+  }
+  return { layers } as LayerPlan;
 }
 
 /** Pairs of gates in one layer that share a qubit or whose moved qubits are coupled or next-nearest. */
@@ -293,7 +309,9 @@ export function evaluateFixed(
       refined = true;
     }
   });
-  if (refined) budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);
+  // (the gate budgets do not depend on the static ZZ: only the cycle is recomputed, as
+  // recomputeBudget would with the same layers)
+  if (refined) budget = { ...budget, cycle: cycleBudget(ctx, edgePlans, plan.layers, budgetStates, zz, budget.gates, budget.slotsNs) };
   violations.push(...budgetFindings(ctx, edgePlans, budgetStates, budget));
   // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
   // budget): the same findings as verify gives, which sorts them for people

@@ -28,6 +28,14 @@ type TransmonArgs = ConstructorParameters<typeof Transmon>;
 export class TabulatedTransmon extends Transmon {
   private readonly state = emptyReducedState();
   private readonly slopes = new Float64Array(5);
+  /**
+   * Answers of spectrum and fluxCurvatureGHz by flux (made on first use): a drawn chip's rule
+   * evaluation and error budget ask each transmon for the same few fluxes again and again (some
+   * 2,600 spectrum calls on ~520 fluxes per 10 x 10 sample). A remembered answer is the object
+   * computing it again gives (spectrum hands out copies).
+   */
+  private memo: FluxMemo | undefined;
+  private curvatureMemo: FluxMemo | undefined;
 
   constructor(
     private readonly table: ReducedSpectrum,
@@ -51,6 +59,25 @@ export class TabulatedTransmon extends Transmon {
   }
 
   override spectrum(flux: number): SpectrumPoint {
+    const memo = (this.memo ??= new FluxMemo());
+    const slot = memo.find(flux);
+    if (slot >= 0 && memo.points[slot]) return { ...memo.points[slot]! };
+    const p = this.computeSpectrum(flux);
+    memo.points[memo.store(flux, slot)] = p;
+    return { ...p };
+  }
+
+  /** (the exact Transmon's central difference of the slope, of this class's slopes; remembered by flux) */
+  override fluxCurvatureGHz(flux: number): number {
+    const memo = (this.curvatureMemo ??= new FluxMemo());
+    const slot = memo.find(flux);
+    if (slot >= 0) return memo.values[slot];
+    const c = super.fluxCurvatureGHz(flux);
+    memo.values[memo.store(flux, slot)] = c;
+    return c;
+  }
+
+  private computeSpectrum(flux: number): SpectrumPoint {
     const ej = this.ejGHz(flux);
     const r = ej / this.ecGHz;
     if (!this.table.covers(r)) return super.spectrum(flux);
@@ -92,5 +119,45 @@ export class TabulatedTransmon extends Transmon {
     if (r === null) return null;
     const x = fluxForJosephsonEnergy(this.ejsGHz, this.asymmetry, Math.min(this.ejsGHz, Math.max(this.asymmetry * this.ejsGHz, r * this.ecGHz)));
     return Number.isFinite(x) ? x : null;
+  }
+}
+
+const FLUX_MEMO_SLOTS = 64;
+const FLUX_MEMO_MASK = FLUX_MEMO_SLOTS - 1;
+const FLUX_MEMO_PROBES = 4;
+const BITS = new Float64Array(1);
+const WORDS = new Uint32Array(BITS.buffer);
+
+/**
+ * A small hash table keyed by flux (the key's bits, multiplicative hash; probed FLUX_MEMO_PROBES
+ * deep, a full probe run replaces its first slot).
+ */
+class FluxMemo {
+  readonly keys = new Float64Array(FLUX_MEMO_SLOTS).fill(NaN);
+  readonly points: (SpectrumPoint | undefined)[] = new Array<SpectrumPoint | undefined>(FLUX_MEMO_SLOTS);
+  readonly values = new Float64Array(FLUX_MEMO_SLOTS);
+  private home = 0;
+  private free = -1;
+
+  /** The slot holding `x`, or -1 (then store() puts `x` where the probe left room). */
+  find(x: number): number {
+    BITS[0] = x;
+    const home = Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 26;
+    this.home = home;
+    this.free = -1;
+    for (let p = 0; p < FLUX_MEMO_PROBES; p++) {
+      const k = (home + p) & FLUX_MEMO_MASK;
+      const key = this.keys[k];
+      if (key === x) return k;
+      if (this.free < 0 && key !== key) this.free = k;
+    }
+    return -1;
+  }
+
+  /** The slot for `x` after find(x) answered -1 (its key written). */
+  store(x: number, found: number): number {
+    const k = found >= 0 ? found : this.free >= 0 ? this.free : this.home;
+    this.keys[k] = x;
+    return k;
   }
 }

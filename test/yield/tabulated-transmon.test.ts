@@ -77,3 +77,21 @@ describe('TabulatedTransmon', () => {
     expect(tab.fluxForF01OrNull(f)).toBe(exact.fluxForF01OrNull(f));
   });
 });
+
+describe('TabulatedTransmon memos', () => {
+  it('spectrum and fluxCurvatureGHz of 300 fluxes asked three times over equal a fresh object\'s answers exactly, and hand out copies', () => {
+    const p = { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 };
+    const tab = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    const xs = Array.from({ length: 300 }, (_, k) => (0.5 * ((k * 7919) % 300)) / 299);
+    for (let round = 0; round < 3; round++) {
+      for (const x of xs) {
+        const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+        const got = tab.spectrum(x);
+        expect(got).toEqual(fresh.spectrum(x));
+        got.f01GHz = -1;
+        expect(tab.spectrum(x).f01GHz).toBe(fresh.spectrum(x).f01GHz);
+        expect(tab.fluxCurvatureGHz(x)).toBe(fresh.fluxCurvatureGHz(x));
+      }
+    }
+  });
+});
