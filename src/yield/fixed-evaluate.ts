@@ -58,9 +58,15 @@ import type { SampledSpectrum } from './sampled-spectrum.js';
 export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
   zzExactAbove: number;
+  /**
+   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`; every
+   * other field as usual), and FixedEvaluation.messageOf writes one on demand. A yield run needs
+   * one message per failing chip (its outcome's reason) among hundreds of findings.
+   */
+  messages: boolean;
 }
 
-export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
+export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85, messages: true });
 
 /**
  * A qubit whose idle error (with the estimated ZZ) lies within this fraction of its ZZ part of
@@ -164,6 +170,12 @@ export interface FixedEvaluation {
   violations: Finding[];
   /** Edges whose static ZZ needed the exact computation. */
   exactZzEdges: number;
+  /**
+   * The message of finding `f` of `violations`: its own, or (messages off) the one evaluateGate
+   * writes for it when its gate is evaluated again with messages (the same findings in the same
+   * order). Valid until the next evaluation with the same `reuse`.
+   */
+  messageOf(f: Finding): string;
 }
 
 /** Check drawn chip `drawn` against the nominal plan (see the banner). */
@@ -218,6 +230,8 @@ export function evaluateFixed(
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
   const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
+  // (messages off: each CZ finding's gate and place in that gate's findings)
+  const origin = o.messages ? null : new Map<Finding, [GateScenario, number]>();
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -251,9 +265,13 @@ export function evaluateFixed(
       fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: res.moverF12GHz,
       crossingCouplingGHz: res.couplingGHz, rampNs: fe.rampNs, spectatorRampNs: fe.rampNs, parking: during, parked,
     };
-    const ev = evaluateGate(ctx, scenario);
+    const ev = evaluateGate(ctx, scenario, { messages: o.messages });
     // (the findings keep evaluateGate's `blame`, which no one here reads)
-    for (const f of ev.findings) violations.push(f);
+    for (let j = 0; j < ev.findings.length; j++) {
+      const f = ev.findings[j];
+      violations.push(f);
+      origin?.set(f, [scenario, j]);
+    }
     const plan = stubPlan(fe.edge, mover, partner, fe.crossing);
     plan.feasible = ev.findings.length === 0;
     plan.crossingGHz = to;
@@ -316,7 +334,14 @@ export function evaluateFixed(
   // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
   // budget): the same findings as verify gives, which sorts them for people
   // (src/plan/rules/findings.ts sortFindings).
-  return { violations, exactZzEdges };
+  const messageOf = (f: Finding): string => {
+    const at = origin?.get(f);
+    if (!at) return f.message;
+    const again = evaluateGate(ctx, at[0]).findings[at[1]];
+    if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);
+    return again.message;
+  };
+  return { violations, exactZzEdges, messageOf };
 }
 
 /** f01 (= fGHz), flux and f12 of qubit i at f01 = fGHz inside its tunable range. */
