@@ -44,7 +44,7 @@ import { evaluateIdle, exactStates, exactZz } from '../plan/rules/idle-evaluate.
 import { tuningRoomShortfall } from '../plan/rules/tuning-room.js';
 import { narrowResonanceZz, secondOrderZz } from '../plan/zz-second-order.js';
 import { pairResonances } from '../pair/resonances.js';
-import type { ReducedSpectrum } from '../transmon/reduced-spectrum.js';
+import { emptyReducedState, type ReducedSpectrum } from '../transmon/reduced-spectrum.js';
 import type { Transmon } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
@@ -230,8 +230,10 @@ export function evaluateFixed(
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
   const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
-  // (messages off: each CZ finding's gate and place in that gate's findings)
-  const origin = o.messages ? null : new Map<Finding, [GateScenario, number]>();
+  // (messages off: each CZ finding's gate and place in that gate's findings, by its index in
+  // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
+  const originGate: GateScenario[] = [];
+  const originPlace: number[] = [];
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -269,8 +271,11 @@ export function evaluateFixed(
     // (the findings keep evaluateGate's `blame`, which no one here reads)
     for (let j = 0; j < ev.findings.length; j++) {
       const f = ev.findings[j];
+      if (!o.messages) {
+        originGate[violations.length] = scenario;
+        originPlace[violations.length] = j;
+      }
       violations.push(f);
-      origin?.set(f, [scenario, j]);
     }
     const plan = stubPlan(fe.edge, mover, partner, fe.crossing);
     plan.feasible = ev.findings.length === 0;
@@ -335,14 +340,18 @@ export function evaluateFixed(
   // budget): the same findings as verify gives, which sorts them for people
   // (src/plan/rules/findings.ts sortFindings).
   const messageOf = (f: Finding): string => {
-    const at = origin?.get(f);
-    if (!at) return f.message;
-    const again = evaluateGate(ctx, at[0]).findings[at[1]];
+    const k = o.messages ? -1 : violations.indexOf(f);
+    if (k < 0 || originGate[k] === undefined) return f.message;
+    const again = evaluateGate(ctx, originGate[k]).findings[originPlace[k]];
     if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);
     return again.message;
   };
   return { violations, exactZzEdges, messageOf };
 }
+
+/** Scratch of the reduced table's look-ups (read before the next look-up; single-threaded use). */
+const SCRATCH_STATE = emptyReducedState();
+const SCRATCH_PARTNER = emptyReducedState();
 
 /** f01 (= fGHz), flux and f12 of qubit i at f01 = fGHz inside its tunable range. */
 function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: number): ExactQubitState {
@@ -351,7 +360,7 @@ function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: numb
   const rBottom = Math.max(t.asymmetry * rTop, table.rMin);
   const r = rTop <= table.rMax ? table.rFor('e1', fGHz / t.ecGHz, rBottom, rTop) : null;
   if (r === null) return exactState(t, fGHz);
-  const s = table.at(r);
+  const s = table.at(r, SCRATCH_STATE);
   return {
     f01GHz: fGHz,
     flux: fluxOf(t, r / rTop),
@@ -403,7 +412,7 @@ function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, par
     if (!res) return null;
     return { moverFlux: res.moverFlux, moverF01GHz: res.moverF01GHz, moverF12GHz: tm.spectrum(res.moverFlux).f12GHz, couplingGHz: res.couplingGHz };
   }
-  const p = table.at(rp);
+  const p = table.at(rp, SCRATCH_PARTNER);
   const pf01 = tp.ecGHz * p.e1;
   const pf12 = tp.ecGHz * (p.e2 - p.e1);
   const ec = tm.ecGHz;
@@ -411,7 +420,7 @@ function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, par
   const slack = 1e-12 * Math.max(1, pf01) / ec;
   const r = fe.crossing === '11-20' ? table.rFor('e12', pf01 / ec, rBottom, rTop, slack) : table.rFor('e1', pf12 / ec, rBottom, rTop, slack);
   if (r === null) return null;
-  const m = table.at(r);
+  const m = table.at(r, SCRATCH_STATE);
   const coupling = fe.crossing === '11-20' ? G * m.n12 * p.n01 : G * m.n01 * p.n12;
   return { moverFlux: fluxOf(tm, r / rTop), moverF01GHz: ec * m.e1, moverF12GHz: ec * (m.e2 - m.e1), couplingGHz: coupling };
 }
