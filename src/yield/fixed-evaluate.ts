@@ -84,7 +84,7 @@ export interface FixedEdge {
   crossing: Crossing;
   rampNs: number;
   /** Spectators moved for the gate: qubit index and temporary frequency (GHz), by index. */
-  spectators: { qubit: number; fGHz: number }[];
+  spectators: { qubit: number; fGHz: number; /** index of (qubit, fGHz) in FixedPlan.spectatorPoints */ point: number }[];
   layer: number;
 }
 
@@ -99,6 +99,8 @@ export interface FixedPlan {
   zzScale: Float64Array;
   /** The plan's layers as recomputeBudget orders them (src/plan/verify-budget.ts). */
   layers: LayerPlan;
+  /** The distinct (qubit, frequency) points spectators are moved to; a drawn chip's state at each is found once. */
+  spectatorPoints: { qubit: number; fGHz: number }[];
 }
 
 /** The plan (as `fluxlane verify` reads it) in the form the evaluation uses. */
@@ -118,14 +120,31 @@ export function fixedPlan(chip: NominalChip, plan: PlanInput): FixedPlan {
       crossing: pe.crossing,
       rampNs: pe.rampTime * 1e9,
       spectators: [...pe.spectatorParking.entries()]
-        .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz) }))
+        .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz), point: -1 }))
         .sort((a, b) => a.qubit - b.qubit),
       layer: pe.layer,
     };
   }
   const states = exactStates(ctx, parkingGHz);
   const zzScale = calibratedZzScale(ctx, parkingGHz, exactZz(ctx, states));
-  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale, layers: budgetLayers(edges) };
+  // the distinct spectator points (a 10 x 10 plan moves spectators 484 times to 51 points)
+  const spectatorPoints: { qubit: number; fGHz: number }[] = [];
+  const pointOf = new Map<number, Map<number, number>>();
+  for (const e of edges) {
+    if (!e) continue;
+    for (const sp of e.spectators) {
+      let m = pointOf.get(sp.qubit);
+      if (!m) pointOf.set(sp.qubit, (m = new Map()));
+      let k = m.get(sp.fGHz);
+      if (k === undefined) {
+        k = spectatorPoints.length;
+        m.set(sp.fGHz, k);
+        spectatorPoints.push({ qubit: sp.qubit, fGHz: sp.fGHz });
+      }
+      sp.point = k;
+    }
+  }
+  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale, layers: budgetLayers(edges), spectatorPoints };
 }
 
 /** The layers by number, in order, each with its edges in layout order (as recomputeBudget builds them). */
@@ -230,6 +249,7 @@ export function evaluateFixed(
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
   const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
+  const pointStates: (ExactQubitState | undefined)[] = new Array(plan.spectatorPoints.length);
   // (messages off: each CZ finding's gate and place in that gate's findings, by its index in
   // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
   const originGate: GateScenario[] = [];
@@ -258,7 +278,7 @@ export function evaluateFixed(
         violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range` });
         continue;
       }
-      const st = stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz));
+      const st = (pointStates[sp.point] ??= stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz)));
       parked.set(q, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
       parkedInfo.push({ qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' });
     }
