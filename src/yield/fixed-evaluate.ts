@@ -44,21 +44,29 @@ import { evaluateIdle, exactStates, exactZz } from '../plan/rules/idle-evaluate.
 import { tuningRoomShortfall } from '../plan/rules/tuning-room.js';
 import { narrowResonanceZz, secondOrderZz } from '../plan/zz-second-order.js';
 import { pairResonances } from '../pair/resonances.js';
-import type { ReducedSpectrum } from '../transmon/reduced-spectrum.js';
+import { emptyReducedState, type ReducedSpectrum } from '../transmon/reduced-spectrum.js';
 import type { Transmon } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { sampledContext } from './sampled-context.js';
 import { recomputeBudget, type EdgeGateSource } from '../plan/verify-budget.js';
 import { budgetFindings } from '../plan/plan-budget.js';
+import { cycleBudget } from '../plan/cycle-budget.js';
+import type { LayerPlan } from '../plan/layers.js';
 import type { SampledSpectrum } from './sampled-spectrum.js';
 
 export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
   zzExactAbove: number;
+  /**
+   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`; every
+   * other field as usual), and FixedEvaluation.messageOf writes one on demand. A yield run needs
+   * one message per failing chip (its outcome's reason) among hundreds of findings.
+   */
+  messages: boolean;
 }
 
-export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85 });
+export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85, messages: true });
 
 /**
  * A qubit whose idle error (with the estimated ZZ) lies within this fraction of its ZZ part of
@@ -76,7 +84,7 @@ export interface FixedEdge {
   crossing: Crossing;
   rampNs: number;
   /** Spectators moved for the gate: qubit index and temporary frequency (GHz), by index. */
-  spectators: { qubit: number; fGHz: number }[];
+  spectators: { qubit: number; fGHz: number; /** index of (qubit, fGHz) in FixedPlan.spectatorPoints */ point: number }[];
   layer: number;
 }
 
@@ -89,6 +97,10 @@ export interface FixedPlan {
   conflictCandidates: [number, number][];
   /** Nominal per-edge factor of the second-order ZZ estimate (exact / estimate at the plan's parking). */
   zzScale: Float64Array;
+  /** The plan's layers as recomputeBudget orders them (src/plan/verify-budget.ts). */
+  layers: LayerPlan;
+  /** The distinct (qubit, frequency) points spectators are moved to; a drawn chip's state at each is found once. */
+  spectatorPoints: { qubit: number; fGHz: number }[];
 }
 
 /** The plan (as `fluxlane verify` reads it) in the form the evaluation uses. */
@@ -108,14 +120,43 @@ export function fixedPlan(chip: NominalChip, plan: PlanInput): FixedPlan {
       crossing: pe.crossing,
       rampNs: pe.rampTime * 1e9,
       spectators: [...pe.spectatorParking.entries()]
-        .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz) }))
+        .map(([s, fHz]) => ({ qubit: ctx.index.get(s)!, fGHz: fromHz(fHz), point: -1 }))
         .sort((a, b) => a.qubit - b.qubit),
       layer: pe.layer,
     };
   }
   const states = exactStates(ctx, parkingGHz);
   const zzScale = calibratedZzScale(ctx, parkingGHz, exactZz(ctx, states));
-  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale };
+  // the distinct spectator points (a 10 x 10 plan moves spectators 484 times to 51 points)
+  const spectatorPoints: { qubit: number; fGHz: number }[] = [];
+  const pointOf = new Map<number, Map<number, number>>();
+  for (const e of edges) {
+    if (!e) continue;
+    for (const sp of e.spectators) {
+      let m = pointOf.get(sp.qubit);
+      if (!m) pointOf.set(sp.qubit, (m = new Map()));
+      let k = m.get(sp.fGHz);
+      if (k === undefined) {
+        k = spectatorPoints.length;
+        m.set(sp.fGHz, k);
+        spectatorPoints.push({ qubit: sp.qubit, fGHz: sp.fGHz });
+      }
+      sp.point = k;
+    }
+  }
+  return { parkingGHz, edges, conflictCandidates: conflictCandidates(ctx, edges), zzScale, layers: budgetLayers(edges), spectatorPoints };
+}
+
+/** The layers by number, in order, each with its edges in layout order (as recomputeBudget builds them). */
+function budgetLayers(edges: readonly FixedEdge[]): LayerPlan {
+  const named = [...new Set(edges.map((e) => e.layer).filter((l) => Number.isInteger(l) && l >= 0))].sort((a, b) => a - b);
+  const position = new Map(named.map((l, k) => [l, k]));
+  const layers: number[][] = named.map(() => []);
+  for (const e of edges) {
+    const k = position.get(e.layer);
+    if (k !== undefined) layers[k].push(e.edge);
+  }
+  return { layers } as LayerPlan;
 }
 
 /** Pairs of gates in one layer that share a qubit or whose moved qubits are coupled or next-nearest. */
@@ -148,6 +189,12 @@ export interface FixedEvaluation {
   violations: Finding[];
   /** Edges whose static ZZ needed the exact computation. */
   exactZzEdges: number;
+  /**
+   * The message of finding `f` of `violations`: its own, or (messages off) the one evaluateGate
+   * writes for it when its gate is evaluated again with messages (the same findings in the same
+   * order). Valid until the next evaluation with the same `reuse`.
+   */
+  messageOf(f: Finding): string;
 }
 
 /** Check drawn chip `drawn` against the nominal plan (see the banner). */
@@ -202,6 +249,11 @@ export function evaluateFixed(
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
   const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
+  const pointStates: (ExactQubitState | undefined)[] = new Array(plan.spectatorPoints.length);
+  // (messages off: each CZ finding's gate and place in that gate's findings, by its index in
+  // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
+  const originGate: GateScenario[] = [];
+  const originPlace: number[] = [];
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -226,7 +278,7 @@ export function evaluateFixed(
         violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range` });
         continue;
       }
-      const st = stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz));
+      const st = (pointStates[sp.point] ??= stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz)));
       parked.set(q, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
       parkedInfo.push({ qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' });
     }
@@ -235,9 +287,16 @@ export function evaluateFixed(
       fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: res.moverF12GHz,
       crossingCouplingGHz: res.couplingGHz, rampNs: fe.rampNs, spectatorRampNs: fe.rampNs, parking: during, parked,
     };
-    const ev = evaluateGate(ctx, scenario);
+    const ev = evaluateGate(ctx, scenario, { messages: o.messages });
     // (the findings keep evaluateGate's `blame`, which no one here reads)
-    for (const f of ev.findings) violations.push(f);
+    for (let j = 0; j < ev.findings.length; j++) {
+      const f = ev.findings[j];
+      if (!o.messages) {
+        originGate[violations.length] = scenario;
+        originPlace[violations.length] = j;
+      }
+      violations.push(f);
+    }
     const plan = stubPlan(fe.edge, mover, partner, fe.crossing);
     plan.feasible = ev.findings.length === 0;
     plan.crossingGHz = to;
@@ -293,13 +352,26 @@ export function evaluateFixed(
       refined = true;
     }
   });
-  if (refined) budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);
+  // (the gate budgets do not depend on the static ZZ: only the cycle is recomputed, as
+  // recomputeBudget would with the same layers)
+  if (refined) budget = { ...budget, cycle: cycleBudget(ctx, edgePlans, plan.layers, budgetStates, zz, budget.gates, budget.slotsNs) };
   violations.push(...budgetFindings(ctx, edgePlans, budgetStates, budget));
   // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
   // budget): the same findings as verify gives, which sorts them for people
   // (src/plan/rules/findings.ts sortFindings).
-  return { violations, exactZzEdges };
+  const messageOf = (f: Finding): string => {
+    const k = o.messages ? -1 : violations.indexOf(f);
+    if (k < 0 || originGate[k] === undefined) return f.message;
+    const again = evaluateGate(ctx, originGate[k]).findings[originPlace[k]];
+    if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);
+    return again.message;
+  };
+  return { violations, exactZzEdges, messageOf };
 }
+
+/** Scratch of the reduced table's look-ups (read before the next look-up; single-threaded use). */
+const SCRATCH_STATE = emptyReducedState();
+const SCRATCH_PARTNER = emptyReducedState();
 
 /** f01 (= fGHz), flux and f12 of qubit i at f01 = fGHz inside its tunable range. */
 function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: number): ExactQubitState {
@@ -308,7 +380,7 @@ function stateAt(ctx: PlanContext, table: ReducedSpectrum, i: number, fGHz: numb
   const rBottom = Math.max(t.asymmetry * rTop, table.rMin);
   const r = rTop <= table.rMax ? table.rFor('e1', fGHz / t.ecGHz, rBottom, rTop) : null;
   if (r === null) return exactState(t, fGHz);
-  const s = table.at(r);
+  const s = table.at(r, SCRATCH_STATE);
   return {
     f01GHz: fGHz,
     flux: fluxOf(t, r / rTop),
@@ -360,7 +432,7 @@ function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, par
     if (!res) return null;
     return { moverFlux: res.moverFlux, moverF01GHz: res.moverF01GHz, moverF12GHz: tm.spectrum(res.moverFlux).f12GHz, couplingGHz: res.couplingGHz };
   }
-  const p = table.at(rp);
+  const p = table.at(rp, SCRATCH_PARTNER);
   const pf01 = tp.ecGHz * p.e1;
   const pf12 = tp.ecGHz * (p.e2 - p.e1);
   const ec = tm.ecGHz;
@@ -368,7 +440,7 @@ function crossingOf(ctx: PlanContext, table: ReducedSpectrum, fe: FixedEdge, par
   const slack = 1e-12 * Math.max(1, pf01) / ec;
   const r = fe.crossing === '11-20' ? table.rFor('e12', pf01 / ec, rBottom, rTop, slack) : table.rFor('e1', pf12 / ec, rBottom, rTop, slack);
   if (r === null) return null;
-  const m = table.at(r);
+  const m = table.at(r, SCRATCH_STATE);
   const coupling = fe.crossing === '11-20' ? G * m.n12 * p.n01 : G * m.n01 * p.n12;
   return { moverFlux: fluxOf(tm, r / rTop), moverF01GHz: ec * m.e1, moverF12GHz: ec * (m.e2 - m.e1), couplingGHz: coupling };
 }

@@ -80,7 +80,12 @@ export class SampleEvaluator {
 
   /** The outcome of sample `index` in row `row`. */
   evaluate(row: number, index: number): SampleOutcome {
-    return this.inDetail(row, index).outcome;
+    if (!this.fixed) return this.inDetail(row, index).outcome;
+    // (fixed mode without messages: the outcome's reason is written for its one finding)
+    const chip = this.chips[row];
+    const drawn = chipFromDeviates(chip, index, sampleDeviates(this.job.seed, index, chip.n, chip.ctx.edges.length));
+    const ev = evaluateFixed(chip, this.fixed, drawn, this.table, { messages: false }, this.spectra);
+    return outcomeOf(chip.ctx, index, ev.violations, null, null, ev.messageOf);
   }
 
   /** The outcome of sample `index` in row `row`, with the drawn chip and every finding. */

@@ -29,7 +29,14 @@ const RANK = new Map<string, number>(COLLISION_RULES.map((r, k) => [r.name, k]))
 export const ruleRank = (rule: string): number => RANK.get(rule) ?? RANK.size;
 const rank = ruleRank;
 
-export function outcomeOf(ctx: PlanContext, index: number, findings: readonly Finding[], cycleError: number | null, extraFailure: { rule: string; message: string } | null = null): SampleOutcome {
+export function outcomeOf(
+  ctx: PlanContext,
+  index: number,
+  findings: readonly Finding[],
+  cycleError: number | null,
+  extraFailure: { rule: string; message: string } | null = null,
+  messageOf: (f: Finding) => string = (f) => f.message,
+): SampleOutcome {
   const counts = new Map<string, number>();
   const qubits = new Set<number>();
   const edges = new Set<number>();
@@ -56,7 +63,7 @@ export function outcomeOf(ctx: PlanContext, index: number, findings: readonly Fi
     rules,
     qubits: [...qubits].sort((a, b) => a - b),
     edges: [...edges].sort((a, b) => a - b),
-    reason: ok ? null : first ? first.message : extraFailure!.message,
+    reason: ok ? null : first ? messageOf(first) : extraFailure!.message,
     cycleError,
   };
 }

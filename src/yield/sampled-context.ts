@@ -21,7 +21,7 @@ import { Transmon, type SweetSpotLevels } from '../transmon/transmon.js';
 import type { NominalChip } from './chip-model.js';
 import type { DrawnChip } from './draw.js';
 import { SampledSpectrum } from './sampled-spectrum.js';
-import { TabulatedTransmon } from './tabulated-transmon.js';
+import { TabulatedTransmon, TabulatedWork } from './tabulated-transmon.js';
 
 /** f01, f12 and alpha at the two sweet spots from the reduced table (an exact solve below its range). */
 export function sweetSpotLevels(table: ReducedSpectrum, ecGHz: number, ejsGHz: number, d: number): SweetSpotLevels {
@@ -44,8 +44,9 @@ export function sweetSpotLevels(table: ReducedSpectrum, ecGHz: number, ejsGHz: n
  * The drawn transmons: their tunable ranges, spectra, inverse maps and |<0|n|1>| from the reduced
  * table (./tabulated-transmon.ts; exact outside it), eigenbases exact.
  */
-export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum): Transmon[] {
+export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum, works?: TabulatedWork[]): Transmon[] {
   return chip.ctx.transmons.map((t, i) => {
+    const work = works ? (works[i] ??= new TabulatedWork()) : undefined;
     const ec = drawn.ecGHz[i];
     const ejs = drawn.ejsGHz[i];
     const d = drawn.asymmetry[i];
@@ -53,7 +54,7 @@ export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: Reduc
       coherenceSpec: t.coherenceSpec,
       source: t.source,
       range: sweetSpotLevels(table, ec, ejs, d),
-    });
+    }, work);
   });
 }
 
@@ -63,7 +64,7 @@ export function drawnTransmons(chip: NominalChip, drawn: DrawnChip, table: Reduc
  */
 export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: ReducedSpectrum, reuse?: (SampledSpectrum | undefined)[]): PlanContext {
   const nominal = chip.ctx;
-  const transmons = drawnTransmons(chip, drawn, table);
+  const transmons = drawnTransmons(chip, drawn, table, reuse ? worksFor(reuse) : undefined);
   // (an exact QubitTable for a transmon the reduced table does not cover: only extreme draws)
   const tables: SpectrumTable[] = transmons.map((t, i) => {
     if (!coversPlanningRange(table, t)) return new QubitTable(t);
@@ -99,6 +100,15 @@ export function sampledContext(chip: NominalChip, drawn: DrawnChip, table: Reduc
       return p;
     },
   };
+}
+
+/** The transmons' scratch kept beside a `reuse` array of spectrum objects (one per qubit). */
+const works = new WeakMap<object, TabulatedWork[]>();
+
+function worksFor(reuse: object): TabulatedWork[] {
+  let w = works.get(reuse);
+  if (!w) works.set(reuse, (w = []));
+  return w;
 }
 
 function coversPlanningRange(table: ReducedSpectrum, t: Transmon): boolean {

@@ -28,17 +28,16 @@ export class SampledSpectrum implements SpectrumTable {
   private readonly red = emptyReducedState();
   private readonly scratch: TableState = blankState();
   /**
-   * Memos of `at` and `f01ForF12` by frequency (MEMO_SIZE entries each, replaced round-robin): a
-   * gate's rule evaluation asks for the same few points again and again (each neighbour's parking
-   * frequency, seen from each gate near it). Small arrays scanned in order beat a Map keyed by
-   * doubles here.
+   * Memos of `at` and `f01ForF12` by frequency: small hash tables keyed on the frequency's bits
+   * (MEMO_SLOTS slots each, probed MEMO_PROBES deep; a full probe run replaces its first slot).
+   * A drawn chip's rule evaluation and error budget ask each qubit for some 15-20 distinct
+   * frequencies, again and again (each neighbour's parking frequency and f12, crossings, seen
+   * from each gate near it): a remembered answer is the same object computing it again gives.
    */
-  private readonly memoF = new Float64Array(MEMO_SIZE);
-  private readonly memoS: TableState[] = [];
-  private memoNext = 0;
-  private readonly memo12F = new Float64Array(MEMO_SIZE);
-  private readonly memo12V = new Float64Array(MEMO_SIZE);
-  private memo12Next = 0;
+  private readonly memoF = new Float64Array(MEMO_SLOTS);
+  private readonly memoS: TableState[] = Array.from({ length: MEMO_SLOTS }, blankState);
+  private readonly memo12F = new Float64Array(MEMO_SLOTS);
+  private readonly memo12V = new Float64Array(MEMO_SLOTS);
 
   constructor(
     private readonly table: ReducedSpectrum,
@@ -67,8 +66,6 @@ export class SampledSpectrum implements SpectrumTable {
     this.fMaxGHz = ecGHz * table.value('e1', this.rTop);
     this.memoF.fill(NaN);
     this.memo12F.fill(NaN);
-    this.memoNext = 0;
-    this.memo12Next = 0;
     return this;
   }
 
@@ -79,15 +76,21 @@ export class SampledSpectrum implements SpectrumTable {
   /** State at f01 = fGHz (clamped to the planning range), written into `out`. */
   at(fGHz: number, out: TableState = this.scratch): TableState {
     const memoF = this.memoF;
-    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === fGHz) return copyState(this.memoS[k], out);
+    const home = memoSlot(fGHz);
+    let free = -1;
+    for (let p = 0; p < MEMO_PROBES; p++) {
+      const k = (home + p) & MEMO_MASK;
+      const key = memoF[k];
+      if (key === fGHz) return copyState(this.memoS[k], out);
+      if (free < 0 && key !== key) free = k;
+    }
     const ec = this.ecGHz;
     const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
     const s = this.table.at(r, this.red);
     fillState(s, ec, this.rTop, out);
-    const k = this.memoNext;
-    this.memoNext = (k + 1) % MEMO_SIZE;
+    const k = free >= 0 ? free : home;
     memoF[k] = fGHz;
-    this.memoS[k] = copyState(out, this.memoS[k] ?? blankState());
+    copyState(out, this.memoS[k]);
     return out;
   }
 
@@ -117,11 +120,17 @@ export class SampledSpectrum implements SpectrumTable {
 
   f01ForF12(f12GHz: number): number | null {
     const memoF = this.memo12F;
-    for (let k = 0; k < MEMO_SIZE; k++) if (memoF[k] === f12GHz) return Number.isNaN(this.memo12V[k]) ? null : this.memo12V[k];
+    const home = memoSlot(f12GHz);
+    let free = -1;
+    for (let p = 0; p < MEMO_PROBES; p++) {
+      const k = (home + p) & MEMO_MASK;
+      const key = memoF[k];
+      if (key === f12GHz) return Number.isNaN(this.memo12V[k]) ? null : this.memo12V[k];
+      if (free < 0 && key !== key) free = k;
+    }
     const r = this.table.rFor('e12', f12GHz / this.ecGHz, this.rLow, this.rTop, 1e-12 / this.ecGHz);
     const f = r === null ? null : this.ecGHz * this.table.value('e1', r);
-    const k = this.memo12Next;
-    this.memo12Next = (k + 1) % MEMO_SIZE;
+    const k = free >= 0 ? free : home;
     memoF[k] = f12GHz;
     this.memo12V[k] = f === null ? NaN : f;
     return f;
@@ -140,7 +149,17 @@ export class SampledSpectrum implements SpectrumTable {
   }
 }
 
-const MEMO_SIZE = 12;
+const MEMO_SLOTS = 128;
+const MEMO_MASK = MEMO_SLOTS - 1;
+const MEMO_PROBES = 4;
+const BITS = new Float64Array(1);
+const WORDS = new Uint32Array(BITS.buffer);
+
+/** Home slot of a frequency in a memo (a multiplicative hash of its bits). */
+function memoSlot(f: number): number {
+  BITS[0] = f;
+  return Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 25;
+}
 
 function blankState(): TableState {
   return { f01: 0, f12: 0, e2: 0, e3: 0, e4: 0, e5: 0, n01: 0, n03: 0, n12: 0, n23: 0, n05: 0, n14: 0, ejRatio: 1, df01dEj: 0 };

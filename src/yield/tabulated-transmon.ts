@@ -26,14 +26,29 @@ import { Transmon } from '../transmon/transmon.js';
 type TransmonArgs = ConstructorParameters<typeof Transmon>;
 
 export class TabulatedTransmon extends Transmon {
-  private readonly state = emptyReducedState();
-  private readonly slopes = new Float64Array(5);
+  /**
+   * Scratch of the table look-ups and the answers of spectrum and fluxCurvatureGHz by flux (made
+   * on first use): a drawn chip's rule evaluation and error budget ask each transmon for the same
+   * few fluxes again and again (some 2,600 spectrum calls on ~520 fluxes per 10 x 10 sample). A
+   * remembered answer is the object computing it again gives (spectrum hands out copies). One
+   * field: each field a subclass adds is defined on every instance after Transmon's own, and four
+   * of them made building a transmon cost microseconds.
+   */
+  private readonly work: TabulatedWork;
 
+  /**
+   * `work`: scratch and memos to take over from a transmon no longer used (a Monte Carlo run
+   * keeps one per qubit, so a sample allocates none; its memos are emptied here).
+   */
   constructor(
     private readonly table: ReducedSpectrum,
-    ...args: TransmonArgs
+    id: TransmonArgs[0],
+    params: TransmonArgs[1],
+    options?: TransmonArgs[2],
+    work?: TabulatedWork,
   ) {
-    super(...args);
+    super(id, params, options);
+    this.work = work ? work.reset() : new TabulatedWork();
   }
 
   override get tabulatedSpectrum(): boolean {
@@ -47,15 +62,34 @@ export class TabulatedTransmon extends Transmon {
   override f01(flux: number): number {
     const r = this.ratio(flux);
     if (!this.table.covers(r)) return super.f01(flux);
-    return this.ecGHz * this.table.at(r, this.state).e1;
+    return this.ecGHz * this.table.at(r, this.work.state).e1;
   }
 
   override spectrum(flux: number): SpectrumPoint {
+    const memo = (this.work.spectra ??= new FluxMemo());
+    const slot = memo.find(flux);
+    if (slot >= 0 && memo.points[slot]) return { ...memo.points[slot]! };
+    const p = this.computeSpectrum(flux);
+    memo.points[memo.store(flux, slot)] = p;
+    return { ...p };
+  }
+
+  /** (the exact Transmon's central difference of the slope, of this class's slopes; remembered by flux) */
+  override fluxCurvatureGHz(flux: number): number {
+    const memo = (this.work.curvatures ??= new FluxMemo());
+    const slot = memo.find(flux);
+    if (slot >= 0) return memo.values[slot];
+    const c = super.fluxCurvatureGHz(flux);
+    memo.values[memo.store(flux, slot)] = c;
+    return c;
+  }
+
+  private computeSpectrum(flux: number): SpectrumPoint {
     const ej = this.ejGHz(flux);
     const r = ej / this.ecGHz;
     if (!this.table.covers(r)) return super.spectrum(flux);
-    const s = this.table.at(r, this.state);
-    const sl = this.table.levelSlopes(r, this.slopes);
+    const s = this.table.at(r, this.work.state);
+    const sl = this.table.levelSlopes(r, this.work.slopes);
     const dej = this.ejSlopeGHz(flux);
     const f01 = this.ecGHz * s.e1;
     const f12 = this.ecGHz * (s.e2 - s.e1);
@@ -65,7 +99,7 @@ export class TabulatedTransmon extends Transmon {
   override chargeElement01(flux: number): number {
     const r = this.ratio(flux);
     if (!this.table.covers(r)) return super.chargeElement01(flux);
-    return this.table.at(r, this.state).n01;
+    return this.table.at(r, this.work.state).n01;
   }
 
   override fluxForF01OrNull(fGHz: number): number | null {
@@ -92,5 +126,60 @@ export class TabulatedTransmon extends Transmon {
     if (r === null) return null;
     const x = fluxForJosephsonEnergy(this.ejsGHz, this.asymmetry, Math.min(this.ejsGHz, Math.max(this.asymmetry * this.ejsGHz, r * this.ecGHz)));
     return Number.isFinite(x) ? x : null;
+  }
+}
+
+/** A TabulatedTransmon's scratch and memos (see its `work`). */
+export class TabulatedWork {
+  readonly state = emptyReducedState();
+  readonly slopes = new Float64Array(5);
+  spectra: FluxMemo | undefined = undefined;
+  curvatures: FluxMemo | undefined = undefined;
+
+  /** Empty the memos (for another transmon). */
+  reset(): this {
+    this.spectra?.keys.fill(NaN);
+    this.curvatures?.keys.fill(NaN);
+    return this;
+  }
+}
+
+const FLUX_MEMO_SLOTS = 64;
+const FLUX_MEMO_MASK = FLUX_MEMO_SLOTS - 1;
+const FLUX_MEMO_PROBES = 4;
+const BITS = new Float64Array(1);
+const WORDS = new Uint32Array(BITS.buffer);
+
+/**
+ * A small hash table keyed by flux (the key's bits, multiplicative hash; probed FLUX_MEMO_PROBES
+ * deep, a full probe run replaces its first slot).
+ */
+class FluxMemo {
+  readonly keys = new Float64Array(FLUX_MEMO_SLOTS).fill(NaN);
+  readonly points: (SpectrumPoint | undefined)[] = new Array<SpectrumPoint | undefined>(FLUX_MEMO_SLOTS);
+  readonly values = new Float64Array(FLUX_MEMO_SLOTS);
+  private home = 0;
+  private free = -1;
+
+  /** The slot holding `x`, or -1 (then store() puts `x` where the probe left room). */
+  find(x: number): number {
+    BITS[0] = x;
+    const home = Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 26;
+    this.home = home;
+    this.free = -1;
+    for (let p = 0; p < FLUX_MEMO_PROBES; p++) {
+      const k = (home + p) & FLUX_MEMO_MASK;
+      const key = this.keys[k];
+      if (key === x) return k;
+      if (this.free < 0 && key !== key) this.free = k;
+    }
+    return -1;
+  }
+
+  /** The slot for `x` after find(x) answered -1 (its key written). */
+  store(x: number, found: number): number {
+    const k = found >= 0 ? found : this.free >= 0 ? this.free : this.home;
+    this.keys[k] = x;
+    return k;
   }
 }

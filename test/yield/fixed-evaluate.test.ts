@@ -20,6 +20,7 @@ import { sharedReducedSpectrum } from '../../src/transmon/reduced-spectrum.js';
 import { nominalChip } from '../../src/yield/chip-model.js';
 import { drawChip } from '../../src/yield/draw.js';
 import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
+import { outcomeOf } from '../../src/yield/outcome.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
 import { sampledLayout } from '../../src/yield/sampled-context.js';
 import type { FabricationSpread } from '../../src/yield/spread.js';
@@ -76,5 +77,30 @@ describe('evaluateFixed (the fast path) agrees with verifyPlan on drawn chips', 
     const layout = loadLayoutFile('layouts/bowline-5.yaml', 'bowline-5.yaml');
     const r = compare(layout, { rn: 0.03, ec: 0.02, g: 0.05 }, 3, 8, 0);
     expect(r.exactZz).toBeGreaterThan(0);
+  });
+});
+
+describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
+  it('gives the same findings; messageOf writes each CZ finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
+    const spread = { rn: 0.06, ec: 0.05, g: 0.1 };
+    const chip = nominalChip(layout, spread);
+    const plan = fixedPlan(chip, planForDrawnChip(nominalPlan(layout, 1).plan));
+    const table = sharedReducedSpectrum();
+    const reuse: (SampledSpectrum | undefined)[] = [];
+    let rewritten = 0;
+    for (let i = 0; i < 20; i++) {
+      const drawn = drawChip(chip, 9, i);
+      const off = evaluateFixed(chip, plan, drawn, table, { messages: false }, reuse);
+      const filled = off.violations.map((f) => {
+        if (f.message === '') rewritten++;
+        return { ...f, message: off.messageOf(f) };
+      });
+      const outcomeOff = outcomeOf(chip.ctx, i, off.violations, null, null, off.messageOf);
+      const on = evaluateFixed(chip, plan, drawn, table, {}, reuse);
+      expect(filled, `sample ${i}`).toEqual(on.violations);
+      expect(outcomeOff, `sample ${i}`).toEqual(outcomeOf(chip.ctx, i, on.violations, null));
+    }
+    expect(rewritten).toBeGreaterThan(10);
   });
 });

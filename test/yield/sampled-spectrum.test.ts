@@ -63,3 +63,22 @@ describe('SampledSpectrum', () => {
     });
   }
 });
+
+describe('SampledSpectrum memos', () => {
+  it('give, for 400 frequencies asked in turns and again after a reset, exactly what a fresh object computes', () => {
+    const table = sharedReducedSpectrum();
+    const reused = new SampledSpectrum(table, 0.2, 20, 0.3, 2e-6);
+    for (const [ec, ejs, d] of [[0.21, 22.5, 0.35], [0.19, 27.1, 0.12]] as const) {
+      reused.reset(ec, ejs, d, 2e-6);
+      const fresh = () => new SampledSpectrum(table, ec, ejs, d, 2e-6);
+      const fs = Array.from({ length: 400 }, (_, k) => reused.fLowGHz - 0.05 + ((reused.fMaxGHz - reused.fLowGHz + 0.1) * ((k * 7919) % 400)) / 399);
+      for (let round = 0; round < 3; round++) {
+        for (const f of fs) {
+          expect(reused.at(f, { ...reused.at(0) })).toEqual(fresh().at(f, { ...reused.at(0) }));
+          const f12 = 0.8 * f;
+          expect(reused.f01ForF12(f12)).toBe(fresh().f01ForF12(f12));
+        }
+      }
+    }
+  });
+});

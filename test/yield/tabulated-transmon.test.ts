@@ -13,7 +13,7 @@ import { describe, expect, it } from 'vitest';
 import { josephsonEnergy } from '../../src/transmon/josephson.js';
 import { sharedReducedSpectrum } from '../../src/transmon/reduced-spectrum.js';
 import { Transmon } from '../../src/transmon/transmon.js';
-import { TabulatedTransmon } from '../../src/yield/tabulated-transmon.js';
+import { TabulatedTransmon, TabulatedWork } from '../../src/yield/tabulated-transmon.js';
 import { runPython } from '../support/python.js';
 
 const devices = [
@@ -75,5 +75,37 @@ describe('TabulatedTransmon', () => {
     }
     const f = exact.f01(0.3);
     expect(tab.fluxForF01OrNull(f)).toBe(exact.fluxForF01OrNull(f));
+  });
+});
+
+describe('TabulatedTransmon memos', () => {
+  it('spectrum and fluxCurvatureGHz of 300 fluxes asked three times over equal a fresh object\'s answers exactly, and hand out copies', () => {
+    const p = { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 };
+    const tab = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    const xs = Array.from({ length: 300 }, (_, k) => (0.5 * ((k * 7919) % 300)) / 299);
+    for (let round = 0; round < 3; round++) {
+      for (const x of xs) {
+        const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+        const got = tab.spectrum(x);
+        expect(got).toEqual(fresh.spectrum(x));
+        got.f01GHz = -1;
+        expect(tab.spectrum(x).f01GHz).toBe(fresh.spectrum(x).f01GHz);
+        expect(tab.fluxCurvatureGHz(x)).toBe(fresh.fluxCurvatureGHz(x));
+      }
+    }
+  });
+
+  it('a transmon taking over another\'s memos (a run\'s reuse) answers as a fresh one', () => {
+    const work = new TabulatedWork();
+    const first = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 }, {}, work);
+    const xs = [0, 0.013, 0.2, 0.31, 0.5];
+    for (const x of xs) first.spectrum(x), first.fluxCurvatureGHz(x);
+    const p = { ecGHz: 0.198, ejsGHz: 24.9, asymmetry: 0.33 };
+    const second = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p, {}, work);
+    const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    for (const x of xs) {
+      expect(second.spectrum(x)).toEqual(fresh.spectrum(x));
+      expect(second.fluxCurvatureGHz(x)).toBe(fresh.fluxCurvatureGHz(x));
+    }
   });
 });
