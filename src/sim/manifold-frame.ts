@@ -63,7 +63,7 @@ export interface ManifoldFrameOptions {
   /** Tolerance on the Chebyshev tail of Vt (dimensionless) and of E (GHz). */
   vectorTol?: number;
   energyTolGHz?: number;
-  /** Looser tail tolerance for the frame states of manifolds above 2 (see converged()). */
+  /** Looser tail tolerance for the frame states of manifolds above 2 (see tailRatio()). */
   highTol?: number;
   /** First and largest Chebyshev degree. */
   firstDegree?: number;
@@ -515,21 +515,15 @@ export class ManifoldFrameBuilder {
   }
 
   /**
-   * Chebyshev tails small enough? Columns (frame states) of the computational and leakage
+   * Chebyshev tails small enough? The largest ratio of a last-two coefficient to its tolerance
+   * (only those two coefficient rows are computed); the frame has converged when it is <= 1.
+   * Columns (frame states) of the computational and leakage
    * manifolds (excitation <= 2) must meet vectorTol / energyTolGHz; those of higher manifolds
    * (the squeezing partners, reached only at second order) a looser highTol: their dressed
    * subspace can be slightly ill-defined where a state of a dropped manifold crosses them (a
    * narrow, high-order avoided crossing), which leaves a plateau in their coefficients that no
    * degree removes: ~1e-6 on most edges, 3e-5 on Reef-49 Q9-Q10 (E_J 7.6-16.7 GHz, f01 3.3-4.95 GHz), where the
    * frame still agrees with the moving-basis integration to 3e-6 (test/sim/propagate-frame.test.ts).
-   */
-  private converged(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): boolean {
-    return this.tailRatio(samples, degree, o) <= 1;
-  }
-
-  /**
-   * Largest ratio of a last-two Chebyshev coefficient to its tolerance (see converged()); the
-   * frame has converged when it is <= 1. Only those two coefficient rows are computed.
    */
   private tailRatio(samples: Sample[], degree: number, o: Required<ManifoldFrameOptions>): number {
     let worst = 0;
