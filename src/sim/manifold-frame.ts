@@ -48,9 +48,12 @@ import { keptMoverSample, staticTransmonParts } from './mover-sample.js';
 
 /**
  * Sector size from which the dressed states come from Householder + QL (src/linalg/
- * symmetric-eigen-ql.ts) instead of Jacobi: measured on Reef-49's three-transmon sectors (37-38
- * states) 1.8x faster; below ~25 states the two cost the same. The frame uses only the subspace
- * each manifold's eigenvectors span (Lowdin orthonormalisation below), which both give to ~1e-14.
+ * symmetric-eigen-ql.ts) instead of Jacobi. The frame uses only the subspace each manifold's
+ * eigenvectors span (Lowdin orthonormalisation below), which both give to ~1e-14. Measured on
+ * the demo plans' sectors (both solvers on the same matrices, 2026-12-03): 37-38 states 1.8x,
+ * 22-23 states 1.4-1.7x, 12 states 1.2x faster. Below 28 Jacobi stays: the pair frames' sectors
+ * are smaller, and a change there moves every designed pulse at the designer's own tolerance
+ * (~1e-6 in margins), for about 3 % of a plan's CPU.
  */
 const QL_FROM_SIZE = 28;
 
@@ -661,9 +664,9 @@ export class ManifoldFrameBuilder {
  * tail(N); if even then it stays above its tolerance at the largest reachable degree, the frame is
  * given up (the caller takes its fallback model, as for a frame that fails at maxDegree). Frames
  * that never converge (a sharp crossing with a dropped manifold inside the range) plateau or fall
- * as a power law (about 0.5 per doubling, ~1/N). Measured on the four demo plans (2026-12-03):
- * the 53 non-converging frames stop at degree 32 (46), 64 (5) or 128 (2); none of the 873
- * converging ones stops (they lose a factor 20-300 per doubling). `tails`: the tail ratios (last
+ * as a power law (about 0.5 per doubling, ~1/N). The rule applied to the tails logged while
+ * planning the four demos (2026-12-03): their 53 non-converging frames stop at degree 32 (46), 64
+ * (5) or 128 (2); none of the 873 converging ones stops (they lose a factor 20-300 per doubling). `tails`: the tail ratios (last
  * two coefficients over their tolerance) at degrees firstDegree, 2 firstDegree, ..., `degree`.
  */
 export function frameTailHopeless(tails: readonly number[], degree: number, maxDegree: number): boolean {
