@@ -21,7 +21,7 @@
  * each step is prepared once for the eight columns; the same numbers as two simulations).
  */
 import { fidelityWithVirtualZ, gateMetrics, leakage } from '../sim/gate-metrics.js';
-import { buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
+import { BUDGET_QL_FROM_SIZE, buildManifoldFrame, type ManifoldFrame } from '../sim/manifold-frame.js';
 import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
 import type { FramePropagationOptions } from '../sim/propagate-frame.js';
 import { simulateGate, simulateSpectatorStates } from '../sim/simulate-gate.js';
@@ -108,7 +108,7 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   let pairLeakage = input.pairLeakage;
   if (reduced === 'mover-levels') {
     const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels, partnerLevels });
-    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3 }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
+    const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3, qlFromSize: BUDGET_QL_FROM_SIZE }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
     pairError = 1 - alone.fidelity;
     pairLeakage = alone.leakage;
   }
@@ -151,7 +151,7 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
   for (const [moverLevels, partnerLevels, keepExcitations, reduced] of attempts) {
     try {
       const tableIntervals = input.tableIntervals ?? SPECTATOR_TABLE_INTERVALS;
-      return { frame: buildManifoldFrame(modelOf(moverLevels, partnerLevels), { ejLo, ejHi, keepExcitations, tableIntervals }), reduced, moverLevels, partnerLevels };
+      return { frame: buildManifoldFrame(modelOf(moverLevels, partnerLevels), { ejLo, ejHi, keepExcitations, tableIntervals, qlFromSize: BUDGET_QL_FROM_SIZE }), reduced, moverLevels, partnerLevels };
     } catch (err) {
       if (!(err instanceof RangeError) || !/no convergence/.test(err.message)) throw err;
     }

@@ -18,7 +18,7 @@
  *                   (./spectator-error.ts) against the pair alone on the same model size
  */
 import type { ManifoldFrame } from '../sim/manifold-frame.js';
-import { buildManifoldFrame } from '../sim/manifold-frame.js';
+import { BUDGET_QL_FROM_SIZE, buildManifoldFrame } from '../sim/manifold-frame.js';
 import { gateMetrics } from '../sim/gate-metrics.js';
 import { edgeSimModel, type EdgeSpectator } from '../sim/pair-model.js';
 import { simulateGate, type GateSimulation } from '../sim/simulate-gate.js';
@@ -90,7 +90,7 @@ export function waveformNoiseBudget(input: WaveformNoiseInput): WaveformNoiseBud
     moverSigma, partnerSigma,
     partnerFrame: (delta) => {
       // in-block propagation: the computational states (spectators in |0>) stay in manifolds <= 2
-      const build = () => buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD });
+      const build = () => buildManifoldFrame(edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux + delta, spectators }), { ejLo: frame.ejLo, ejHi: frame.ejHi, keepExcitations: PAIR_TOP_MANIFOLD, qlFromSize: BUDGET_QL_FROM_SIZE });
       return input.frameCache ? input.frameCache(`partner ${delta}`, build) : build();
     },
     propagation: FLUX_NOISE_PROPAGATION,
@@ -157,7 +157,7 @@ export function spectatorBudget(pair: WaveformPair, list: readonly EdgeSpectator
   const levels = spectatorModelLevels(pair);
   const pairModel = edgeSimModel({ mover, partner, gGHz, partnerFlux, ...levels });
   const [ejLo, ejHi] = moverEjSpan(mover, traj);
-  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: PAIR_TOP_MANIFOLD }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
+  const alone = simulateGate(buildManifoldFrame(pairModel, { ejLo, ejHi, keepExcitations: PAIR_TOP_MANIFOLD, qlFromSize: BUDGET_QL_FROM_SIZE }), traj, { ...SPECTATOR_PROPAGATION, targetPhase, estimate: false });
   const pairMetrics = gateMetrics(alone.m, targetPhase);
   const shares = list.map((sp) => {
     const r = spectatorError({

@@ -55,7 +55,16 @@ import { keptMoverSample, staticTransmonParts } from './mover-sample.js';
  * are smaller, and a change there moves every designed pulse at the designer's own tolerance
  * (~1e-6 in margins), for about 3 % of a plan's CPU.
  */
-const QL_FROM_SIZE = 28;
+export const QL_FROM_SIZE = 28;
+
+/**
+ * Sector size from which the error budget's own frames (the spectators' three-transmon models, the
+ * pair alone on their model size, the partner-offset frames of the flux-noise average:
+ * src/budget/) use Householder + QL. They feed no search whose tolerance amplifies a change, so
+ * the ~1e-14 by which the two solvers' subspaces differ stays ~1e-14 in the reported errors, and
+ * their 12-23-state sectors are where QL is 1.2-1.7x faster (above).
+ */
+export const BUDGET_QL_FROM_SIZE = 8;
 
 export interface ManifoldFrameOptions {
   /** Range of the mover's E_J (GHz) to cover. */
@@ -77,6 +86,8 @@ export interface ManifoldFrameOptions {
   stopHopeless?: boolean;
   /** Also tabulate each transmon's ladder b and number b^dag b in the frame (for decoherence). */
   noiseOperators?: boolean;
+  /** Sectors of at least this many states use Householder + QL, smaller ones Jacobi (default QL_FROM_SIZE). */
+  qlFromSize?: number;
   /**
    * Drop the mover's wave-function derivative T (a model that ignores the distortion of the
    * transmon with flux). Physically wrong; it exists to show the size of that error.
@@ -94,6 +105,7 @@ export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
   tableIntervals: 128,
   stopHopeless: true,
   noiseOperators: false,
+  qlFromSize: QL_FROM_SIZE,
   dropWavefunctionDerivative: false,
 });
 
@@ -263,7 +275,7 @@ export class ManifoldFrameBuilder {
   }
 
   /** Frame quantities at one value of the mover's E_J. */
-  sample(u: number, noise = false): Sample {
+  sample(u: number, noise = false, qlFromSize = QL_FROM_SIZE): Sample {
     const t0 = this.model.transmons[0];
     const k0 = t0.levels;
     const { energies, charge, tm } = keptMoverSample(t0.ecGHz, u, k0, this.nCut);
@@ -279,7 +291,7 @@ export class ManifoldFrameBuilder {
       const vt = new Float64Array(size * d);
       const block = subMatrix(h, n, idx);
       if (size > 0 && d > 0) {
-        const eig = size >= QL_FROM_SIZE ? symmetricEigenQL(block, size, undefined, this.qlScratch(size)) : symmetricEigen(block, size);
+        const eig = size >= qlFromSize ? symmetricEigenQL(block, size, undefined, this.qlScratch(size)) : symmetricEigen(block, size);
         const used = new Uint8Array(size);
         for (let bIdx = 0; bIdx < setup.blocks.length; bIdx++) {
           const blk = setup.blocks[bIdx];
@@ -442,7 +454,7 @@ export class ManifoldFrameBuilder {
     let degree = o.firstDegree;
     let points = chebyshevPoints(lo, hi, degree);
     const noise = o.noiseOperators;
-    let samples = Array.from(points, (u) => this.sample(u, noise));
+    let samples = Array.from(points, (u) => this.sample(u, noise, o.qlFromSize));
     const tails: number[] = [];
     for (;;) {
       const tail = this.tailRatio(samples, degree, o);
@@ -451,7 +463,7 @@ export class ManifoldFrameBuilder {
       if (2 * degree > o.maxDegree || (o.stopHopeless && frameTailHopeless(tails, degree, o.maxDegree))) throw new RangeError(`manifold frame: no convergence at Chebyshev degree ${degree} (the dressed manifolds are not smooth over E_J in [${lo}, ${hi}] GHz; fewer levels or a smaller excursion may help)`);
       const next = chebyshevPoints(lo, hi, 2 * degree);
       const merged: Sample[] = new Array(2 * degree + 1);
-      for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j], noise);
+      for (let j = 0; j <= 2 * degree; j++) merged[j] = j % 2 === 0 ? samples[j / 2] : this.sample(next[j], noise, o.qlFromSize);
       degree *= 2;
       points = next;
       samples = merged;

@@ -224,10 +224,17 @@ class FirstOrderEstimate {
     this.nOps = 2 * model.transmons.length;
     const dt = noise.size;
     const mover = model.transmons[0];
-    // Per sector and jump operator: the operator's columns of that sector (all dt rows) at the
-    // last u evaluated (a hold split into pieces keeps u: the same numbers, computed once).
+    // Per sector and jump operator: the entries of the operator's columns of that sector that are
+    // non-zero somewhere on the table (noiseColumnPattern; every other entry is exactly 0), their
+    // values at the last u evaluated (a hold split into pieces keeps u: the same numbers, computed once).
     const nT = 2 * model.transmons.length;
-    const opCols = frame.sectors.map((sec) => Array.from({ length: nT }, () => new Float64Array(dt * sec.size)));
+    const patterns = frame.sectors.map((sec, s) =>
+      Array.from({ length: nT }, (_, j) => {
+        const i = j >> 1;
+        return j % 2 === 0 ? noiseColumnPattern(frame, noise.ladder[i], noise.ladderSlope[i], noise.offsets[s], sec.size) : noiseColumnPattern(frame, noise.number[i], noise.numberSlope[i], noise.offsets[s], sec.size);
+      }),
+    );
+    const opVals = patterns.map((ps) => ps.map((pt) => new Float64Array(pt.cols.length)));
     const opAt = frame.sectors.map(() => new Float64Array(nT).fill(NaN));
     this.observer = (stepIndex, sector, re, im, columns) => {
       const b = stepIndex + 1;
@@ -247,22 +254,27 @@ class FirstOrderEstimate {
           const rate = kind === 0 ? rates.relax : rates.dephase * 2;
           if (rate === 0) continue;
           const j0 = 2 * i + kind;
-          const opBuf = opCols[sector][j0];
+          const pt = patterns[sector][j0];
+          const vals = opVals[sector][j0];
           if (opAt[sector][j0] !== u) {
-            noiseColumns(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], u, off, ds, opBuf);
+            noiseEntries(frame, kind === 0 ? noise.ladder[i] : noise.number[i], kind === 0 ? noise.ladderSlope[i] : noise.numberSlope[i], u, pt, vals);
             opAt[sector][j0] = u;
           }
           let pSum = 0;
           let qSum = 0;
+          const nRows = pt.rows.length;
           for (const c of columns) {
             const xr = re[c];
             const xi = im[c];
-            // y = O psi over all rows (psi lives in this sector's columns)
-            for (let r = 0; r < dt; r++) {
+            // y = O psi over the rows with a non-zero entry (psi lives in this sector's columns;
+            // the other rows of y are exactly 0 and add nothing to either sum)
+            for (let t = 0; t < nRows; t++) {
+              const r = pt.rows[t];
               let yr = 0;
               let yi = 0;
-              for (let k = 0; k < ds; k++) {
-                const ok = opBuf[r * ds + k];
+              for (let e = pt.rowStart[t]; e < pt.rowStart[t + 1]; e++) {
+                const ok = vals[e];
+                const k = pt.cols[e];
                 yr += ok * xr[k];
                 yi += ok * xi[k];
               }
@@ -309,11 +321,63 @@ class FirstOrderEstimate {
 const NOISE_WEIGHTS = new Float64Array(4);
 
 /**
- * Columns [off, off + ds) of a noise table's operator at u (all Dt rows), into out (Dt x ds): the
- * same cubic Hermite weights (frameHermite), entry by entry, as evaluateNoiseTable
- * (src/sim/manifold-frame.ts), so the same numbers, for the columns the observer reads.
+ * The entries of a noise table's operator (Dt x Dt) in columns [off, off + ds) that are non-zero
+ * at some table point (value or slope), row by row in increasing row and column order: rows[t]
+ * is a row with such entries, cols[rowStart[t] .. rowStart[t + 1]) their columns (relative to
+ * off), at[e] the entry's index in a Dt x Dt matrix. Every other entry of these columns is exactly
+ * 0 at every u (the tables interpolate only entries that are non-zero somewhere,
+ * src/sim/manifold-frame.ts tabulateNoise): a ladder operator keeps only the other sector's rows,
+ * a number operator only its own. Remembered per table.
  */
-function noiseColumns(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, off: number, ds: number, out: Float64Array): void {
+interface NoisePattern {
+  rows: Int32Array;
+  rowStart: Int32Array;
+  cols: Int32Array;
+  at: Int32Array;
+}
+
+const noisePatterns = new WeakMap<Float64Array, Map<string, NoisePattern>>();
+
+export function noiseColumnPattern(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, off: number, ds: number): NoisePattern {
+  let byCols = noisePatterns.get(values);
+  if (!byCols) noisePatterns.set(values, (byCols = new Map()));
+  const key = `${off} ${ds}`;
+  const hit = byCols.get(key);
+  if (hit) return hit;
+  const dt = frame.noise!.size;
+  const w = dt * dt;
+  const points = values.length / w;
+  const rows: number[] = [];
+  const rowStart: number[] = [0];
+  const cols: number[] = [];
+  const at: number[] = [];
+  for (let r = 0; r < dt; r++) {
+    for (let k = 0; k < ds; k++) {
+      const q = r * dt + off + k;
+      for (let p = 0; p < points; p++) {
+        if (values[p * w + q] !== 0 || slopes[p * w + q] !== 0) {
+          cols.push(k);
+          at.push(q);
+          break;
+        }
+      }
+    }
+    if (cols.length > rowStart[rowStart.length - 1]) {
+      rows.push(r);
+      rowStart.push(cols.length);
+    }
+  }
+  const pattern = { rows: Int32Array.from(rows), rowStart: Int32Array.from(rowStart), cols: Int32Array.from(cols), at: Int32Array.from(at) };
+  byCols.set(key, pattern);
+  return pattern;
+}
+
+/**
+ * The pattern's entries of a noise table's operator at u, into out (one per entry): the same
+ * cubic Hermite weights (frameHermite), entry by entry, as evaluateNoiseTable
+ * (src/sim/manifold-frame.ts), so the same numbers, for the entries the observer reads.
+ */
+function noiseEntries(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, pattern: NoisePattern, out: Float64Array): void {
   const i = frameHermite(frame, u, NOISE_WEIGHTS);
   const h00 = NOISE_WEIGHTS[0];
   const h10 = NOISE_WEIGHTS[1];
@@ -323,11 +387,11 @@ function noiseColumns(frame: ManifoldFrame, values: Float64Array, slopes: Float6
   const w = dt * dt;
   const p0 = i * w;
   const p1 = p0 + w;
-  for (let r = 0; r < dt; r++)
-    for (let k = 0; k < ds; k++) {
-      const q = r * dt + off + k;
-      out[r * ds + k] = h00 * values[p0 + q] + h10 * slopes[p0 + q] + h01 * values[p1 + q] + h11 * slopes[p1 + q];
-    }
+  const at = pattern.at;
+  for (let e = 0; e < at.length; e++) {
+    const q = at[e];
+    out[e] = h00 * values[p0 + q] + h10 * slopes[p0 + q] + h01 * values[p1 + q] + h11 * slopes[p1 + q];
+  }
 }
 
 /**

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
-import { simulateGate } from '../../src/sim/simulate-gate.js';
+import { noiseColumnPattern, simulateGate } from '../../src/sim/simulate-gate.js';
 import { josephsonEnergy } from '../../src/transmon/josephson.js';
 import { fluxAt } from '../../src/sim/trajectory.js';
 import { MOVER, cosineRamps, crossingFlux, ejRange, pairModel } from './support.js';
@@ -84,5 +84,41 @@ describe('decoherence', () => {
     expect(Math.abs(e0 - 0.4 * 1e-5 * T) / e0).toBeLessThan(0.01);
     expect(Math.abs(e1 - 0.4 * integral) / e1).toBeLessThan(0.01);
     expect(e1 / e0).toBeGreaterThan(1.5);
+  });
+  it('the first-order estimate reads only the jump operators\' entries that are non-zero somewhere on the table: every other entry is exactly 0 (a ladder operator joins the two parity sectors, a number operator keeps its own; common practice: b changes the excitation number by one, b^dag b keeps it)', () => {
+    const traj = cosineRamps(0.9 * crossingFlux(), 10, 20, 0.5);
+    const frame = buildManifoldFrame(pairModel(6, 4, noise), { ...ejRange(traj), noiseOperators: true });
+    const tables = frame.noise!;
+    const dt = tables.size;
+    const points = tables.ladder[0].length / (dt * dt);
+    for (let s = 0; s < 2; s++) {
+      const off = tables.offsets[s];
+      const ds = frame.sectors[s].size;
+      const otherOff = tables.offsets[1 - s];
+      const otherSize = frame.sectors[1 - s].size;
+      for (let i = 0; i < 2; i++) {
+        for (const [values, slopes, kind] of [[tables.ladder[i], tables.ladderSlope[i], 'ladder'], [tables.number[i], tables.numberSlope[i], 'number']] as const) {
+          const pattern = noiseColumnPattern(frame, values, slopes, off, ds);
+          const listed = new Set(pattern.at);
+          expect(pattern.at.length).toBeGreaterThan(0);
+          for (let t = 0; t < pattern.rows.length; t++) {
+            const r = pattern.rows[t];
+            // the rows the operator can reach from this sector
+            if (kind === 'ladder') expect(r >= otherOff && r < otherOff + otherSize).toBe(true);
+            else expect(r >= off && r < off + ds).toBe(true);
+            for (let e = pattern.rowStart[t]; e < pattern.rowStart[t + 1]; e++) expect(pattern.at[e]).toBe(r * dt + off + pattern.cols[e]);
+          }
+          for (let r = 0; r < dt; r++)
+            for (let k = 0; k < ds; k++) {
+              const q = r * dt + off + k;
+              if (listed.has(q)) continue;
+              for (let p = 0; p < points; p++) {
+                expect(values[p * dt * dt + q]).toBe(0);
+                expect(slopes[p * dt * dt + q]).toBe(0);
+              }
+            }
+        }
+      }
+    }
   });
 });

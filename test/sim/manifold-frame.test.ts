@@ -11,7 +11,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { chebyshevCoefficientRows, chebyshevPoints } from '../../src/linalg/chebyshev-series.js';
-import { frameTailHopeless, MANIFOLD_FRAME_DEFAULTS } from '../../src/sim/manifold-frame.js';
+import { BUDGET_QL_FROM_SIZE, buildManifoldFrame, frameTailHopeless, MANIFOLD_FRAME_DEFAULTS, QL_FROM_SIZE } from '../../src/sim/manifold-frame.js';
+import { simulateGate } from '../../src/sim/simulate-gate.js';
+import { cosineRamps, crossingFlux, ejRange, pairModel } from './support.js';
 
 const TOL = 1e-11;
 const MAX = MANIFOLD_FRAME_DEFAULTS.maxDegree;
@@ -59,5 +61,32 @@ describe('frameTailHopeless', () => {
     expect(frameTailHopeless([1e6, 0.5], 32, MAX)).toBe(false);
     // no reachable degree left: above tolerance is hopeless
     expect(frameTailHopeless([1e3, 2], 256, 256)).toBe(true);
+  });
+});
+
+describe('the frame\'s eigensolver threshold (qlFromSize)', () => {
+  it('a pair frame (12-state sectors) from Householder + QL equals the Jacobi one to 1e-10 in its tables and 1e-12 in the simulated gate (both solvers checked against numpy.linalg.eigh in test/linalg/)', () => {
+    const traj = cosineRamps(0.9 * crossingFlux(), 10, 20, 0.5);
+    const range = ejRange(traj);
+    const jacobi = buildManifoldFrame(pairModel(6, 4), { ...range, qlFromSize: QL_FROM_SIZE });
+    const ql = buildManifoldFrame(pairModel(6, 4), { ...range, qlFromSize: BUDGET_QL_FROM_SIZE });
+    expect(jacobi.sectors.map((s) => s.size)).toEqual(ql.sectors.map((s) => s.size));
+    // the eigensolver sees whole parity sectors of the 6 x 4 product space: 12 states each
+    const solved = (6 * 4) / 2;
+    expect(solved).toBeLessThan(QL_FROM_SIZE);
+    expect(solved).toBeGreaterThanOrEqual(BUDGET_QL_FROM_SIZE);
+    let worst = 0;
+    jacobi.sectors.forEach((s, k) => {
+      const t = ql.sectors[k];
+      for (const field of ['energy', 'coupling'] as const) for (let q = 0; q < s[field].length; q++) worst = Math.max(worst, Math.abs(s[field][q] - t[field][q]));
+    });
+    expect(worst).toBeLessThan(1e-10);
+    // (the two solvers really ran: their rounding differs)
+    expect(worst).toBeGreaterThan(0);
+    const a = simulateGate(jacobi, traj);
+    const b = simulateGate(ql, traj);
+    expect(Math.abs(a.fidelity - b.fidelity)).toBeLessThan(1e-12);
+    expect(Math.abs(a.leakage - b.leakage)).toBeLessThan(1e-12);
+    expect(Math.abs(a.conditionalPhase - b.conditionalPhase)).toBeLessThan(1e-10);
   });
 });
