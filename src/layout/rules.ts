@@ -57,6 +57,7 @@ const RULE_FIELDS: readonly (keyof Rules)[] = [
   'readoutDetuningGHz', 'spectatorAdmixture', 'sweptTransferLimit', 'maxGateNs', 'sampleRateGHz',
   'fluxBandwidthGHz', 'maxFluxExcursion', 'gateErrorLimit', 'spectatorLeakageLimit', 'idleErrorLimit',
   'cycleOverheadNs', 'noiseAveragingTimeNs', 'qubitTemperatureK', 'resistanceSpread', 'marginFlagSpreads',
+  'spectatorRangeMarginSpreads',
 ];
 
 const OPTIONAL_FIELDS: ReadonlySet<keyof Rules> = new Set(['fluxBandwidthGHz']);

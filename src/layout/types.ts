@@ -140,6 +140,8 @@ export interface Rules {
   resistanceSpread: number;
   /** Flag a qubit whose margin is below this many fabrication spreads. */
   marginFlagSpreads: number;
+  /** Keep moved spectators this many fabrication spreads inside their tunable range (0: anywhere). */
+  spectatorRangeMarginSpreads: number;
 }
 
 export interface ChipLayout {

@@ -29,6 +29,7 @@ describe('shared/rules.json', () => {
       sampleRateGHz: 2.4,
       resistanceSpread: 0.02,
       marginFlagSpreads: 3,
+      spectatorRangeMarginSpreads: 0,
       fluxBandwidthGHz: 1,
       maxFluxExcursion: 0.45,
       gateErrorLimit: 0.01,

@@ -15,6 +15,7 @@ import { spectatorParkingCandidates } from '../../src/plan/interaction/spectator
 import { IdleBlockers } from '../../src/plan/rules/idle-blockers.js';
 import type { PlanContext } from '../../src/plan/context.js';
 import type { SpectrumTable, TableState } from '../../src/plan/qubit-table.js';
+import { exactQubitState } from '../../src/plan/exact-state.js';
 
 const hitch = planChip(loadLayoutFile('layouts/hitch-30.yaml', 'layouts/hitch-30.yaml'));
 const { ctx } = hitch;
@@ -49,5 +50,36 @@ describe('spectatorParkingCandidates', () => {
     }
     expect(compared).toBeGreaterThan(30);
     expect(withPoints).toBeGreaterThan(10);
+  });
+});
+
+describe('spectatorRangeMarginSpreads', () => {
+  it('keeps every candidate point of a moved spectator that many fabrication spreads inside its range (Hitch-30, every gate and spectator; sigma_f from the exact spectrum, src/plan/exact-state.ts)', () => {
+    const K = 3;
+    const ctxK: PlanContext = { ...ctx, rules: { ...ctx.rules, spectatorRangeMarginSpreads: K } };
+    let inside = 0;
+    let nearEdgeWithout = 0;
+    for (const e of hitch.edges) {
+      if (!Number.isFinite(e.interactionGHz)) continue;
+      const s = scenarioOf(hitch, e);
+      for (const P of ctx.neighbours[e.mover]) {
+        if (P === e.partner) continue;
+        const t = ctx.transmons[P];
+        const lo = ctx.tables[P].fLowGHz;
+        const hi = ctx.tables[P].fMaxGHz;
+        // the exact expected spread at each end (the search uses the tabulated one: 1 % apart at most)
+        const sLo = exactQubitState(t, Math.max(lo, t.fMinGHz), ctx.rules.resistanceSpread).sigmaGHz;
+        const sHi = exactQubitState(t, Math.min(hi, t.fMaxGHz), ctx.rules.resistanceSpread).sigmaGHz;
+        for (const x of spectatorParkingCandidates(ctxK, new IdleBlockers(ctxK), s, P).points) {
+          expect(x, `${ctx.ids[P]} for ${ctx.ids[e.mover]}-${ctx.ids[e.partner]}`).toBeGreaterThanOrEqual(lo + 0.99 * K * sLo);
+          expect(x).toBeLessThanOrEqual(hi - 0.99 * K * sHi);
+          inside++;
+        }
+        for (const x of spectatorParkingCandidates(ctx, new IdleBlockers(ctx), s, P).points) if (x < lo + K * sLo || x > hi - K * sHi) nearEdgeWithout++;
+      }
+    }
+    expect(inside).toBeGreaterThan(10);
+    // the default (0) leaves points nearer the range ends: the rule changes the candidates
+    expect(nearEdgeWithout).toBeGreaterThan(0);
   });
 });

@@ -115,14 +115,17 @@ export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlock
   }
   const rd = ctx.qubits[P].readoutGHz;
   if (rd !== undefined) push({ lo: rd - r.readoutDetuningGHz, hi: rd + r.readoutDetuningGHz });
-  // The band reachable without crossing a direct resonance.
-  let below = tp.fLowGHz;
-  let above = tp.fMaxGHz;
+  // The band reachable without crossing a direct resonance, kept spectatorRangeMarginSpreads
+  // expected fabrication spreads inside the tunable range (a drawn chip's range ends move with its
+  // junctions; sigma_f as src/plan/parking/state.ts sigmaAt, at each end).
+  const keep = r.spectatorRangeMarginSpreads;
+  let below = keep > 0 ? tp.fLowGHz + keep * fabricationSpreadAt(ctx, P, tp.fLowGHz) : tp.fLowGHz;
+  let above = keep > 0 ? tp.fMaxGHz - keep * fabricationSpreadAt(ctx, P, tp.fMaxGHz) : tp.fMaxGHz;
   for (const b of barriers) {
     if (b < f0 - 1e-9 && b > below) below = b;
     if (b > f0 + 1e-9 && b < above) above = b;
   }
-  const allowed = subtract({ lo: below, hi: above }, blocked);
+  const allowed = below < above ? subtract({ lo: below, hi: above }, blocked) : [];
   const inside = PARKING_MARGIN_GHZ;
   const points: number[] = [];
   for (const a of allowed) {
@@ -141,4 +144,13 @@ export function spectatorParkingCandidates(ctx: PlanContext, blockers: IdleBlock
     points: points.filter((x) => Math.abs(x - f0) > 1e-9).sort((x, y) => Math.abs(x - f0) - Math.abs(y - f0) || x - y),
     reachable: { lo: below, hi: above },
   };
+}
+
+/**
+ * Expected fabrication spread of qubit q's f01 at f (GHz): |df01/dE_J| E_J resistanceSpread from
+ * the tabulated spectrum (the expected frequency spread of src/plan/exact-state.ts; E_J ~ 1/R_n).
+ */
+export function fabricationSpreadAt(ctx: PlanContext, q: number, f: number): number {
+  const st = ctx.tables[q].at(f, emptyTableState());
+  return Math.abs(st.df01dEj * st.ejRatio * ctx.transmons[q].ejsGHz) * ctx.rules.resistanceSpread;
 }
