@@ -96,6 +96,26 @@ describe('the sweep\'s remembered crossing couplings', () => {
       }
     }
   });
+
+  it('give the same couplings whichever is asked for first (each is found on first use)', () => {
+    const rng = new Random(8);
+    const orders = [['g1102', 'g0101', 'g1120'], ['g1120', 'g1102', 'g0101'], ['g1102'], ['g1120']] as const;
+    let compared = 0;
+    for (let Q = 0; Q < ctx.n; Q++) {
+      for (let k = 0; k < ctx.neighbours[Q].length; k++) {
+        const t = ctx.tables[ctx.neighbours[Q][k]];
+        for (const order of orders) {
+          // a position no slot holds yet: its first reads are in `order`
+          const f = t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform();
+          const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, t.at(f).f12, order);
+          for (const g of order) expect(remembered[g]).toBe(computed[g]);
+          expect(remembered.f1120).toBe(computed.f1120);
+          compared++;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
+  });
 });
 
 /** Gate scenarios of the planned edges, and the same with a neighbour of the mover moved onto the interaction point (rules break). */

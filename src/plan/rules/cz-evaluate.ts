@@ -421,30 +421,82 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
   }
 }
 
-/** The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them. */
-interface NeighbourCrossings {
+/**
+ * The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them.
+ * The 11-20 crossing's position is found at once (sweep tests whether it lies in the swept
+ * band); each coupling on first use, as neighbourCrossings computed it (the same table look-ups
+ * and the same products in the same order, so the same doubles): a sweep needs the coupling of a
+ * crossing only when the crossing lies inside its band, and most of a neighbour's crossings do
+ * not. Each look-up answers as a fresh one would (the tables' memos return what computing again
+ * gives), so the order in which couplings are asked for changes no value (tested).
+ */
+class NeighbourCrossings {
   /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table). */
-  f1120: number;
-  /** Couplings of the 01-01 (at X's f01), 11-20 (at f1120) and 11-02 (at X's f12) crossings. */
-  g0101: number;
-  g1120: number;
-  g1102: number;
+  readonly f1120: number;
+  private readonly G: number;
+  /** X's |<0|n|1>| and |<1|n|2>| at f01 (NaN until a coupling needs them). */
+  private n01x = NaN;
+  private n12x = NaN;
+  private g0101Value = NaN;
+  private g1120Value = NaN;
+  private g1102Value = NaN;
+  /** Bits: 1 g0101, 2 g1120, 4 g1102, 8 X's elements found. */
+  private known = 0;
+
+  constructor(
+    private readonly ctx: PlanContext,
+    private readonly Q: number,
+    private readonly X: number,
+    private readonly f01: number,
+    private readonly f12: number,
+  ) {
+    this.G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
+    const f = ctx.tables[Q].f01ForF12(f01);
+    this.f1120 = f === null ? NaN : f;
+  }
+
+  private partnerElements(): void {
+    if (this.known & 8) return;
+    const sx = this.ctx.tables[this.X].at(this.f01, scratchB);
+    this.n01x = sx.n01;
+    this.n12x = sx.n12;
+    this.known |= 8;
+  }
+
+  /** Coupling of the 01-01 crossing (at X's f01). */
+  get g0101(): number {
+    if (!(this.known & 1)) {
+      this.partnerElements();
+      this.g0101Value = this.G * this.ctx.tables[this.Q].at(this.f01, scratchA).n01 * this.n01x;
+      this.known |= 1;
+    }
+    return this.g0101Value;
+  }
+
+  /** Coupling of the 11-20 crossing (at f1120; NaN when there is none). */
+  get g1120(): number {
+    if (!(this.known & 2)) {
+      this.partnerElements();
+      this.g1120Value = Number.isNaN(this.f1120) ? NaN : this.G * this.ctx.tables[this.Q].at(this.f1120, scratchA).n12 * this.n01x;
+      this.known |= 2;
+    }
+    return this.g1120Value;
+  }
+
+  /** Coupling of the 11-02 crossing (at X's f12). */
+  get g1102(): number {
+    if (!(this.known & 4)) {
+      this.partnerElements();
+      this.g1102Value = this.G * this.ctx.tables[this.Q].at(this.f12, scratchA).n01 * this.n12x;
+      this.known |= 4;
+    }
+    return this.g1102Value;
+  }
 }
 
-/** The crossings of Q with X at (f01, f12) from the tables (what sweep computed inline before). */
+/** The crossings of Q with X at (f01, f12) from the tables (each coupling computed when first read). */
 function neighbourCrossings(ctx: PlanContext, Q: number, X: number, f01: number, f12: number): NeighbourCrossings {
-  const tq = ctx.tables[Q];
-  const G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
-  const sx = ctx.tables[X].at(f01, scratchB);
-  const n01x = sx.n01;
-  const n12x = sx.n12;
-  const f = tq.f01ForF12(f01);
-  return {
-    f1120: f === null ? NaN : f,
-    g0101: G * tq.at(f01, scratchA).n01 * n01x,
-    g1120: f === null ? NaN : G * tq.at(f, scratchA).n12 * n01x,
-    g1102: G * tq.at(f12, scratchA).n01 * n12x,
-  };
+  return new NeighbourCrossings(ctx, Q, X, f01, f12);
 }
 
 /** The mediated coupling of Q with next-nearest K at fk through `via` where freqOf has them (what sweep computed inline before). */
@@ -552,7 +604,28 @@ function crossingMemoOf(ctx: PlanContext): CrossingMemo {
   return m;
 }
 
-/** For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12), remembered and computed anew. */
-export function crossingCouplingsForTest(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): { remembered: NeighbourCrossings; computed: NeighbourCrossings } {
-  return { remembered: crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12), computed: neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12) };
+/** The crossing position and couplings of a NeighbourCrossings, read in the order given (for tests). */
+export interface CrossingValues {
+  f1120: number;
+  g0101: number;
+  g1120: number;
+  g1102: number;
+}
+
+/**
+ * For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12),
+ * remembered (its couplings read in the order `order`, e.g. ['g1102', 'g0101', 'g1120']) and
+ * computed anew (read in the order of the fields).
+ */
+export function crossingCouplingsForTest(
+  ctx: PlanContext, Q: number, k: number, f01: number, f12: number, order: readonly ('g0101' | 'g1120' | 'g1102')[] = ['g0101', 'g1120', 'g1102'],
+): { remembered: CrossingValues; computed: CrossingValues } {
+  const r = crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12);
+  const read: Partial<CrossingValues> = { f1120: r.f1120 };
+  for (const g of order) read[g] = r[g];
+  const c = neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12);
+  return {
+    remembered: { f1120: read.f1120!, g0101: read.g0101!, g1120: read.g1120!, g1102: read.g1102! },
+    computed: { f1120: c.f1120, g0101: c.g0101, g1120: c.g1120, g1102: c.g1102 },
+  };
 }
