@@ -52,6 +52,7 @@ import { sampledContext } from './sampled-context.js';
 import { recomputeBudget, type EdgeGateSource } from '../plan/verify-budget.js';
 import { budgetFindings } from '../plan/plan-budget.js';
 import { cycleBudget } from '../plan/cycle-budget.js';
+import { spectrumMemo } from '../plan/exact-memo.js';
 import type { LayerPlan } from '../plan/layers.js';
 import type { SampledSpectrum } from './sampled-spectrum.js';
 
@@ -330,7 +331,7 @@ export function evaluateFixed(
   }
   // The error budget's rules, as verify computes them for a plan without pulses (every gate
   // estimated: the pulse is re-tuned on the fabricated chip; src/plan/verify-budget.ts).
-  const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: ctx.transmons[i].spectrum(s.flux).df01dFluxGHz }));
+  const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: spectrumMemo(ctx, i, s.flux).df01dFluxGHz }));
   const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs } : { kind: 'none' }));
   const layerOf: number[] = [];
   for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
@@ -355,12 +356,21 @@ export function evaluateFixed(
   // (the gate budgets do not depend on the static ZZ: only the cycle is recomputed, as
   // recomputeBudget would with the same layers)
   if (refined) budget = { ...budget, cycle: cycleBudget(ctx, edgePlans, plan.layers, budgetStates, zz, budget.gates, budget.slotsNs) };
-  violations.push(...budgetFindings(ctx, edgePlans, budgetStates, budget));
+  // (messages off: the budget's findings without messages; messageOf writes one by evaluating
+  // the same budget's findings again with messages, the same findings in the same order)
+  const budgetFrom = violations.length;
+  const budgetOut = budgetFindings(ctx, edgePlans, budgetStates, budget, o.messages);
+  for (let j = 0; j < budgetOut.length; j++) violations.push(budgetOut[j]);
   // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
   // budget): the same findings as verify gives, which sorts them for people
   // (src/plan/rules/findings.ts sortFindings).
   const messageOf = (f: Finding): string => {
     const k = o.messages ? -1 : violations.indexOf(f);
+    if (k >= budgetFrom) {
+      const again = budgetFindings(ctx, edgePlans, budgetStates, budget)[k - budgetFrom];
+      if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge ?? f.qubits.join(', ')} was not found again`);
+      return again.message;
+    }
     if (k < 0 || originGate[k] === undefined) return f.message;
     const again = evaluateGate(ctx, originGate[k]).findings[originPlace[k]];
     if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);

@@ -66,12 +66,21 @@ export class TabulatedTransmon extends Transmon {
   }
 
   override spectrum(flux: number): SpectrumPoint {
+    return { ...this.sharedSpectrum(flux) };
+  }
+
+  /**
+   * spectrum(flux) without the copy: the remembered point itself, to be read, never changed
+   * (src/plan/exact-memo.ts spectrumMemo hands it out; its callers only read). Valid while this
+   * transmon is in use (a reused `work` empties the memo, it never changes a point).
+   */
+  sharedSpectrum(flux: number): Readonly<SpectrumPoint> {
     const memo = (this.work.spectra ??= new FluxMemo());
     const slot = memo.find(flux);
-    if (slot >= 0 && memo.points[slot]) return { ...memo.points[slot]! };
+    if (slot >= 0 && memo.points[slot]) return memo.points[slot]!;
     const p = this.computeSpectrum(flux);
     memo.points[memo.store(flux, slot)] = p;
-    return { ...p };
+    return p;
   }
 
   /** (the exact Transmon's central difference of the slope, of this class's slopes; remembered by flux) */

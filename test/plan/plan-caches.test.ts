@@ -27,7 +27,7 @@ import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
 import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
-import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
+import { crossingCouplingsForTest, evaluateGate, nextNearestCouplingForTest, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
 import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
@@ -95,6 +95,27 @@ describe('the sweep\'s remembered crossing couplings', () => {
         }
       }
     }
+  });
+
+  it('next-nearest: the remembered mediated coupling equals the one computed anew, through more mediator positions than a slot keeps', () => {
+    const rng = new Random(9);
+    let compared = 0;
+    for (let Q = 0; Q < ctx.n; Q++) {
+      for (let j = 0; j < ctx.nextNearestOf[Q].length; j++) {
+        const pair = ctx.nextNearest[ctx.nextNearestOf[Q][j]];
+        const K = pair.a === Q ? pair.b : pair.a;
+        const tk = ctx.tables[K];
+        const fk = tk.fLowGHz + (tk.fMaxGHz - tk.fLowGHz) * rng.uniform();
+        // eleven mediator positions (a slot keeps eight), each asked twice, then the first ones again
+        const positions = Array.from({ length: 11 }, () => new Map(pair.via.map((S) => [S, ctx.tables[S].fLowGHz + (ctx.tables[S].fMaxGHz - ctx.tables[S].fLowGHz) * rng.uniform()])));
+        for (const at of [...positions, ...positions, positions[0], positions[1]]) {
+          const { remembered, computed } = nextNearestCouplingForTest(ctx, Q, j, fk, at);
+          expect(remembered).toBe(computed);
+          compared++;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
   });
 
   it('give the same couplings whichever is asked for first (each is found on first use)', () => {

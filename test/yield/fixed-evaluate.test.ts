@@ -81,7 +81,7 @@ describe('evaluateFixed (the fast path) agrees with verifyPlan on drawn chips', 
 });
 
 describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
-  it('gives the same findings; messageOf writes each CZ finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
+  it('gives the same findings; messageOf writes each CZ and budget finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
     const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
     const spread = { rn: 0.06, ec: 0.05, g: 0.1 };
     const chip = nominalChip(layout, spread);
@@ -89,11 +89,15 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
     const table = sharedReducedSpectrum();
     const reuse: (SampledSpectrum | undefined)[] = [];
     let rewritten = 0;
+    const rewrittenRules = new Set<string>();
     for (let i = 0; i < 20; i++) {
       const drawn = drawChip(chip, 9, i);
       const off = evaluateFixed(chip, plan, drawn, table, { messages: false }, reuse);
       const filled = off.violations.map((f) => {
-        if (f.message === '') rewritten++;
+        if (f.message === '') {
+          rewritten++;
+          rewrittenRules.add(f.rule);
+        }
         return { ...f, message: off.messageOf(f) };
       });
       const outcomeOff = outcomeOf(chip.ctx, i, off.violations, null, null, off.messageOf);
@@ -102,5 +106,7 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
       expect(outcomeOff, `sample ${i}`).toEqual(outcomeOf(chip.ctx, i, on.violations, null));
     }
     expect(rewritten).toBeGreaterThan(10);
+    // the budget's findings are written on demand too (src/plan/plan-budget.ts budgetFindings)
+    expect([...rewrittenRules].filter((r) => r === 'gate-error' || r === 'idle-error').length, [...rewrittenRules].join(', ')).toBeGreaterThan(0);
   });
 });

@@ -95,6 +95,21 @@ describe('TabulatedTransmon memos', () => {
     }
   });
 
+  it('sharedSpectrum (what spectrumMemo lends) equals a fresh object\'s spectrum exactly, and stays so as more points are remembered', () => {
+    const p = { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 };
+    const tab = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    const xs = Array.from({ length: 200 }, (_, k) => (0.5 * ((k * 7919) % 200)) / 199);
+    const lent = xs.map((x) => tab.sharedSpectrum(x));
+    for (let round = 0; round < 2; round++) {
+      xs.forEach((x, k) => {
+        const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p).spectrum(x);
+        expect(tab.sharedSpectrum(x)).toEqual(fresh);
+        // a point lent earlier is never changed by later look-ups (the memo replaces, never rewrites)
+        expect(lent[k]).toEqual(fresh);
+      });
+    }
+  });
+
   it('a transmon taking over another\'s memos (a run\'s reuse) answers as a fresh one', () => {
     const work = new TabulatedWork();
     const first = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 }, {}, work);
