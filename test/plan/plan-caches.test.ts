@@ -33,7 +33,7 @@ import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
 import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
-import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
+import { idleTotalForTest, spectatorMovePairError } from '../../src/plan/gate-budget.js';
 import { ParkingState } from '../../src/plan/parking/state.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
@@ -333,6 +333,30 @@ describe('the remembered last gate estimate and pair move error', () => {
         expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: 2 * e.rampNs }, clove.states)).toBeGreaterThan(pair);
       }
     });
+  });
+});
+
+describe('the remembered idle error of a qubit (the pair part of the spectator-move term)', () => {
+  it('equals the idle error computed anew, for repeated, alternating and changed flux, frequency and time', () => {
+    const rng = new Random(12);
+    let changed = 0;
+    for (let k = 0; k < 60; k++) {
+      const q = rng.int(ctx.n);
+      const s = clove.states[q];
+      const t = [20, 20, 45][k % 3];
+      // the parking point, then a point nearby (another key for the same qubit), then parking again
+      const flux2 = Math.min(0.45, s.flux + 0.02 * rng.uniform());
+      const f2 = ctx.transmons[q].f01(flux2);
+      for (const [x, f] of [[s.flux, s.f01GHz], [s.flux, s.f01GHz], [flux2, f2], [s.flux, s.f01GHz]]) {
+        const { remembered, computed } = idleTotalForTest(ctx, q, x, f, t);
+        expect(remembered).toBe(computed);
+        expect(computed).toBeGreaterThan(0);
+      }
+      const { computed: other } = idleTotalForTest(ctx, q, s.flux, s.f01GHz, 2 * t);
+      if (other !== idleTotalForTest(ctx, q, s.flux, s.f01GHz, t).computed) changed++;
+    }
+    // a longer time is another answer (the memo does not hand out the old one: checked above)
+    expect(changed).toBeGreaterThan(30);
   });
 });
 

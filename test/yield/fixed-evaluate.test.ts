@@ -22,7 +22,8 @@ import { drawChip } from '../../src/yield/draw.js';
 import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
 import { outcomeOf } from '../../src/yield/outcome.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
-import { sampledLayout } from '../../src/yield/sampled-context.js';
+import { sampledContext, sampledLayout } from '../../src/yield/sampled-context.js';
+import { crossingCouplingsForTest } from '../../src/plan/rules/cz-evaluate.js';
 import type { FabricationSpread } from '../../src/yield/spread.js';
 import type { SampledSpectrum } from '../../src/yield/sampled-spectrum.js';
 
@@ -108,5 +109,33 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
     expect(rewritten).toBeGreaterThan(10);
     // the budget's findings are written on demand too (src/plan/plan-budget.ts budgetFindings)
     expect([...rewrittenRules].filter((r) => r === 'gate-error' || r === 'idle-error').length, [...rewrittenRules].join(', ')).toBeGreaterThan(0);
+  });
+});
+
+describe('the sweep\'s crossing memo shared by drawn chips of one structure', () => {
+  it('answers each drawn chip with its own couplings when chips take turns (never another chip\'s answer)', () => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
+    const chip = nominalChip(layout, { rn: 0.06, ec: 0.05, g: 0.1 });
+    const table = sharedReducedSpectrum();
+    // two drawn chips with spectra of their own (no reuse), sharing the nominal neighbour lists
+    const a = sampledContext(chip, drawChip(chip, 4, 0), table);
+    const b = sampledContext(chip, drawChip(chip, 4, 1), table);
+    expect(a.neighbours).toBe(b.neighbours);
+    let differ = 0;
+    for (let Q = 0; Q < a.n; Q++) {
+      for (let k = 0; k < a.neighbours[Q].length; k++) {
+        const X = a.neighbours[Q][k];
+        // the same key (f01, f12) for both chips: only the memo's owner tells their answers apart
+        const f = 0.5 * (a.tables[X].fLowGHz + a.tables[X].fMaxGHz);
+        const f12 = a.tables[X].at(f).f12;
+        for (const ctx of [a, b, a, a, b]) {
+          const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, f12);
+          expect(remembered).toEqual(computed);
+        }
+        if (crossingCouplingsForTest(a, Q, k, f, f12).computed.g0101 !== crossingCouplingsForTest(b, Q, k, f, f12).computed.g0101) differ++;
+      }
+    }
+    // the chips' couplings differ (a memo answering with the other chip's would fail above)
+    expect(differ).toBeGreaterThan(10);
   });
 });
