@@ -60,9 +60,10 @@ export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
   zzExactAbove: number;
   /**
-   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`; every
-   * other field as usual), and FixedEvaluation.messageOf writes one on demand. A yield run needs
-   * one message per failing chip (its outcome's reason) among hundreds of findings.
+   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`), and
+   * so do the cz-range and budget findings (every other field as usual); FixedEvaluation.messageOf
+   * writes one on demand. A yield run needs one message per failing chip (its outcome's reason)
+   * among hundreds of findings.
    */
   messages: boolean;
 }
@@ -193,7 +194,8 @@ export interface FixedEvaluation {
   /**
    * The message of finding `f` of `violations`: its own, or (messages off) the one evaluateGate
    * writes for it when its gate is evaluated again with messages (the same findings in the same
-   * order). Valid until the next evaluation with the same `reuse`.
+   * order), the one budgetFindings writes for it with messages, or a cz-range finding's written
+   * then. Valid until the next evaluation with the same `reuse`.
    */
   messageOf(f: Finding): string;
 }
@@ -255,6 +257,8 @@ export function evaluateFixed(
   // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
   const originGate: GateScenario[] = [];
   const originPlace: number[] = [];
+  // (messages off: the message of each cz-range finding, written on demand, by its index)
+  const later: (() => string)[] = [];
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -263,9 +267,9 @@ export function evaluateFixed(
     const range = ctx.ranges[mover];
     const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
     if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
-      const why = short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : '';
-      violations.push({ rule: 'cz-range', qubits: [ctx.ids[mover], ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key,
-        message: `${ctx.ids[mover]} cannot reach the ${fe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${why}` });
+      const message = () => `${ctx.ids[mover]} cannot reach the ${fe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : ''}`;
+      if (!o.messages) later[violations.length] = message;
+      violations.push({ rule: 'cz-range', qubits: [ctx.ids[mover], ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key, message: o.messages ? message() : '' });
       edgePlans[fe.edge] = stubPlan(fe.edge, mover, partner, fe.crossing);
       continue;
     }
@@ -276,7 +280,9 @@ export function evaluateFixed(
       const q = sp.qubit;
       const t = ctx.transmons[q];
       if (!(sp.fGHz >= ctx.ranges[q].lo - 1e-9 && sp.fGHz <= t.fMaxGHz + 1e-9)) {
-        violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range` });
+        const message = () => `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range`;
+        if (!o.messages) later[violations.length] = message;
+        violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: o.messages ? message() : '' });
         continue;
       }
       const st = (pointStates[sp.point] ??= stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz)));
@@ -371,6 +377,7 @@ export function evaluateFixed(
       if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge ?? f.qubits.join(', ')} was not found again`);
       return again.message;
     }
+    if (k >= 0 && later[k] !== undefined) return later[k]();
     if (k < 0 || originGate[k] === undefined) return f.message;
     const again = evaluateGate(ctx, originGate[k]).findings[originPlace[k]];
     if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);

@@ -82,7 +82,7 @@ describe('evaluateFixed (the fast path) agrees with verifyPlan on drawn chips', 
 });
 
 describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
-  it('gives the same findings; messageOf writes each CZ and budget finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
+  it('gives the same findings; messageOf writes each CZ, cz-range and budget finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
     const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
     const spread = { rn: 0.06, ec: 0.05, g: 0.1 };
     const chip = nominalChip(layout, spread);
@@ -107,7 +107,8 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
       expect(outcomeOff, `sample ${i}`).toEqual(outcomeOf(chip.ctx, i, on.violations, null));
     }
     expect(rewritten).toBeGreaterThan(10);
-    // the budget's findings are written on demand too (src/plan/plan-budget.ts budgetFindings)
+    // so are the cz-range findings' and the budget's (src/plan/plan-budget.ts budgetFindings)
+    expect(rewrittenRules.has('cz-range'), [...rewrittenRules].join(', ')).toBe(true);
     expect([...rewrittenRules].filter((r) => r === 'gate-error' || r === 'idle-error').length, [...rewrittenRules].join(', ')).toBeGreaterThan(0);
   });
 });
