@@ -111,8 +111,17 @@ export class TabulatedTransmon extends Transmon {
     return this.table.at(r, this.work.state).n01;
   }
 
+  /**
+   * (remembered by frequency: every gate's rules ask for its mover's flux at its parking and
+   * interaction frequencies; a stored NaN stands for null, and an answer of NaN is not stored)
+   */
   override fluxForF01OrNull(fGHz: number): number | null {
-    return this.inverse('e1', fGHz, this.fMinGHz, this.fMaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF01OrNull(fGHz));
+    const memo = (this.work.fluxes ??= new FluxMemo());
+    const slot = memo.find(fGHz);
+    if (slot >= 0) return Number.isNaN(memo.values[slot]) ? null : memo.values[slot];
+    const x = this.inverse('e1', fGHz, this.fMinGHz, this.fMaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF01OrNull(fGHz));
+    if (x === null || !Number.isNaN(x)) memo.values[memo.store(fGHz, slot)] = x ?? NaN;
+    return x;
   }
 
   override fluxForF12OrNull(fGHz: number): number | null {
@@ -144,11 +153,14 @@ export class TabulatedWork {
   readonly slopes = new Float64Array(5);
   spectra: FluxMemo | undefined = undefined;
   curvatures: FluxMemo | undefined = undefined;
+  /** fluxForF01OrNull by frequency (a FluxMemo keyed by f01 instead of flux). */
+  fluxes: FluxMemo | undefined = undefined;
 
   /** Empty the memos (for another transmon). */
   reset(): this {
     this.spectra?.keys.fill(NaN);
     this.curvatures?.keys.fill(NaN);
+    this.fluxes?.keys.fill(NaN);
     return this;
   }
 }
