@@ -160,7 +160,7 @@ const idleMemos = new WeakMap<PlanContext, IdleMemo>();
 function idleTotal(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: number): number {
   let m = idleMemos.get(ctx);
   if (!m) idleMemos.set(ctx, (m = new IdleMemo(ctx.n)));
-  // (Object.is: a NaN key never stands for an empty slot twice, and 0 and -0 stay apart)
+  // (Object.is keeps 0 and -0 apart; a NaN flux, also an empty slot's key, is never answered from the memo)
   if (Object.is(m.flux[q], flux) && Object.is(m.f01[q], f01GHz) && Object.is(m.tNs[q], tNs) && !Number.isNaN(flux)) return m.total[q];
   const total = idleAt(ctx, q, flux, f01GHz, tNs).total;
   m.flux[q] = flux;
