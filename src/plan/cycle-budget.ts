@@ -66,10 +66,18 @@ export function cycleBudget(
   slotsNs: readonly number[],
 ): CycleBudget {
   const r = ctx.rules;
+  // (the position in `edges` of each layout edge index, the first as findIndex gives it: a
+  // look-up, not a search of the list per gate of every layer)
+  const position = new Int32Array(ctx.edges.length).fill(-1);
+  for (let k = edges.length - 1; k >= 0; k--) {
+    const i = edges[k].edge;
+    if (Number.isInteger(i) && i >= 0 && i < position.length) position[i] = k;
+  }
+  const positionOf = (i: number): number => (Number.isInteger(i) && i >= 0 && i < position.length ? position[i] : edges.findIndex((e) => e.edge === i));
   const layerNs = layers.layers.map((list) => {
     let m = 0;
     for (const edgeIndex of list) {
-      const k = edges.findIndex((e) => e.edge === edgeIndex);
+      const k = positionOf(edgeIndex);
       if (k >= 0 && Number.isFinite(slotsNs[k])) m = Math.max(m, slotsNs[k]);
     }
     return m;

@@ -62,9 +62,21 @@ export function fluxForF01Memo(ctx: PlanContext, q: number, fGHz: number): numbe
   return v;
 }
 
-/** ctx.transmons[q].spectrum(flux), remembered (treat the result as read-only). */
+/** A transmon that lends out its own remembered spectrum points (src/yield/tabulated-transmon.ts). */
+interface SharedSpectrumSource {
+  sharedSpectrum(flux: number): Readonly<SpectrumPoint>;
+}
+
+/**
+ * ctx.transmons[q].spectrum(flux), remembered (treat the result as read-only). A tabulated
+ * transmon that remembers its points itself lends its own (the values spectrum() copies out).
+ */
 export function spectrumMemo(ctx: PlanContext, q: number, flux: number): SpectrumPoint {
-  if (ctx.transmons[q].tabulatedSpectrum) return ctx.transmons[q].spectrum(flux);
+  const t = ctx.transmons[q];
+  if (t.tabulatedSpectrum) {
+    const shared = (t as Partial<SharedSpectrumSource>).sharedSpectrum;
+    return shared ? (shared.call(t, flux) as SpectrumPoint) : t.spectrum(flux);
+  }
   const m = memoOf(ctx).spectrum;
   let v = m.get(q, flux);
   if (v === undefined) v = m.set(q, flux, ctx.transmons[q].spectrum(flux));

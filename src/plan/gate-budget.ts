@@ -129,10 +129,50 @@ export function spectatorMovePairError(ctx: PlanContext, e: Pick<EdgePlan, 'move
   const k = lastPairError;
   if (k !== null && k.ctx === ctx && k.mover === e.mover && k.partner === e.partner && k.rampNs === e.rampNs && k.fluxA === a.flux && k.fA === a.f01GHz && k.fluxB === b.flux && k.fB === b.f01GHz) return k.value;
   const extra = spectatorMovesNs(true, e.rampNs, ctx.rules);
-  const pair = idleAt(ctx, e.mover, a.flux, a.f01GHz, extra).total + idleAt(ctx, e.partner, b.flux, b.f01GHz, extra).total;
+  const pair = idleTotal(ctx, e.mover, a.flux, a.f01GHz, extra) + idleTotal(ctx, e.partner, b.flux, b.f01GHz, extra);
   const value = 1.2 * pair;
   lastPairError = { ctx, mover: e.mover, partner: e.partner, rampNs: e.rampNs, fluxA: a.flux, fA: a.f01GHz, fluxB: b.flux, fB: b.f01GHz, value };
   return value;
+}
+
+/**
+ * idleAt(...).total remembered per context and qubit for the last (flux, f01, time) it was asked
+ * for: a qubit is the mover or partner of several gates, each asking for its idle error at its
+ * parking over the same extra time (a yield run's drawn chip asks for every gate once). The value
+ * is the one computing it again gives (idleAt reads only these, the qubit's coherence and the
+ * context's rules; tested).
+ */
+class IdleMemo {
+  readonly flux: Float64Array;
+  readonly f01: Float64Array;
+  readonly tNs: Float64Array;
+  readonly total: Float64Array;
+  constructor(n: number) {
+    this.flux = new Float64Array(n).fill(NaN);
+    this.f01 = new Float64Array(n);
+    this.tNs = new Float64Array(n);
+    this.total = new Float64Array(n);
+  }
+}
+
+const idleMemos = new WeakMap<PlanContext, IdleMemo>();
+
+function idleTotal(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: number): number {
+  let m = idleMemos.get(ctx);
+  if (!m) idleMemos.set(ctx, (m = new IdleMemo(ctx.n)));
+  // (Object.is keeps 0 and -0 apart; a NaN flux, also an empty slot's key, is never answered from the memo)
+  if (Object.is(m.flux[q], flux) && Object.is(m.f01[q], f01GHz) && Object.is(m.tNs[q], tNs) && !Number.isNaN(flux)) return m.total[q];
+  const total = idleAt(ctx, q, flux, f01GHz, tNs).total;
+  m.flux[q] = flux;
+  m.f01[q] = f01GHz;
+  m.tNs[q] = tNs;
+  m.total[q] = total;
+  return total;
+}
+
+/** For tests: idleAt's total for qubit q as remembered and computed anew. */
+export function idleTotalForTest(ctx: PlanContext, q: number, flux: number, f01GHz: number, tNs: number): { remembered: number; computed: number } {
+  return { remembered: idleTotal(ctx, q, flux, f01GHz, tNs), computed: idleAt(ctx, q, flux, f01GHz, tNs).total };
 }
 
 let lastPairError: { ctx: PlanContext; mover: number; partner: number; rampNs: number; fluxA: number; fA: number; fluxB: number; fB: number; value: number } | null = null;

@@ -87,8 +87,14 @@ export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 
   return { gates, slotsNs, cycle };
 }
 
-/** Findings of the budget rules on a plan (budget.gates aligned with `edges`). */
-export function budgetFindings(ctx: PlanContext, edges: readonly EdgePlan[], states: readonly ExactQubitState[], budget: Pick<PlanBudget, 'gates' | 'cycle'>): Finding[] {
+/**
+ * Findings of the budget rules on a plan (budget.gates aligned with `edges`). `messages` false:
+ * the messages are left empty (every other field as usual; the same findings in the same order),
+ * for callers that need the message of few of them (a yield run: one per failing chip) and
+ * write it by calling again with messages.
+ */
+export function budgetFindings(ctx: PlanContext, edges: readonly EdgePlan[], states: readonly ExactQubitState[], budget: Pick<PlanBudget, 'gates' | 'cycle'>, messages = true): Finding[] {
+  const m = messages;
   const r = ctx.rules;
   const id = ctx.ids;
   const out: Finding[] = [];
@@ -96,7 +102,8 @@ export function budgetFindings(ctx: PlanContext, edges: readonly EdgePlan[], sta
     if (!b) return;
     const e = edges[k];
     const key = ctx.edges[e.edge].key;
-    if (b.total > r.gateErrorLimit) {
+    if (b.total > r.gateErrorLimit && !m) out.push({ rule: 'gate-error', qubits: [id[e.mover], id[e.partner]], value: b.total, threshold: r.gateErrorLimit, edge: key, message: '' });
+    else if (b.total > r.gateErrorLimit) {
       const parts: [string, number][] = [
         ['coherent', b.coherent], ['T1', b.t1], ['white dephasing', b.whiteDephasing], ['flux noise', b.fluxNoise],
         ['spectators', b.spectators], ['swept crossings', b.sweptCrossings], ['spectator moves', b.spectatorMoves],
@@ -114,6 +121,10 @@ export function budgetFindings(ctx: PlanContext, edges: readonly EdgePlan[], sta
   });
   budget.cycle.qubits.forEach((q, i) => {
     if (!(q.total > r.idleErrorLimit)) return;
+    if (!m) {
+      out.push({ rule: 'idle-error', qubits: [id[i]], value: q.total, threshold: r.idleErrorLimit, message: '' });
+      return;
+    }
     const s = states[i];
     const parts: [string, number][] = [['T1', q.t1], ['dephasing', q.dephasing], ['ZZ', q.zz], ['thermal', q.thermal]];
     parts.sort((x, y) => y[1] - x[1]);

@@ -57,7 +57,9 @@ export function recomputeBudget(
     }
     slotsNs.push(src.slotNs);
     if (src.kind === 'designed') return gateBudgetFromStage(ctx, e, states, src.stage(), src.waveform, src.slotNs);
-    return estimatedGateBudget(ctx, { ...e, durationNs: src.slotNs }, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs));
+    // (the plan over the slot: a copy only when its duration is another; estimatedGateBudget reads it and keeps nothing of it)
+    const over = Object.is(e.durationNs, src.slotNs) ? e : { ...e, durationNs: src.slotNs };
+    return estimatedGateBudget(ctx, over, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs));
   });
   // the layers the plan names, in order (an index out of line, e.g. 1e9, is a layer-index
   // finding of its own; the cycle counts the layers that exist, never an array that long)

@@ -52,6 +52,7 @@ import { sampledContext } from './sampled-context.js';
 import { recomputeBudget, type EdgeGateSource } from '../plan/verify-budget.js';
 import { budgetFindings } from '../plan/plan-budget.js';
 import { cycleBudget } from '../plan/cycle-budget.js';
+import { spectrumMemo } from '../plan/exact-memo.js';
 import type { LayerPlan } from '../plan/layers.js';
 import type { SampledSpectrum } from './sampled-spectrum.js';
 
@@ -59,9 +60,10 @@ export interface FixedOptions {
   /** The exact ZZ is computed where |estimate| exceeds this fraction of zzLimit. */
   zzExactAbove: number;
   /**
-   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`; every
-   * other field as usual), and FixedEvaluation.messageOf writes one on demand. A yield run needs
-   * one message per failing chip (its outcome's reason) among hundreds of findings.
+   * false: the CZ rules' findings come without messages (evaluateGate's `messages: false`), and
+   * so do the cz-range and budget findings (every other field as usual); FixedEvaluation.messageOf
+   * writes one on demand. A yield run needs one message per failing chip (its outcome's reason)
+   * among hundreds of findings.
    */
   messages: boolean;
 }
@@ -192,7 +194,8 @@ export interface FixedEvaluation {
   /**
    * The message of finding `f` of `violations`: its own, or (messages off) the one evaluateGate
    * writes for it when its gate is evaluated again with messages (the same findings in the same
-   * order). Valid until the next evaluation with the same `reuse`.
+   * order), the one budgetFindings writes for it with messages, or a cz-range finding's written
+   * then. Valid until the next evaluation with the same `reuse`.
    */
   messageOf(f: Finding): string;
 }
@@ -254,6 +257,8 @@ export function evaluateFixed(
   // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
   const originGate: GateScenario[] = [];
   const originPlace: number[] = [];
+  // (messages off: the message of each cz-range finding, written on demand, by its index)
+  const later: (() => string)[] = [];
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -262,9 +267,9 @@ export function evaluateFixed(
     const range = ctx.ranges[mover];
     const short = res && res.moverF01GHz >= range.lo - 1e-9 ? tuningRoomShortfall(range, states[mover].f01GHz, res.moverF01GHz, res.couplingGHz) : 0;
     if (!res || res.moverF01GHz < range.lo - 1e-9 || short > 0) {
-      const why = short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : '';
-      violations.push({ rule: 'cz-range', qubits: [ctx.ids[mover], ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key,
-        message: `${ctx.ids[mover]} cannot reach the ${fe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${why}` });
+      const message = () => `${ctx.ids[mover]} cannot reach the ${fe.crossing} crossing with ${ctx.ids[partner]} parked at ${ghz(parking[partner])}${short > 0 ? ` with room to tune past it (less than one splitting inside its planning range)` : ''}`;
+      if (!o.messages) later[violations.length] = message;
+      violations.push({ rule: 'cz-range', qubits: [ctx.ids[mover], ctx.ids[partner]], value: res?.moverF01GHz ?? null, threshold: null, edge: key, message: o.messages ? message() : '' });
       edgePlans[fe.edge] = stubPlan(fe.edge, mover, partner, fe.crossing);
       continue;
     }
@@ -275,7 +280,9 @@ export function evaluateFixed(
       const q = sp.qubit;
       const t = ctx.transmons[q];
       if (!(sp.fGHz >= ctx.ranges[q].lo - 1e-9 && sp.fGHz <= t.fMaxGHz + 1e-9)) {
-        violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range` });
+        const message = () => `${ctx.ids[q]}: spectator parking ${ghz(sp.fGHz)} for ${key} is outside its planning range`;
+        if (!o.messages) later[violations.length] = message;
+        violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: o.messages ? message() : '' });
         continue;
       }
       const st = (pointStates[sp.point] ??= stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz)));
@@ -330,7 +337,7 @@ export function evaluateFixed(
   }
   // The error budget's rules, as verify computes them for a plan without pulses (every gate
   // estimated: the pulse is re-tuned on the fabricated chip; src/plan/verify-budget.ts).
-  const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: ctx.transmons[i].spectrum(s.flux).df01dFluxGHz }));
+  const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: spectrumMemo(ctx, i, s.flux).df01dFluxGHz }));
   const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs } : { kind: 'none' }));
   const layerOf: number[] = [];
   for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
@@ -355,12 +362,22 @@ export function evaluateFixed(
   // (the gate budgets do not depend on the static ZZ: only the cycle is recomputed, as
   // recomputeBudget would with the same layers)
   if (refined) budget = { ...budget, cycle: cycleBudget(ctx, edgePlans, plan.layers, budgetStates, zz, budget.gates, budget.slotsNs) };
-  violations.push(...budgetFindings(ctx, edgePlans, budgetStates, budget));
+  // (messages off: the budget's findings without messages; messageOf writes one by evaluating
+  // the same budget's findings again with messages, the same findings in the same order)
+  const budgetFrom = violations.length;
+  const budgetOut = budgetFindings(ctx, edgePlans, budgetStates, budget, o.messages);
+  for (let j = 0; j < budgetOut.length; j++) violations.push(budgetOut[j]);
   // In evaluation order (idle rules, then edge by edge in layout order, then layers, then the
   // budget): the same findings as verify gives, which sorts them for people
   // (src/plan/rules/findings.ts sortFindings).
   const messageOf = (f: Finding): string => {
     const k = o.messages ? -1 : violations.indexOf(f);
+    if (k >= budgetFrom) {
+      const again = budgetFindings(ctx, edgePlans, budgetStates, budget)[k - budgetFrom];
+      if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge ?? f.qubits.join(', ')} was not found again`);
+      return again.message;
+    }
+    if (k >= 0 && later[k] !== undefined) return later[k]();
     if (k < 0 || originGate[k] === undefined) return f.message;
     const again = evaluateGate(ctx, originGate[k]).findings[originPlace[k]];
     if (again?.rule !== f.rule) throw new Error(`evaluateFixed: the ${f.rule} finding on ${f.edge} was not found again`);

@@ -66,12 +66,21 @@ export class TabulatedTransmon extends Transmon {
   }
 
   override spectrum(flux: number): SpectrumPoint {
+    return { ...this.sharedSpectrum(flux) };
+  }
+
+  /**
+   * spectrum(flux) without the copy: the remembered point itself, to be read, never changed
+   * (src/plan/exact-memo.ts spectrumMemo hands it out; its callers only read). Valid while this
+   * transmon is in use (a reused `work` empties the memo, it never changes a point).
+   */
+  sharedSpectrum(flux: number): Readonly<SpectrumPoint> {
     const memo = (this.work.spectra ??= new FluxMemo());
     const slot = memo.find(flux);
-    if (slot >= 0 && memo.points[slot]) return { ...memo.points[slot]! };
+    if (slot >= 0 && memo.points[slot]) return memo.points[slot]!;
     const p = this.computeSpectrum(flux);
     memo.points[memo.store(flux, slot)] = p;
-    return { ...p };
+    return p;
   }
 
   /** (the exact Transmon's central difference of the slope, of this class's slopes; remembered by flux) */
@@ -102,8 +111,17 @@ export class TabulatedTransmon extends Transmon {
     return this.table.at(r, this.work.state).n01;
   }
 
+  /**
+   * (remembered by frequency: every gate's rules ask for its mover's flux at its parking and
+   * interaction frequencies; a stored NaN stands for null, and an answer of NaN is not stored)
+   */
   override fluxForF01OrNull(fGHz: number): number | null {
-    return this.inverse('e1', fGHz, this.fMinGHz, this.fMaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF01OrNull(fGHz));
+    const memo = (this.work.fluxes ??= new FluxMemo());
+    const slot = memo.find(fGHz);
+    if (slot >= 0) return Number.isNaN(memo.values[slot]) ? null : memo.values[slot];
+    const x = this.inverse('e1', fGHz, this.fMinGHz, this.fMaxGHz) ?? (this.tableSpansRange() ? null : super.fluxForF01OrNull(fGHz));
+    if (x === null || !Number.isNaN(x)) memo.values[memo.store(fGHz, slot)] = x ?? NaN;
+    return x;
   }
 
   override fluxForF12OrNull(fGHz: number): number | null {
@@ -135,11 +153,14 @@ export class TabulatedWork {
   readonly slopes = new Float64Array(5);
   spectra: FluxMemo | undefined = undefined;
   curvatures: FluxMemo | undefined = undefined;
+  /** fluxForF01OrNull by frequency (a FluxMemo keyed by f01 instead of flux). */
+  fluxes: FluxMemo | undefined = undefined;
 
   /** Empty the memos (for another transmon). */
   reset(): this {
     this.spectra?.keys.fill(NaN);
     this.curvatures?.keys.fill(NaN);
+    this.fluxes?.keys.fill(NaN);
     return this;
   }
 }

@@ -27,13 +27,13 @@ import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
 import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
-import { crossingCouplingsForTest, evaluateGate, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
+import { crossingCouplingsForTest, evaluateGate, nextNearestCouplingForTest, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
 import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
-import { spectatorMovePairError } from '../../src/plan/gate-budget.js';
+import { idleTotalForTest, spectatorMovePairError } from '../../src/plan/gate-budget.js';
 import { ParkingState } from '../../src/plan/parking/state.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
@@ -95,6 +95,47 @@ describe('the sweep\'s remembered crossing couplings', () => {
         }
       }
     }
+  });
+
+  it('next-nearest: the remembered mediated coupling equals the one computed anew, through more mediator positions than a slot keeps', () => {
+    const rng = new Random(9);
+    let compared = 0;
+    for (let Q = 0; Q < ctx.n; Q++) {
+      for (let j = 0; j < ctx.nextNearestOf[Q].length; j++) {
+        const pair = ctx.nextNearest[ctx.nextNearestOf[Q][j]];
+        const K = pair.a === Q ? pair.b : pair.a;
+        const tk = ctx.tables[K];
+        const fk = tk.fLowGHz + (tk.fMaxGHz - tk.fLowGHz) * rng.uniform();
+        // eleven mediator positions (a slot keeps eight), each asked twice, then the first ones again
+        const positions = Array.from({ length: 11 }, () => new Map(pair.via.map((S) => [S, ctx.tables[S].fLowGHz + (ctx.tables[S].fMaxGHz - ctx.tables[S].fLowGHz) * rng.uniform()])));
+        for (const at of [...positions, ...positions, positions[0], positions[1]]) {
+          const { remembered, computed } = nextNearestCouplingForTest(ctx, Q, j, fk, at);
+          expect(remembered).toBe(computed);
+          compared++;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
+  });
+
+  it('give the same couplings whichever is asked for first (each is found on first use)', () => {
+    const rng = new Random(8);
+    const orders = [['g1102', 'g0101', 'g1120'], ['g1120', 'g1102', 'g0101'], ['g1102'], ['g1120']] as const;
+    let compared = 0;
+    for (let Q = 0; Q < ctx.n; Q++) {
+      for (let k = 0; k < ctx.neighbours[Q].length; k++) {
+        const t = ctx.tables[ctx.neighbours[Q][k]];
+        for (const order of orders) {
+          // a position no slot holds yet: its first reads are in `order`
+          const f = t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform();
+          const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, t.at(f).f12, order);
+          for (const g of order) expect(remembered[g]).toBe(computed[g]);
+          expect(remembered.f1120).toBe(computed.f1120);
+          compared++;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(100);
   });
 });
 
@@ -292,6 +333,30 @@ describe('the remembered last gate estimate and pair move error', () => {
         expect(spectatorMovePairError(ctx, { mover: e.mover, partner: e.partner, rampNs: 2 * e.rampNs }, clove.states)).toBeGreaterThan(pair);
       }
     });
+  });
+});
+
+describe('the remembered idle error of a qubit (the pair part of the spectator-move term)', () => {
+  it('equals the idle error computed anew, for repeated, alternating and changed flux, frequency and time', () => {
+    const rng = new Random(12);
+    let changed = 0;
+    for (let k = 0; k < 60; k++) {
+      const q = rng.int(ctx.n);
+      const s = clove.states[q];
+      const t = [20, 20, 45][k % 3];
+      // the parking point, then a point nearby (another key for the same qubit), then parking again
+      const flux2 = Math.min(0.45, s.flux + 0.02 * rng.uniform());
+      const f2 = ctx.transmons[q].f01(flux2);
+      for (const [x, f] of [[s.flux, s.f01GHz], [s.flux, s.f01GHz], [flux2, f2], [s.flux, s.f01GHz]]) {
+        const { remembered, computed } = idleTotalForTest(ctx, q, x, f, t);
+        expect(remembered).toBe(computed);
+        expect(computed).toBeGreaterThan(0);
+      }
+      const { computed: other } = idleTotalForTest(ctx, q, s.flux, s.f01GHz, 2 * t);
+      if (other !== idleTotalForTest(ctx, q, s.flux, s.f01GHz, t).computed) changed++;
+    }
+    // a longer time is another answer (the memo does not hand out the old one: checked above)
+    expect(changed).toBeGreaterThan(30);
   });
 });
 

@@ -22,7 +22,8 @@ import { drawChip } from '../../src/yield/draw.js';
 import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
 import { outcomeOf } from '../../src/yield/outcome.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
-import { sampledLayout } from '../../src/yield/sampled-context.js';
+import { sampledContext, sampledLayout } from '../../src/yield/sampled-context.js';
+import { crossingCouplingsForTest } from '../../src/plan/rules/cz-evaluate.js';
 import type { FabricationSpread } from '../../src/yield/spread.js';
 import type { SampledSpectrum } from '../../src/yield/sampled-spectrum.js';
 
@@ -81,7 +82,7 @@ describe('evaluateFixed (the fast path) agrees with verifyPlan on drawn chips', 
 });
 
 describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
-  it('gives the same findings; messageOf writes each CZ finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
+  it('gives the same findings; messageOf writes each CZ, cz-range and budget finding\'s message exactly as the evaluation with messages, and the outcome is the same', () => {
     const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
     const spread = { rn: 0.06, ec: 0.05, g: 0.1 };
     const chip = nominalChip(layout, spread);
@@ -89,11 +90,15 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
     const table = sharedReducedSpectrum();
     const reuse: (SampledSpectrum | undefined)[] = [];
     let rewritten = 0;
+    const rewrittenRules = new Set<string>();
     for (let i = 0; i < 20; i++) {
       const drawn = drawChip(chip, 9, i);
       const off = evaluateFixed(chip, plan, drawn, table, { messages: false }, reuse);
       const filled = off.violations.map((f) => {
-        if (f.message === '') rewritten++;
+        if (f.message === '') {
+          rewritten++;
+          rewrittenRules.add(f.rule);
+        }
         return { ...f, message: off.messageOf(f) };
       });
       const outcomeOff = outcomeOf(chip.ctx, i, off.violations, null, null, off.messageOf);
@@ -102,5 +107,36 @@ describe('evaluateFixed without messages (the yield run\'s hot path)', () => {
       expect(outcomeOff, `sample ${i}`).toEqual(outcomeOf(chip.ctx, i, on.violations, null));
     }
     expect(rewritten).toBeGreaterThan(10);
+    // so are the cz-range findings' and the budget's (src/plan/plan-budget.ts budgetFindings)
+    expect(rewrittenRules.has('cz-range'), [...rewrittenRules].join(', ')).toBe(true);
+    expect([...rewrittenRules].filter((r) => r === 'gate-error' || r === 'idle-error').length, [...rewrittenRules].join(', ')).toBeGreaterThan(0);
+  });
+});
+
+describe('the sweep\'s crossing memo shared by drawn chips of one structure', () => {
+  it('answers each drawn chip with its own couplings when chips take turns (never another chip\'s answer)', () => {
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 3, cols: 3, seed: 2 })), 'g.yaml');
+    const chip = nominalChip(layout, { rn: 0.06, ec: 0.05, g: 0.1 });
+    const table = sharedReducedSpectrum();
+    // two drawn chips with spectra of their own (no reuse), sharing the nominal neighbour lists
+    const a = sampledContext(chip, drawChip(chip, 4, 0), table);
+    const b = sampledContext(chip, drawChip(chip, 4, 1), table);
+    expect(a.neighbours).toBe(b.neighbours);
+    let differ = 0;
+    for (let Q = 0; Q < a.n; Q++) {
+      for (let k = 0; k < a.neighbours[Q].length; k++) {
+        const X = a.neighbours[Q][k];
+        // the same key (f01, f12) for both chips: only the memo's owner tells their answers apart
+        const f = 0.5 * (a.tables[X].fLowGHz + a.tables[X].fMaxGHz);
+        const f12 = a.tables[X].at(f).f12;
+        for (const ctx of [a, b, a, a, b]) {
+          const { remembered, computed } = crossingCouplingsForTest(ctx, Q, k, f, f12);
+          expect(remembered).toEqual(computed);
+        }
+        if (crossingCouplingsForTest(a, Q, k, f, f12).computed.g0101 !== crossingCouplingsForTest(b, Q, k, f, f12).computed.g0101) differ++;
+      }
+    }
+    // the chips' couplings differ (a memo answering with the other chip's would fail above)
+    expect(differ).toBeGreaterThan(10);
   });
 });

@@ -95,17 +95,53 @@ describe('TabulatedTransmon memos', () => {
     }
   });
 
+  it('sharedSpectrum (what spectrumMemo lends) equals a fresh object\'s spectrum exactly, and stays so as more points are remembered', () => {
+    const p = { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 };
+    const tab = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    const xs = Array.from({ length: 200 }, (_, k) => (0.5 * ((k * 7919) % 200)) / 199);
+    const lent = xs.map((x) => tab.sharedSpectrum(x));
+    for (let round = 0; round < 2; round++) {
+      xs.forEach((x, k) => {
+        const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p).spectrum(x);
+        expect(tab.sharedSpectrum(x)).toEqual(fresh);
+        // a point lent earlier is never changed by later look-ups (the memo replaces, never rewrites)
+        expect(lent[k]).toEqual(fresh);
+      });
+    }
+  });
+
+  it('fluxForF01OrNull of frequencies inside and outside the range, asked three times over, equals a fresh object\'s answer (null included)', () => {
+    const p = { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 };
+    const tab = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
+    const lo = tab.fMinGHz;
+    const hi = tab.fMaxGHz;
+    // 200 frequencies from 0.2 GHz below the range to 0.2 GHz above it
+    const fs = Array.from({ length: 200 }, (_, k) => lo - 0.2 + ((hi - lo + 0.4) * ((k * 7919) % 200)) / 199);
+    let nulls = 0;
+    for (let round = 0; round < 3; round++) {
+      for (const f of fs) {
+        const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p).fluxForF01OrNull(f);
+        expect(tab.fluxForF01OrNull(f)).toBe(fresh);
+        if (fresh === null) nulls++;
+      }
+    }
+    expect(nulls).toBeGreaterThan(10);
+    expect(nulls).toBeLessThan(3 * fs.length - 10);
+  });
+
   it('a transmon taking over another\'s memos (a run\'s reuse) answers as a fresh one', () => {
     const work = new TabulatedWork();
     const first = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', { ecGHz: 0.205, ejsGHz: 23.3, asymmetry: 0.28 }, {}, work);
     const xs = [0, 0.013, 0.2, 0.31, 0.5];
-    for (const x of xs) first.spectrum(x), first.fluxCurvatureGHz(x);
+    for (const x of xs) first.spectrum(x), first.fluxCurvatureGHz(x), first.fluxForF01OrNull(first.f01(x));
     const p = { ecGHz: 0.198, ejsGHz: 24.9, asymmetry: 0.33 };
     const second = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p, {}, work);
     const fresh = new TabulatedTransmon(sharedReducedSpectrum(), 'Q', p);
     for (const x of xs) {
       expect(second.spectrum(x)).toEqual(fresh.spectrum(x));
       expect(second.fluxCurvatureGHz(x)).toBe(fresh.fluxCurvatureGHz(x));
+      // the first transmon's frequencies asked of the second (its own flux, or null)
+      expect(second.fluxForF01OrNull(first.f01(x))).toBe(fresh.fluxForF01OrNull(first.f01(x)));
     }
   });
 });

@@ -219,7 +219,7 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
   const moverRate = (hi - lo) / s.rampNs;
   sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
-  for (const [P, d] of [...s.parked.entries()].sort((x, y) => x[0] - y[0])) {
+  for (const [P, d] of parkedByQubit(s.parked)) {
     // (the screened spectator's own block reads its point throughout: one unit, never remembered)
     const own = sc !== undefined && P === sc.P;
     if (own) sc.unit++;
@@ -274,6 +274,21 @@ export function evaluateGate(ctx: PlanContext, s: GateScenario, options: Evaluat
   }
   return { findings, swept, durationNs };
 }
+
+/**
+ * The parked spectators in ascending qubit order (the keys are distinct, so any sort gives this
+ * order; a map filled in that order, as most are, is not sorted again).
+ */
+function parkedByQubit(parked: ReadonlyMap<number, DuringGate>): [number, DuringGate][] {
+  if (parked.size === 0) return NO_PARKED;
+  const out = [...parked.entries()];
+  for (let k = 1; k < out.length; k++) {
+    if (out[k - 1][0] > out[k][0]) return out.sort((x, y) => x[0] - y[0]);
+  }
+  return out;
+}
+
+const NO_PARKED: [number, DuringGate][] = [];
 
 /** The slot of a gate scenario by the shared duration model (./cz-duration.ts): evaluateGate's durationNs. */
 export function gateSlotNs(ctx: PlanContext, s: GateScenario): number {
@@ -339,9 +354,8 @@ function sweep(
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
   if (!(hi - lo > 1e-9)) return;
-  const id = ctx.ids;
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
-  // large chip; `what` names the crossing in a message, built only for a finding)
+  // large chip; a crossing's kind names it in a message, built only for a finding)
   const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
   const memo = crossingMemoOf(ctx);
   const nq = ctx.neighbours[Q];
@@ -357,12 +371,12 @@ function sweep(
     const blame = isMover && X === s.partner ? -1 : isMover ? X : Q;
     // the crossings with X where it stands and their couplings (remembered: X usually stands at its parking)
     const c = memo.neighbour(ctx, Q, k, x.f01GHz, x.f12GHz);
-    if (insideSweep(x.f01GHz, lo, hi)) recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, c.g0101, blame, () => `${id[X]} f01 (01-10 crossing)`);
+    if (insideSweep(x.f01GHz, lo, hi)) recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, c.g0101, blame, CROSSING_0101);
     const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
     const f1120 = c.f1120;
-    if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, () => `the 11-20 crossing with ${id[X]}`);
-    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, () => `the 11-02 crossing with ${id[X]}`);
+    if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, CROSSING_1120);
+    if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, CROSSING_1102);
     if (reuse) sc.record(u, findings, f0, swept, s0);
   }
   const nn = ctx.nextNearestOf[Q];
@@ -378,13 +392,13 @@ function sweep(
     const fk = freqOf(K).f01GHz;
     if (insideSweep(fk, lo, hi)) {
       const g = memo.nextNearest(ctx, Q, j, K, fk, pair.via, freqOf);
-      recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, () => `next-nearest ${id[K]} (via ${pair.via.map((v) => id[v]).join(', ')})`);
+      recordCrossing(sw, 'cz-swept-next-01-01', K, fk, g, isMover ? K : Q, CROSSING_NEXT, pair.via);
     }
     if (reuse) sc.record(u, findings, f0, swept, s0);
   }
   for (const t of ctx.qubits[Q].tls) {
     if (!insideSweep(t.atGHz, lo, hi)) continue;
-    recordCrossing(sw, 'cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, () => 'its defect');
+    recordCrossing(sw, 'cz-swept-tls', -1, t.atGHz, t.widthGHz / 2, -1, CROSSING_TLS);
   }
 }
 
@@ -400,13 +414,37 @@ interface SweepRecord {
   messages: boolean;
 }
 
+/** What a swept crossing is, for its message (codes, not closures: a sweep records thousands of crossings and a message is written for few). */
+type CrossingKind = 0 | 1 | 2 | 3 | 4;
+const CROSSING_0101 = 0;
+const CROSSING_1120 = 1;
+const CROSSING_1102 = 2;
+const CROSSING_NEXT = 3;
+const CROSSING_TLS = 4;
+
+/** The crossing's name in a message (`other`: the qubit met; `via`: the mediators of a next-nearest one). */
+function crossingName(id: readonly string[], kind: CrossingKind, other: number, via: readonly number[] | undefined): string {
+  switch (kind) {
+    case CROSSING_0101:
+      return `${id[other]} f01 (01-10 crossing)`;
+    case CROSSING_1120:
+      return `the 11-20 crossing with ${id[other]}`;
+    case CROSSING_1102:
+      return `the 11-02 crossing with ${id[other]}`;
+    case CROSSING_NEXT:
+      return `next-nearest ${id[other]} (via ${via!.map((v) => id[v]).join(', ')})`;
+    default:
+      return 'its defect';
+  }
+}
+
 /** A crossing strictly inside the swept band (lo, hi), 1 Hz margins. */
 function insideSweep(f: number, lo: number, hi: number): boolean {
   return f > lo + 1e-9 && f < hi - 1e-9;
 }
 
 /** Record a crossing the sweep passes, with its Landau-Zener transfer; a finding when the transfer breaks the limit. */
-function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: () => string): void {
+function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: CrossingKind, via?: readonly number[]): void {
   const { ctx, Q, lo, hi, rate } = sw;
   const m = sw.messages;
   const id = ctx.ids;
@@ -415,51 +453,110 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
   sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
   if (transfer > limit) {
     sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
-      message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${what()} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',
+      message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${crossingName(id, what, other, via)} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',
       details: { atGHz: at, couplingGHz: g, rateHzPerS: rate * 1e18 },
       blame });
   }
 }
 
-/** The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them. */
-interface NeighbourCrossings {
+/**
+ * The crossings of a sweeping qubit Q with neighbour X standing at (f01, f12), as sweep uses them.
+ * The 11-20 crossing's position is found at once (sweep tests whether it lies in the swept
+ * band); each coupling on first use, as neighbourCrossings computed it (the same table look-ups
+ * and the same products in the same order, so the same doubles): a sweep needs the coupling of a
+ * crossing only when the crossing lies inside its band, and most of a neighbour's crossings do
+ * not. Each look-up answers as a fresh one would (the tables' memos return what computing again
+ * gives), so the order in which couplings are asked for changes no value (tested).
+ */
+class NeighbourCrossings {
   /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table). */
-  f1120: number;
-  /** Couplings of the 01-01 (at X's f01), 11-20 (at f1120) and 11-02 (at X's f12) crossings. */
-  g0101: number;
-  g1120: number;
-  g1102: number;
+  readonly f1120: number;
+  private readonly G: number;
+  /** X's |<0|n|1>| and |<1|n|2>| at f01 (NaN until a coupling needs them). */
+  private n01x = NaN;
+  private n12x = NaN;
+  private g0101Value = NaN;
+  private g1120Value = NaN;
+  private g1102Value = NaN;
+  /** Bits: 1 g0101, 2 g1120, 4 g1102, 8 X's elements found. */
+  private known = 0;
+
+  constructor(
+    private readonly ctx: PlanContext,
+    private readonly Q: number,
+    private readonly X: number,
+    private readonly f01: number,
+    private readonly f12: number,
+  ) {
+    this.G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
+    const f = ctx.tables[Q].f01ForF12(f01);
+    this.f1120 = f === null ? NaN : f;
+  }
+
+  private partnerElements(): void {
+    if (this.known & 8) return;
+    const sx = this.ctx.tables[this.X].at(this.f01, scratchB);
+    this.n01x = sx.n01;
+    this.n12x = sx.n12;
+    this.known |= 8;
+  }
+
+  /** Coupling of the 01-01 crossing (at X's f01). */
+  get g0101(): number {
+    if (!(this.known & 1)) {
+      this.partnerElements();
+      this.g0101Value = this.G * this.ctx.tables[this.Q].at(this.f01, scratchA).n01 * this.n01x;
+      this.known |= 1;
+    }
+    return this.g0101Value;
+  }
+
+  /** Coupling of the 11-20 crossing (at f1120; NaN when there is none). */
+  get g1120(): number {
+    if (!(this.known & 2)) {
+      this.partnerElements();
+      this.g1120Value = Number.isNaN(this.f1120) ? NaN : this.G * this.ctx.tables[this.Q].at(this.f1120, scratchA).n12 * this.n01x;
+      this.known |= 2;
+    }
+    return this.g1120Value;
+  }
+
+  /** Coupling of the 11-02 crossing (at X's f12). */
+  get g1102(): number {
+    if (!(this.known & 4)) {
+      this.partnerElements();
+      this.g1102Value = this.G * this.ctx.tables[this.Q].at(this.f12, scratchA).n01 * this.n12x;
+      this.known |= 4;
+    }
+    return this.g1102Value;
+  }
 }
 
-/** The crossings of Q with X at (f01, f12) from the tables (what sweep computed inline before). */
+/** The crossings of Q with X at (f01, f12) from the tables (each coupling computed when first read). */
 function neighbourCrossings(ctx: PlanContext, Q: number, X: number, f01: number, f12: number): NeighbourCrossings {
-  const tq = ctx.tables[Q];
-  const G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
-  const sx = ctx.tables[X].at(f01, scratchB);
-  const n01x = sx.n01;
-  const n12x = sx.n12;
-  const f = tq.f01ForF12(f01);
-  return {
-    f1120: f === null ? NaN : f,
-    g0101: G * tq.at(f01, scratchA).n01 * n01x,
-    g1120: f === null ? NaN : G * tq.at(f, scratchA).n12 * n01x,
-    g1102: G * tq.at(f12, scratchA).n01 * n12x,
-  };
+  return new NeighbourCrossings(ctx, Q, X, f01, f12);
 }
 
 /** The mediated coupling of Q with next-nearest K at fk through `via` where freqOf has them (what sweep computed inline before). */
 function nextNearestCoupling(ctx: PlanContext, Q: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
   const nq = ctx.tables[Q].at(fk, scratchA).n01;
   const nk = ctx.tables[K].at(fk, scratchB).n01;
-  const mediators: Mediator[] = via.map((S) => {
+  // (scratch mediators, one list per count: mediatedExchange only reads them during the call)
+  const mediators = (SCRATCH_MEDIATORS[via.length] ??= Array.from({ length: via.length }, () => ({ giGHz: 0, gkGHz: 0, fGHz: 0 })));
+  for (let v = 0; v < via.length; v++) {
+    const S = via[v];
     const fs = freqOf(S).f01GHz;
     const ns = ctx.tables[S].at(fs, scratchB).n01;
-    const gq = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
-    const gk = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
-    return { giGHz: gq, gkGHz: gk, fGHz: fs };
-  });
+    const m = mediators[v];
+    m.giGHz = ctx.edges[ctx.edgeBetween(Q, S)].gChargeGHz * nq * ns;
+    m.gkGHz = ctx.edges[ctx.edgeBetween(K, S)].gChargeGHz * nk * ns;
+    m.fGHz = fs;
+  }
   return Math.abs(mediatedExchange(fk, fk, mediators));
 }
+
+/** nextNearestCoupling's mediator lists by length (single-threaded use, read within one call). */
+const SCRATCH_MEDIATORS: Mediator[][] = [];
 
 /** Answers remembered per sweeping qubit and neighbour (slot) or next-nearest pair. */
 const CROSSING_MEMO_WAYS = 8;
@@ -477,12 +574,32 @@ class CrossingMemo {
   private readonly keys: Float64Array;
   private readonly values: NeighbourCrossings[];
   private readonly next: Uint8Array;
-  private readonly nnKeys: (number[] | undefined)[];
+  /**
+   * Next-nearest keys, `nnWidth` doubles per way (fk, then each mediator's f01), and how many of
+   * them a way holds (0: empty). Typed arrays, not a key array per answer: a drawn chip's sweeps
+   * fill thousands of ways.
+   */
+  private readonly nnKeys: Float64Array;
+  private readonly nnLength: Uint8Array;
+  private readonly nnWidth: number;
+  /** The key being looked up. */
+  private readonly nnProbe: Float64Array;
   private readonly nnValues: Float64Array;
   private readonly nnNext: Uint8Array;
 
+  /** The context whose answers the memo holds. */
+  private owner: PlanContext;
+  /** The structure the slots are laid out on (shared by a yield run's drawn chips). */
+  readonly neighbours: PlanContext['neighbours'];
+  readonly nextNearestOf: PlanContext['nextNearestOf'];
+  readonly nextNearestPairs: PlanContext['nextNearest'];
+
   constructor(ctx: PlanContext) {
     const n = ctx.n;
+    this.owner = ctx;
+    this.neighbours = ctx.neighbours;
+    this.nextNearestOf = ctx.nextNearestOf;
+    this.nextNearestPairs = ctx.nextNearest;
     this.slotOf = new Int32Array(n + 1);
     this.nnSlotOf = new Int32Array(n + 1);
     for (let q = 0; q < n; q++) {
@@ -494,9 +611,26 @@ class CrossingMemo {
     this.values = new Array<NeighbourCrossings>(slots * CROSSING_MEMO_WAYS);
     this.next = new Uint8Array(slots);
     const nnSlots = this.nnSlotOf[n];
-    this.nnKeys = new Array<number[] | undefined>(nnSlots * CROSSING_MEMO_WAYS);
+    let width = 1;
+    for (const pair of ctx.nextNearest) width = Math.max(width, pair.via.length + 1);
+    this.nnWidth = width;
+    this.nnProbe = new Float64Array(width);
+    this.nnKeys = new Float64Array(nnSlots * CROSSING_MEMO_WAYS * width);
+    this.nnLength = new Uint8Array(nnSlots * CROSSING_MEMO_WAYS);
     this.nnValues = new Float64Array(nnSlots * CROSSING_MEMO_WAYS);
     this.nnNext = new Uint8Array(nnSlots);
+  }
+
+  /** The memo for `ctx`: this one, emptied when it held another context's answers (same structure). */
+  takeOver(ctx: PlanContext): this {
+    if (this.owner === ctx) return this;
+    this.owner = ctx;
+    this.keys.fill(NaN);
+    this.values.fill(undefined as unknown as NeighbourCrossings);
+    this.next.fill(0);
+    this.nnLength.fill(0);
+    this.nnNext.fill(0);
+    return this;
   }
 
   /** neighbourCrossings of Q with its k-th neighbour at (f01, f12). */
@@ -521,12 +655,18 @@ class CrossingMemo {
   nextNearest(ctx: PlanContext, Q: number, j: number, K: number, fk: number, via: readonly number[], freqOf: (q: number) => DuringGate): number {
     const slot = this.nnSlotOf[Q] + j;
     const base = slot * CROSSING_MEMO_WAYS;
+    // the key: fk and each mediator's f01, gathered once (a NaN in it matches nothing, as before)
+    const width = this.nnWidth;
+    const probe = this.nnProbe;
+    probe[0] = fk;
+    for (let v = 0; v < via.length; v++) probe[v + 1] = freqOf(via[v]).f01GHz;
+    const keys = this.nnKeys;
     for (let w = 0; w < CROSSING_MEMO_WAYS; w++) {
-      const key = this.nnKeys[base + w];
-      if (key === undefined || key[0] !== fk) continue;
+      const at = (base + w) * width;
+      if (this.nnLength[base + w] !== via.length + 1) continue;
       let same = true;
-      for (let v = 0; v < via.length; v++) {
-        if (key[v + 1] !== freqOf(via[v]).f01GHz) {
+      for (let v = 0; v <= via.length; v++) {
+        if (keys[at + v] !== probe[v]) {
           same = false;
           break;
         }
@@ -536,23 +676,64 @@ class CrossingMemo {
     const g = nextNearestCoupling(ctx, Q, K, fk, via, freqOf);
     const w = this.nnNext[slot];
     this.nnNext[slot] = (w + 1) % CROSSING_MEMO_WAYS;
-    const key = [fk];
-    for (const S of via) key.push(freqOf(S).f01GHz);
-    this.nnKeys[base + w] = key;
+    const at = (base + w) * width;
+    for (let v = 0; v <= via.length; v++) keys[at + v] = probe[v];
+    this.nnLength[base + w] = via.length + 1;
     this.nnValues[base + w] = g;
     return g;
   }
 }
 
-const crossingMemos = new WeakMap<PlanContext, CrossingMemo>();
+/**
+ * One memo per chip structure (its neighbour lists), holding the answers of one context at a
+ * time: each planner context has lists of its own, so its memo lasts as long as it does; a
+ * yield run's drawn chips share the nominal chip's lists, and each takes the memo over, emptied
+ * (building one per drawn chip took ~2 % of a sample's time in a profile). Switching back and forth between two
+ * contexts of one structure empties it each time: slower, never another context's answer.
+ */
+const crossingMemos = new WeakMap<PlanContext['neighbours'], CrossingMemo>();
 
 function crossingMemoOf(ctx: PlanContext): CrossingMemo {
-  let m = crossingMemos.get(ctx);
-  if (!m) crossingMemos.set(ctx, (m = new CrossingMemo(ctx)));
-  return m;
+  const m = crossingMemos.get(ctx.neighbours);
+  if (m && m.nextNearestOf === ctx.nextNearestOf && m.nextNearestPairs === ctx.nextNearest && m.neighbours === ctx.neighbours) return m.takeOver(ctx);
+  const made = new CrossingMemo(ctx);
+  crossingMemos.set(ctx.neighbours, made);
+  return made;
 }
 
-/** For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12), remembered and computed anew. */
-export function crossingCouplingsForTest(ctx: PlanContext, Q: number, k: number, f01: number, f12: number): { remembered: NeighbourCrossings; computed: NeighbourCrossings } {
-  return { remembered: crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12), computed: neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12) };
+/** The crossing position and couplings of a NeighbourCrossings, read in the order given (for tests). */
+export interface CrossingValues {
+  f1120: number;
+  g0101: number;
+  g1120: number;
+  g1102: number;
+}
+
+/**
+ * For tests: the crossing couplings sweep uses for Q and its k-th neighbour at (f01, f12),
+ * remembered (its couplings read in the order `order`, e.g. ['g1102', 'g0101', 'g1120']) and
+ * computed anew (read in the order of the fields).
+ */
+export function crossingCouplingsForTest(
+  ctx: PlanContext, Q: number, k: number, f01: number, f12: number, order: readonly ('g0101' | 'g1120' | 'g1102')[] = ['g0101', 'g1120', 'g1102'],
+): { remembered: CrossingValues; computed: CrossingValues } {
+  const r = crossingMemoOf(ctx).neighbour(ctx, Q, k, f01, f12);
+  const read: Partial<CrossingValues> = { f1120: r.f1120 };
+  for (const g of order) read[g] = r[g];
+  const c = neighbourCrossings(ctx, Q, ctx.neighbours[Q][k], f01, f12);
+  return {
+    remembered: { f1120: read.f1120!, g0101: read.g0101!, g1120: read.g1120!, g1102: read.g1102! },
+    computed: { f1120: c.f1120, g0101: c.g0101, g1120: c.g1120, g1102: c.g1102 },
+  };
+}
+
+/**
+ * For tests: the mediated coupling sweep uses for Q and the K of its j-th next-nearest pair at
+ * fk, the mediators at `mediatorGHz` (by qubit), remembered and computed anew.
+ */
+export function nextNearestCouplingForTest(ctx: PlanContext, Q: number, j: number, fk: number, mediatorGHz: ReadonlyMap<number, number>): { remembered: number; computed: number } {
+  const pair = ctx.nextNearest[ctx.nextNearestOf[Q][j]];
+  const K = pair.a === Q ? pair.b : pair.a;
+  const freqOf = (q: number): DuringGate => ({ f01GHz: mediatorGHz.get(q)!, f12GHz: NaN });
+  return { remembered: crossingMemoOf(ctx).nextNearest(ctx, Q, j, K, fk, pair.via, freqOf), computed: nextNearestCoupling(ctx, Q, K, fk, pair.via, freqOf) };
 }
