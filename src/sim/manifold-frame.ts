@@ -66,6 +66,16 @@ export const QL_FROM_SIZE = 28;
  */
 export const BUDGET_QL_FROM_SIZE = 8;
 
+/**
+ * Intervals of the jump operators' Hermite tables (their own grid; the frame's E and X tables keep
+ * tableIntervals). The ladder and number operators in the frame vary slowly with E_J: on the
+ * Clove-17 and Bowline-5 designs of the budget benchmark the first-order T1 and white-dephasing
+ * terms and the Lindblad fidelity with 8 intervals differ from those with 128 by at most 4e-12
+ * relative (2026-12-03; test/sim/decoherence.test.ts keeps 16 against 128 within 1e-9), and the
+ * tables cost an eighth of the time to fill.
+ */
+export const NOISE_TABLE_INTERVALS = 16;
+
 export interface ManifoldFrameOptions {
   /** Range of the mover's E_J (GHz) to cover. */
   ejLo: number;
@@ -88,6 +98,8 @@ export interface ManifoldFrameOptions {
   noiseOperators?: boolean;
   /** Sectors of at least this many states use Householder + QL, smaller ones Jacobi (default QL_FROM_SIZE). */
   qlFromSize?: number;
+  /** Intervals of the jump operators' Hermite tables (at most tableIntervals; see NOISE_TABLE_INTERVALS). */
+  noiseTableIntervals?: number;
   /**
    * Drop the mover's wave-function derivative T (a model that ignores the distortion of the
    * transmon with flux). Physically wrong; it exists to show the size of that error.
@@ -106,6 +118,7 @@ export const MANIFOLD_FRAME_DEFAULTS = Object.freeze({
   stopHopeless: true,
   noiseOperators: false,
   qlFromSize: QL_FROM_SIZE,
+  noiseTableIntervals: NOISE_TABLE_INTERVALS,
   dropWavefunctionDerivative: false,
 });
 
@@ -144,6 +157,9 @@ export interface FrameSector {
  */
 export interface NoiseTables {
   size: number;
+  /** Intervals of the noise tables' own Hermite grid over [ejLo, ejHi] (noiseHermite) and its step. */
+  intervals: number;
+  step: number;
   /** offset of each sector in the combined ordering */
   offsets: number[];
   /** per transmon: table points x Dt x Dt (values and slopes) */
@@ -472,7 +488,7 @@ export class ManifoldFrameBuilder {
     const step = (hi - lo) / nT;
     const sectors = this.setups.map((setup, s) => this.tabulate(setup, s, samples, degree, lo, hi, nT, o.dropWavefunctionDerivative));
     const frame: ManifoldFrame = { model: this.model, space: this.space, ejLo: lo, ejHi: hi, degree, tableStep: step, tableIntervals: nT, sectors };
-    if (noise) frame.noise = this.tabulateNoise(samples, degree, lo, hi, nT);
+    if (noise) frame.noise = this.tabulateNoise(samples, degree, lo, hi, Math.min(nT, o.noiseTableIntervals));
     return frame;
   }
 
@@ -526,7 +542,7 @@ export class ManifoldFrameBuilder {
       number.push(n);
       numberSlope.push(ns);
     }
-    return { size: dt, offsets: [0, sizes[0]], ladder, ladderSlope, number, numberSlope };
+    return { size: dt, intervals: nT, step: (hi - lo) / nT, offsets: [0, sizes[0]], ladder, ladderSlope, number, numberSlope };
   }
 
   /**
@@ -784,7 +800,7 @@ export function evaluateFrameInBlocks(frame: ManifoldFrame, sector: FrameSector,
 
 /** Interpolate a noise table (values, slopes; Dt x Dt per point) at u into out. */
 export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, out: Float64Array): Float64Array {
-  const i = frameHermite(frame, u, HERMITE_WEIGHTS);
+  const i = noiseHermite(frame, u, HERMITE_WEIGHTS);
   const h00 = HERMITE_WEIGHTS[0];
   const h10 = HERMITE_WEIGHTS[1];
   const h01 = HERMITE_WEIGHTS[2];
@@ -794,6 +810,19 @@ export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, s
   const p1 = p0 + w;
   for (let q = 0; q < w; q++) out[q] = h00 * values[p0 + q] + h10 * slopes[p0 + q] + h01 * values[p1 + q] + h11 * slopes[p1 + q];
   return out;
+}
+
+/**
+ * The noise tables' interval of u (clamped) and the cubic Hermite weights there, on their own grid
+ * (NoiseTables.intervals over [ejLo, ejHi]); the frame's grid when they share it.
+ */
+export function noiseHermite(frame: ManifoldFrame, u: number, out: Float64Array): number {
+  const noise = frame.noise!;
+  const h = noise.step;
+  const k = Math.floor((u - frame.ejLo) / h);
+  const i = k < 0 ? 0 : k >= noise.intervals ? noise.intervals - 1 : k;
+  hermiteWeights((u - (frame.ejLo + i * h)) / h, h, out);
+  return i;
 }
 
 /** Largest |A| over table intervals covering [uLo, uHi]. */

@@ -11,7 +11,7 @@ import { josephsonEnergy } from '../transmon/josephson.js';
 import { averageFromProcessInfidelity, jumpRates } from './decoherence.js';
 import { dressedStatesAt, type DressedState } from './dressed-states.js';
 import { conditionalPhase, gateMetrics, wrapAngle, type Block4 } from './gate-metrics.js';
-import { evaluateNoiseTable, frameHermite, frameState, type ManifoldFrame } from './manifold-frame.js';
+import { evaluateNoiseTable, frameState, noiseHermite, type ManifoldFrame } from './manifold-frame.js';
 import { propagateInFrame, SectorStepper, stepSchedule, type FrameInitial, type FramePropagationOptions } from './propagate-frame.js';
 import type { Trajectory } from './trajectory.js';
 
@@ -374,11 +374,11 @@ export function noiseColumnPattern(frame: ManifoldFrame, values: Float64Array, s
 
 /**
  * The pattern's entries of a noise table's operator at u, into out (one per entry): the same
- * cubic Hermite weights (frameHermite), entry by entry, as evaluateNoiseTable
+ * cubic Hermite weights (noiseHermite), entry by entry, as evaluateNoiseTable
  * (src/sim/manifold-frame.ts), so the same numbers, for the entries the observer reads.
  */
 function noiseEntries(frame: ManifoldFrame, values: Float64Array, slopes: Float64Array, u: number, pattern: NoisePattern, out: Float64Array): void {
-  const i = frameHermite(frame, u, NOISE_WEIGHTS);
+  const i = noiseHermite(frame, u, NOISE_WEIGHTS);
   const h00 = NOISE_WEIGHTS[0];
   const h10 = NOISE_WEIGHTS[1];
   const h01 = NOISE_WEIGHTS[2];
