@@ -61,11 +61,15 @@ interface ZzCacheEntry {
   intervals: Interval[];
 }
 
+/** Blocked ZZ sets remembered per edge and direction (the search's trial moves and undos return to earlier points). */
+const ZZ_CACHE_ENTRIES = 4;
+
 /** Reference idle time of the idle-error blocker (ns): about one error-correction cycle, the parking search's own reference (src/plan/options.ts cycleNs). */
 export const IDLE_REFERENCE_NS = 1000;
 
 export class IdleBlockers {
-  private readonly zzCache = new Map<number, ZzCacheEntry>();
+  /** Per edge and direction, the blocked sets of the last ZZ_CACHE_ENTRIES (f_j, scale) asked for. */
+  private readonly zzCache = new Map<number, ZzCacheEntry[]>();
   private readonly tmp = emptyTableState();
   private readonly idleCache = new Map<number, Interval[]>();
 
@@ -130,7 +134,7 @@ export class IdleBlockers {
       out.push({ lo: fj - r.detuning0101GHz, hi: fj + r.detuning0101GHz, rule: '01-01', other: j });
       out.push({ lo: sj.f12 - r.detuning0112GHz, hi: sj.f12 + r.detuning0112GHz, rule: '01-12', other: j });
       const b = this.f12Preimage(i, fj - r.detuning0112GHz, fj + r.detuning0112GHz);
-      if (b) out.push({ ...b, rule: '01-12', other: j });
+      if (b) out.push({ lo: b.lo, hi: b.hi, rule: '01-12', other: j });
       for (const z of this.zzIntervals(i, j, view)) out.push({ lo: z.lo, hi: z.hi, rule: 'zz', other: j });
     }
     for (const p of ctx.nextNearestOf[i]) {
@@ -198,19 +202,26 @@ export class IdleBlockers {
     return Math.abs(view.zzScale[e] * secondOrderZz(si, view.states[j], this.ctx.edges[e].gChargeGHz));
   }
 
-  /** Blocked set of the ZZ rule for qubit i against neighbour j, narrow resonances included (cached while f_j and the scale stay). */
+  /**
+   * Blocked set of the ZZ rule for qubit i against neighbour j, narrow resonances included
+   * (remembered for the last few f_j and scales: the set depends on nothing else, the ZZ limit
+   * and the tables being fixed for the object's life).
+   */
   zzIntervals(i: number, j: number, view: FrequencyView): Interval[] {
     const e = this.ctx.edgeBetween(i, j);
     const key = e * 2 + (this.ctx.edges[e].a === i ? 0 : 1);
     const fj = view.freq[j];
     const scale = view.zzScale[e];
-    const hit = this.zzCache.get(key);
-    if (hit && hit.fOther === fj && hit.scale === scale) return hit.intervals;
+    let ring = this.zzCache.get(key);
+    if (!ring) this.zzCache.set(key, (ring = []));
+    for (const hit of ring) if (hit.fOther === fj && hit.scale === scale) return hit.intervals;
     const intervals = this.computeZzIntervals(i, j, view);
     const narrow: Blocker[] = [];
     this.narrowZz(i, j, view, narrow);
     for (const b of narrow) intervals.push({ lo: b.lo, hi: b.hi });
-    this.zzCache.set(key, { fOther: fj, scale, intervals });
+    // the oldest of ZZ_CACHE_ENTRIES goes (a trial move and its undo leave the earlier point in)
+    if (ring.length >= ZZ_CACHE_ENTRIES) ring.shift();
+    ring.push({ fOther: fj, scale, intervals });
     return intervals;
   }
 
