@@ -21,8 +21,8 @@
  *   remembered allowed sets against the domain minus those intervals, through moves, changes of
  *   the active set and of the ZZ calibration;
  * - the plan budget with remembered gate estimates against computing them anew;
- * - the remembered ZZ blocked sets (IdleBlockers.zzIntervals, a few per edge) against a fresh
- *   IdleBlockers, through trial moves, their undos and calibration changes;
+ * - the remembered ZZ blocked sets (IdleBlockers.zzIntervals, the last per edge and direction)
+ *   against a fresh IdleBlockers, through trial moves, their undos and calibration changes;
  * - the parking cost's per-visit slots (src/plan/parking/cost.ts) against the cost computed
  *   outside a visit, through moves and changes of the active set.
  * The physics of each routine is tested against its outside references in its own test file

@@ -61,15 +61,11 @@ interface ZzCacheEntry {
   intervals: Interval[];
 }
 
-/** Blocked ZZ sets remembered per edge and direction (the search's trial moves and undos return to earlier points). */
-const ZZ_CACHE_ENTRIES = 4;
-
 /** Reference idle time of the idle-error blocker (ns): about one error-correction cycle, the parking search's own reference (src/plan/options.ts cycleNs). */
 export const IDLE_REFERENCE_NS = 1000;
 
 export class IdleBlockers {
-  /** Per edge and direction, the blocked sets of the last ZZ_CACHE_ENTRIES (f_j, scale) asked for. */
-  private readonly zzCache = new Map<number, ZzCacheEntry[]>();
+  private readonly zzCache = new Map<number, ZzCacheEntry>();
   private readonly tmp = emptyTableState();
   private readonly idleCache = new Map<number, Interval[]>();
 
@@ -202,26 +198,19 @@ export class IdleBlockers {
     return Math.abs(view.zzScale[e] * secondOrderZz(si, view.states[j], this.ctx.edges[e].gChargeGHz));
   }
 
-  /**
-   * Blocked set of the ZZ rule for qubit i against neighbour j, narrow resonances included
-   * (remembered for the last few f_j and scales: the set depends on nothing else, the ZZ limit
-   * and the tables being fixed for the object's life).
-   */
+  /** Blocked set of the ZZ rule for qubit i against neighbour j, narrow resonances included (cached while f_j and the scale stay). */
   zzIntervals(i: number, j: number, view: FrequencyView): Interval[] {
     const e = this.ctx.edgeBetween(i, j);
     const key = e * 2 + (this.ctx.edges[e].a === i ? 0 : 1);
     const fj = view.freq[j];
     const scale = view.zzScale[e];
-    let ring = this.zzCache.get(key);
-    if (!ring) this.zzCache.set(key, (ring = []));
-    for (const hit of ring) if (hit.fOther === fj && hit.scale === scale) return hit.intervals;
+    const hit = this.zzCache.get(key);
+    if (hit && hit.fOther === fj && hit.scale === scale) return hit.intervals;
     const intervals = this.computeZzIntervals(i, j, view);
     const narrow: Blocker[] = [];
     this.narrowZz(i, j, view, narrow);
     for (const b of narrow) intervals.push({ lo: b.lo, hi: b.hi });
-    // the oldest of ZZ_CACHE_ENTRIES goes (a trial move and its undo leave the earlier point in)
-    if (ring.length >= ZZ_CACHE_ENTRIES) ring.shift();
-    ring.push({ fOther: fj, scale, intervals });
+    this.zzCache.set(key, { fOther: fj, scale, intervals });
     return intervals;
   }
 
