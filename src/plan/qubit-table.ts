@@ -137,8 +137,6 @@ export class QubitTable {
   /** d(value)/du. */
   private readonly dv: Float64Array;
   private readonly scratch = emptyTableState();
-  private cell = 0;
-  private t = 0;
   /** f12 samples and slopes (for the inverse f12 -> f01). */
   private readonly w12: Float64Array;
   /** E_level - E_0 (and minus f01) samples and slopes, level 2..5, for f01ForLevel. */
@@ -213,9 +211,19 @@ export class QubitTable {
    * scratch object, overwritten by the next call) and returns it.
    */
   at(fGHz: number, out: TableState = this.scratch): TableState {
-    this.locate(fGHz);
-    const cell = this.cell;
-    const t = this.t;
+    // a remembered answer (the state computed for the same frequency before) is copied out
+    const memoF = this.memoF;
+    const home = memoSlot(fGHz);
+    let free = -1;
+    for (let p = 0; p < MEMO_PROBES; p++) {
+      const k = (home + p) & MEMO_MASK;
+      const key = memoF[k];
+      if (key === fGHz) return readState(this.memoV, k * STATE_FIELDS, out);
+      if (free < 0 && key !== key) free = k;
+    }
+    invertCell(this.v, this.dv, this.h, fGHz, this.m);
+    const cell = INVERSE.cell;
+    const t = INVERSE.t;
     const m = this.m;
     const h = this.h;
     const v = this.v;
@@ -253,6 +261,9 @@ export class QubitTable {
     out.ejRatio = u * u;
     const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
     out.df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
+    const slot = free >= 0 ? free : home;
+    memoF[slot] = fGHz;
+    writeState(out, this.memoV, slot * STATE_FIELDS);
     return out;
   }
 
@@ -263,22 +274,27 @@ export class QubitTable {
 
   /** Flux (0 <= Phi <= 1/2) at f01 = fGHz. */
   fluxAt(fGHz: number): number {
-    // the last two answers are remembered (the parking cost asks for the flux excursion from one
-    // fixed end to each point it tries)
-    if (fGHz === this.fluxMemoF[0]) return this.fluxMemo[0];
-    if (fGHz === this.fluxMemoF[1]) return this.fluxMemo[1];
+    // remembered answers (the parking cost asks for the flux excursion from one fixed end to each
+    // point it tries, and for the same crossings again): the flux computed before for this frequency
+    const memo = this.fluxMemoF;
+    const home = memoSlot(fGHz);
+    let free = -1;
+    for (let p = 0; p < MEMO_PROBES; p++) {
+      const k = (home + p) & MEMO_MASK;
+      const key = memo[k];
+      if (key === fGHz) return this.fluxMemo[k];
+      if (free < 0 && key !== key) free = k;
+    }
     const s = this.at(fGHz).ejRatio;
     const flux = fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, s)));
-    const k = this.fluxMemoNext;
-    this.fluxMemoNext = 1 - k;
-    this.fluxMemoF[k] = fGHz;
-    this.fluxMemo[k] = flux;
+    const slot = free >= 0 ? free : home;
+    memo[slot] = fGHz;
+    this.fluxMemo[slot] = flux;
     return flux;
   }
 
-  private readonly fluxMemoF = new Float64Array(2).fill(NaN);
-  private readonly fluxMemo = new Float64Array(2);
-  private fluxMemoNext = 0;
+  private readonly fluxMemoF = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly fluxMemo = new Float64Array(MEMO_SLOTS);
 
   /** df01/dPhi (GHz per Phi0) at f01 = fGHz. */
   slopeAt(fGHz: number): number {
@@ -302,23 +318,29 @@ export class QubitTable {
     const m = this.m;
     const w = this.w12;
     if (f12GHz < w[0] - 1e-12 || f12GHz > w[m - 1] + 1e-12) return null;
-    // the last few answers are remembered (the planner asks again for the same neighbours)
+    // remembered answers (the planner asks again for the same neighbours): the value computed before
     const memo = this.f12MemoIn;
-    for (let k = 0; k < LOCATE_MEMO; k++) if (memo[k] === f12GHz) return this.f12MemoOut[k];
-    const { cell, t } = invertCell(w, this.dw12, this.h, f12GHz);
+    const home = memoSlot(f12GHz);
+    let free = -1;
+    for (let p = 0; p < MEMO_PROBES; p++) {
+      const k = (home + p) & MEMO_MASK;
+      const key = memo[k];
+      if (key === f12GHz) return this.f12MemoOut[k];
+      if (free < 0 && key !== key) free = k;
+    }
+    invertCell(w, this.dw12, this.h, f12GHz);
+    const cell = INVERSE.cell;
     const v = this.v;
     const dv = this.dv;
-    const out = hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, t);
-    const k = this.f12MemoNext;
-    this.f12MemoNext = (k + 1) % LOCATE_MEMO;
-    memo[k] = f12GHz;
-    this.f12MemoOut[k] = out;
+    const out = hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, INVERSE.t);
+    const slot = free >= 0 ? free : home;
+    memo[slot] = f12GHz;
+    this.f12MemoOut[slot] = out;
     return out;
   }
 
-  private readonly f12MemoIn = new Float64Array(LOCATE_MEMO).fill(NaN);
-  private readonly f12MemoOut = new Float64Array(LOCATE_MEMO);
-  private f12MemoNext = 0;
+  private readonly f12MemoIn = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly f12MemoOut = new Float64Array(MEMO_SLOTS);
 
   /**
    * The f01 at which E_level - E_0 - (minusF01 ? f01 : 0) equals `targetGHz` (level 2..5), or null
@@ -331,52 +353,92 @@ export class QubitTable {
     const dy = this.levelSlopes[k];
     const m = this.m;
     if (targetGHz < y[0] - 1e-12 || targetGHz > y[m - 1] + 1e-12) return null;
-    const { cell, t } = invertCell(y, dy, this.h, targetGHz);
-    return hermite(this.v[cell], this.v[cell + 1], this.dv[cell] * this.h, this.dv[cell + 1] * this.h, t);
+    invertCell(y, dy, this.h, targetGHz);
+    const cell = INVERSE.cell;
+    return hermite(this.v[cell], this.v[cell + 1], this.dv[cell] * this.h, this.dv[cell + 1] * this.h, INVERSE.t);
   }
 
-  /** Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). */
   /**
-   * Sets this.cell and this.t in [0, 1] with f01(u) = fGHz (clamped to the table). The last few
-   * answers are remembered (the search asks for the same points again and again); a remembered
-   * answer is the same cell and t the inversion gives.
+   * Memo of `at` by frequency: a small hash table keyed on the frequency's bits (MEMO_SLOTS slots,
+   * probed MEMO_PROBES deep; a full probe run replaces its first slot), values STATE_FIELDS
+   * numbers per slot. The search asks for the same points again and again (a neighbour's crossing
+   * from the gate cost, the flux excursion and the spectator term in turn); a remembered answer is
+   * the state computing it again gives, to the last bit (at is a function of the frequency alone).
    */
-  private locate(fGHz: number): void {
-    const f = this.locF;
-    for (let k = 0; k < LOCATE_MEMO; k++) {
-      if (f[k] === fGHz) {
-        this.cell = this.locCell[k];
-        this.t = this.locT[k];
-        return;
-      }
-    }
-    const r = invertCell(this.v, this.dv, this.h, fGHz, this.m);
-    this.cell = r.cell;
-    this.t = r.t;
-    const k = this.locNext;
-    this.locNext = (k + 1) % LOCATE_MEMO;
-    f[k] = fGHz;
-    this.locCell[k] = r.cell;
-    this.locT[k] = r.t;
-  }
-
-  private readonly locF = new Float64Array(LOCATE_MEMO).fill(NaN);
-  private readonly locCell = new Int32Array(LOCATE_MEMO);
-  private readonly locT = new Float64Array(LOCATE_MEMO);
-  private locNext = 0;
+  private readonly memoF = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly memoV = new Float64Array(MEMO_SLOTS * STATE_FIELDS);
 }
 
-/** Remembered answers of QubitTable.locate. */
-const LOCATE_MEMO = 6;
+/** Slots of the memos of QubitTable.at, fluxAt and f01ForF12 (a power of two), and how deep a lookup probes. */
+const MEMO_SLOTS = 128;
+const MEMO_MASK = MEMO_SLOTS - 1;
+const MEMO_PROBES = 4;
+const BITS = new Float64Array(1);
+const WORDS = new Uint32Array(BITS.buffer);
+
+/** Home slot of a frequency in a memo (a multiplicative hash of its bits). */
+function memoSlot(f: number): number {
+  BITS[0] = f;
+  return Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 25;
+}
+
+/** Numbers of a TableState as the memo stores them. */
+const STATE_FIELDS = 14;
+
+function writeState(s: TableState, to: Float64Array, o: number): void {
+  to[o] = s.f01;
+  to[o + 1] = s.f12;
+  to[o + 2] = s.e2;
+  to[o + 3] = s.e3;
+  to[o + 4] = s.e4;
+  to[o + 5] = s.e5;
+  to[o + 6] = s.n01;
+  to[o + 7] = s.n03;
+  to[o + 8] = s.n12;
+  to[o + 9] = s.n23;
+  to[o + 10] = s.n05;
+  to[o + 11] = s.n14;
+  to[o + 12] = s.ejRatio;
+  to[o + 13] = s.df01dEj;
+}
+
+function readState(from: Float64Array, o: number, s: TableState): TableState {
+  s.f01 = from[o];
+  s.f12 = from[o + 1];
+  s.e2 = from[o + 2];
+  s.e3 = from[o + 3];
+  s.e4 = from[o + 4];
+  s.e5 = from[o + 5];
+  s.n01 = from[o + 6];
+  s.n03 = from[o + 7];
+  s.n12 = from[o + 8];
+  s.n23 = from[o + 9];
+  s.n05 = from[o + 10];
+  s.n14 = from[o + 11];
+  s.ejRatio = from[o + 12];
+  s.df01dEj = from[o + 13];
+  return s;
+}
+
+/** Where invertCell leaves its answer (single-threaded use, read right after the call). */
+const INVERSE = { cell: 0, t: 0 };
 
 /**
  * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples
  * y[0..m-1] (slopes dy per unit u, spacing h) equals `target` (clamped to the ends):
- * binary search for the cell, then safeguarded Newton on the cubic.
+ * binary search for the cell, then safeguarded Newton on the cubic. Leaves them in INVERSE.
  */
-function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number, m: number = y.length): { cell: number; t: number } {
-  if (m < 2 || h === 0 || target <= y[0]) return { cell: 0, t: 0 };
-  if (target >= y[m - 1]) return { cell: m - 2, t: 1 };
+function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number, m: number = y.length): void {
+  if (m < 2 || h === 0 || target <= y[0]) {
+    INVERSE.cell = 0;
+    INVERSE.t = 0;
+    return;
+  }
+  if (target >= y[m - 1]) {
+    INVERSE.cell = m - 2;
+    INVERSE.t = 1;
+    return;
+  }
   let lo = 0;
   let hi = m - 1;
   while (hi - lo > 1) {
@@ -402,5 +464,6 @@ function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number
     t = next;
     if (done) break;
   }
-  return { cell: lo, t };
+  INVERSE.cell = lo;
+  INVERSE.t = t;
 }

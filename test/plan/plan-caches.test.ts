@@ -17,9 +17,14 @@
  *   (spectator parking with and without the floor), and the floor against the score itself;
  * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
  *   (spectatorMovePairError) against the answers computed after another question;
- * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, through
- *   moves, changes of the active set and of the ZZ calibration;
- * - the plan budget with remembered gate estimates against computing them anew.
+ * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, and its
+ *   remembered allowed sets against the domain minus those intervals, through moves, changes of
+ *   the active set and of the ZZ calibration;
+ * - the plan budget with remembered gate estimates against computing them anew;
+ * - the remembered ZZ blocked sets (IdleBlockers.zzIntervals, the last per edge and direction)
+ *   against a fresh IdleBlockers, through trial moves, their undos and calibration changes;
+ * - the parking cost's per-visit slots (src/plan/parking/cost.ts) against the cost computed
+ *   outside a visit, through moves and changes of the active set.
  * The physics of each routine is tested against its outside references in its own test file
  * (rules.test.ts, layers.test.ts, qubit-table.test.ts).
  */
@@ -35,6 +40,8 @@ import { exactQubitState } from '../../src/plan/exact-state.js';
 import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
 import { idleTotalForTest, spectatorMovePairError } from '../../src/plan/gate-budget.js';
 import { ParkingState } from '../../src/plan/parking/state.js';
+import { IdleBlockers } from '../../src/plan/rules/idle-blockers.js';
+import { subtract } from '../../src/plan/intervals.js';
 import { Random } from '../../src/util/random.js';
 import { fluxForJosephsonEnergy } from '../../src/transmon/josephson.js';
 
@@ -387,10 +394,79 @@ describe('the parking state\'s remembered blocked intervals', () => {
         const got = state.blockersOf(i).map((b) => ({ ...b }));
         expect(state.blockersOf(i)).toEqual(got);
         expect(got).toEqual(state.blockers.of(i, state, []));
+        // and the remembered allowed set equals the domain minus them, computed anew
+        const d = ctx.domains[i];
+        expect(state.allowed(i, state.blockersOf(i))).toEqual(d ? subtract(d, got) : []);
         checked++;
       }
     }
     expect(checked).toBe(1800);
+  });
+});
+
+describe('the remembered ZZ blocked sets', () => {
+  it('equal the sets a fresh IdleBlockers computes, through moves, undos back to earlier points and calibration changes', () => {
+    const state = new ParkingState(ctx, clove.options);
+    const rng = new Random(31);
+    for (let i = 0; i < ctx.n; i++) state.active[i] = 1;
+    state.touch();
+    let checked = 0;
+    for (let step = 0; step < 300; step++) {
+      const e = ctx.edges[rng.int(ctx.edges.length)];
+      const [i, j] = rng.uniform() < 0.5 ? [e.a, e.b] : [e.b, e.a];
+      const t = ctx.tables[j];
+      const saved = state.freq[j];
+      // a trial move of j, then (mostly) its undo: the set for the earlier point is asked again
+      state.set(j, t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+      expect(state.blockers.zzIntervals(i, j, state)).toEqual(new IdleBlockers(ctx).zzIntervals(i, j, state));
+      if (rng.uniform() < 0.7) state.set(j, saved);
+      if (rng.uniform() < 0.05) {
+        state.zzScale[e.index] = 0.5 + rng.uniform();
+        state.touch();
+      }
+      expect(state.blockers.zzIntervals(i, j, state)).toEqual(new IdleBlockers(ctx).zzIntervals(i, j, state));
+      checked += 2;
+    }
+    expect(checked).toBe(600);
+  });
+});
+
+describe('the parking cost\'s per-visit slots', () => {
+  it('give, point after point of a visit, the cost computed without them (no visit), through moves and active-set changes', () => {
+    // ParkingCost.at within a visit (state.costAt after blockersOf) reads the gate costs, spectator
+    // parts and neighbours' crossings it remembered in its slots; outside a visit (no stamp) it
+    // computes everything anew
+    const state = new ParkingState(ctx, clove.options);
+    const rng = new Random(29);
+    for (let i = 0; i < ctx.n; i++) state.active[i] = 1;
+    state.touch();
+    let checked = 0;
+    for (let step = 0; step < 200; step++) {
+      const q = rng.int(ctx.n);
+      const u = rng.uniform();
+      const t = ctx.tables[q];
+      if (u < 0.6) state.set(q, t.fLowGHz + (t.fMaxGHz - t.fLowGHz) * rng.uniform());
+      else if (u < 0.65) {
+        state.active[q] = state.active[q] ? 0 : 1;
+        state.touch();
+      }
+      const i = rng.int(ctx.n);
+      if (!state.active[i]) continue;
+      const blockers = state.blockersOf(i);
+      const ti = ctx.tables[i];
+      for (let k = 0; k < 6; k++) {
+        // points across the range and the neighbours' own frequencies (i the higher, the lower, level)
+        const j = ctx.neighbours[i][k % Math.max(1, ctx.neighbours[i].length)];
+        const f = k < 3 || j === undefined ? ti.fLowGHz + (ti.fMaxGHz - ti.fLowGHz) * rng.uniform() : Math.min(ti.fMaxGHz, Math.max(ti.fLowGHz, state.freq[j] + (k - 4) * 0.01));
+        const inVisit = { ...state.costAt(i, f, blockers) };
+        expect(inVisit).toEqual({ ...state.cost.at(i, f, blockers, state) });
+        // and asked again in the visit (answered from the slots)
+        state.blockersOf(i);
+        expect({ ...state.costAt(i, f, blockers) }).toEqual(inVisit);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(600);
   });
 });
 

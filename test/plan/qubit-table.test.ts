@@ -54,6 +54,23 @@ describe('QubitTable', () => {
     expect(table.f01ForF12(0.1)).toBeNull();
   });
 
+  it('remembered answers of at and f01ForF12 equal a fresh table\'s to the last bit, whatever came before', () => {
+    // a long seeded stream of queries with many repeats (more distinct frequencies than memo
+    // slots, so slots are replaced); each answer against a new table asked only that question
+    let x = 12345;
+    const next = () => ((x = (Math.imul(x, 1103515245) + 12345) >>> 0) / 2 ** 32);
+    const pool = Array.from({ length: 400 }, () => table.fLowGHz - 0.05 + next() * (table.fMaxGHz - table.fLowGHz + 0.1));
+    const f12s = pool.map((f) => f - 0.2);
+    const out = { ...table.at(pool[0]) };
+    for (let q = 0; q < 500; q++) {
+      const k = Math.floor(next() * next() * pool.length);
+      const f = pool[k];
+      const got = { ...table.at(f, q % 2 ? out : undefined) };
+      expect(got).toEqual({ ...new QubitTable(t).at(f) });
+      expect(Object.is(table.f01ForF12(f12s[k]), new QubitTable(t).f01ForF12(f12s[k]))).toBe(true);
+    }
+  });
+
   it('stops at E_J / E_C = 30 when the SQUID would tune below it (planning range)', () => {
     const weak = new Transmon('B', { ecGHz: 0.25, ejsGHz: 15, asymmetry: 0.1 });
     const wt = new QubitTable(weak);

@@ -67,12 +67,25 @@ export class ParkingCost {
   /** Per-visit cache: gate cost of each neighbour pair when i is the higher qubit (depends on f_j only). */
   private visitI = -1;
   private visitStamp = -1;
-  private readonly higher = new Map<number, number>();
-  /** Per-visit cache of the spectator term's parts that do not depend on the visited qubit's frequency. */
-  private readonly spectatorVisit = new Map<number, number>();
-  /** Per-visit cache of a neighbour j's 11-20 crossing with its neighbour k and j's table state there (key j * n + k; null: no crossing). */
-  private readonly crossingVisit = new Map<number, { fInt: number; state: TableState } | null>();
+  /**
+   * The per-visit caches are slots, not maps: slot q for the visited qubit's q-th neighbour j, slot
+   * q * maxDegree + p for j's p-th neighbour k. A slot holds an answer while its generation equals
+   * `generation`, which beginVisit advances (a new visit forgets every slot at once).
+   */
+  private generation = 0;
+  private readonly maxDegree: number;
+  /** Gate cost with neighbour slot q when the visited qubit is the higher one (depends on f_j only). */
+  private readonly higherGen: Int32Array;
+  private readonly higherVal: Float64Array;
+  /** The spectator term's part for neighbour slot q that does not depend on the visited qubit's frequency. */
+  private readonly spectatorGen: Int32Array;
+  private readonly spectatorVal: Float64Array;
+  /** Neighbour j's 11-20 crossing with its neighbour k (NaN: none) and j's table state there. */
+  private readonly crossingGen: Int32Array;
+  private readonly crossingF: Float64Array;
+  private readonly crossingState: TableState[];
   private readonly se = emptyTableState();
+  private readonly sc = emptyTableState();
   /** Whether the last gateCost came from the higher qubit's 11-20 crossing (which depends on the lower qubit's frequency only). */
   private lastWasHigherCrossing = false;
 
@@ -81,9 +94,7 @@ export class ParkingCost {
     if (this.visitI === i && this.visitStamp === stamp) return;
     this.visitI = i;
     this.visitStamp = stamp;
-    this.higher.clear();
-    this.spectatorVisit.clear();
-    this.crossingVisit.clear();
+    this.generation++;
   }
 
   /** Every weight of the soft cost is >= 0 (the ceiling of `at` relies on it). */
@@ -100,6 +111,15 @@ export class ParkingCost {
     this.edgeOf = ctx.neighbours.map((ns, i) => Int32Array.from(ns, (j) => ctx.edgeBetween(i, j)));
     this.gOf = this.edgeOf.map((es) => Float64Array.from(es, (e) => ctx.edges[e].gChargeGHz));
     this.weightsNonNegative = Object.values(options.weights).every((x) => x >= 0) && options.search.violationPenalty >= 0;
+    const d = ctx.neighbours.reduce((m, ns) => Math.max(m, ns.length), 0);
+    this.maxDegree = d;
+    this.higherGen = new Int32Array(d);
+    this.higherVal = new Float64Array(d);
+    this.spectatorGen = new Int32Array(d);
+    this.spectatorVal = new Float64Array(d);
+    this.crossingGen = new Int32Array(d * d);
+    this.crossingF = new Float64Array(d * d);
+    this.crossingState = Array.from({ length: d * d }, () => emptyTableState());
   }
 
   /**
@@ -148,12 +168,14 @@ export class ParkingCost {
       soft += w.zz * Math.min(1, zzIdleError(z, T));
       let gate: number;
       if (f >= view.freq[j] && cached) {
-        let c = this.higher.get(j);
-        if (c === undefined) {
-          c = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
-          if (this.lastWasHigherCrossing) this.higher.set(j, c);
+        if (this.higherGen[q] === this.generation) gate = this.higherVal[q];
+        else {
+          gate = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
+          if (this.lastWasHigherCrossing) {
+            this.higherGen[q] = this.generation;
+            this.higherVal[q] = gate;
+          }
         }
-        gate = c;
       } else gate = this.gateCost(i, f, st, j, view.freq[j], view.states[j], edge.gChargeGHz);
       soft += w.gate * gate;
       if (bound && violation * penalty + soft >= ceiling) return { violation: violation * penalty, soft };
@@ -230,10 +252,9 @@ export class ParkingCost {
     const ctx = this.ctx;
     let sum = 0;
     const g = this.gOf;
-    if (!cached) {
-      this.spectatorVisit.clear();
-      this.crossingVisit.clear();
-    }
+    // (outside a visit nothing is read from or written to the visit's slots)
+    const gen = cached ? this.generation : -1;
+    const D = this.maxDegree;
     const ni = ctx.neighbours[i];
     for (let q = 0; q < ni.length; q++) {
       const j = ni[q];
@@ -241,9 +262,9 @@ export class ParkingCost {
       const fj = view.freq[j];
       if (f >= fj) {
         // i moves to its 11-20 crossing with j: the point is fixed by f_j, the spectators by the others (constant in a visit)
-        const key = -1 - j;
-        let c = this.spectatorVisit.get(key);
-        if (c === undefined) {
+        let c: number;
+        if (this.spectatorGen[q] === gen) c = this.spectatorVal[q];
+        else {
           c = 0;
           const fInt = ctx.tables[i].f01ForF12(fj);
           if (fInt !== null) {
@@ -253,7 +274,10 @@ export class ParkingCost {
               if (m !== j && view.active[m]) c += admixtureSumOf(e, fInt, view.states[m], view.freq[m], g[i][p], true);
             }
           }
-          this.spectatorVisit.set(key, c);
+          if (cached) {
+            this.spectatorGen[q] = gen;
+            this.spectatorVal[q] = c;
+          }
         }
         sum += c;
       } else {
@@ -270,18 +294,26 @@ export class ParkingCost {
       }
       // the gates of j with its other neighbours k (j the higher), i a spectator where it parks
       // (j's crossing and its state there depend on f_k only: remembered for the visit)
-      for (const k of ctx.neighbours[j]) {
+      const nj = ctx.neighbours[j];
+      for (let p = 0; p < nj.length; p++) {
+        const k = nj[p];
         if (k === i || !view.active[k]) continue;
         const fk = view.freq[k];
         if (fj < fk) continue;
-        const key = j * ctx.n + k;
-        let x = this.crossingVisit.get(key);
-        if (x === undefined) {
-          const fIntJ = ctx.tables[j].f01ForF12(fk);
-          x = fIntJ === null ? null : { fInt: fIntJ, state: ctx.tables[j].at(fIntJ, emptyTableState()) };
-          this.crossingVisit.set(key, x);
+        const slot = q * D + p;
+        const state = cached ? this.crossingState[slot] : this.sc;
+        let fIntJ: number;
+        if (this.crossingGen[slot] === gen) fIntJ = this.crossingF[slot];
+        else {
+          const x = ctx.tables[j].f01ForF12(fk);
+          fIntJ = x === null ? NaN : x;
+          if (x !== null) ctx.tables[j].at(x, state);
+          if (cached) {
+            this.crossingGen[slot] = gen;
+            this.crossingF[slot] = fIntJ;
+          }
         }
-        if (x !== null) sum += admixtureSumOf(x.state, x.fInt, st, f, g[i][q], true);
+        if (fIntJ === fIntJ) sum += admixtureSumOf(state, fIntJ, st, f, g[i][q], true);
       }
     }
     return sum;

@@ -166,12 +166,24 @@ export class ParkingState implements FrequencyView {
     this.changedAll = this.stamp;
   }
 
-  /** The allowed parking set of qubit i: its domain minus the blocked intervals. */
+  /**
+   * The allowed parking set of qubit i: its domain minus the blocked intervals (treat as
+   * read-only). Remembered per qubit for the last list of blocked intervals asked with: a visit
+   * asks twice (candidates, then the refinement), and lists from blockersOf are never changed once
+   * handed out, so the same list gives the same set.
+   */
   allowed(i: number, blockers: readonly Blocker[]): Interval[] {
     const d = this.ctx.domains[i];
     if (!d) return [];
-    return subtract(d, blockers);
+    if (this.allowedFrom[i] === blockers) return this.allowedList[i]!;
+    const list = subtract(d, blockers);
+    this.allowedFrom[i] = blockers;
+    this.allowedList[i] = list;
+    return list;
   }
+
+  private readonly allowedFrom: (readonly Blocker[] | undefined)[] = [];
+  private readonly allowedList: (Interval[] | undefined)[] = [];
 
   /**
    * Candidate frequencies for qubit i: in each allowed interval its nudged ends, its middle and

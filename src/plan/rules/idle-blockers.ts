@@ -130,7 +130,7 @@ export class IdleBlockers {
       out.push({ lo: fj - r.detuning0101GHz, hi: fj + r.detuning0101GHz, rule: '01-01', other: j });
       out.push({ lo: sj.f12 - r.detuning0112GHz, hi: sj.f12 + r.detuning0112GHz, rule: '01-12', other: j });
       const b = this.f12Preimage(i, fj - r.detuning0112GHz, fj + r.detuning0112GHz);
-      if (b) out.push({ ...b, rule: '01-12', other: j });
+      if (b) out.push({ lo: b.lo, hi: b.hi, rule: '01-12', other: j });
       for (const z of this.zzIntervals(i, j, view)) out.push({ lo: z.lo, hi: z.hi, rule: 'zz', other: j });
     }
     for (const p of ctx.nextNearestOf[i]) {
