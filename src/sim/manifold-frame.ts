@@ -68,11 +68,12 @@ export const BUDGET_QL_FROM_SIZE = 8;
 
 /**
  * Intervals of the jump operators' Hermite tables (their own grid; the frame's E and X tables keep
- * tableIntervals). The ladder and number operators in the frame vary slowly with E_J: on the
- * Clove-17 and Bowline-5 designs of the budget benchmark the first-order T1 and white-dephasing
- * terms and the Lindblad fidelity with 8 intervals differ from those with 128 by at most 4e-12
- * relative (2026-12-03; test/sim/decoherence.test.ts keeps 16 against 128 within 1e-9), and the
- * tables cost an eighth of the time to fill.
+ * tableIntervals). The ladder and number operators in the frame vary slowly with E_J: on five
+ * designed gates (Clove-17 D4-Z3, D5-X2, D1-X3 and Bowline-5 Q1-Q0, Q0-Q4; movers at their
+ * sweet spots, partners at 5 GHz or 50 MHz below their sweet spots) the first-order T1 and white-dephasing terms and the Lindblad fidelity
+ * with 8 intervals differ from those with 128 by at most 4e-12 relative (2026-12-03;
+ * test/sim/decoherence.test.ts keeps 16 against 128 within 1e-9), and 16 intervals cost an
+ * eighth of 128 to fill.
  */
 export const NOISE_TABLE_INTERVALS = 16;
 
