@@ -23,6 +23,7 @@
  * Search-only: every number the planner reports and every rule it checks in the end comes from
  * the exact Transmon (src/plan/exact-state.ts); this table only steers the search.
  */
+import { emptyMemoKeys, memoLookup, MEMO_SLOTS } from '../util/frequency-memo.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
 import type { Transmon } from '../transmon/transmon.js';
@@ -212,15 +213,8 @@ export class QubitTable {
    */
   at(fGHz: number, out: TableState = this.scratch): TableState {
     // a remembered answer (the state computed for the same frequency before) is copied out
-    const memoF = this.memoF;
-    const home = memoSlot(fGHz);
-    let free = -1;
-    for (let p = 0; p < MEMO_PROBES; p++) {
-      const k = (home + p) & MEMO_MASK;
-      const key = memoF[k];
-      if (key === fGHz) return readState(this.memoV, k * STATE_FIELDS, out);
-      if (free < 0 && key !== key) free = k;
-    }
+    const found = memoLookup(this.memoF, fGHz);
+    if (found >= 0) return readState(this.memoV, found * STATE_FIELDS, out);
     invertCell(this.v, this.dv, this.h, fGHz, this.m);
     const cell = INVERSE.cell;
     const t = INVERSE.t;
@@ -261,8 +255,8 @@ export class QubitTable {
     out.ejRatio = u * u;
     const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
     out.df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
-    const slot = free >= 0 ? free : home;
-    memoF[slot] = fGHz;
+    const slot = -1 - found;
+    this.memoF[slot] = fGHz;
     writeState(out, this.memoV, slot * STATE_FIELDS);
     return out;
   }
@@ -276,24 +270,17 @@ export class QubitTable {
   fluxAt(fGHz: number): number {
     // remembered answers (the parking cost asks for the flux excursion from one fixed end to each
     // point it tries, and for the same crossings again): the flux computed before for this frequency
-    const memo = this.fluxMemoF;
-    const home = memoSlot(fGHz);
-    let free = -1;
-    for (let p = 0; p < MEMO_PROBES; p++) {
-      const k = (home + p) & MEMO_MASK;
-      const key = memo[k];
-      if (key === fGHz) return this.fluxMemo[k];
-      if (free < 0 && key !== key) free = k;
-    }
+    const found = memoLookup(this.fluxMemoF, fGHz);
+    if (found >= 0) return this.fluxMemo[found];
     const s = this.at(fGHz).ejRatio;
     const flux = fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, s)));
-    const slot = free >= 0 ? free : home;
-    memo[slot] = fGHz;
+    const slot = -1 - found;
+    this.fluxMemoF[slot] = fGHz;
     this.fluxMemo[slot] = flux;
     return flux;
   }
 
-  private readonly fluxMemoF = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly fluxMemoF = emptyMemoKeys();
   private readonly fluxMemo = new Float64Array(MEMO_SLOTS);
 
   /** df01/dPhi (GHz per Phi0) at f01 = fGHz. */
@@ -319,27 +306,20 @@ export class QubitTable {
     const w = this.w12;
     if (f12GHz < w[0] - 1e-12 || f12GHz > w[m - 1] + 1e-12) return null;
     // remembered answers (the planner asks again for the same neighbours): the value computed before
-    const memo = this.f12MemoIn;
-    const home = memoSlot(f12GHz);
-    let free = -1;
-    for (let p = 0; p < MEMO_PROBES; p++) {
-      const k = (home + p) & MEMO_MASK;
-      const key = memo[k];
-      if (key === f12GHz) return this.f12MemoOut[k];
-      if (free < 0 && key !== key) free = k;
-    }
+    const found = memoLookup(this.f12MemoIn, f12GHz);
+    if (found >= 0) return this.f12MemoOut[found];
     invertCell(w, this.dw12, this.h, f12GHz);
     const cell = INVERSE.cell;
     const v = this.v;
     const dv = this.dv;
     const out = hermite(v[cell], v[cell + 1], dv[cell] * this.h, dv[cell + 1] * this.h, INVERSE.t);
-    const slot = free >= 0 ? free : home;
-    memo[slot] = f12GHz;
+    const slot = -1 - found;
+    this.f12MemoIn[slot] = f12GHz;
     this.f12MemoOut[slot] = out;
     return out;
   }
 
-  private readonly f12MemoIn = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly f12MemoIn = emptyMemoKeys();
   private readonly f12MemoOut = new Float64Array(MEMO_SLOTS);
 
   /**
@@ -359,27 +339,13 @@ export class QubitTable {
   }
 
   /**
-   * Memo of `at` by frequency: a small hash table keyed on the frequency's bits (MEMO_SLOTS slots,
-   * probed MEMO_PROBES deep; a full probe run replaces its first slot), values STATE_FIELDS
-   * numbers per slot. The search asks for the same points again and again (a neighbour's crossing
+   * Memo of `at` by frequency (src/util/frequency-memo.ts), values STATE_FIELDS numbers per slot.
+   * The search asks for the same points again and again (a neighbour's crossing
    * from the gate cost, the flux excursion and the spectator term in turn); a remembered answer is
    * the state computing it again gives, to the last bit (at is a function of the frequency alone).
    */
-  private readonly memoF = new Float64Array(MEMO_SLOTS).fill(NaN);
+  private readonly memoF = emptyMemoKeys();
   private readonly memoV = new Float64Array(MEMO_SLOTS * STATE_FIELDS);
-}
-
-/** Slots of the memos of QubitTable.at, fluxAt and f01ForF12 (a power of two), and how deep a lookup probes. */
-const MEMO_SLOTS = 128;
-const MEMO_MASK = MEMO_SLOTS - 1;
-const MEMO_PROBES = 4;
-const BITS = new Float64Array(1);
-const WORDS = new Uint32Array(BITS.buffer);
-
-/** Home slot of a frequency in a memo (a multiplicative hash of its bits). */
-function memoSlot(f: number): number {
-  BITS[0] = f;
-  return Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 25;
 }
 
 /** Numbers of a TableState as the memo stores them. */

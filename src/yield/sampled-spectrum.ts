@@ -11,6 +11,7 @@
  * interpolation is good to ~1e-7 GHz, so both stand for the exact Transmon equally well
  * (test/yield/sampled-spectrum.test.ts).
  */
+import { memoLookup, MEMO_SLOTS } from '../util/frequency-memo.js';
 import type { TableState } from '../plan/qubit-table.js';
 import { QUBIT_TABLE_DEFAULTS, type SpectrumTable } from '../plan/qubit-table.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
@@ -28,8 +29,7 @@ export class SampledSpectrum implements SpectrumTable {
   private readonly red = emptyReducedState();
   private readonly scratch: TableState = blankState();
   /**
-   * Memos of `at` and `f01ForF12` by frequency: small hash tables keyed on the frequency's bits
-   * (MEMO_SLOTS slots each, probed MEMO_PROBES deep; a full probe run replaces its first slot).
+   * Memos of `at` and `f01ForF12` by frequency (src/util/frequency-memo.ts).
    * A drawn chip's rule evaluation and error budget ask each qubit for some 15-20 distinct
    * frequencies, again and again (each neighbour's parking frequency and f12, crossings, seen
    * from each gate near it): a remembered answer is the same object computing it again gives.
@@ -75,21 +75,14 @@ export class SampledSpectrum implements SpectrumTable {
 
   /** State at f01 = fGHz (clamped to the planning range), written into `out`. */
   at(fGHz: number, out: TableState = this.scratch): TableState {
-    const memoF = this.memoF;
-    const home = memoSlot(fGHz);
-    let free = -1;
-    for (let p = 0; p < MEMO_PROBES; p++) {
-      const k = (home + p) & MEMO_MASK;
-      const key = memoF[k];
-      if (key === fGHz) return copyState(this.memoS[k], out);
-      if (free < 0 && key !== key) free = k;
-    }
+    const found = memoLookup(this.memoF, fGHz);
+    if (found >= 0) return copyState(this.memoS[found], out);
     const ec = this.ecGHz;
     const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
     const s = this.table.at(r, this.red);
     fillState(s, ec, this.rTop, out);
-    const k = free >= 0 ? free : home;
-    memoF[k] = fGHz;
+    const k = -1 - found;
+    this.memoF[k] = fGHz;
     copyState(out, this.memoS[k]);
     return out;
   }
@@ -119,19 +112,12 @@ export class SampledSpectrum implements SpectrumTable {
   }
 
   f01ForF12(f12GHz: number): number | null {
-    const memoF = this.memo12F;
-    const home = memoSlot(f12GHz);
-    let free = -1;
-    for (let p = 0; p < MEMO_PROBES; p++) {
-      const k = (home + p) & MEMO_MASK;
-      const key = memoF[k];
-      if (key === f12GHz) return Number.isNaN(this.memo12V[k]) ? null : this.memo12V[k];
-      if (free < 0 && key !== key) free = k;
-    }
+    const found = memoLookup(this.memo12F, f12GHz);
+    if (found >= 0) return Number.isNaN(this.memo12V[found]) ? null : this.memo12V[found];
     const r = this.table.rFor('e12', f12GHz / this.ecGHz, this.rLow, this.rTop, 1e-12 / this.ecGHz);
     const f = r === null ? null : this.ecGHz * this.table.value('e1', r);
-    const k = free >= 0 ? free : home;
-    memoF[k] = f12GHz;
+    const k = -1 - found;
+    this.memo12F[k] = f12GHz;
     this.memo12V[k] = f === null ? NaN : f;
     return f;
   }
@@ -147,18 +133,6 @@ export class SampledSpectrum implements SpectrumTable {
     const d = this.asymmetry;
     return fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, s)));
   }
-}
-
-const MEMO_SLOTS = 128;
-const MEMO_MASK = MEMO_SLOTS - 1;
-const MEMO_PROBES = 4;
-const BITS = new Float64Array(1);
-const WORDS = new Uint32Array(BITS.buffer);
-
-/** Home slot of a frequency in a memo (a multiplicative hash of its bits). */
-function memoSlot(f: number): number {
-  BITS[0] = f;
-  return Math.imul(WORDS[0] ^ Math.imul(WORDS[1], 0x85ebca6b), 0x9e3779b1) >>> 25;
 }
 
 function blankState(): TableState {
