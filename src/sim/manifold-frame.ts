@@ -72,8 +72,8 @@ export const BUDGET_QL_FROM_SIZE = 8;
  * designed gates (Clove-17 D4-Z3, D5-X2, D1-X3 and Bowline-5 Q1-Q0, Q0-Q4; movers at their
  * sweet spots, partners at 5 GHz or 50 MHz below their sweet spots) the first-order T1 and white-dephasing terms and the Lindblad fidelity
  * with 8 intervals differ from those with 128 by at most 4e-12 relative (2026-12-03;
- * test/sim/decoherence.test.ts keeps 16 against 128 within 1e-9), and 16 intervals cost an
- * eighth of 128 to fill.
+ * test/sim/decoherence.test.ts keeps 16 against 128 within 1e-9), and 16 intervals fill an
+ * eighth of the table points of 128.
  */
 export const NOISE_TABLE_INTERVALS = 16;
 
@@ -738,9 +738,14 @@ const HERMITE_WEIGHTS = new Float64Array(4);
  * reader of the frame's tables interpolates with these.
  */
 export function frameHermite(frame: ManifoldFrame, u: number, out: Float64Array): number {
-  const i = tableInterval(frame, u);
-  const h = frame.tableStep;
-  hermiteWeights((u - (frame.ejLo + i * h)) / h, h, out);
+  return gridHermite(frame.ejLo, frame.tableStep, frame.tableIntervals, u, out);
+}
+
+/** The interval of u (clamped) on a grid of `intervals` steps `h` from `lo`, and the cubic Hermite weights there (into out). */
+function gridHermite(lo: number, h: number, intervals: number, u: number, out: Float64Array): number {
+  const k = Math.floor((u - lo) / h);
+  const i = k < 0 ? 0 : k >= intervals ? intervals - 1 : k;
+  hermiteWeights((u - (lo + i * h)) / h, h, out);
   return i;
 }
 
@@ -818,12 +823,7 @@ export function evaluateNoiseTable(frame: ManifoldFrame, values: Float64Array, s
  * (NoiseTables.intervals over [ejLo, ejHi]); the frame's grid when they share it.
  */
 export function noiseHermite(frame: ManifoldFrame, u: number, out: Float64Array): number {
-  const noise = frame.noise!;
-  const h = noise.step;
-  const k = Math.floor((u - frame.ejLo) / h);
-  const i = k < 0 ? 0 : k >= noise.intervals ? noise.intervals - 1 : k;
-  hermiteWeights((u - (frame.ejLo + i * h)) / h, h, out);
-  return i;
+  return gridHermite(frame.ejLo, frame.noise!.step, frame.noise!.intervals, u, out);
 }
 
 /** Largest |A| over table intervals covering [uLo, uHi]. */
