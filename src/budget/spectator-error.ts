@@ -14,8 +14,8 @@
  *     11-20 and 11-02 type crossings of mover and spectator), count as error.
  * The spectator's error is the average of the two infidelities minus the pair's own coherent
  * infidelity (the same waveform without S), and its leakage the same difference of leakages.
- * Model: mover 5 levels (the mover's |2> meets the spectator through its 2-3 transition), partner 3,
- * spectator 3 (src/sim/pair-model.ts), in-block propagation
+ * Model: mover 4 levels (the mover's |2> meets the spectator through its 2-3 transition), partner 3,
+ * spectator 3 (src/sim/pair-model.ts; SPECTATOR_LEVELS), in-block propagation
  * (every spectator crossing lies inside one excitation manifold; tested against the full scheme).
  * The two spectator states share one propagation (src/sim/simulate-gate.ts simulateSpectatorStates:
  * each step is prepared once for the eight columns; the same numbers as two simulations).
@@ -42,7 +42,7 @@ export interface SpectatorErrorInput {
   pairError: number;
   pairLeakage: number;
   propagation?: FramePropagationOptions;
-  /** Levels kept (default mover 5, partner 3, spectator 3); the pair baseline must use the same. */
+  /** Levels kept (default SPECTATOR_LEVELS: mover 4, partner 3, spectator 3); the pair baseline must use the same. */
   levels?: { moverLevels?: number; partnerLevels?: number; spectatorLevels?: number };
   /** Intervals of the frame's Hermite tables (default SPECTATOR_TABLE_INTERVALS). */
   tableIntervals?: number;
@@ -76,8 +76,19 @@ export const SPECTATOR_PROPAGATION = Object.freeze({ scheme: 'in-block' as const
  */
 export const PAIR_TOP_MANIFOLD = 2;
 
-/** Default model size: the mover's 2-3 transition meets spectators during the hold, so 5 levels. */
-export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 5, partnerLevels: 3, spectatorLevels: 3 });
+/**
+ * Default model size. The mover's 2-3 transition meets spectators during the hold, so the mover
+ * keeps |3>. With in-block propagation the computational states reach three excitations (|11>
+ * with S in |1>), so a fifth mover level (|4>) would only dress them through counter-rotating
+ * terms. Measured against the independent NumPy model (test/reference/spectator_gate.py, 10 mover
+ * levels in the charge basis) on Clove-17 D4-Z3 with Z1 at f23 + 0.12, f23 - 0.12 and f23 - 0.24
+ * GHz (errors 5.2e-2, 1.2e-2 and 2.6e-3; 2026-12-03): 4 mover levels are within 0.11-0.19 % of it
+ * in the error (leakage 0.4-0.9 %), 5 within 0.005-0.02 % (0.09-0.3 %); on the four demos' plans
+ * the shares of 4 and 5 levels differ by at most 1.8 % (0.5 % for shares above 1e-4), the gates'
+ * budget totals by at most 0.33 %, and the spectator frames are about a third smaller (fewer of
+ * them fail to converge): Reef-49's plan takes about a sixth less CPU time.
+ */
+export const SPECTATOR_LEVELS = Object.freeze({ moverLevels: 4, partnerLevels: 3, spectatorLevels: 3 });
 
 /** Smallest and largest E_J of the mover along a trajectory (its samples bound the piecewise-linear path). */
 export function moverEjSpan(mover: Transmon, traj: Trajectory): [number, number] {
@@ -106,7 +117,8 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
   // the pair's own error on the same model size (the caller's baseline when the model was not reduced)
   let pairError = input.pairError;
   let pairLeakage = input.pairLeakage;
-  if (reduced === 'mover-levels') {
+  const given = { ...SPECTATOR_LEVELS, ...input.levels };
+  if (moverLevels !== given.moverLevels || partnerLevels !== given.partnerLevels) {
     const pairModel = edgeSimModel({ mover, partner, gGHz: input.gGHz, partnerFlux: input.partnerFlux, ...SPECTATOR_LEVELS, ...input.levels, moverLevels, partnerLevels });
     const alone = gateMetrics(simulateGate(buildManifoldFrame(pairModel, { ejLo: lo, ejHi: hi, keepExcitations: inBlock(input) ? PAIR_TOP_MANIFOLD : 3, qlFromSize: BUDGET_QL_FROM_SIZE }), traj, { ...prop, targetPhase: input.targetPhase, estimate: false }).m, input.targetPhase);
     pairError = 1 - alone.fidelity;
@@ -129,9 +141,11 @@ export function spectatorError(input: SpectatorErrorInput): SpectatorError {
  * tuned low brings its upper levels (|3>, |4>) down among the two-excitation states of a high
  * spectator; their crossings are weak (counter-rotating terms) but sharp, and the dressed
  * manifolds are then not smooth over the mover's E_J range. The frame then keeps three manifolds,
- * then drops the mover's upper levels one by one (down to 3: |2> stays, every 11-20 and 11-02
- * type condition with the spectator stays in the model; the mover's 2-3 transition goes last),
- * with the partner kept to REDUCED_MODEL_PARTNER_LEVELS levels in those reduced models; where
+ * then gives the partner REDUCED_MODEL_PARTNER_LEVELS levels, then the mover one level more
+ * (both larger models, reported as the full one), then drops the mover's upper levels one by one (down
+ * to 3: |2> stays, every 11-20 and 11-02 type condition with the spectator stays in the model;
+ * the mover's 2-3 transition goes), with the partner kept to REDUCED_MODEL_PARTNER_LEVELS levels
+ * in those reduced models; where
  * none of them converges either (the partner's upper levels bring crossings of their own), the
  * same reduced models with the partner's own level count; null when none converges (the caller
  * then runs the full model on the moving basis). `reduced` says which kind of model was simulated.
@@ -146,6 +160,10 @@ function spectatorFrame(input: SpectatorErrorInput, ejLo: number, ejHi: number):
   // In-block propagation never couples manifolds, so the manifolds above the computational
   // states' highest (3: |11> with S in |1>) are never reached and need not be in the frame.
   const attempts: [number, number, number, SpectatorError['reduced']][] = inBlock(input) ? [[full, partnerFull, 3, 'none']] : [[full, partnerFull, 4, 'none'], [full, partnerFull, 3, 'manifolds']];
+  // the mover's levels kept, the partner's upper levels added (they move the crossings; more levels, so not a reduced model)
+  if (partnerReduced !== partnerFull) attempts.push([full, partnerReduced, 3, inBlock(input) ? 'none' : 'manifolds']);
+  // one mover level more (the model before SPECTATOR_LEVELS dropped |4>: on Reef-49's plan two spectators converge only with it)
+  attempts.push([full + 1, partnerFull, 3, inBlock(input) ? 'none' : 'manifolds']);
   for (let m = full - 1; m >= 3; m--) attempts.push([m, partnerReduced, 3, 'mover-levels']);
   if (partnerReduced !== partnerFull) for (let m = full - 1; m >= 3; m--) attempts.push([m, partnerFull, 3, 'mover-levels']);
   for (const [moverLevels, partnerLevels, keepExcitations, reduced] of attempts) {

@@ -20,10 +20,10 @@ export interface PairIn {
   partnerFlux: number;
 }
 
-/** The pair alone on `traj` (default spectator model levels, in-block frame, target pi): the baseline of a share. */
-export function pairAloneBaseline(pair: PairIn, traj: Trajectory): { pairError: number; pairLeakage: number } {
+/** The pair alone on `traj` (spectator model levels, default SPECTATOR_LEVELS; in-block frame, target pi): the baseline of a share. */
+export function pairAloneBaseline(pair: PairIn, traj: Trajectory, levels: { moverLevels: number; partnerLevels: number } = SPECTATOR_LEVELS): { pairError: number; pairLeakage: number } {
   const [lo, hi] = moverEjSpan(pair.mover, traj);
-  const frame = buildManifoldFrame(edgeSimModel({ ...pair, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi, keepExcitations: PAIR_TOP_MANIFOLD });
+  const frame = buildManifoldFrame(edgeSimModel({ ...pair, ...SPECTATOR_LEVELS, ...levels }), { ejLo: lo, ejHi: hi, keepExcitations: PAIR_TOP_MANIFOLD });
   const alone = gateMetrics(simulateGate(frame, traj, { ...SPECTATOR_PROPAGATION, targetPhase: Math.PI, estimate: false }).m, Math.PI);
   return { pairError: 1 - alone.fidelity, pairLeakage: alone.leakage };
 }
