@@ -4,12 +4,14 @@
  * spectator, whose 0-1 transition meets the mover's 2-3 transition during the hold.
  *  - against an independent NumPy model of the three transmons (test/reference/spectator_gate.py:
  *    charge-basis transmons, larger level counts, its own dressed states and virtual-Z phases)
- *    within 15 % of the error (measured: agreement to 1e-4 relative with 10 mover levels in the fixed basis);
+ *    within 15 % of the error (measured 2026-12-03: 0.11 % with SPECTATOR_LEVELS' 4 mover levels, 0.005 %
+ *    with 5; the NumPy model with 10 mover levels in the fixed basis);
  *  - the dispersive law: moved from 120 to 240 MHz below the meeting point (away from the
  *    other meeting points above it), the error falls by about 4x (between 2.5x and 6x: the
  *    phase part goes as (g/Delta)^2, common practice);
  *  - the planner's estimate (half the summed admixture, src/plan/interaction/plan-edge.ts) is
  *    within a factor 3 of the simulation (its documented scale);
+ *  - the budget's Magnus steps (joined ramp segments up to 0.4 ns) give the share of 0.05 ns steps;
  *  - the frame's Hermite tables at SPECTATOR_TABLE_INTERVALS (32) intervals give the error of the
  *    frame builder's default 128 to 1e-7 of itself and the leakage to 1e-9 absolute (measured
  *    2026-12-03: 1.7e-9 and 1.0e-9 relative; leakage 7.5e-11 near the meeting point).
@@ -24,6 +26,7 @@ import { simulateGate } from '../../src/sim/simulate-gate.js';
 import { gateMetrics } from '../../src/sim/gate-metrics.js';
 import { chargeCouplingFromExchange } from '../../src/pair/coupling.js';
 import { runPython } from '../support/python.js';
+import type { FramePropagationOptions } from '../../src/sim/propagate-frame.js';
 
 const { layout, q, g } = demoLayout('clove-17');
 const D4 = q('D4');
@@ -42,11 +45,22 @@ const pair = (() => {
   const sim = simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
   return gateMetrics(sim.m);
 })();
-const errorAt = (fS: number, tableIntervals?: number) =>
+/** Fine steps for the step test: 0.05 ns, E_J steps of at most 0.0625 GHz, no joined ramp segments. */
+const FINE_STEPS = { ...SPECTATOR_PROPAGATION, maxStepNs: 0.05, maxEjStepGHz: 0.0625, joinRamps: false };
+const fineStepPair = (() => {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const x of traj.flux) {
+    lo = Math.min(lo, D4.ejGHz(x));
+    hi = Math.max(hi, D4.ejGHz(x));
+  }
+  return gateMetrics(simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi }), traj, { ...FINE_STEPS, estimate: false }).m);
+})();
+const errorAt = (fS: number, tableIntervals?: number, propagation?: FramePropagationOptions, pairBaseline = pair) =>
   spectatorError({
     mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX,
     spectator: { transmon: Z1, coupledTo: 'mover', gGHz: g('D4', 'Z1'), flux: Z1.fluxForF01(fS) },
-    traj, targetPhase: Math.PI, pairError: 1 - pair.fidelity, pairLeakage: pair.leakage, tableIntervals,
+    traj, targetPhase: Math.PI, pairError: 1 - pairBaseline.fidelity, pairLeakage: pairBaseline.leakage, tableIntervals, propagation,
   });
 /** f23 of the mover at the interaction point: the spectator frequency where |21> meets |30>. */
 const f23 = (() => {
@@ -90,6 +104,16 @@ describe('spectatorError (three transmons)', () => {
     expect(estimate / base.error).toBeGreaterThan(1 / 3);
     expect(estimate / base.error).toBeLessThan(3);
   });
+
+  it('the budget\'s steps (SPECTATOR_PROPAGATION: joined ramp segments up to 0.4 ns) give the share of 0.05 ns steps to 1e-4 relative', () => {
+    // measured 2026-12-03: 4e-6 relative at f23 + 0.12 GHz, 4e-7 at f23 - 0.24 GHz
+    expect(SPECTATOR_PROPAGATION.maxStepNs).toBe(0.4);
+    for (const fS of [near, f23 - 0.24]) {
+      const budgetSteps = fS === near ? base : errorAt(fS);
+      const fine = errorAt(fS, undefined, FINE_STEPS, fineStepPair);
+      expect(Math.abs(budgetSteps.error - fine.error) / fine.error, `at ${fS} GHz: ${budgetSteps.error} vs ${fine.error}`).toBeLessThan(1e-4);
+    }
+  }, 600_000);
 
   it('Hermite tables of 32 intervals give the error of the default 128 to 1e-7 of itself', () => {
     expect(SPECTATOR_TABLE_INTERVALS).toBe(32);
