@@ -19,7 +19,7 @@
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
 import { designCzGate } from '../../src/gate/design.js';
-import { spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, SPECTATOR_TABLE_INTERVALS } from '../../src/budget/spectator-error.js';
+import { moverEjSpan, spectatorError, SPECTATOR_LEVELS, SPECTATOR_PROPAGATION, SPECTATOR_TABLE_INTERVALS } from '../../src/budget/spectator-error.js';
 import { buildManifoldFrame } from '../../src/sim/manifold-frame.js';
 import { edgeSimModel } from '../../src/sim/pair-model.js';
 import { simulateGate } from '../../src/sim/simulate-gate.js';
@@ -35,27 +35,16 @@ const Z1 = q('Z1');
 const Z3_FLUX = Z3.fluxForF01(5.0);
 const design = designCzGate({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), moverParkFlux: 0, partnerFlux: Z3_FLUX, crossing: '11-20', rules: layout.rules });
 const traj = design.waveform;
-const pair = (() => {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const x of traj.flux) {
-    lo = Math.min(lo, D4.ejGHz(x));
-    hi = Math.max(hi, D4.ejGHz(x));
-  }
-  const sim = simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi }), traj, { ...SPECTATOR_PROPAGATION, estimate: false });
-  return gateMetrics(sim.m);
-})();
+/** The pair alone on the waveform (the spectator models' level counts), with the given steps: the baseline of a share. */
+const pairAlone = (steps: FramePropagationOptions) => {
+  const [lo, hi] = moverEjSpan(D4, traj);
+  const frame = buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi });
+  return gateMetrics(simulateGate(frame, traj, { ...steps, estimate: false }).m);
+};
+const pair = pairAlone(SPECTATOR_PROPAGATION);
 /** Fine steps for the step test: 0.05 ns, E_J steps of at most 0.0625 GHz, no joined ramp segments. */
 const FINE_STEPS = { ...SPECTATOR_PROPAGATION, maxStepNs: 0.05, maxEjStepGHz: 0.0625, joinRamps: false };
-const fineStepPair = (() => {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const x of traj.flux) {
-    lo = Math.min(lo, D4.ejGHz(x));
-    hi = Math.max(hi, D4.ejGHz(x));
-  }
-  return gateMetrics(simulateGate(buildManifoldFrame(edgeSimModel({ mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX, ...SPECTATOR_LEVELS }), { ejLo: lo, ejHi: hi }), traj, { ...FINE_STEPS, estimate: false }).m);
-})();
+const fineStepPair = pairAlone(FINE_STEPS);
 const errorAt = (fS: number, tableIntervals?: number, propagation?: FramePropagationOptions, pairBaseline = pair) =>
   spectatorError({
     mover: D4, partner: Z3, gGHz: g('D4', 'Z3'), partnerFlux: Z3_FLUX,
