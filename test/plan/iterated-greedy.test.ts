@@ -2,7 +2,8 @@
  * Iterated greedy colouring (src/plan/iterated-greedy.ts; Culberson and Luo, DIMACS Series 26
  * (1996)). Checked against:
  * - the definition itself, written out plainly here (lists of colour classes, flattened, greedy
- *   colouring in that order; the form the module had before its flat-array rewrite): the same
+ *   colouring in that order, stopping after `patience` rounds without fewer colours; the form the
+ *   module had before its flat-array rewrite): the same
  *   colouring for the same graph, start and seed, on seeded random graphs;
  * - graph facts (textbook, e.g. Diestel, Graph Theory, ch. 5): every result is a proper colouring;
  *   the count never exceeds the start's (Culberson and Luo's invariant); an odd cycle needs 3
@@ -10,16 +11,20 @@
  *   {0,3,6,9}, {1,4,7,10}, {2,5,8,11} of a 12-cycle every class order gives 3 again).
  */
 import { describe, expect, it } from 'vitest';
-import { colourCount, greedyColouring, iteratedGreedy } from '../../src/plan/iterated-greedy.js';
+import { colourCount, greedyColouring, iteratedGreedy, ITERATED_GREEDY_PATIENCE } from '../../src/plan/iterated-greedy.js';
 import { Random } from '../../src/util/random.js';
 
 /** The definition, step by step (lists of classes). */
-function reference(adjacency: number[][], start: Int32Array, o: { iterations: number; seed: number; lowerBound: number }): Int32Array {
+function reference(adjacency: number[][], start: Int32Array, o: { iterations: number; seed: number; lowerBound: number; patience?: number }): Int32Array {
   const rng = new Random(o.seed);
   let best: Int32Array = Int32Array.from(start);
   let bestCount = colourCount(best);
   let cur: Int32Array = best;
-  for (let it = 0; it < o.iterations && bestCount > o.lowerBound; it++) {
+  // rounds in a row without fewer colours than the best (the start counts as round -1)
+  let without = 0;
+  const patience = o.patience ?? ITERATED_GREEDY_PATIENCE;
+  for (let it = 0; it < o.iterations && bestCount > o.lowerBound && without < patience; it++) {
+    without++;
     const classes: number[][] = Array.from({ length: colourCount(cur) }, () => []);
     cur.forEach((c, v) => classes[c].push(v));
     if (it % 3 === 0) classes.sort((a, b) => b.length - a.length);
@@ -34,6 +39,7 @@ function reference(adjacency: number[][], start: Int32Array, o: { iterations: nu
     if (colourCount(cur) < bestCount) {
       best = cur;
       bestCount = colourCount(cur);
+      without = 0;
     }
   }
   const map = new Map<number, number>();
@@ -59,7 +65,7 @@ function randomGraph(rng: Random, n: number, p: number): number[][] {
 const proper = (adj: number[][], c: Int32Array) => adj.every((list, v) => list.every((w) => c[w] !== c[v]));
 
 describe('iteratedGreedy', () => {
-  it('gives the colouring of the plain definition, a proper one never above the start, on random graphs', () => {
+  it('gives the colouring of the plain definition (with its patience), a proper one never above the start, on random graphs', () => {
     const rng = new Random(21);
     for (let g = 0; g < 40; g++) {
       const n = 5 + rng.int(60);
@@ -67,7 +73,8 @@ describe('iteratedGreedy', () => {
       // a poor start: vertex order, and for some graphs colours with gaps (a start may skip colours)
       const start = greedyColouring(adj, Array.from({ length: n }, (_, v) => v));
       if (g % 4 === 0) start.forEach((c, v) => (start[v] = 2 * c));
-      const o = { iterations: 1 + rng.int(60), seed: 1 + rng.int(1000), lowerBound: rng.int(3) };
+      // (a third of them with a short patience, the others with the default, 50 rounds)
+      const o = { iterations: 1 + rng.int(80), seed: 1 + rng.int(1000), lowerBound: rng.int(3), patience: g % 3 === 0 ? 1 + rng.int(5) : undefined };
       const got = iteratedGreedy(adj, start, o);
       expect(got).toEqual(reference(adj, start, o));
       expect(proper(adj, got)).toBe(true);

@@ -24,6 +24,17 @@ export interface SearchStats {
 /** Smallest cost decrease (estimated error per cycle) that counts as an improvement. */
 const IMPROVEMENT = 1e-7;
 
+/**
+ * Smallest decrease of a qubit's cost for which a visit of the refined descent moves it (estimated
+ * error per cycle; the threshold BUDGET_MOVE_GAIN of src/plan/interaction/plan-edge.ts sets for a
+ * spectator move). With IMPROVEMENT alone the refined descent never settled: its golden sections
+ * keep finding points a little better than the last as the neighbours move, and on the generated
+ * 16 x 16 chip it spent all 40 sweeps (about 10,400 visits and 4,100 moves; of the search's 4,313
+ * moves 3,334 gained less than 1e-5); with this threshold it stops after 7 sweeps (about 1,150
+ * visits) and the plans measured were no worse (README "Planner").
+ */
+const REFINED_MIN_GAIN = 1e-4;
+
 /** Candidates tried per qubit in a joint move. */
 const JOINT_CANDIDATES = 3;
 
@@ -39,7 +50,8 @@ function currentCost(state: ParkingState, i: number): number {
 
 /**
  * Move qubit i to its cheapest candidate, refined by a golden-section search inside its allowed
- * interval when `refine`; returns true when it moved.
+ * interval when `refine` (then only when that lowers its cost by at least REFINED_MIN_GAIN);
+ * returns true when it moved.
  */
 export function improveQubit(state: ParkingState, i: number, refine = true): boolean {
   // nothing it reads changed since a visit that found no better point: the same answer again
@@ -96,7 +108,7 @@ export function improveQubit(state: ParkingState, i: number, refine = true): boo
       }
     }
   }
-  if (bestF !== state.freq[i] && best < start) {
+  if (bestF !== state.freq[i] && best < start - (refine ? REFINED_MIN_GAIN : 0)) {
     state.set(i, bestF);
     return true;
   }
@@ -151,6 +163,7 @@ export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: 
   const stats: SearchStats = { sweeps: 0, moves: 0, kicks: 0 };
   if (free.length === 0) return stats;
   let work: number[] = free;
+  const progress: KickProgress = { lowest: Infinity, since: 0 };
   for (let sweep = 0; sweep < limits.sweeps; sweep++) {
     stats.sweeps++;
     const order = shuffled(work, rng);
@@ -169,7 +182,7 @@ export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: 
     const stuck = allViolating(state);
     if (stuck.length === 0) break;
     const before = stats.kicks;
-    kickPhase(state, rng, stuck, limits.kicks, stats);
+    kickPhase(state, rng, stuck, limits.kicks, stats, progress);
     if (stats.kicks === before) break;
     work = free;
   }
@@ -177,14 +190,40 @@ export function localSearch(state: ParkingState, rng: Random, limits: { sweeps: 
 }
 
 /**
+ * Kicks in a row that do not lower the chip's violation measure below its lowest value in the
+ * descent end the descent's kicks. Without it a chip with
+ * a violation no kick can clear (on drawn chips of the yield's replan mode: a qubit whose window
+ * its tunable range misses, and the next-nearest collisions of where it is left) spent the whole
+ * budget, 200 kicks per descent, each settling a neighbourhood: about a third of a drawn 10 x 10
+ * chip's plan. The demos and the generated chips need no kicks.
+ */
+const KICK_PATIENCE = 40;
+
+/** The lowest violation measure of the chip seen by the kick phases of one descent, and the kicks since it was reached. */
+interface KickProgress {
+  lowest: number;
+  since: number;
+}
+
+/**
  * Kicks: move a qubit that blocks a violating one (or the violating qubit itself) to a random
  * candidate, let the neighbourhood settle, and keep the result unless the neighbourhood breaks
- * more rules than before. Stops when nothing is broken or the kick budget is spent.
+ * more rules than before. Stops when nothing is broken, the kick budget is spent, or
+ * KICK_PATIENCE kicks in a row have not lowered the chip's violation measure (at the phase's
+ * start the sum over the violating qubits, then changed by each kept kick's change in its
+ * neighbourhood) below its lowest value in this descent.
  */
-function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: number, stats: SearchStats): void {
+function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: number, stats: SearchStats, progress: KickProgress): void {
   let pending = stuck;
-  while (pending.length > 0 && stats.kicks < budget) {
+  // the chip's violation measure, kept up to date with the kept kicks' changes in their regions
+  let measure = stuck.reduce((s, i) => s + state.violationOf(i), 0);
+  if (measure < progress.lowest - 1e-9) {
+    progress.lowest = measure;
+    progress.since = 0;
+  }
+  while (pending.length > 0 && stats.kicks < budget && progress.since < KICK_PATIENCE) {
     stats.kicks++;
+    progress.since++;
     const v = pending[rng.int(pending.length)];
     const f = state.freq[v];
     const owners = state
@@ -212,6 +251,11 @@ function kickPhase(state: ParkingState, rng: Random, stuck: number[], budget: nu
     }
     const violationAfter = region.reduce((s, i) => s + state.violationOf(i), 0);
     if (violationAfter > violationBefore) region.forEach((i, k) => state.set(i, saved[k]));
+    else measure += violationAfter - violationBefore;
+    if (measure < progress.lowest - 1e-9) {
+      progress.lowest = measure;
+      progress.since = 0;
+    }
     pending = region.filter((i) => state.active[i] && state.violationOf(i) > 0);
     if (pending.length === 0) pending = allViolating(state);
   }
