@@ -35,7 +35,7 @@ import { calibratedZzScale } from '../plan/crowding.js';
 import type { ExactQubitState } from '../plan/exact-state.js';
 import { fromHz, ghz } from '../plan/format.js';
 import type { EdgePlan, ParkedSpectator } from '../plan/interaction/plan-edge.js';
-import { gatesConflict, movedQubits, type MovedQubit } from '../plan/layers.js';
+import { movedConflict, movedQubits, type MovedQubit } from '../plan/layers.js';
 import type { PlanInput } from '../plan/plan-read.js';
 import { emptyTableState } from '../plan/qubit-table.js';
 import { evaluateGate, type Crossing, type DuringGate, type GateScenario } from '../plan/rules/cz-evaluate.js';
@@ -252,7 +252,11 @@ export function evaluateFixed(
   const during: DuringGate[] = states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz }));
   const edgePlans: EdgePlan[] = new Array(ctx.edges.length);
   const budgetScenarios: (GateScenario | null)[] = new Array(ctx.edges.length).fill(null);
-  const pointStates: (ExactQubitState | undefined)[] = new Array(plan.spectatorPoints.length);
+  // (per spectator point, what a gate parking a spectator there reads: one object per point and
+  // chip, shared by the gates that park there; the rule evaluation, the budget and the layer
+  // rules only read them)
+  const pointDuring: (DuringGate | undefined)[] = new Array(plan.spectatorPoints.length);
+  const pointInfo: (ParkedSpectator | undefined)[] = new Array(plan.spectatorPoints.length);
   // (messages off: each CZ finding's gate and place in that gate's findings, by its index in
   // `violations`: arrays, not a Map keyed by the findings, whose identity hashes cost more)
   const originGate: GateScenario[] = [];
@@ -285,9 +289,14 @@ export function evaluateFixed(
         violations.push({ rule: 'cz-range', qubits: [ctx.ids[q]], value: sp.fGHz, threshold: null, edge: key, message: o.messages ? message() : '' });
         continue;
       }
-      const st = (pointStates[sp.point] ??= stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz)));
-      parked.set(q, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
-      parkedInfo.push({ qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' });
+      let info = pointInfo[sp.point];
+      if (!info) {
+        const st = stateAt(ctx, table, q, Math.min(sp.fGHz, t.fMaxGHz));
+        pointDuring[sp.point] = { f01GHz: st.f01GHz, f12GHz: st.f12GHz };
+        info = pointInfo[sp.point] = { qubit: q, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason: '' };
+      }
+      parked.set(q, pointDuring[sp.point]!);
+      parkedInfo.push(info);
     }
     const scenario: GateScenario = {
       edge: fe.edge, mover, partner, crossing: fe.crossing,
@@ -304,33 +313,22 @@ export function evaluateFixed(
       }
       violations.push(f);
     }
-    const plan = stubPlan(fe.edge, mover, partner, fe.crossing);
-    plan.feasible = ev.findings.length === 0;
-    plan.crossingGHz = to;
-    plan.interactionGHz = to;
-    plan.moverInteractionFlux = res.moverFlux;
-    plan.moverF12AtInteractionGHz = res.moverF12GHz;
-    plan.crossingCouplingGHz = res.couplingGHz;
-    plan.rampNs = fe.rampNs;
-    plan.parked = parkedInfo;
-    plan.swept = ev.swept;
-    plan.durationNs = ev.durationNs;
+    // (the plan built whole: the same fields and values as a stub with these set)
+    const plan: EdgePlan = {
+      edge: fe.edge, mover, partner, crossing: fe.crossing, feasible: ev.findings.length === 0, crossingGHz: to, interactionGHz: to,
+      moverInteractionFlux: res.moverFlux, moverF12AtInteractionGHz: res.moverF12GHz, crossingCouplingGHz: res.couplingGHz,
+      speedLimitNs: NaN, gAtInteractionGHz: NaN, durationNs: ev.durationNs, rampNs: fe.rampNs, parked: parkedInfo, swept: ev.swept,
+      findings: NO_FINDINGS, score: Infinity, reason: '', options: NO_OPTIONS,
+    };
     edgePlans[fe.edge] = plan;
     budgetScenarios[fe.edge] = scenario;
   }
   // Layers: gates sharing one must not conflict (only the pairs that can).
   const f12 = states.map((s) => s.f12GHz);
-  const moved = new Map<number, MovedQubit[]>();
-  const movedOf = (k: number) => {
-    let m = moved.get(k);
-    if (!m) {
-      m = movedQubits(ctx, edgePlans[k], f12, parking);
-      moved.set(k, m);
-    }
-    return m;
-  };
+  const moved: (MovedQubit[] | undefined)[] = new Array(ctx.edges.length);
+  const movedOf = (k: number) => (moved[k] ??= movedQubits(ctx, edgePlans[k], f12, parking));
   for (const [a, b] of plan.conflictCandidates) {
-    if (gatesConflict(ctx, edgePlans[a], movedOf(a), edgePlans[b], movedOf(b))) {
+    if (candidatesConflict(ctx, edgePlans[a], movedOf(a), edgePlans[b], movedOf(b))) {
       violations.push({ rule: 'layer-conflict', qubits: [ctx.ids[edgePlans[a].mover], ctx.ids[edgePlans[b].mover]], value: null, threshold: null, edge: ctx.edges[a].key,
         message: `layer ${plan.edges[a].layer}: the gates on ${ctx.edges[a].key} and ${ctx.edges[b].key} share a qubit or a crossing and cannot run at the same time` });
     }
@@ -384,6 +382,52 @@ export function evaluateFixed(
     return again.message;
   };
   return { violations, exactZzEdges, messageOf };
+}
+
+/**
+ * gatesConflict (src/plan/layers.ts, rules a-c) of two gates, the same answer without its sets:
+ * a spectator both gates park at the very same f01 is shared and keeps them apart by none of the
+ * rules; any other qubit both occupy (mover, partner, parked spectator) is rule (a); then rules
+ * (b) and (c) on each pair of moved qubits neither of which is shared (movedConflict). A gate
+ * occupies a handful of qubits, so loops over its lists cost less than the sets (tested against
+ * gatesConflict in test/yield/fixed-evaluate.test.ts).
+ */
+export function candidatesConflict(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): boolean {
+  const p1 = g1.parked;
+  const p2 = g2.parked;
+  // (a): a qubit of g2's (mover, partner, parked) that g1 occupies too and is not shared
+  if ((occupies(g1, g2.mover) && !sharedSpectator(p1, p2, g2.mover)) || (occupies(g1, g2.partner) && !sharedSpectator(p1, p2, g2.partner))) return true;
+  for (let j = 0; j < p2.length; j++) {
+    const q = p2[j].qubit;
+    if (occupies(g1, q) && !sharedSpectator(p1, p2, q)) return true;
+  }
+  // (b), (c)
+  for (let i = 0; i < m1.length; i++) {
+    const x = m1[i];
+    if (sharedSpectator(p1, p2, x.qubit)) continue;
+    for (let j = 0; j < m2.length; j++) {
+      const y = m2[j];
+      if (!sharedSpectator(p1, p2, y.qubit) && movedConflict(ctx, x, y)) return true;
+    }
+  }
+  return false;
+}
+
+/** Both gates park spectator q at the very same f01 (layers.ts sharedSpectators). */
+function sharedSpectator(p1: readonly ParkedSpectator[], p2: readonly ParkedSpectator[], q: number): boolean {
+  for (let i = 0; i < p1.length; i++) {
+    if (p1[i].qubit !== q) continue;
+    for (let j = 0; j < p2.length; j++) if (p2[j].qubit === q && p2[j].fGHz === p1[i].fGHz) return true;
+  }
+  return false;
+}
+
+/** Gate g occupies qubit q: its mover, partner or a parked spectator (layers.ts touchedQubits). */
+function occupies(g: EdgePlan, q: number): boolean {
+  if (q === g.mover || q === g.partner) return true;
+  const p = g.parked;
+  for (let i = 0; i < p.length; i++) if (p[i].qubit === q) return true;
+  return false;
 }
 
 /** Scratch of the reduced table's look-ups (read before the next look-up; single-threaded use). */
@@ -474,6 +518,10 @@ function partnerRatio(t: Transmon, table: ReducedSpectrum, s: ExactQubitState): 
 function pairKey(a: string, b: string): string {
   return a < b ? `${a}\u0000${b}` : `${b}\u0000${a}`;
 }
+
+/** The empty lists of a drawn chip's edge plans (never added to: the budget and the layer rules only read them). */
+const NO_FINDINGS = Object.freeze([]) as unknown as EdgePlan['findings'];
+const NO_OPTIONS = Object.freeze([]) as unknown as EdgePlan['options'];
 
 function stubPlan(edge: number, mover: number, partner: number, crossing: Crossing): EdgePlan {
   return {

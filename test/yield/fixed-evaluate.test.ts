@@ -19,7 +19,10 @@ import { verifyPlan } from '../../src/plan/verify.js';
 import { sharedReducedSpectrum } from '../../src/transmon/reduced-spectrum.js';
 import { nominalChip } from '../../src/yield/chip-model.js';
 import { drawChip } from '../../src/yield/draw.js';
-import { evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
+import { candidatesConflict, evaluateFixed, fixedPlan } from '../../src/yield/fixed-evaluate.js';
+import { planChip } from '../../src/plan/plan.js';
+import { gatesConflict, movedQubits } from '../../src/plan/layers.js';
+import type { EdgePlan } from '../../src/plan/interaction/plan-edge.js';
 import { outcomeOf } from '../../src/yield/outcome.js';
 import { nominalPlan, planForDrawnChip } from '../../src/yield/nominal-plan.js';
 import { sampledContext, sampledLayout } from '../../src/yield/sampled-context.js';
@@ -138,5 +141,50 @@ describe('the sweep\'s crossing memo shared by drawn chips of one structure', ()
     }
     // the chips' couplings differ (a memo answering with the other chip's would fail above)
     expect(differ).toBeGreaterThan(10);
+  });
+});
+
+describe('candidatesConflict (the yield run\'s layer-conflict test without sets)', () => {
+  it('answers as gatesConflict (src/plan/layers.ts, the reference) for every pair of planned gates, with spectators shared at the same or another point, and unreachable gates', () => {
+    // the reference is the planner's own conflict test (rules a-c of src/plan/layers.ts); the
+    // gates are the planner's gates of a generated 4 x 4 chip, plus variants of each pair
+    const layout = parseLayoutText(layoutToYaml(generateLayout({ kind: 'square', rows: 4, cols: 4, seed: 3 })), 'g.yaml');
+    const plan = planChip(layout);
+    const ctx = plan.ctx;
+    const parking = plan.states.map((s) => s.f01GHz);
+    const f12 = plan.states.map((s) => s.f12GHz);
+    const stub = (e: EdgePlan): EdgePlan => ({ ...e, interactionGHz: NaN, parked: [] });
+    let cases = 0;
+    let conflicts = 0;
+    let sharedCases = 0;
+    const check = (g1: EdgePlan, g2: EdgePlan) => {
+      const m1 = movedQubits(ctx, g1, f12, parking);
+      const m2 = movedQubits(ctx, g2, f12, parking);
+      const want = gatesConflict(ctx, g1, m1, g2, m2);
+      expect(candidatesConflict(ctx, g1, m1, g2, m2), `${g1.edge} ${g2.edge}`).toBe(want);
+      cases++;
+      if (want) conflicts++;
+    };
+    const edges = plan.edges;
+    expect(edges.some((e) => e.parked.length > 0)).toBe(true);
+    for (let i = 0; i < edges.length; i++) {
+      for (let j = 0; j < edges.length; j++) {
+        if (i === j) continue;
+        const g1 = edges[i];
+        const g2 = edges[j];
+        check(g1, g2);
+        check(stub(g1), g2);
+        if (g1.parked.length > 0) {
+          // g2 parks g1's spectators at the very same points (shared: no conflict by them) or 1 MHz off
+          check(g1, { ...g2, parked: [...g2.parked, ...g1.parked] });
+          check(g1, { ...g2, parked: [...g2.parked, ...g1.parked.map((p) => ({ ...p, fGHz: p.fGHz + 1e-3 }))] });
+          sharedCases++;
+        }
+      }
+    }
+    // both answers occur, and the shared-spectator variants were exercised
+    expect(conflicts).toBeGreaterThan(50);
+    expect(cases - conflicts).toBeGreaterThan(50);
+    expect(sharedCases).toBeGreaterThan(10);
   });
 });
