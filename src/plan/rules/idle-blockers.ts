@@ -64,53 +64,33 @@ interface ZzCacheEntry {
 /** Reference idle time of the idle-error blocker (ns): about one error-correction cycle, the parking search's own reference (src/plan/options.ts cycleNs). */
 export const IDLE_REFERENCE_NS = 1000;
 
+/**
+ * Idle-error bands per qubit, shared by every IdleBlockers of one PlanContext (they depend only on
+ * the context's transmons, tables and rules; the parking states and the crowding stage each build
+ * their own IdleBlockers, and recomputing the 401-point scan per instance was ~10 % of a replan).
+ */
+const idleBandsOf = new WeakMap<PlanContext, Map<number, Interval[]>>();
+
 export class IdleBlockers {
   private readonly zzCache = new Map<number, ZzCacheEntry>();
   private readonly tmp = emptyTableState();
-  private readonly idleCache = new Map<number, Interval[]>();
+  private readonly idleCache: Map<number, Interval[]>;
 
-  constructor(readonly ctx: PlanContext) {}
+  constructor(readonly ctx: PlanContext) {
+    let shared = idleBandsOf.get(ctx);
+    if (!shared) idleBandsOf.set(ctx, (shared = new Map()));
+    this.idleCache = shared;
+  }
 
   /**
    * The f01 bands where qubit i's own idle error over IDLE_REFERENCE_NS exceeds idleErrorLimit
    * (scanned on 400 points of its planning range; empty when the whole range is above or below it).
+   * Memoised per context: the returned array is shared, callers must not change it.
    */
-  idleErrorIntervals(i: number): Interval[] {
-    const hit = this.idleCache.get(i);
-    if (hit) return hit;
-    const ctx = this.ctx;
-    const t = ctx.transmons[i];
-    const table = ctx.tables[i];
-    const out: Interval[] = [];
-    const spec = t.coherenceSpec;
-    if (spec) {
-      const r = ctx.rules;
-      const n = 400;
-      const lo = table.fLowGHz;
-      const hi = table.fMaxGHz;
-      const bad: boolean[] = [];
-      for (let k = 0; k <= n; k++) {
-        const f = lo + ((hi - lo) * k) / n;
-        const st = table.at(f, this.tmp);
-        const e = qubitIdleError({ coherence: spec, f01GHz: f, slopeGHz: table.fluxSlopeOf(st), curvatureGHz: 0 }, IDLE_REFERENCE_NS, { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK });
-        bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
-      }
-      if (bad.some((b) => !b)) {
-        let start = -1;
-        for (let k = 0; k <= n + 1; k++) {
-          const b = k <= n && bad[k];
-          if (b && start < 0) start = k;
-          if (!b && start >= 0) {
-            // a band that reaches an end of the range extends past it, so the end itself is blocked
-            // (blocked intervals are open: a point exactly on their edge is allowed)
-            out.push({ lo: start === 0 ? lo - 1 : lo + ((hi - lo) * (start - 0.5)) / n, hi: k > n ? hi + 1 : lo + ((hi - lo) * (k - 0.5)) / n });
-            start = -1;
-          }
-        }
-      }
-    }
-    this.idleCache.set(i, out);
-    return out;
+  idleErrorIntervals(i: number): readonly Interval[] {
+    let hit = this.idleCache.get(i);
+    if (!hit) this.idleCache.set(i, (hit = idleErrorBands(this.ctx, i, this.tmp)));
+    return hit;
   }
 
   /** Forget cached ZZ intervals (after a calibration change). */
@@ -288,6 +268,44 @@ export class IdleBlockers {
     }
     return out.filter((x) => x.hi > x.lo && Number.isFinite(x.lo) && Number.isFinite(x.hi));
   }
+}
+
+/**
+ * The f01 bands where qubit i's own idle error over IDLE_REFERENCE_NS exceeds idleErrorLimit,
+ * computed anew (IdleBlockers.idleErrorIntervals remembers them per context).
+ */
+export function idleErrorBands(ctx: PlanContext, i: number, tmp: TableState = emptyTableState()): Interval[] {
+  const t = ctx.transmons[i];
+  const table = ctx.tables[i];
+  const out: Interval[] = [];
+  const spec = t.coherenceSpec;
+  if (spec) {
+    const r = ctx.rules;
+    const n = 400;
+    const lo = table.fLowGHz;
+    const hi = table.fMaxGHz;
+    const bad: boolean[] = [];
+    for (let k = 0; k <= n; k++) {
+      const f = lo + ((hi - lo) * k) / n;
+      const st = table.at(f, tmp);
+      const e = qubitIdleError({ coherence: spec, f01GHz: f, slopeGHz: table.fluxSlopeOf(st), curvatureGHz: 0 }, IDLE_REFERENCE_NS, { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK });
+      bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
+    }
+    if (bad.some((b) => !b)) {
+      let start = -1;
+      for (let k = 0; k <= n + 1; k++) {
+        const b = k <= n && bad[k];
+        if (b && start < 0) start = k;
+        if (!b && start >= 0) {
+          // a band that reaches an end of the range extends past it, so the end itself is blocked
+          // (blocked intervals are open: a point exactly on their edge is allowed)
+          out.push({ lo: start === 0 ? lo - 1 : lo + ((hi - lo) * (start - 0.5)) / n, hi: k > n ? hi + 1 : lo + ((hi - lo) * (k - 0.5)) / n });
+          start = -1;
+        }
+      }
+    }
+  }
+  return out;
 }
 
 /**
