@@ -285,10 +285,15 @@ export function idleErrorBands(ctx: PlanContext, i: number, tmp: TableState = em
     const lo = table.fLowGHz;
     const hi = table.fMaxGHz;
     const bad: boolean[] = [];
+    // (one point and one options object for the 401 calls: qubitIdleError only reads them)
+    const point = { coherence: spec, f01GHz: 0, slopeGHz: 0, curvatureGHz: 0 };
+    const options = { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK };
     for (let k = 0; k <= n; k++) {
       const f = lo + ((hi - lo) * k) / n;
       const st = table.at(f, tmp);
-      const e = qubitIdleError({ coherence: spec, f01GHz: f, slopeGHz: table.fluxSlopeOf(st), curvatureGHz: 0 }, IDLE_REFERENCE_NS, { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK });
+      point.f01GHz = f;
+      point.slopeGHz = table.fluxSlopeOf(st);
+      const e = qubitIdleError(point, IDLE_REFERENCE_NS, options);
       bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
     }
     if (bad.some((b) => !b)) {
