@@ -143,21 +143,44 @@ export interface LayerExplanation {
   pairs: Record<ConflictKind, number>;
 }
 
-/** The kind of conflict between two gates, or null (rules a-c of the banner). */
+/**
+ * The kind of conflict between two gates, or null (rules a-c of the banner). Without allocation
+ * (the layer fitting asks it for every candidate pair of every candidate set of plans): the same
+ * tests as gatesConflict's sets (sharedSpectators, touchedQubits), on the plans' own lists.
+ */
 export function conflictKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
-  const pair1 = new Set([g1.mover, g1.partner]);
-  if (pair1.has(g2.mover) || pair1.has(g2.partner)) return 'shared';
-  const shared = sharedSpectators(g1, g2);
-  if (occupyCommonQubit(g1, g2, shared)) return 'spectator';
+  if (g2.mover === g1.mover || g2.mover === g1.partner || g2.partner === g1.mover || g2.partner === g1.partner) return 'shared';
+  if (touches(g1, g2.mover) && !isSharedSpectator(g1, g2, g2.mover)) return 'spectator';
+  if (touches(g1, g2.partner) && !isSharedSpectator(g1, g2, g2.partner)) return 'spectator';
+  for (const p of g2.parked) if (touches(g1, p.qubit) && !isSharedSpectator(g1, g2, p.qubit)) return 'spectator';
   for (const x of m1) {
-    if (shared.has(x.qubit)) continue;
+    if (isSharedSpectator(g1, g2, x.qubit)) continue;
     for (const y of m2) {
-      if (shared.has(y.qubit) || !movedConflict(ctx, x, y)) continue;
+      if (isSharedSpectator(g1, g2, y.qubit) || !movedConflict(ctx, x, y)) continue;
       return ctx.edgeBetween(x.qubit, y.qubit) >= 0 ? 'close' : 'next';
     }
   }
   return null;
 }
+
+/** True when qubit q is among the qubits gate g occupies (touchedQubits). */
+function touches(g: EdgePlan, q: number): boolean {
+  if (q === g.mover || q === g.partner) return true;
+  for (const p of g.parked) if (p.qubit === q) return true;
+  return false;
+}
+
+/** True when q is in sharedSpectators(g1, g2): some spectator of g1 on q that g2 parks on q at the same f01. */
+function isSharedSpectator(g1: EdgePlan, g2: EdgePlan, q: number): boolean {
+  for (const p of g1.parked) {
+    if (p.qubit !== q) continue;
+    for (const r of g2.parked) if (r.qubit === q && r.fGHz === p.fGHz) return true;
+  }
+  return false;
+}
+
+/** Up to this many plans conflictKinds marks the pairs it has considered in a bit array (at most 2 MB), beyond in a set. */
+const SEEN_BITMAP_PLANS = 4096;
 
 /** Iterated-greedy rounds per layering (bounded for large chips: about 4e6 adjacency visits). */
 const LAYER_ROUNDS = 200;
@@ -175,14 +198,23 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
   });
   // candidate pairs: gates touching a common qubit, or a neighbour or next-nearest neighbour of a moved qubit
   const kinds = new Map<number, ConflictKind>();
-  const seen = new Set<number>();
+  // pairs already considered: one bit per pair (a byte array up to SEEN_BITMAP_PLANS plans, else a set)
+  const m = plans.length;
+  const seenBits = m <= SEEN_BITMAP_PLANS ? new Uint8Array(Math.ceil((m * m) / 8)) : null;
+  const seenSet = seenBits ? null : new Set<number>();
   const consider = (k1: number, k2: number) => {
     if (k1 === k2) return;
     const a = Math.min(k1, k2);
     const b = Math.max(k1, k2);
-    const key = a * plans.length + b;
-    if (seen.has(key)) return;
-    seen.add(key);
+    const key = a * m + b;
+    if (seenBits) {
+      const bit = 1 << (key & 7);
+      if (seenBits[key >> 3] & bit) return;
+      seenBits[key >> 3] |= bit;
+    } else {
+      if (seenSet!.has(key)) return;
+      seenSet!.add(key);
+    }
     const kind = cache ? cache.kindOf(ctx, plans[a], moved[a], plans[b], moved[b]) : conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
     if (kind) kinds.set(key, kind);
   };
