@@ -12,7 +12,7 @@
  * spectator models' default before SPECTATOR_LEVELS kept 4 mover levels), whose frame does not
  * converge here. The budget's own call (spectatorBudget: the default 4 mover levels, and on an
  * 11-02 gate the partner kept to 5 levels in every model) is held to the same value (its frame
- * converges: 1.027e-4, measured 2026-12-03).
+ * converges: 1.037e-4, measured 2026-12-03 with the 0.4 ns budget steps).
  */
 import { demoLayout } from '../support/demo-layout.js';
 import { describe, expect, it } from 'vitest';
