@@ -40,6 +40,7 @@ interface Memo {
   flux: QubitMemo<number | null>;
   spectrum: QubitMemo<SpectrumPoint>;
   curvature: QubitMemo<number>;
+  slope: QubitMemo<number>;
 }
 
 const memos = new WeakMap<PlanContext, Memo>();
@@ -49,7 +50,7 @@ export const MEMO_LIMIT = 200_000;
 
 function memoOf(ctx: PlanContext): Memo {
   let m = memos.get(ctx);
-  if (!m) memos.set(ctx, (m = { flux: new QubitMemo(), spectrum: new QubitMemo(), curvature: new QubitMemo() }));
+  if (!m) memos.set(ctx, (m = { flux: new QubitMemo(), spectrum: new QubitMemo(), curvature: new QubitMemo(), slope: new QubitMemo() }));
   return m;
 }
 
@@ -80,6 +81,20 @@ export function spectrumMemo(ctx: PlanContext, q: number, flux: number): Spectru
   const m = memoOf(ctx).spectrum;
   let v = m.get(q, flux);
   if (v === undefined) v = m.set(q, flux, ctx.transmons[q].spectrum(flux));
+  return v;
+}
+
+/**
+ * spectrumMemo(ctx, q, flux).df01dFluxGHz, the same number, remembered on its own: an exact
+ * transmon computes it from two levels (Transmon.f01FluxSlope) instead of the whole spectrum. For
+ * the spectator-move term, which asks for the slope at each screened spectator point (a new flux
+ * each time) and at parking.
+ */
+export function fluxSlopeMemo(ctx: PlanContext, q: number, flux: number): number {
+  if (ctx.transmons[q].tabulatedSpectrum) return spectrumMemo(ctx, q, flux).df01dFluxGHz;
+  const m = memoOf(ctx).slope;
+  let v = m.get(q, flux);
+  if (v === undefined) v = m.set(q, flux, ctx.transmons[q].f01FluxSlope(flux));
   return v;
 }
 

@@ -61,5 +61,5 @@ export function exactQubitStateAtFlux(t: Transmon, flux: number, resistanceSprea
 /** f01, f12 and flux only (exact; cheaper than the full state): what a moved spectator needs. */
 export function exactTransitions(t: Transmon, fGHz: number): { f01GHz: number; f12GHz: number; flux: number } {
   const flux = t.fluxForF01(fGHz);
-  return { f01GHz: fGHz, f12GHz: t.spectrum(flux).f12GHz, flux };
+  return { f01GHz: fGHz, f12GHz: t.f12(flux), flux };
 }

@@ -37,7 +37,7 @@ import { landauZenerTransfer } from './landau-zener.js';
 import { spectatorMovesNs } from './rules/cz-duration.js';
 import { qubitIdleError, type IdleErrorOptions } from '../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../transmon/coherence.js';
-import { fluxCurvatureMemo, spectrumMemo } from './exact-memo.js';
+import { fluxCurvatureMemo, fluxSlopeMemo, spectrumMemo } from './exact-memo.js';
 
 export interface GateBudget {
   coherent: number;
@@ -109,8 +109,9 @@ export function spectatorMoveError(ctx: PlanContext, e: Pick<EdgePlan, 'mover' |
     const spec = ctx.transmons[p.qubit].coherenceSpec;
     if (!spec?.fluxNoisePhi0) continue;
     const sigma = quasiStaticFluxSigma(spec.fluxNoisePhi0, slotNs, ctx.rules.noiseAveragingTimeNs);
-    const moved = (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, p.flux).df01dFluxGHz, 0, sigma)) / 3;
-    const parked = (1 - quasiStaticCoherence(slotNs, spectrumMemo(ctx, p.qubit, states[p.qubit].flux).df01dFluxGHz, 0, sigma)) / 3;
+    // (the slope alone, from two levels: fluxSlopeMemo gives spectrumMemo's df01dFluxGHz)
+    const moved = (1 - quasiStaticCoherence(slotNs, fluxSlopeMemo(ctx, p.qubit, p.flux), 0, sigma)) / 3;
+    const parked = (1 - quasiStaticCoherence(slotNs, fluxSlopeMemo(ctx, p.qubit, states[p.qubit].flux), 0, sigma)) / 3;
     sum += Math.max(0, moved - parked);
   }
   return sum;

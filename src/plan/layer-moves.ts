@@ -24,7 +24,7 @@
  *     3. the layers are coloured again starting from that assignment (repaired where needed).
  * Deterministic: the same plans and seed give the same result.
  */
-import { BUDGET_MOVE_REASON, withSpectatorPoints, withoutSpectators, type EdgeContext, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
+import { BUDGET_MOVE_REASON, withSpectatorPointsDraft, withoutSpectators, type EdgeContext, type EdgePlan, type EdgePlanDraft, type ParkedSpectator } from './interaction/plan-edge.js';
 import { ConflictCache, explainLayers, gatesConflict, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
@@ -123,9 +123,10 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
     const pointOf = (k: number) => out[k].parked.find((p) => p.qubit === S)!;
     const points = [...new Map(list.map((k) => [pointOf(k).fGHz, pointOf(k)])).values()].sort((a, b) => a.fGHz - b.fGHz);
     if (points.length < 2) continue;
-    let best: { accepted: EdgePlan[]; who: number[]; error: number } | null = null;
+    // (candidates are compared by score; only the kept point's plans are built: EdgePlanDraft)
+    let best: { accepted: (EdgePlan | EdgePlanDraft)[]; who: number[]; error: number } | null = null;
     for (const at of points) {
-      const accepted: EdgePlan[] = [];
+      const accepted: (EdgePlan | EdgePlanDraft)[] = [];
       const who: number[] = [];
       let error = 0;
       for (const k of list) {
@@ -137,25 +138,29 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
       }
       if (!best || who.length > best.who.length || (who.length === best.who.length && error < best.error)) best = { accepted, who, error };
     }
-    if (best && best.who.length >= 2) best.who.forEach((k, i) => (out[k] = best!.accepted[i]));
+    if (best && best.who.length >= 2) best.who.forEach((k, i) => (out[k] = planOf(best!.accepted[i])));
   }
   return out;
 }
 
 /**
- * withSpectatorPoints(ec, plan, {S: at}) remembered per plan object, spectator and point (the
- * fitting aligns twice, the second time mostly the same plans): the same plan or null as
- * evaluating it again, as long as `ec` is the same (one memo per fitMovesToLayers call).
+ * withSpectatorPointsDraft(ec, plan, {S: at}) remembered per plan object, spectator and point (the
+ * fitting aligns twice, the second time mostly the same plans): the same score and plan (one
+ * object, built when a point is kept) or null as evaluating it again, as long as `ec` is the same
+ * (one memo per fitMovesToLayers call).
  */
-export type SpectatorMoveMemo = WeakMap<EdgePlan, Map<string, { flux: number; f12GHz: number; result: EdgePlan | null }>>;
+export type SpectatorMoveMemo = WeakMap<EdgePlan, Map<string, { flux: number; f12GHz: number; result: EdgePlanDraft | null }>>;
 
-function movedTo(ec: EdgeContext, memo: SpectatorMoveMemo, plan: EdgePlan, S: number, at: Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>): EdgePlan | null {
+/** The plan of a draft (built once: the same object every time), or the plan itself. */
+const planOf = (e: EdgePlan | EdgePlanDraft): EdgePlan => ('plan' in e && typeof e.plan === 'function' ? e.plan() : (e as EdgePlan));
+
+function movedTo(ec: EdgeContext, memo: SpectatorMoveMemo, plan: EdgePlan, S: number, at: Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>): EdgePlanDraft | null {
   let row = memo.get(plan);
   if (!row) memo.set(plan, (row = new Map()));
   const key = `${S},${at.fGHz}`;
   const hit = row.get(key);
   if (hit && hit.flux === at.flux && hit.f12GHz === at.f12GHz) return hit.result;
-  const result = withSpectatorPoints(ec, plan, new Map([[S, at]]));
+  const result = withSpectatorPointsDraft(ec, plan, new Map([[S, at]]));
   row.set(key, { flux: at.flux, f12GHz: at.f12GHz, result });
   return result;
 }

@@ -86,10 +86,13 @@ export function movedConflict(ctx: PlanContext, x: MovedQubit, y: MovedQubit): b
     return overlap(x.lo, x.hi, y.lo, y.hi, pad01) || overlap(x.lo12, x.hi12, y.lo, y.hi, pad12) || overlap(x.lo, x.hi, y.lo12, y.hi12, pad12);
   }
   if (!(Math.abs(x.toGHz - y.toGHz) < r.detuningNext0101GHz)) return false;
-  return ctx.nextNearestOf[x.qubit].some((p) => {
-    const pair = ctx.nextNearest[p];
-    return (pair.a === x.qubit ? pair.b : pair.a) === y.qubit;
-  });
+  // (a loop, not some() with a closure: the layer fitting asks this for every candidate pair)
+  const list = ctx.nextNearestOf[x.qubit];
+  for (let i = 0; i < list.length; i++) {
+    const pair = ctx.nextNearest[list[i]];
+    if ((pair.a === x.qubit ? pair.b : pair.a) === y.qubit) return true;
+  }
+  return false;
 }
 
 /**
@@ -152,10 +155,17 @@ export function conflictKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQ
   if (g2.mover === g1.mover || g2.mover === g1.partner || g2.partner === g1.mover || g2.partner === g1.partner) return 'shared';
   if (touches(g1, g2.mover) && !isSharedSpectator(g1, g2, g2.mover)) return 'spectator';
   if (touches(g1, g2.partner) && !isSharedSpectator(g1, g2, g2.partner)) return 'spectator';
-  for (const p of g2.parked) if (touches(g1, p.qubit) && !isSharedSpectator(g1, g2, p.qubit)) return 'spectator';
-  for (const x of m1) {
+  // (indexed loops: no iterator objects in a test asked for every candidate pair)
+  const parked2 = g2.parked;
+  for (let i = 0; i < parked2.length; i++) {
+    const q = parked2[i].qubit;
+    if (touches(g1, q) && !isSharedSpectator(g1, g2, q)) return 'spectator';
+  }
+  for (let i = 0; i < m1.length; i++) {
+    const x = m1[i];
     if (isSharedSpectator(g1, g2, x.qubit)) continue;
-    for (const y of m2) {
+    for (let j = 0; j < m2.length; j++) {
+      const y = m2[j];
       if (isSharedSpectator(g1, g2, y.qubit) || !movedConflict(ctx, x, y)) continue;
       return ctx.edgeBetween(x.qubit, y.qubit) >= 0 ? 'close' : 'next';
     }
@@ -166,15 +176,19 @@ export function conflictKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQ
 /** True when qubit q is among the qubits gate g occupies (touchedQubits). */
 function touches(g: EdgePlan, q: number): boolean {
   if (q === g.mover || q === g.partner) return true;
-  for (const p of g.parked) if (p.qubit === q) return true;
+  const parked = g.parked;
+  for (let i = 0; i < parked.length; i++) if (parked[i].qubit === q) return true;
   return false;
 }
 
 /** True when q is in sharedSpectators(g1, g2): some spectator of g1 on q that g2 parks on q at the same f01. */
 function isSharedSpectator(g1: EdgePlan, g2: EdgePlan, q: number): boolean {
-  for (const p of g1.parked) {
-    if (p.qubit !== q) continue;
-    for (const r of g2.parked) if (r.qubit === q && r.fGHz === p.fGHz) return true;
+  const p1 = g1.parked;
+  const p2 = g2.parked;
+  for (let i = 0; i < p1.length; i++) {
+    if (p1[i].qubit !== q) continue;
+    const f = p1[i].fGHz;
+    for (let j = 0; j < p2.length; j++) if (p2[j].qubit === q && p2[j].fGHz === f) return true;
   }
   return false;
 }

@@ -77,6 +77,32 @@ export function spectrumAt(params: TransmonParams, flux: number, options: { char
 }
 
 /**
+ * df01/dPhi alone (GHz per Phi0): spectrumAt's df01dFluxGHz, bit for bit, from the two lowest
+ * levels and their vectors only (spectrumAt solves three). Each level of a parity block comes from
+ * its own Newton solve from its own start value and its own twisted factorisation
+ * (src/transmon/parity-eigenbasis.ts), so levels 0 and 1 and their vectors do not depend on how
+ * many levels are asked for. For callers that need only the slope (the spectator-move term's
+ * quasi-static dephasing, the flux curvature).
+ */
+export function f01FluxSlopeAt(params: TransmonParams, flux: number, options: { chargeCutoff?: number } = {}): number {
+  const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
+  const ej = josephsonEnergy(params.ejsGHz, params.asymmetry, flux);
+  const dEj = josephsonEnergySlope(params.ejsGHz, params.asymmetry, flux);
+  const b = parityEigenbasis(params.ecGHz, ej, 2, nCut, true);
+  return -(cosPhiElement(b, 1, 1) - cosPhiElement(b, 0, 0)) * dEj;
+}
+
+/**
+ * f12 alone (GHz): spectrumAt's f12GHz, bit for bit, from the three lowest levels without their
+ * vectors (the eigenvalues do not depend on whether vectors are computed).
+ */
+export function f12At(params: TransmonParams, flux: number, options: { chargeCutoff?: number } = {}): number {
+  const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
+  const e = parityEigenbasis(params.ecGHz, josephsonEnergy(params.ejsGHz, params.asymmetry, flux), 3, nCut, false).energies;
+  return e[2] - e[1];
+}
+
+/**
  * f01 for (E_C, E_J) and its slope with respect to E_J, df01/dE_J = <0|cos phi|0> - <1|cos phi|1>
  * (Hellmann-Feynman). Writes the slope into `slope.value` when given.
  */

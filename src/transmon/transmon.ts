@@ -31,7 +31,7 @@ import { transmonLevels, type TransmonLevels } from './levels.js';
 import { chargeMatrix, cosPhiMatrix } from './matrix-elements.js';
 import { chargeMatrixFromParity, parityEigenbasis } from './parity-eigenbasis.js';
 import { resolveTransmon, type ResolveOptions } from './resolve.js';
-import { spectrumAt, type SpectrumPoint, type TransmonParams } from './spectrum.js';
+import { f01FluxSlopeAt, f12At, spectrumAt, type SpectrumPoint, type TransmonParams } from './spectrum.js';
 
 export interface TransmonOptions {
   /** Charge cutoff N; default chargeCutoffFor(E_JS / E_C). */
@@ -184,6 +184,22 @@ export class Transmon {
     return spectrumAt(this.params, flux, { chargeCutoff: this.chargeCutoff });
   }
 
+  /**
+   * df01/dPhi at `flux`: spectrum(flux).df01dFluxGHz, bit for bit, from two levels instead of
+   * three (src/transmon/spectrum.ts f01FluxSlopeAt). A subclass whose spectrum is a table look-up
+   * (tabulatedSpectrum) answers from its own spectrum.
+   */
+  f01FluxSlope(flux: number): number {
+    if (this.tabulatedSpectrum) return this.spectrum(flux).df01dFluxGHz;
+    return f01FluxSlopeAt(this.params, flux, { chargeCutoff: this.chargeCutoff });
+  }
+
+  /** f12 at `flux`: spectrum(flux).f12GHz, bit for bit, without eigenvectors (a tabulated subclass: from its spectrum). */
+  f12(flux: number): number {
+    if (this.tabulatedSpectrum) return this.spectrum(flux).f12GHz;
+    return f12At(this.params, flux, { chargeCutoff: this.chargeCutoff });
+  }
+
   /** Lowest `k` levels at `flux` (n_g = 0). */
   levels(flux: number, k: number, vectors = false): TransmonLevels {
     return transmonLevels(this.ecGHz, this.ejGHz(flux), { levels: k, chargeCutoff: this.chargeCutoff, vectors });
@@ -243,7 +259,7 @@ export class Transmon {
    */
   fluxCurvatureGHz(flux: number): number {
     const h = 1e-4;
-    return (this.spectrum(flux + h).df01dFluxGHz - this.spectrum(flux - h).df01dFluxGHz) / (2 * h);
+    return (this.f01FluxSlope(flux + h) - this.f01FluxSlope(flux - h)) / (2 * h);
   }
 
   /** The time over which a calibration is reused (ns), which sets the quasi-static flux-noise spread. */
@@ -258,7 +274,7 @@ export class Transmon {
    */
   coherence(flux: number, slopeGHz?: number): Coherence {
     if (!this.coherenceSpec) throw new RangeError(`Transmon ${this.id}: no coherence data (T1, T_phi, flux noise)`);
-    const slope = slopeGHz ?? this.spectrum(flux).df01dFluxGHz;
+    const slope = slopeGHz ?? this.f01FluxSlope(flux);
     const curvature = this.coherenceSpec.fluxNoisePhi0 ? this.fluxCurvatureGHz(flux) : 0;
     return coherenceFor(this.coherenceSpec, slope, curvature, this.coherenceOptions);
   }

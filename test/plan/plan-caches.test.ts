@@ -31,11 +31,11 @@
 import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
-import { fluxCurvatureMemo, fluxForF01Memo, spectrumMemo } from '../../src/plan/exact-memo.js';
+import { fluxCurvatureMemo, fluxForF01Memo, fluxSlopeMemo, spectrumMemo } from '../../src/plan/exact-memo.js';
 import { crossingCouplingsForTest, evaluateGate, nextNearestCouplingForTest, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
-import { bestSpectatorPointForTest, estimateEdgeBudget, optionScore, parkingOf, parkSpectators, withoutSpectators, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
+import { bestSpectatorPointForTest, estimateEdgeBudget, exchangeAtInteraction, optionScore, parkingOf, parkSpectators, withoutSpectators, withSpectatorPoints, withSpectatorPointsDraft, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
 import { idleTotalForTest, spectatorMovePairError } from '../../src/plan/gate-budget.js';
@@ -60,6 +60,7 @@ describe('exact-result memos', () => {
         expect(spectrumMemo(ctx, q, flux)).toEqual(t.spectrum(flux));
         expect(fluxForF01Memo(ctx, q, f)).toBe(t.fluxForF01OrNull(f));
         expect(fluxCurvatureMemo(ctx, q, flux)).toBe(t.fluxCurvatureGHz(flux));
+        expect(fluxSlopeMemo(ctx, q, flux)).toBe(t.spectrum(flux).df01dFluxGHz);
       }
     }
     expect(spectrumMemo(ctx, 0, -0)).toEqual(ctx.transmons[0].spectrum(0));
@@ -545,5 +546,56 @@ describe('the shared parking list', () => {
     expect(b).not.toBe(a);
     expect(b).toEqual(states.map((s) => ({ f01GHz: s.f01GHz, f12GHz: s.f12GHz })));
     expect(a).toEqual(before);
+  });
+});
+
+describe('the exchange coupling at the interaction point from two levels per transmon', () => {
+  it('equals the pair\'s six-level exchangeCoupling bit for bit, at every planned interaction point and across fluxes', () => {
+    const rng = new Random(5);
+    for (const e of clove.edges) {
+      const edge = ctx.edges[e.edge];
+      const pair = ctx.pair(e.edge);
+      if (Number.isFinite(e.moverInteractionFlux)) {
+        const fa = e.mover === edge.a ? e.moverInteractionFlux : clove.states[edge.a].flux;
+        const fb = e.mover === edge.b ? e.moverInteractionFlux : clove.states[edge.b].flux;
+        expect(exchangeAtInteraction(ctx, e.edge, fa, fb)).toBe(pair.exchangeCoupling(fa, fb));
+        expect(e.gAtInteractionGHz).toBe(pair.exchangeCoupling(fa, fb));
+      }
+      for (let k = 0; k < 3; k++) {
+        const fa = 0.45 * rng.uniform();
+        const fb = 0.45 * rng.uniform();
+        expect(exchangeAtInteraction(ctx, e.edge, fa, fb)).toBe(pair.exchangeCoupling(fa, fb));
+      }
+    }
+  });
+});
+
+describe('an edge re-evaluated with other spectator points, its plan built on demand', () => {
+  it('the draft\'s score and plan are withSpectatorPoints\' plan (the same object on every call)', () => {
+    const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+    let tried = 0;
+    for (const e of clove.edges) {
+      for (const p of e.parked) {
+        const t = ctx.tables[p.qubit];
+        for (const f of [p.fGHz - 0.03, p.fGHz + 0.02, t.fLowGHz + 0.5 * (t.fMaxGHz - t.fLowGHz)]) {
+          if (!(f > t.fLowGHz && f < t.fMaxGHz)) continue;
+          const st = exactQubitState(ctx.transmons[p.qubit], f, ctx.rules.resistanceSpread);
+          const points = new Map([[p.qubit, { fGHz: f, flux: st.flux, f12GHz: st.f12GHz }]]);
+          const full = withSpectatorPoints(ec, e, points);
+          const draft = withSpectatorPointsDraft(ec, e, points);
+          tried++;
+          if (full === null) {
+            expect(draft).toBeNull();
+            continue;
+          }
+          expect(draft).not.toBeNull();
+          expect(draft!.score).toBe(full.score);
+          const built = draft!.plan();
+          expect(built).toEqual(full);
+          expect(draft!.plan()).toBe(built);
+        }
+      }
+    }
+    expect(tried).toBeGreaterThan(5);
   });
 });

@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { josephsonEnergy } from '../../src/transmon/josephson.js';
-import { spectrumAt, type TransmonParams } from '../../src/transmon/spectrum.js';
+import { f01FluxSlopeAt, f12At, spectrumAt, type TransmonParams } from '../../src/transmon/spectrum.js';
 import { tunableRange } from '../../src/transmon/tunable-range.js';
 import { expectClose } from '../support/close.js';
 import { runPython } from '../support/python.js';
@@ -60,6 +60,39 @@ describe('spectrumAt(params, flux)', () => {
       if (i > 0 && i < 50) expect(s.df01dFluxGHz).toBeLessThan(0);
       prev = s.f01GHz;
     }
+  });
+});
+
+describe('f01FluxSlopeAt and f12At (the slope or f12 alone, for callers that need only that)', () => {
+  it('are spectrumAt\'s df01dFluxGHz and f12GHz bit for bit (fewer levels, the same solves), across devices, fluxes and charge cutoffs', () => {
+    for (const p of devices) {
+      for (let i = 0; i <= 60; i++) {
+        const flux = -0.1 + (0.7 * i) / 60;
+        for (const chargeCutoff of [undefined, 8, 15]) {
+          const o = chargeCutoff === undefined ? {} : { chargeCutoff };
+          const s = spectrumAt(p, flux, o);
+          expect(f01FluxSlopeAt(p, flux, o)).toBe(s.df01dFluxGHz);
+          expect(f12At(p, flux, o)).toBe(s.f12GHz);
+        }
+      }
+    }
+  });
+
+  it('f01FluxSlopeAt matches a fourth-order central finite difference of f01 to 1e-7 relative, and f12At the Mathieu f12 (SciPy) to 1e-11', () => {
+    const h = 1e-4;
+    for (const p of devices) {
+      for (const flux of [0.03, 0.15, 0.25, 0.38, 0.47]) {
+        const f = (x: number) => spectrumAt(p, x).f01GHz;
+        const fd = (-f(flux + 2 * h) + 8 * f(flux + h) - 8 * f(flux - h) + f(flux - 2 * h)) / (12 * h);
+        expectClose(f01FluxSlopeAt(p, flux), fd, 1e-7, `df01/dPhi d=${p.asymmetry} Phi=${flux}`);
+      }
+    }
+    devices.forEach((p, di) =>
+      fluxes.forEach((flux, fi) => {
+        const m = ref[di * fluxes.length + fi].mathieu;
+        expectClose(f12At(p, flux), m[2] - m[1], 1e-11, `device ${di} Phi=${flux} f12`);
+      }),
+    );
   });
 });
 

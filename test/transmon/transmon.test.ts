@@ -106,6 +106,19 @@ describe('Transmon.fromLayout(qubit)', () => {
     expectClose(b.cosPhi[0], -(e(b.ejGHz + h) - e(b.ejGHz - h)) / (2 * h), 1e-8, '<0|cos phi|0>');
   });
 
+  it('f01FluxSlope and f12 are spectrum()\'s df01dFluxGHz and f12GHz bit for bit, and fluxCurvatureGHz the central difference of spectrum()\'s slopes', () => {
+    const h = 1e-4;
+    for (const t of [qa, qb, qc]) {
+      for (let i = 0; i <= 40; i++) {
+        const flux = -0.05 + (0.6 * i) / 40;
+        const s = t.spectrum(flux);
+        expect(t.f01FluxSlope(flux)).toBe(s.df01dFluxGHz);
+        expect(t.f12(flux)).toBe(s.f12GHz);
+        expect(t.fluxCurvatureGHz(flux)).toBe((t.spectrum(flux + h).df01dFluxGHz - t.spectrum(flux - h).df01dFluxGHz) / (2 * h));
+      }
+    }
+  });
+
   it('without coherence data, coherence() says so', () => {
     const bare = new Transmon('X', { ecGHz: 0.2, ejsGHz: 15, asymmetry: 0.1 });
     expect(() => bare.coherence(0.1)).toThrow(/no coherence data/);

@@ -17,6 +17,7 @@
  */
 import { spectrumMemo } from '../exact-memo.js';
 import { pairResonances } from '../../pair/resonances.js';
+import { exchangeFromChargeCoupling } from '../../pair/coupling.js';
 import type { PlanContext } from '../context.js';
 import { exactTransitions } from '../exact-state.js';
 import { band, ghz, prob } from '../format.js';
@@ -201,7 +202,6 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
     };
   }
   const s = chosen.scenario;
-  const pair = ctx.pair(edge);
   const atFlux = chosen.report.moverFlux!;
   const fluxA = s.mover === e.a ? atFlux : ec.states[e.a].flux;
   const fluxB = s.mover === e.b ? atFlux : ec.states[e.b].flux;
@@ -217,7 +217,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
     moverF12AtInteractionGHz: s.moverF12AtToGHz,
     crossingCouplingGHz: s.crossingCouplingGHz,
     speedLimitNs: 1 / (2 * s.crossingCouplingGHz),
-    gAtInteractionGHz: pair.exchangeCoupling(fluxA, fluxB),
+    gAtInteractionGHz: exchangeAtInteraction(ctx, edge, fluxA, fluxB),
     durationNs: chosen.eval.durationNs,
     rampNs,
     parked: chosen.report.parked,
@@ -227,6 +227,18 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
     reason,
     options: reports,
   };
+}
+
+/**
+ * ctx.pair(edge).exchangeCoupling(fluxA, fluxB), the same number: g = G |<0|n|1>_A| |<0|n|1>_B|
+ * from each exact transmon's two lowest levels (Transmon.chargeElement01) instead of the pair's
+ * six-level bases (levels 0 and 1 and their vectors do not depend on how many levels are solved:
+ * src/transmon/parity-eigenbasis.ts). A tabulated transmon (src/yield) keeps the pair's path.
+ */
+export function exchangeAtInteraction(ctx: PlanContext, edge: number, fluxA: number, fluxB: number): number {
+  const pair = ctx.pair(edge);
+  if (pair.a.tabulatedSpectrum || pair.b.tabulatedSpectrum) return pair.exchangeCoupling(fluxA, fluxB);
+  return exchangeFromChargeCoupling(pair.gChargeGHz, pair.a.chargeElement01(fluxA), pair.b.chargeElement01(fluxB));
 }
 
 function evaluateOption(
@@ -730,8 +742,24 @@ function reasonText(ctx: PlanContext, chosen: OptionReport, all: readonly Option
  * give spectators shared by gates of one layer one common point (src/plan/layer-moves.ts).
  */
 export function withSpectatorPoints(ec: EdgeContext, plan: EdgePlan, points: ReadonlyMap<number, Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>>): EdgePlan | null {
+  return withSpectatorPointsDraft(ec, plan, points)?.plan() ?? null;
+}
+
+/**
+ * A re-evaluated edge plan whose score is known and whose plan object (with its reason and
+ * option notes, text that costs more than the rules) is built on the first call of `plan()` and
+ * the same object returned after: the layer fitting compares many candidate points by score and
+ * keeps few (src/plan/layer-moves.ts).
+ */
+export interface EdgePlanDraft {
+  score: number;
+  plan(): EdgePlan;
+}
+
+/** withSpectatorPoints with the plan object built on demand: `draft.plan()` is the plan withSpectatorPoints returns. */
+export function withSpectatorPointsDraft(ec: EdgeContext, plan: EdgePlan, points: ReadonlyMap<number, Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>>): EdgePlanDraft | null {
   if (![...points.keys()].every((q) => plan.parked.some((p) => p.qubit === q))) return null;
-  return withParked(
+  return withParkedDraft(
     ec,
     plan,
     plan.parked.map((p) => {
@@ -752,6 +780,11 @@ export function withoutSpectators(ec: EdgeContext, plan: EdgePlan, qubits: Reado
  * or null when the gate then breaks a rule.
  */
 function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator[]): EdgePlan | null {
+  return withParkedDraft(ec, plan, parkedInfo)?.plan() ?? null;
+}
+
+/** withParked's evaluation now, its plan object (reason and notes) on demand. */
+function withParkedDraft(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator[]): EdgePlanDraft | null {
   const { ctx } = ec;
   if (!plan.feasible) return null;
   const scenario: GateScenario = {
@@ -765,13 +798,17 @@ function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator
   const ev = evaluateGate(ctx, scenario, QUIET);
   if (ev.findings.length > 0) return null;
   const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
-  const id = ctx.ids;
-  const isChosen = (o: OptionReport) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible;
-  const note = `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`;
-  const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
-  const chosen = options.find(isChosen)!;
-  return {
-    ...plan, parked: parkedInfo, swept: ev.swept, findings: ev.findings, durationNs: ev.durationNs, score, options,
-    reason: reasonText(ctx, chosen, options, plan.partner),
+  let built: EdgePlan | undefined;
+  const build = (): EdgePlan => {
+    const id = ctx.ids;
+    const isChosen = (o: OptionReport) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible;
+    const note = `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`;
+    const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
+    const chosen = options.find(isChosen)!;
+    return {
+      ...plan, parked: parkedInfo, swept: ev.swept, findings: ev.findings, durationNs: ev.durationNs, score, options,
+      reason: reasonText(ctx, chosen, options, plan.partner),
+    };
   };
+  return { score, plan: () => (built ??= build()) };
 }
