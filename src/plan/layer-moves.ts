@@ -149,19 +149,22 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
  * object, built when a point is kept) or null as evaluating it again, as long as `ec` is the same
  * (one memo per fitMovesToLayers call).
  */
-export type SpectatorMoveMemo = WeakMap<EdgePlan, Map<string, { flux: number; f12GHz: number; result: EdgePlanDraft | null }>>;
+export type SpectatorMoveMemo = WeakMap<EdgePlan, Map<number, Map<number, { flux: number; f12GHz: number; result: EdgePlanDraft | null }>>>;
 
 /** The plan of a draft (built once: the same object every time), or the plan itself. */
 const planOf = (e: EdgePlan | EdgePlanDraft): EdgePlan => ('plan' in e && typeof e.plan === 'function' ? e.plan() : (e as EdgePlan));
 
 function movedTo(ec: EdgeContext, memo: SpectatorMoveMemo, plan: EdgePlan, S: number, at: Pick<ParkedSpectator, 'fGHz' | 'flux' | 'f12GHz'>): EdgePlanDraft | null {
-  let row = memo.get(plan);
-  if (!row) memo.set(plan, (row = new Map()));
-  const key = `${S},${at.fGHz}`;
-  const hit = row.get(key);
+  // (keyed by spectator, then by f01 as a number: distinct doubles are distinct keys, 0 and -0
+  // one, as their decimal strings were)
+  let byQubit = memo.get(plan);
+  if (!byQubit) memo.set(plan, (byQubit = new Map()));
+  let row = byQubit.get(S);
+  if (!row) byQubit.set(S, (row = new Map()));
+  const hit = row.get(at.fGHz);
   if (hit && hit.flux === at.flux && hit.f12GHz === at.f12GHz) return hit.result;
   const result = withSpectatorPointsDraft(ec, plan, new Map([[S, at]]));
-  row.set(key, { flux: at.flux, f12GHz: at.f12GHz, result });
+  row.set(at.fGHz, { flux: at.flux, f12GHz: at.f12GHz, result });
   return result;
 }
 

@@ -205,7 +205,12 @@ const LAYER_ROUNDS = 200;
  */
 export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, cache?: ConflictCache): Map<number, ConflictKind> {
   if (cache && (cache.parkingF12 !== parkingF12 || cache.parkingGHz !== parkingGHz)) throw new Error('conflictKinds: the cache belongs to other parking frequencies');
+  // (the same plan objects in the same order as a list worked out before: its kinds, copied)
+  const known = cache?.kindsOf(plans);
+  if (known) return new Map(known);
   const moved = plans.map((p) => (cache ? cache.movedOf(ctx, p) : movedQubits(ctx, p, parkingF12, parkingGHz)));
+  // each plan's row of remembered pair kinds, looked up once per plan instead of once per pair
+  const rows = cache ? plans.map((p) => cache.rowOf(p)) : null;
   const touching: number[][] = Array.from({ length: ctx.n }, () => []);
   plans.forEach((p, k) => {
     for (const q of touchedQubits(p)) touching[q].push(k);
@@ -229,17 +234,27 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
       if (seenSet!.has(key)) return;
       seenSet!.add(key);
     }
-    const kind = cache ? cache.kindOf(ctx, plans[a], moved[a], plans[b], moved[b]) : conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
+    let kind: ConflictKind | null | undefined;
+    if (rows) {
+      const row = rows[a];
+      kind = row.get(plans[b]);
+      if (kind === undefined) row.set(plans[b], (kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b])));
+    } else kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
     if (kind) kinds.set(key, kind);
   };
   for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
   const nearOf = nearLists(ctx);
-  plans.forEach((_, k1) => {
-    for (const x of moved[k1]) {
-      const near = nearOf[x.qubit];
-      for (let i = 0; i < near.length; i++) for (const k2 of touching[near[i]]) consider(k1, k2);
+  for (let k1 = 0; k1 < m; k1++) {
+    const mk = moved[k1];
+    for (let j = 0; j < mk.length; j++) {
+      const near = nearOf[mk[j].qubit];
+      for (let i = 0; i < near.length; i++) {
+        const list = touching[near[i]];
+        for (let t = 0; t < list.length; t++) consider(k1, list[t]);
+      }
     }
-  });
+  }
+  cache?.rememberKinds(plans, kinds);
   return kinds;
 }
 
@@ -272,6 +287,8 @@ const nearListMemo = new WeakMap<PlanContext, readonly Int32Array[]>();
 export class ConflictCache {
   private readonly moved = new WeakMap<EdgePlan, MovedQubit[]>();
   private readonly kinds = new WeakMap<EdgePlan, Map<EdgePlan, ConflictKind | null>>();
+  /** The kinds of the last few lists of plans (plan objects in order), as conflictKinds found them. */
+  private readonly lists: { plans: EdgePlan[]; kinds: ReadonlyMap<number, ConflictKind> }[] = [];
 
   constructor(
     readonly parkingF12: readonly number[],
@@ -286,13 +303,32 @@ export class ConflictCache {
 
   /** conflictKind(ctx, g1, m1, g2, m2), remembered for the ordered pair (g1, g2); m1, m2 their movedOf. */
   kindOf(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
-    let row = this.kinds.get(g1);
-    if (!row) this.kinds.set(g1, (row = new Map()));
+    const row = this.rowOf(g1);
     let k = row.get(g2);
     if (k === undefined) row.set(g2, (k = conflictKind(ctx, g1, m1, g2, m2)));
     return k;
   }
+
+  /** The remembered kinds of the ordered pairs (g1, g2), by g2 (conflictKind's answers only). */
+  rowOf(g1: EdgePlan): Map<EdgePlan, ConflictKind | null> {
+    let row = this.kinds.get(g1);
+    if (!row) this.kinds.set(g1, (row = new Map()));
+    return row;
+  }
+
+  /** The kinds conflictKinds found for the same plan objects in the same order, if among the last LISTS_KEPT lists. */
+  kindsOf(plans: readonly EdgePlan[]): ReadonlyMap<number, ConflictKind> | undefined {
+    return this.lists.find((l) => l.plans.length === plans.length && l.plans.every((p, i) => p === plans[i]))?.kinds;
+  }
+
+  rememberKinds(plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>): void {
+    this.lists.push({ plans: [...plans], kinds: new Map(kinds) });
+    if (this.lists.length > LISTS_KEPT) this.lists.shift();
+  }
 }
+
+/** Lists of plans whose conflict kinds a ConflictCache keeps (the layer fitting colours up to four, then explains the one it keeps). */
+const LISTS_KEPT = 4;
 
 /** Every pair of gates that cannot share a layer (indices into `plans`, first < second): the conflict graph's edges. Used by planLayers and by verify. */
 export function conflictingPairs(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>): [number, number][] {

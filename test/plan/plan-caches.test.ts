@@ -526,6 +526,29 @@ describe('the layer fitting\'s conflict cache', () => {
     expect(conflictKinds(ctx, replaced, f12, ghz, cache)).toEqual(conflictKinds(ctx, replaced, f12, ghz));
   });
 
+  it('gives, for a list of the same plan objects asked for again (its kinds remembered per list), the kinds computed without it, in the same order, as a copy', () => {
+    const cache = new ConflictCache(f12, ghz);
+    const plain = [...conflictKinds(ctx, clove.edges, f12, ghz)];
+    const first = conflictKinds(ctx, [...clove.edges], f12, ghz, cache);
+    expect([...first]).toEqual(plain);
+    first.clear(); // a caller's copy: changing it changes nothing remembered
+    expect([...conflictKinds(ctx, [...clove.edges], f12, ghz, cache)]).toEqual(plain);
+    // lists that differ in one plan each, more of them than the cache keeps, then the first again
+    const variants = clove.edges
+      .map((e, k) => (e.parked.length > 0 ? k : -1))
+      .filter((k) => k >= 0)
+      .map((k) => clove.edges.map((e, j) => (j === k ? (withoutSpectators(ec, e, new Set(e.parked.map((p) => p.qubit))) ?? e) : e)));
+    expect(variants.length).toBeGreaterThan(4);
+    for (const v of variants) {
+      expect([...conflictKinds(ctx, v, f12, ghz, cache)]).toEqual([...conflictKinds(ctx, v, f12, ghz)]);
+      expect([...conflictKinds(ctx, [...v], f12, ghz, cache)]).toEqual([...conflictKinds(ctx, v, f12, ghz)]);
+    }
+    expect([...conflictKinds(ctx, clove.edges, f12, ghz, cache)]).toEqual(plain);
+    // the same plans in another order are another list
+    const reversed = [...clove.edges].reverse();
+    expect([...conflictKinds(ctx, reversed, f12, ghz, cache)]).toEqual([...conflictKinds(ctx, reversed, f12, ghz)]);
+  });
+
   it('refuses parking frequencies other than its own', () => {
     const cache = new ConflictCache(f12, ghz);
     expect(() => conflictKinds(ctx, clove.edges, [...f12], ghz, cache)).toThrow();
