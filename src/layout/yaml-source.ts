@@ -18,6 +18,7 @@
 
 import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
 import { DiagnosticCollector, type Anchor, type Path, type Position } from './diagnostics.js';
+import { readSimpleYaml, YAML_PARSE_OPTIONS } from './yaml-fast.js';
 
 export const YAML_LIMITS = Object.freeze({
   /** Deepest nesting of lists and maps accepted. */
@@ -68,14 +69,22 @@ export function decodeUtf8(
 const pathKey = (path: Path): string => JSON.stringify(path);
 
 /** Parse YAML text; problems go to `collector` and make the result undefined. */
-export function readYamlSource(text: string, collector: DiagnosticCollector): SourceTree | undefined {
+export function readYamlSource(text: string, collector: DiagnosticCollector, options: { fast?: boolean } = {}): SourceTree | undefined {
+  // Text in the plain subset that generated layouts use is read by ./yaml-fast.ts (the same
+  // values and positions, about 1 s less for a 1,024-qubit layout in a fresh process); the rest,
+  // and every text with a problem to report, by the yaml package below. `fast: false` skips it.
+  const simple = options.fast === false ? undefined : readSimpleYaml(text, YAML_LIMITS.maxNodes);
+  if (simple) {
+    const { value, valuePositions, keyPositions } = simple;
+    return {
+      value,
+      locate: (path, anchor) => (anchor === 'key' ? keyPositions.get(pathKey(path)) : undefined) ?? valuePositions.get(pathKey(path)),
+    };
+  }
   const lineCounter = new LineCounter();
   const doc = parseDocument(text.replace(/\r(?!\n)/g, '\n'), {
     lineCounter,
-    prettyErrors: false,
-    uniqueKeys: false, // duplicates are reported by the walk below, with both positions
-    merge: true,
-    strict: true,
+    ...YAML_PARSE_OPTIONS, // uniqueKeys: false: duplicates are reported by the walk below, with both positions
   });
   const at = (offset: number | undefined): Position | undefined => {
     if (offset === undefined) return undefined;
