@@ -20,12 +20,12 @@
  *        and the layers of these plans are coloured (the moves a rule asks for stay);
  *     2. edge by edge (in edge order), the edge keeps those of its optional moves no other gate
  *        of its layer touches, when the result holds its rules and conflicts with no gate of its
- *        layer (./layers.ts gatesConflict), else it keeps its plan from step 1;
+ *        layer (./layers.ts gatesConflict, tested there as conflictKind), else it keeps its plan from step 1;
  *     3. the layers are coloured again starting from that assignment (repaired where needed).
  * Deterministic: the same plans and seed give the same result.
  */
 import { BUDGET_MOVE_REASON, withSpectatorPointsDraft, withoutSpectators, type EdgeContext, type EdgePlan, type EdgePlanDraft, type ParkedSpectator } from './interaction/plan-edge.js';
-import { ConflictCache, explainLayers, gatesConflict, planLayers, touchedQubits, type LayerPlan } from './layers.js';
+import { ConflictCache, conflictKind, explainLayers, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
   edges: EdgePlan[];
@@ -187,18 +187,44 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: Co
   // 2. optional moves back where the layers carry them
   const members: number[][] = Array.from({ length: bare.layers.length }, () => []);
   layerOf.forEach((c, j) => members[c].push(j));
+  // per layer, how many of its plans occupy each qubit (touchedQubits), kept up to date as plans
+  // are replaced: a qubit is busy for plan k when a plan of k's layer other than k occupies it
+  // (a plan occupies a qubit at most once), the set of the other plans' qubits without building it
+  const occupancy = members.map((list) => {
+    const count = new Int32Array(ctx.n);
+    for (const j of list) for (const q of touchedQubits(fitted[j])) count[q]++;
+    return count;
+  });
   for (const k of withMoves) {
     if (fitted[k] === edges[k]) continue;
-    const others = members[layerOf[k]].filter((j) => j !== k);
-    const busy = new Set<number>();
-    for (const j of others) for (const q of touchedQubits(fitted[j])) busy.add(q);
-    const dropped = new Set(optionalMoves(edges[k]).filter((q) => busy.has(q)));
+    const count = occupancy[layerOf[k]];
+    const own = fitted[k];
+    const dropped = new Set(optionalMoves(edges[k]).filter((q) => count[q] - (occupies(own, q) ? 1 : 0) > 0));
     if (dropped.size === optionalMoves(edges[k]).length) continue;
     const candidate = dropped.size === 0 ? edges[k] : withoutSpectators(ec, edges[k], dropped);
     if (!candidate) continue;
     const moved = cache.movedOf(ctx, candidate);
-    const clash = others.some((j) => gatesConflict(ctx, candidate, moved, fitted[j], cache.movedOf(ctx, fitted[j])));
-    if (!clash) fitted[k] = candidate;
+    // (conflictKind is null exactly when gatesConflict is false for plans that do not park their own
+    // mover or partner, which no planned gate does: the same rules without sets; tested)
+    let clash = false;
+    for (const j of members[layerOf[k]]) {
+      if (j !== k && conflictKind(ctx, candidate, moved, fitted[j], cache.movedOf(ctx, fitted[j])) !== null) {
+        clash = true;
+        break;
+      }
+    }
+    if (!clash) {
+      for (const q of touchedQubits(own)) count[q]--;
+      for (const q of touchedQubits(candidate)) count[q]++;
+      fitted[k] = candidate;
+    }
   }
   return { edges: fitted, layerOf };
+}
+
+/** True when plan g occupies qubit q (touchedQubits(g) includes q). */
+function occupies(g: EdgePlan, q: number): boolean {
+  if (q === g.mover || q === g.partner) return true;
+  for (let i = 0; i < g.parked.length; i++) if (g.parked[i].qubit === q) return true;
+  return false;
 }

@@ -10,7 +10,7 @@
 import { describe, expect, it } from 'vitest';
 import { loadLayoutFile } from '../../src/layout/load.js';
 import { planChip } from '../../src/plan/plan.js';
-import { conflictKind, conflictKinds, movedConflict, movedQubits, sharedSpectators, touchedQubits, type ConflictKind, type MovedQubit } from '../../src/plan/layers.js';
+import { conflictKind, conflictKinds, gatesConflict, movedConflict, movedQubits, sharedSpectators, touchedQubits, type ConflictKind, type MovedQubit } from '../../src/plan/layers.js';
 import type { EdgePlan } from '../../src/plan/interaction/plan-edge.js';
 import type { PlanContext } from '../../src/plan/context.js';
 
@@ -33,7 +33,15 @@ function plainKind(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2
   return null;
 }
 
+/** True when a plan parks its own mover or partner (some variants below do; no planned gate does). */
+const parksOwnPair = (g: EdgePlan): boolean => g.parked.some((p) => p.qubit === g.mover || p.qubit === g.partner);
+
 describe('conflictKind', () => {
+  it('planned gates never park their own mover or partner', () => {
+    expect(clove.edges.some((e) => e.parked.length > 0)).toBe(true);
+    for (const e of clove.edges) expect(parksOwnPair(e)).toBe(false);
+  });
+
   it('gives the kind the set-based rules give, for every pair of planned gates and of variants', () => {
     const ctx = clove.ctx;
     const f12 = clove.states.map((s) => s.f12GHz);
@@ -57,6 +65,12 @@ describe('conflictKind', () => {
         const want = plainKind(ctx, plans[i], moved[i], plans[j], moved[j]);
         const got = conflictKind(ctx, plans[i], moved[i], plans[j], moved[j]);
         if (got !== want) expect(got, `pair ${i}, ${j}`).toBe(want);
+        // gatesConflict (the sets) holds exactly when there is a kind, for plans that do not park
+        // their own mover or partner (no planned gate does: below); the layer fitting relies on it
+        if (!parksOwnPair(plans[i]) && !parksOwnPair(plans[j])) {
+          const conflict = gatesConflict(ctx, plans[i], moved[i], plans[j], moved[j]);
+          if (conflict !== (got !== null)) expect(conflict, `gatesConflict, pair ${i}, ${j}`).toBe(got !== null);
+        }
         count[String(want)] = (count[String(want)] ?? 0) + 1;
       }
     }
