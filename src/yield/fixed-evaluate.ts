@@ -266,8 +266,10 @@ export function evaluateFixed(
   // (messages off: the message of each cz-range finding, written on demand, by its index)
   const later: (() => string)[] = [];
   // (each gate's evaluation also sums its estimate's spectator term, handed to the budget below)
-  const gateOptions = { messages: o.messages, spectatorError: true };
+  // and its swept-crossing term (the swept crossings themselves are not listed)
+  const gateOptions = { messages: o.messages, spectatorError: true, sweptError: true };
   const spectatorErrors = new Float64Array(ctx.edges.length);
+  const sweptErrors = new Float64Array(ctx.edges.length);
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -328,6 +330,7 @@ export function evaluateFixed(
     edgePlans[fe.edge] = plan;
     budgetScenarios[fe.edge] = scenario;
     spectatorErrors[fe.edge] = ev.spectatorError!;
+    sweptErrors[fe.edge] = ev.sweptError!;
     o.onGate?.({ ctx, scenario, evaluation: ev, moverFlux: res.moverFlux, states });
   }
   // Layers: gates sharing one must not conflict (only the pairs that can).
@@ -343,7 +346,7 @@ export function evaluateFixed(
   // The error budget's rules, as verify computes them for a plan without pulses (every gate
   // estimated: the pulse is re-tuned on the fabricated chip; src/plan/verify-budget.ts).
   const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: spectrumMemo(ctx, i, s.flux).df01dFluxGHz }));
-  const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs, spectators: spectatorErrors[k] } : { kind: 'none' }));
+  const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs, spectators: spectatorErrors[k], swept: sweptErrors[k] } : { kind: 'none' }));
   const layerOf: number[] = [];
   for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
   let budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);

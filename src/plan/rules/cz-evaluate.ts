@@ -33,6 +33,7 @@ import { fluxForF01Memo } from '../exact-memo.js';
 import type { PlanContext } from '../context.js';
 import { ghz, mhz, prob, band, ns } from '../format.js';
 import { landauZenerTransfer } from '../landau-zener.js';
+import { sweptShareOf } from '../swept-share.js';
 import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
@@ -99,6 +100,12 @@ export interface GateEvaluation {
    * admixture checks look up anyway, in the same order.
    */
   spectatorError?: number;
+  /**
+   * With EvaluateOptions.sweptError (and no screen): the swept-crossing term of the gate's budget,
+   * the very number sweptCrossingError (src/plan/gate-budget.ts) gives for the swept crossings
+   * this evaluation would list, summed as each is found, in the same order; `swept` is then empty.
+   */
+  sweptError?: number;
 }
 
 const scratchA = emptyTableState();
@@ -130,6 +137,12 @@ export interface EvaluateOptions {
   screen?: SpectatorScreen;
   /** Also sum the spectator term of the gate's error estimate (GateEvaluation.spectatorError; not with a screen). */
   spectatorError?: boolean;
+  /**
+   * Sum the budget's swept-crossing term instead of listing the swept crossings
+   * (GateEvaluation.sweptError; not with a screen): a drawn chip's gates pass thousands of
+   * crossings, each an object, where its budget needs only their sum.
+   */
+  sweptError?: boolean;
 }
 
 /**
@@ -197,6 +210,7 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
   // (and, when asked, the estimate's spectator term as spectatorErrorOf sums it: mover side, then partner side)
   const term = options.spectatorError === true && !sc;
+  const tally: SweptTally | null = options.sweptError === true && !sc ? { mover: A, partner: s.partner, sum: 0 } : null;
   let spectatorError = spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point', sc, findings, swept, term, 0);
   if (s.crossing === '11-02') spectatorError = spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking', sc, findings, swept, term, spectatorError);
   // The flux excursion (the flux line's current limit).
@@ -250,7 +264,7 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
   // interaction point from its table, which the spectator checks above have just asked there)
   const f12From = s.parking[A].f01GHz === s.fromGHz ? s.parking[A].f12GHz : ctx.tables[A].at(s.fromGHz, scratchA).f12;
   const f12To = ctx.tables[A].at(to, scratchA).f12;
-  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings, f12From, f12To);
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings, f12From, f12To, tally);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
   for (const [P, d] of parkedByQubit(s.parked)) {
     // (the screened spectator's own block reads its point throughout: one unit, never remembered)
@@ -296,7 +310,7 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
     }
     const from = s.parking[P].f01GHz;
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
-    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m, psc, findings, s.parking[P].f12GHz, d.f12GHz);
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m, psc, findings, s.parking[P].f12GHz, d.f12GHz, tally);
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
@@ -305,7 +319,10 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
       message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
-  return term ? { findings, swept, durationNs, spectatorError } : { findings, swept, durationNs };
+  const ev: GateEvaluation = { findings, swept, durationNs };
+  if (term) ev.spectatorError = spectatorError;
+  if (tally) ev.sweptError = tally.sum;
+  return ev;
 }
 
 /**
@@ -390,6 +407,8 @@ function sweep(
   /** Q's f12 where it sweeps from and to (NaN: unknown), for the 11-20 screen (crossing1120Outside). */
   f12From: number,
   f12To: number,
+  /** Sum the swept-crossing term here instead of listing the crossings in `swept` (null: list them). */
+  tally: SweptTally | null,
 ): void {
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
@@ -398,7 +417,7 @@ function sweep(
   const f12Hi = Math.max(f12From, f12To);
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
   // large chip; a crossing's kind names it in a message, built only for a finding)
-  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
+  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages, tally };
   const memo = crossingMemoOf(ctx);
   const nq = ctx.neighbours[Q];
   for (let k = 0; k < nq.length; k++) {
@@ -456,6 +475,14 @@ interface SweepRecord {
   swept: SweptCrossing[];
   add: (f: Omit<CzFinding, 'edge'>) => void;
   messages: boolean;
+  tally: SweptTally | null;
+}
+
+/** The gate's mover and partner and the swept-crossing term summed so far (EvaluateOptions.sweptError). */
+interface SweptTally {
+  mover: number;
+  partner: number;
+  sum: number;
 }
 
 /** What a swept crossing is, for its message (codes, not closures: a sweep records thousands of crossings and a message is written for few). */
@@ -512,7 +539,10 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
   const id = ctx.ids;
   const limit = ctx.rules.sweptTransferLimit;
   const transfer = landauZenerTransfer(g, rate);
-  sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
+  const t = sw.tally;
+  // (sweptCrossingError's term of this crossing, added in the order the list would hold it)
+  if (t) t.sum += 2 * sweptShareOf(rule, Q, other, t.mover, t.partner) * transfer;
+  else sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
   if (transfer > limit) {
     sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
       message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${crossingName(id, what, other, via)} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',

@@ -16,6 +16,7 @@ import { SampledSpectrum } from '../../../src/yield/sampled-spectrum.js';
 import { Random } from '../../../src/util/random.js';
 import type { SpectrumTable } from '../../../src/plan/qubit-table.js';
 import { estimateEdgeBudget } from '../../../src/plan/interaction/plan-edge.js';
+import { sweptCrossingError } from '../../../src/plan/gate-budget.js';
 import { nominalChip } from '../../../src/yield/chip-model.js';
 import { chipFromDeviates, sampleDeviates } from '../../../src/yield/draw.js';
 import { evaluateFixed, fixedPlan } from '../../../src/yield/fixed-evaluate.js';
@@ -162,4 +163,49 @@ describe('evaluateGate spectatorError: the estimate\'s spectator term', () => {
     }
     expect(compared).toBeGreaterThan(40);
   });
+});
+
+/**
+ * GateEvaluation.sweptError: the budget's swept-crossing term summed by the rule evaluation as it
+ * finds each crossing, against sweptCrossingError over the crossings the same evaluation lists
+ * without the option (the same double), with the same findings, on Clove-17's and Hitch-30's
+ * gates with further spectators parked on the way, and on drawn chips' gates.
+ */
+describe('evaluateGate sweptError: the budget\'s swept-crossing term', () => {
+  it('equals sweptCrossingError of the listed crossings, with the same findings (planned gates, extra spectators, drawn chips)', () => {
+    let compared = 0;
+    let nonzero = 0;
+    const check = (c: typeof ctx, v: GateScenario) => {
+      const listed = evaluateGate(c, v, { messages: false });
+      const summed = evaluateGate(c, v, { messages: false, sweptError: true });
+      expect(summed.swept).toEqual([]);
+      expect(summed.findings).toEqual(listed.findings);
+      expect(summed.sweptError).toBe(sweptCrossingError(c, { mover: v.mover, partner: v.partner, swept: listed.swept }));
+      expect(listed.sweptError).toBeUndefined();
+      compared++;
+      if (summed.sweptError! > 0) nonzero++;
+    };
+    const hitch = planChip(loadLayoutFile('layouts/hitch-30.yaml', 'layouts/hitch-30.yaml'));
+    for (const p of [clove, hitch]) {
+      const c = p.ctx;
+      for (const e of p.edges.filter((x) => Number.isFinite(x.interactionGHz))) {
+        const s = scenarioOf(p, e);
+        check(c, s);
+        for (const S of c.neighbours[s.partner]) {
+          if (S === s.mover || s.parked.has(S)) continue;
+          const f = 0.3 * c.tables[S].fLowGHz + 0.7 * c.tables[S].fMaxGHz;
+          check(c, { ...s, parked: new Map([...s.parked, [S, { f01GHz: f, f12GHz: c.tables[S].at(f).f12 }]]) });
+        }
+      }
+    }
+    const layout = loadLayoutFile('layouts/hitch-30.yaml', 'layouts/hitch-30.yaml');
+    const chip = nominalChip(layout, { rn: 0.03, ec: 0.01, g: 0.03 });
+    const plan = fixedPlan(chip, planForDrawnChip(nominalPlan(layout, 1).plan));
+    for (let i = 0; i < 4; i++) {
+      const drawn = chipFromDeviates(chip, i, sampleDeviates(4, i, chip.n, chip.ctx.edges.length));
+      evaluateFixed(chip, plan, drawn, sharedReducedSpectrum(), { messages: false, onGate: (g) => check(g.ctx, g.scenario) });
+    }
+    expect(compared).toBeGreaterThan(150);
+    expect(nonzero).toBeGreaterThan(50);
+  }, 120_000);
 });
