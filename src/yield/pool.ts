@@ -4,7 +4,8 @@
  * kept, the spreads) and builds its own evaluator; then chunks of samples (row, from, to) are
  * handed out one at a time to whichever worker is free, and their outcomes are put back in
  * sample order. A worker that fails to start or dies rejects the whole call (the caller then runs
- * in its own thread).
+ * in its own thread). In fixed mode with a planned nominal chip the workers are started before
+ * the plan is known (EarlyWorkers) and receive it once the main thread has it.
  *
  * Under tsx or vitest (this module is a .ts file) the workers start from
  * yield-worker-from-source.mjs, which registers tsx's loader; the built package runs

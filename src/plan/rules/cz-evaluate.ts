@@ -183,12 +183,21 @@ export class SpectatorScreen {
 
 export function evaluateGate(ctx: PlanContext, s: GateScenario, options: EvaluateOptions = {}): GateEvaluation {
   if (parkedNow.length < ctx.n) parkedNow = new Array<DuringGate | undefined>(ctx.n).fill(undefined);
-  for (const [q, d] of s.parked) parkedNow[q] = d;
+  // (forEach with module-level callbacks: no iterator results or entry arrays per evaluation)
+  s.parked.forEach(parkSpectator);
   try {
     return evaluateGateWithParked(ctx, s, options);
   } finally {
-    for (const q of s.parked.keys()) parkedNow[q] = undefined;
+    s.parked.forEach(unparkSpectator);
   }
+}
+
+function parkSpectator(d: DuringGate, q: number): void {
+  parkedNow[q] = d;
+}
+
+function unparkSpectator(_d: DuringGate, q: number): void {
+  parkedNow[q] = undefined;
 }
 
 /** evaluateGate once parkedNow holds s.parked. */
