@@ -34,6 +34,7 @@ import type { DesignBudget } from '../gate/design.js';
 import type { SpectatorShare } from '../budget/waveform-budget.js';
 import type { SweptCrossing } from './rules/cz-evaluate.js';
 import { landauZenerTransfer } from './landau-zener.js';
+import { sweptShareOf } from './swept-share.js';
 import { spectatorMovesNs } from './rules/cz-duration.js';
 import { qubitIdleError, type IdleErrorOptions } from '../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../transmon/coherence.js';
@@ -56,17 +57,9 @@ export interface GateBudget {
   spectatorShares: SpectatorShare[];
 }
 
-/** Share of the computational states (and spectator states) a swept crossing can transfer. */
+/** Share of the computational states (and spectator states) a swept crossing can transfer (./swept-share.ts). */
 export function sweptShare(c: SweptCrossing, e: Pick<EdgePlan, 'mover' | 'partner'>): number {
-  const withPair = c.other === e.partner || c.other === e.mover;
-  switch (c.rule) {
-    case 'cz-swept-01-01':
-      return c.moving === e.mover && withPair ? 0.5 : 0.25;
-    case 'cz-swept-tls':
-      return 0.5;
-    default:
-      return 0.25;
-  }
+  return sweptShareOf(c.rule, c.moving, c.other, e.mover, e.partner);
 }
 
 /**
@@ -204,8 +197,10 @@ export function estimatedGateBudget(
   e: EdgePlan,
   states: readonly ExactQubitState[],
   estimate: { t1: number; whiteDephasing: number; fluxNoise: number; spectators: number },
+  /** The swept-crossing term when the caller has it (evaluateGate's sweptError for this gate; e.swept is then empty). */
+  knownSwept?: number,
 ): GateBudget {
-  const swept = sweptCrossingError(ctx, e);
+  const swept = knownSwept ?? sweptCrossingError(ctx, e);
   const moves = spectatorMoveError(ctx, e, states, e.durationNs);
   const total = estimate.t1 + estimate.whiteDephasing + estimate.fluxNoise + estimate.spectators + swept + moves;
   return {

@@ -28,8 +28,13 @@ import type { Trajectory } from '../sim/trajectory.js';
 export type EdgeGateSource =
   /** A designed gate with noise: the stage's terms recomputed on its waveform (lazily). */
   | { kind: 'designed'; waveform: Trajectory; slotNs: number; stage: () => StageBudget }
-  /** An estimate over a slot (no design, or a design without noise). */
-  | { kind: 'estimated'; scenario: GateScenario; slotNs: number }
+  /**
+   * An estimate over a slot (no design, or a design without noise); `spectators`: the estimate's
+   * spectator term when the scenario's evaluation summed it (GateEvaluation.spectatorError);
+   * `swept`: the swept-crossing term when it summed that (GateEvaluation.sweptError; the edge's
+   * swept list is then empty).
+   */
+  | { kind: 'estimated'; scenario: GateScenario; slotNs: number; spectators?: number; swept?: number }
   /** No gate to count (an infeasible design, an unreachable crossing). */
   | { kind: 'none' };
 
@@ -59,7 +64,7 @@ export function recomputeBudget(
     if (src.kind === 'designed') return gateBudgetFromStage(ctx, e, states, src.stage(), src.waveform, src.slotNs);
     // (the plan over the slot: a copy only when its duration is another; estimatedGateBudget reads it and keeps nothing of it)
     const over = Object.is(e.durationNs, src.slotNs) ? e : { ...e, durationNs: src.slotNs };
-    return estimatedGateBudget(ctx, over, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs));
+    return estimatedGateBudget(ctx, over, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs, src.spectators), src.swept);
   });
   // the layers the plan names, in order (an index out of line, e.g. 1e9, is a layer-index
   // finding of its own; the cycle counts the layers that exist, never an array that long)

@@ -38,7 +38,7 @@ import type { EdgePlan, ParkedSpectator } from '../plan/interaction/plan-edge.js
 import { movedConflict, movedQubits, type MovedQubit } from '../plan/layers.js';
 import type { PlanInput } from '../plan/plan-read.js';
 import { emptyTableState } from '../plan/qubit-table.js';
-import { evaluateGate, type Crossing, type DuringGate, type GateScenario } from '../plan/rules/cz-evaluate.js';
+import { evaluateGate, type Crossing, type DuringGate, type GateEvaluation, type GateScenario } from '../plan/rules/cz-evaluate.js';
 import type { Finding } from '../plan/rules/findings.js';
 import { evaluateIdle, exactStates, exactZz } from '../plan/rules/idle-evaluate.js';
 import { tuningRoomShortfall } from '../plan/rules/tuning-room.js';
@@ -66,6 +66,8 @@ export interface FixedOptions {
    * among hundreds of findings.
    */
   messages: boolean;
+  /** For tests: called with each gate the rules evaluate (its scenario and evaluation, and the drawn chip's states at parking). */
+  onGate?: (gate: { ctx: PlanContext; scenario: GateScenario; evaluation: GateEvaluation; moverFlux: number; states: readonly ExactQubitState[] }) => void;
 }
 
 export const FIXED_DEFAULTS: Readonly<FixedOptions> = Object.freeze({ zzExactAbove: 0.85, messages: true });
@@ -263,6 +265,11 @@ export function evaluateFixed(
   const originPlace: number[] = [];
   // (messages off: the message of each cz-range finding, written on demand, by its index)
   const later: (() => string)[] = [];
+  // (each gate's evaluation also sums its estimate's spectator term, handed to the budget below)
+  // and its swept-crossing term (the swept crossings themselves are not listed)
+  const gateOptions = { messages: o.messages, spectatorError: true, sweptError: true };
+  const spectatorErrors = new Float64Array(ctx.edges.length);
+  const sweptErrors = new Float64Array(ctx.edges.length);
   for (const fe of plan.edges) {
     const { mover, partner } = fe;
     const edge = ctx.edges[fe.edge];
@@ -303,7 +310,7 @@ export function evaluateFixed(
       fromGHz: parking[mover], toGHz: to, moverF12AtToGHz: res.moverF12GHz,
       crossingCouplingGHz: res.couplingGHz, rampNs: fe.rampNs, spectatorRampNs: fe.rampNs, parking: during, parked,
     };
-    const ev = evaluateGate(ctx, scenario, { messages: o.messages });
+    const ev = evaluateGate(ctx, scenario, gateOptions);
     // (the findings keep evaluateGate's `blame`, which no one here reads)
     for (let j = 0; j < ev.findings.length; j++) {
       const f = ev.findings[j];
@@ -322,6 +329,9 @@ export function evaluateFixed(
     };
     edgePlans[fe.edge] = plan;
     budgetScenarios[fe.edge] = scenario;
+    spectatorErrors[fe.edge] = ev.spectatorError!;
+    sweptErrors[fe.edge] = ev.sweptError!;
+    o.onGate?.({ ctx, scenario, evaluation: ev, moverFlux: res.moverFlux, states });
   }
   // Layers: gates sharing one must not conflict (only the pairs that can).
   const f12 = states.map((s) => s.f12GHz);
@@ -336,7 +346,7 @@ export function evaluateFixed(
   // The error budget's rules, as verify computes them for a plan without pulses (every gate
   // estimated: the pulse is re-tuned on the fabricated chip; src/plan/verify-budget.ts).
   const budgetStates = states.map((s, i) => ({ ...s, df01dFluxGHz: spectrumMemo(ctx, i, s.flux).df01dFluxGHz }));
-  const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs } : { kind: 'none' }));
+  const sources: EdgeGateSource[] = edgePlans.map((e, k) => (budgetScenarios[k] ? { kind: 'estimated', scenario: budgetScenarios[k]!, slotNs: e.durationNs, spectators: spectatorErrors[k], swept: sweptErrors[k] } : { kind: 'none' }));
   const layerOf: number[] = [];
   for (const fe of plan.edges) layerOf[fe.edge] = fe.layer;
   let budget = recomputeBudget(ctx, edgePlans, sources, layerOf, budgetStates, zz);

@@ -59,6 +59,12 @@ export function rowOfSpread(job: Pick<YieldJob, 'spread' | 'sweep'>, rn: number)
   return rowSpreads(job).indexOf(rn);
 }
 
+/** The nominal chip of each row (row 0 with the run's spreads, each further row with its resistance spread); they do not depend on the plan. */
+export function nominalChips(job: Pick<YieldJob, 'layout' | 'spread' | 'sweep'>): NominalChip[] {
+  const base = nominalChip(job.layout, job.spread);
+  return rowSpreads(job).map((rn, k) => (k === 0 ? base : withResistanceSpread(base, rn)));
+}
+
 export class SampleEvaluator {
   readonly rows: number[];
   private readonly chips: NominalChip[];
@@ -67,11 +73,16 @@ export class SampleEvaluator {
   /** Spectrum objects reused from one fixed-mode sample to the next (one per qubit). */
   private readonly spectra: (SampledSpectrum | undefined)[] = [];
 
-  constructor(readonly job: YieldJob, table: ReducedSpectrum = sharedReducedSpectrum()) {
+  /**
+   * `chips`: the run's nominal chips as nominalChips(job) builds them (a worker started before the
+   * plan is known builds them meanwhile, src/yield/yield-worker.ts); they do not read the plan.
+   */
+  constructor(readonly job: YieldJob, table: ReducedSpectrum = sharedReducedSpectrum(), chips: NominalChip[] = nominalChips(job)) {
     this.table = table;
     this.rows = rowSpreads(job);
-    const base = nominalChip(job.layout, job.spread);
-    this.chips = this.rows.map((rn, k) => (k === 0 ? base : withResistanceSpread(base, rn)));
+    if (chips.length !== this.rows.length) throw new RangeError(`SampleEvaluator: ${chips.length} nominal chips for ${this.rows.length} rows`);
+    this.chips = chips;
+    const base = chips[0];
     if (job.mode === 'fixed') {
       if (!job.plan) throw new RangeError('SampleEvaluator: fixed mode needs the plan to keep');
       this.fixed = fixedPlan(base, planForDrawnChip(job.plan));

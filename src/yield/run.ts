@@ -5,7 +5,7 @@
  */
 import type { SampleOutcome } from './outcome.js';
 import { SampleEvaluator, rowSpreads, type YieldJob } from './job.js';
-import { runInWorkers } from './pool.js';
+import { runInWorkers, type EarlyWorkers } from './pool.js';
 
 export interface RunProgress {
   /** After each finished sample or chunk: samples done (all rows), total, successes so far in row 0. */
@@ -15,21 +15,29 @@ export interface RunProgress {
 export interface RunOptions {
   threads: number;
   progress?: RunProgress;
+  /** Workers started before the plan was known (used when the samples run on workers; ended either way). */
+  early?: EarlyWorkers;
 }
 
 /** Outcomes of samples [from, to) in every row: rows[r][k] is sample from + k. */
 export async function runSamples(job: YieldJob, from: number, to: number, options: RunOptions): Promise<{ rows: SampleOutcome[][]; fallback?: string }> {
   const rowCount = rowSpreads(job).length;
   const total = rowCount * (to - from);
-  if (options.threads > 1 && total >= 2) {
+  if (onWorkers(options.threads, total)) {
     try {
-      return { rows: await runInWorkers(job, from, to, options.threads, options.progress) };
+      return { rows: await runInWorkers(job, from, to, options.threads, options.progress, options.early) };
     } catch (err) {
       const fallback = err instanceof Error ? err.message.split('\n')[0] : String(err);
       return { rows: runInThisThread(job, from, to, options.progress), fallback };
     }
   }
+  await options.early?.terminate();
   return { rows: runInThisThread(job, from, to, options.progress) };
+}
+
+/** Whether runSamples runs `total` samples (all rows) on worker threads. */
+export function onWorkers(threads: number, total: number): boolean {
+  return threads > 1 && total >= 2;
 }
 
 export function runInThisThread(job: YieldJob, from: number, to: number, progress?: RunProgress): SampleOutcome[][] {

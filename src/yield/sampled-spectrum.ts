@@ -35,7 +35,12 @@ export class SampledSpectrum implements SpectrumTable {
    * from each gate near it): a remembered answer is the same object computing it again gives.
    */
   private readonly memoF = new Float64Array(MEMO_SLOTS);
-  private readonly memoS: TableState[] = Array.from({ length: MEMO_SLOTS }, blankState);
+  /**
+   * The remembered states, STATE_FIELDS doubles per slot (a typed array, not an object per slot:
+   * an object's double fields are boxed, so copying one out chased a pointer per field; with
+   * these arrays a remembered answer costs about a third as much, measured in a profile).
+   */
+  private readonly memoV = new Float64Array(MEMO_SLOTS * STATE_FIELDS);
   private readonly memo12F = new Float64Array(MEMO_SLOTS);
   private readonly memo12V = new Float64Array(MEMO_SLOTS);
 
@@ -76,14 +81,14 @@ export class SampledSpectrum implements SpectrumTable {
   /** State at f01 = fGHz (clamped to the planning range), written into `out`. */
   at(fGHz: number, out: TableState = this.scratch): TableState {
     const found = memoLookup(this.memoF, fGHz);
-    if (found >= 0) return copyState(this.memoS[found], out);
+    if (found >= 0) return readState(this.memoV, found * STATE_FIELDS, out);
     const ec = this.ecGHz;
     const r = fGHz <= this.fLowGHz ? this.rLow : fGHz >= this.fMaxGHz ? this.rTop : this.table.rInside('e1', fGHz / ec, this.rLow, this.rTop);
     const s = this.table.at(r, this.red);
     fillState(s, ec, this.rTop, out);
     const k = -1 - found;
     this.memoF[k] = fGHz;
-    copyState(out, this.memoS[k]);
+    writeState(out, this.memoV, k * STATE_FIELDS);
     return out;
   }
 
@@ -156,21 +161,42 @@ function fillState(s: ReducedState, ec: number, rTop: number, out: TableState): 
   out.df01dEj = s.de1dr;
 }
 
-function copyState(from: TableState, to: TableState): TableState {
-  if (from === to) return to;
-  to.f01 = from.f01;
-  to.f12 = from.f12;
-  to.e2 = from.e2;
-  to.e3 = from.e3;
-  to.e4 = from.e4;
-  to.e5 = from.e5;
-  to.n01 = from.n01;
-  to.n03 = from.n03;
-  to.n12 = from.n12;
-  to.n23 = from.n23;
-  to.n05 = from.n05;
-  to.n14 = from.n14;
-  to.ejRatio = from.ejRatio;
-  to.df01dEj = from.df01dEj;
+/** Doubles of a TableState in a memo slot (the order of readState and writeState). */
+const STATE_FIELDS = 14;
+
+/** The state remembered at v[at..at + STATE_FIELDS), written into `to`. */
+function readState(v: Float64Array, at: number, to: TableState): TableState {
+  to.f01 = v[at];
+  to.f12 = v[at + 1];
+  to.e2 = v[at + 2];
+  to.e3 = v[at + 3];
+  to.e4 = v[at + 4];
+  to.e5 = v[at + 5];
+  to.n01 = v[at + 6];
+  to.n03 = v[at + 7];
+  to.n12 = v[at + 8];
+  to.n23 = v[at + 9];
+  to.n05 = v[at + 10];
+  to.n14 = v[at + 11];
+  to.ejRatio = v[at + 12];
+  to.df01dEj = v[at + 13];
   return to;
+}
+
+/** Remember `from` at v[at..at + STATE_FIELDS) (the same doubles readState gives back). */
+function writeState(from: TableState, v: Float64Array, at: number): void {
+  v[at] = from.f01;
+  v[at + 1] = from.f12;
+  v[at + 2] = from.e2;
+  v[at + 3] = from.e3;
+  v[at + 4] = from.e4;
+  v[at + 5] = from.e5;
+  v[at + 6] = from.n01;
+  v[at + 7] = from.n03;
+  v[at + 8] = from.n12;
+  v[at + 9] = from.n23;
+  v[at + 10] = from.n05;
+  v[at + 11] = from.n14;
+  v[at + 12] = from.ejRatio;
+  v[at + 13] = from.df01dEj;
 }

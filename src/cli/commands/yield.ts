@@ -19,8 +19,8 @@ import { InputError } from '../../util/errors.js';
 import { SampleEvaluator, rowSpreads, type YieldJob, type YieldMode } from '../../yield/job.js';
 import { nominalPlan } from '../../yield/nominal-plan.js';
 import { yieldPart } from '../../yield/part.js';
-import { defaultYieldThreads } from '../../yield/pool.js';
-import { runSamples } from '../../yield/run.js';
+import { defaultYieldThreads, EarlyWorkers, workerCount } from '../../yield/pool.js';
+import { onWorkers, runSamples } from '../../yield/run.js';
 import { parseShard, shardFromEnvironment, shardRange, type Shard } from '../../yield/shard.js';
 import { parseSpread, parseSpreadList, qubitSpreads, SPREAD_DEFAULTS, type FabricationSpread } from '../../yield/spread.js';
 import { sampleFindings } from '../../yield/sample-findings.js';
@@ -87,6 +87,25 @@ export async function yieldCommand(ctx: CommandContext, layoutPath: string, raw:
   };
   const sweep = o.sweepSpread !== undefined ? parseSpreadList(o.sweepSpread, '--sweep-spread') : null;
 
+  const { from, to } = shard ? shardRange(o.samples, shard) : { from: 0, to: o.samples };
+  const threads = o.threads ?? defaultYieldThreads();
+  const unplanned: YieldJob = { layout, mode, seed: o.seed, samples: o.samples, spread, sweep, plan: null, planSeed: o.planSeed, cycleErrorCeiling: o.maxCycleError ?? null };
+  // (fixed mode planning the nominal chip: the workers start meanwhile, EarlyWorkers)
+  const early = mode === 'fixed' && o.plan === undefined && o.sample === undefined && onWorkers(threads, rowSpreads(unplanned).length * (to - from))
+    ? new EarlyWorkers(unplanned, workerCount(unplanned, from, to, threads))
+    : undefined;
+  try {
+    return await withJob(ctx, o, layout, layoutPath, layoutBytes, unplanned, from, to, threads, shard, early);
+  } finally {
+    await early?.terminate();
+  }
+}
+
+async function withJob(
+  ctx: CommandContext, o: z.infer<typeof YieldOptions>, layout: ChipLayout, layoutPath: string, layoutBytes: Buffer, unplanned: YieldJob,
+  from: number, to: number, threads: number, shard: Shard | null, early: EarlyWorkers | undefined,
+): Promise<CommandOutcome> {
+  const { mode, spread, sweep } = unplanned;
   let plan: PlanInput | null = null;
   let planInfo: YieldRunIdentity['plan'] = null;
   if (mode === 'fixed') {
@@ -100,7 +119,7 @@ export async function yieldCommand(ctx: CommandContext, layoutPath: string, raw:
       planInfo = { source: 'planned', seed: o.planSeed, holds: nominal.ok, violations: nominal.violations };
     }
   }
-  const job: YieldJob = { layout, mode, seed: o.seed, samples: o.samples, spread, sweep, plan, planSeed: o.planSeed, cycleErrorCeiling: o.maxCycleError ?? null };
+  const job: YieldJob = { ...unplanned, plan };
   const measured = qubitSpreads(layout, spread).measured;
   const run: YieldRunIdentity = {
     chip: layout.chip,
@@ -119,14 +138,13 @@ export async function yieldCommand(ctx: CommandContext, layoutPath: string, raw:
 
   if (o.sample !== undefined) return oneSample(ctx, job, run, o.sample);
 
-  const { from, to } = shard ? shardRange(o.samples, shard) : { from: 0, to: o.samples };
   const rows = rowSpreads(job).length;
   const bar = ctx.progress(`yield (${mode})`, rows * (to - from));
   let last = 0;
-  const threads = o.threads ?? defaultYieldThreads();
   const { rows: outcomes, fallback } = await ctx.profiler.timeAsync('samples', () =>
     runSamples(job, from, to, {
       threads,
+      early,
       progress: (done, _total, ok0, done0) => {
         bar.tick(done - last, done0 > 0 ? `yield ${((100 * ok0) / done0).toFixed(1)} %` : '');
         last = done;

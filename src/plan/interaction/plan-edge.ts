@@ -628,7 +628,11 @@ function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: 
  * show: 0.14-1.0 times the summed admixture on Clove-17). The planner adds swept crossings and
  * spectator moves (src/plan/gate-budget.ts), as for a designed gate.
  */
-export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: GateScenario, fluxA: number, durationNs: number): { t1: number; whiteDephasing: number; fluxNoise: number; spectators: number } {
+/**
+ * `spectators`: the spectator term when the caller has it already (evaluateGate's spectatorError
+ * for this very scenario, the same number); computed here otherwise.
+ */
+export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: GateScenario, fluxA: number, durationNs: number, known?: number): { t1: number; whiteDephasing: number; fluxNoise: number; spectators: number } {
   const { ctx } = ec;
   const tA = ctx.transmons[s.mover];
   const tB = ctx.transmons[s.partner];
@@ -654,15 +658,23 @@ export function estimateEdgeBudget(ec: Pick<EdgeContext, 'ctx' | 'states'>, s: G
     });
     lastGateEstimate = { ctx, mover: s.mover, partner: s.partner, fluxA, partnerFlux, crossing: s.crossing, hold, durationNs, est };
   }
-  let spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
-  if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
+  let spectators: number;
+  if (known !== undefined) spectators = known;
+  else {
+    spectators = spectatorErrorOf(ctx, s, s.mover, s.toGHz, s.crossing === '11-20', s.partner, 0);
+    if (s.crossing === '11-02') spectators = spectatorErrorOf(ctx, s, s.partner, s.parking[s.partner].f01GHz, true, s.mover, spectators);
+  }
   return { t1: est.t1, whiteDephasing: est.whiteDephasing, fluxNoise: est.fluxNoise, spectators };
 }
 
 /** estimateEdgeBudget's last gate estimate and what it was computed from (the coherence and rules are the context's). */
 let lastGateEstimate: { ctx: PlanContext; mover: number; partner: number; fluxA: number; partnerFlux: number; crossing: Crossing; hold: number; durationNs: number; est: ReturnType<typeof estimateGateBudget> } | null = null;
 
-/** `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each where the gate has it (in neighbour order). */
+/**
+ * `sum` plus the spectator term of excited qubit E at fE against its neighbours but `skip`, each
+ * where the gate has it (in neighbour order). evaluateGate sums the same terms in the same order
+ * when asked (src/plan/rules/cz-evaluate.ts spectatorChecks; tested equal).
+ */
 function spectatorErrorOf(ctx: PlanContext, s: GateScenario, E: number, fE: number, withLevel2: boolean, skip: number, sum: number): number {
   for (const S of ctx.neighbours[E]) {
     if (S === skip) continue;

@@ -33,11 +33,12 @@ import { fluxForF01Memo } from '../exact-memo.js';
 import type { PlanContext } from '../context.js';
 import { ghz, mhz, prob, band, ns } from '../format.js';
 import { landauZenerTransfer } from '../landau-zener.js';
+import { sweptShareOf } from '../swept-share.js';
 import { mediatedExchange, type Mediator } from '../mediated-coupling.js';
 import { emptyTableState } from '../qubit-table.js';
 import type { RuleName } from './catalogue.js';
 import type { Finding } from './findings.js';
-import { admixtureChecksBeyond } from './spectator-admixture.js';
+import { admixtureChecksBeyond, lastAdmixtureSum, SPECTATOR_ERROR_PER_ADMIXTURE } from './spectator-admixture.js';
 import { shortestGateNs, slotNs } from './cz-duration.js';
 
 export type Crossing = '11-20' | '11-02';
@@ -92,6 +93,19 @@ export interface GateEvaluation {
   findings: CzFinding[];
   swept: SweptCrossing[];
   durationNs: number;
+  /**
+   * With EvaluateOptions.spectatorError (and no screen): the spectator term of the gate's error
+   * estimate, the very number estimateEdgeBudget computes for the scenario
+   * (src/plan/interaction/plan-edge.ts spectatorErrorOf), summed here from the table states the
+   * admixture checks look up anyway, in the same order.
+   */
+  spectatorError?: number;
+  /**
+   * With EvaluateOptions.sweptError (and no screen): the swept-crossing term of the gate's budget,
+   * the very number sweptCrossingError (src/plan/gate-budget.ts) gives for the swept crossings
+   * this evaluation would list, summed as each is found, in the same order; `swept` is then empty.
+   */
+  sweptError?: number;
 }
 
 const scratchA = emptyTableState();
@@ -121,6 +135,14 @@ export interface EvaluateOptions {
    * screening of that spectator's candidate points): see SpectatorScreen.
    */
   screen?: SpectatorScreen;
+  /** Also sum the spectator term of the gate's error estimate (GateEvaluation.spectatorError; not with a screen). */
+  spectatorError?: boolean;
+  /**
+   * Sum the budget's swept-crossing term instead of listing the swept crossings
+   * (GateEvaluation.sweptError; not with a screen): a drawn chip's gates pass thousands of
+   * crossings, each an object, where its budget needs only their sum.
+   */
+  sweptError?: boolean;
 }
 
 /**
@@ -161,12 +183,21 @@ export class SpectatorScreen {
 
 export function evaluateGate(ctx: PlanContext, s: GateScenario, options: EvaluateOptions = {}): GateEvaluation {
   if (parkedNow.length < ctx.n) parkedNow = new Array<DuringGate | undefined>(ctx.n).fill(undefined);
-  for (const [q, d] of s.parked) parkedNow[q] = d;
+  // (forEach with module-level callbacks: no iterator results or entry arrays per evaluation)
+  s.parked.forEach(parkSpectator);
   try {
     return evaluateGateWithParked(ctx, s, options);
   } finally {
-    for (const q of s.parked.keys()) parkedNow[q] = undefined;
+    s.parked.forEach(unparkSpectator);
   }
+}
+
+function parkSpectator(d: DuringGate, q: number): void {
+  parkedNow[q] = d;
+}
+
+function unparkSpectator(_d: DuringGate, q: number): void {
+  parkedNow[q] = undefined;
 }
 
 /** evaluateGate once parkedNow holds s.parked. */
@@ -186,8 +217,11 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
   // Spectator admixtures at the gate (./spectator-admixture.ts): the mover's other neighbours
   // against the mover at the interaction point (|2> reached on an 11-20 crossing), and on an
   // 11-02 crossing the partner's other neighbours against the partner in |2>.
-  spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point', sc, findings, swept);
-  if (s.crossing === '11-02') spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking', sc, findings, swept);
+  // (and, when asked, the estimate's spectator term as spectatorErrorOf sums it: mover side, then partner side)
+  const term = options.spectatorError === true && !sc;
+  const tally: SweptTally | null = options.sweptError === true && !sc ? { mover: A, partner: s.partner, sum: 0 } : null;
+  let spectatorError = spectatorChecks(ctx, s, add, m, A, to, s.crossing === '11-20', s.partner, 'at the interaction point', sc, findings, swept, term, 0);
+  if (s.crossing === '11-02') spectatorError = spectatorChecks(ctx, s, add, m, s.partner, s.parking[s.partner].f01GHz, true, A, 'in |2> at parking', sc, findings, swept, term, spectatorError);
   // The flux excursion (the flux line's current limit).
   let u = sc ? sc.unit++ : -1;
   if (!(sc && sc.replay(u, findings, swept))) {
@@ -235,7 +269,11 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
   }
   // The mover's sweep (spectators already in place).
   const moverRate = (hi - lo) / s.rampNs;
-  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings);
+  // (the mover's f12 at both ends, for the 11-20 screen: where it parks, or from its table; at the
+  // interaction point from its table, which the spectator checks above have just asked there)
+  const f12From = s.parking[A].f01GHz === s.fromGHz ? s.parking[A].f12GHz : ctx.tables[A].at(s.fromGHz, scratchA).f12;
+  const f12To = ctx.tables[A].at(to, scratchA).f12;
+  sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings, f12From, f12To, tally);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
   for (const [P, d] of parkedByQubit(s.parked)) {
     // (the screened spectator's own block reads its point throughout: one unit, never remembered)
@@ -281,7 +319,7 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
     }
     const from = s.parking[P].f01GHz;
     const rate = Math.abs(f - from) / (s.spectatorRampNs ?? s.rampNs);
-    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m, psc, findings);
+    sweep(ctx, s, P, from, f, rate, (q) => (q === A ? s.parking[A] : during(s, q)), false, swept, add, m, psc, findings, s.parking[P].f12GHz, d.f12GHz, tally);
   }
   // the shared duration model (./cz-duration.ts): the speed limit with the line's settling and
   // the sample grid, plus the spectator moves
@@ -290,7 +328,10 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
     add({ rule: 'cz-duration', qubits: [id[A], id[s.partner]], value: durationNs, threshold: r.maxGateNs,
       message: m ? `the shortest CZ on ${edgeKey} at the ${s.crossing} crossing takes ${ns(durationNs)} (1/(2 g_c) with g_c = ${mhz(s.crossingCouplingGHz, 2)}, plus the flux line's settling and the sample grid${s.parked.size > 0 ? ' and the spectator moves' : ''}); the limit is ${ns(r.maxGateNs)}` : '', blame: -1 });
   }
-  return { findings, swept, durationNs };
+  const ev: GateEvaluation = { findings, swept, durationNs };
+  if (term) ev.spectatorError = spectatorError;
+  if (tally) ev.sweptError = tally.sum;
+  return ev;
 }
 
 /**
@@ -327,7 +368,9 @@ function findingAdder(findings: CzFinding[], edgeKey: string): (f: Omit<CzFindin
 function spectatorChecks(
   ctx: PlanContext, s: GateScenario, add: (f: Omit<CzFinding, 'edge'>) => void, m: boolean, E: number, fE: number, withLevel2: boolean, skip: number, where: string,
   sc: SpectatorScreen | undefined, findings: CzFinding[], swept: SweptCrossing[],
-): void {
+  /** Add each neighbour's spectator term to `sum` (spectatorErrorOf's sum) and return it. */
+  term: boolean, sum: number,
+): number {
   const id = ctx.ids;
   const limit = ctx.rules.spectatorAdmixture;
   const edgeKey = ctx.edges[s.edge].key;
@@ -345,8 +388,10 @@ function spectatorChecks(
         message: m ? `${id[E]} ${c.excitedTransition} ${ghz(c.excitedGHz)} ${where} is ${mhz(c.distanceGHz)} from spectator ${id[S]} ${c.spectatorTransition} ${ghz(c.spectatorGHz)} (g_c = ${mhz(c.couplingGHz, 2)}): admixture ${prob(c.admixture)} > ${prob(limit)} during the CZ on ${edgeKey}` : '',
         details: { distanceGHz: c.distanceGHz, couplingGHz: c.couplingGHz }, blame: S });
     }
+    if (term) sum += SPECTATOR_ERROR_PER_ADMIXTURE * lastAdmixtureSum(ctx, E, fE, S, d.f01GHz, G, withLevel2);
     if (reuse) sc.record(u, findings, f0, swept, swept.length);
   }
+  return sum;
 }
 
 /**
@@ -368,13 +413,20 @@ function sweep(
   /** Reuse of the units that do not read the screened spectator's point (undefined: none). */
   sc: SpectatorScreen | undefined,
   findings: CzFinding[],
+  /** Q's f12 where it sweeps from and to (NaN: unknown), for the 11-20 screen (crossing1120Outside). */
+  f12From: number,
+  f12To: number,
+  /** Sum the swept-crossing term here instead of listing the crossings in `swept` (null: list them). */
+  tally: SweptTally | null,
 ): void {
   const lo = Math.min(from, to);
   const hi = Math.max(from, to);
   if (!(hi - lo > 1e-9)) return;
+  const f12Lo = Math.min(f12From, f12To);
+  const f12Hi = Math.max(f12From, f12To);
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
   // large chip; a crossing's kind names it in a message, built only for a finding)
-  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages };
+  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages, tally };
   const memo = crossingMemoOf(ctx);
   const nq = ctx.neighbours[Q];
   for (let k = 0; k < nq.length; k++) {
@@ -392,8 +444,10 @@ function sweep(
     if (insideSweep(x.f01GHz, lo, hi)) recordCrossing(sw, 'cz-swept-01-01', X, x.f01GHz, c.g0101, blame, CROSSING_0101);
     const skip1120 = isMover && X === s.partner && s.crossing === '11-20';
     const skip1102 = isMover && X === s.partner && s.crossing === '11-02';
-    const f1120 = c.f1120;
-    if (!skip1120 && !Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, CROSSING_1120);
+    if (!skip1120 && !crossing1120Outside(x.f01GHz, f12Lo, f12Hi)) {
+      const f1120 = c.f1120;
+      if (!Number.isNaN(f1120) && insideSweep(f1120, lo, hi)) recordCrossing(sw, 'cz-swept-11-20', X, f1120, c.g1120, blame, CROSSING_1120);
+    }
     if (!skip1102 && insideSweep(x.f12GHz, lo, hi)) recordCrossing(sw, 'cz-swept-11-02', X, x.f12GHz, c.g1102, blame, CROSSING_1102);
     if (reuse) sc.record(u, findings, f0, swept, s0);
   }
@@ -430,6 +484,14 @@ interface SweepRecord {
   swept: SweptCrossing[];
   add: (f: Omit<CzFinding, 'edge'>) => void;
   messages: boolean;
+  tally: SweptTally | null;
+}
+
+/** The gate's mover and partner and the swept-crossing term summed so far (EvaluateOptions.sweptError). */
+interface SweptTally {
+  mover: number;
+  partner: number;
+  sum: number;
 }
 
 /** What a swept crossing is, for its message (codes, not closures: a sweep records thousands of crossings and a message is written for few). */
@@ -461,6 +523,24 @@ function insideSweep(f: number, lo: number, hi: number): boolean {
   return f > lo + 1e-9 && f < hi - 1e-9;
 }
 
+/**
+ * Margin (GHz) of the 11-20 screen: far above the tables' own error against the transmon (below
+ * 1e-6 GHz, src/plan/qubit-table.ts; the reduced table ~1e-9) and the round-off of the inverse map.
+ */
+const SCREEN_1120_MARGIN_GHZ = 1e-4;
+
+/**
+ * True when sweeping qubit Q cannot pass its 11-20 crossing with a neighbour at f01 = x: Q's f12
+ * rises with its f01 along its whole branch (every level spacing of a transmon grows with E_J),
+ * so a crossing strictly inside the swept band needs x between Q's f12 at the two ends
+ * (f12Lo, f12Hi), up to the tables' error, covered by the margin. False (no screen) when an end's
+ * f12 is unknown (NaN) or x is NaN. Sweeps then look up the crossing (a table inversion) only for
+ * the neighbours this leaves (tested against the look-up: test/plan/rules/cz-evaluate.test.ts).
+ */
+export function crossing1120Outside(x: number, f12Lo: number, f12Hi: number): boolean {
+  return x < f12Lo - SCREEN_1120_MARGIN_GHZ || x > f12Hi + SCREEN_1120_MARGIN_GHZ;
+}
+
 /** Record a crossing the sweep passes, with its Landau-Zener transfer; a finding when the transfer breaks the limit. */
 function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: number, g: number, blame: number, what: CrossingKind, via?: readonly number[]): void {
   const { ctx, Q, lo, hi, rate } = sw;
@@ -468,7 +548,10 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
   const id = ctx.ids;
   const limit = ctx.rules.sweptTransferLimit;
   const transfer = landauZenerTransfer(g, rate);
-  sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
+  const t = sw.tally;
+  // (sweptCrossingError's term of this crossing, added in the order the list would hold it)
+  if (t) t.sum += 2 * sweptShareOf(rule, Q, other, t.mover, t.partner) * transfer;
+  else sw.swept.push({ rule, moving: Q, other, atGHz: at, couplingGHz: g, rateGHzPerNs: rate, transfer });
   if (transfer > limit) {
     sw.add({ rule, qubits: other >= 0 ? [id[Q], id[other]] : [id[Q]], value: transfer, threshold: limit,
       message: m ? `${id[Q]} sweeping ${band(lo, hi)} passes ${crossingName(id, what, other, via)} at ${ghz(at)} (g = ${mhz(g, 2)}, ${(rate * 1e3).toFixed(0)} MHz/ns): transfer ${prob(transfer)} > ${prob(limit)}` : '',
@@ -487,8 +570,7 @@ function recordCrossing(sw: SweepRecord, rule: RuleName, other: number, at: numb
  * gives), so the order in which couplings are asked for changes no value (tested).
  */
 class NeighbourCrossings {
-  /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table). */
-  readonly f1120: number;
+  private f1120Value = NaN;
   private readonly G: number;
   /** X's |<0|n|1>| and |<1|n|2>| at f01 (NaN until a coupling needs them). */
   private n01x = NaN;
@@ -496,7 +578,7 @@ class NeighbourCrossings {
   private g0101Value = NaN;
   private g1120Value = NaN;
   private g1102Value = NaN;
-  /** Bits: 1 g0101, 2 g1120, 4 g1102, 8 X's elements found. */
+  /** Bits: 1 g0101, 2 g1120, 4 g1102, 8 X's elements found, 16 f1120 found. */
   private known = 0;
 
   constructor(
@@ -507,8 +589,16 @@ class NeighbourCrossings {
     private readonly f12: number,
   ) {
     this.G = ctx.edges[ctx.edgeBetween(Q, X)].gChargeGHz;
-    const f = ctx.tables[Q].f01ForF12(f01);
-    this.f1120 = f === null ? NaN : f;
+  }
+
+  /** Q's f01 where its f12 meets X's f01 (NaN: outside Q's table); found on first use (a sweep screens most neighbours out first). */
+  get f1120(): number {
+    if (!(this.known & 16)) {
+      const f = this.ctx.tables[this.Q].f01ForF12(this.f01);
+      this.f1120Value = f === null ? NaN : f;
+      this.known |= 16;
+    }
+    return this.f1120Value;
   }
 
   private partnerElements(): void {

@@ -50,6 +50,7 @@ const scratchS = emptyTableState();
  * (f01 = fS), coupling charge G; `withLevel2`: E reaches |2> during the gate.
  */
 export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): AdmixtureCheck[] {
+  lastCtx = null;
   const e: TableState = ctx.tables[E].at(fE, scratchE);
   const s: TableState = ctx.tables[S].at(fS, scratchS);
   const e12 = e.f12;
@@ -75,6 +76,13 @@ export function admixtureChecks(ctx: PlanContext, E: number, fE: number, S: numb
 export function admixtureChecksBeyond(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean, limit: number): AdmixtureCheck[] {
   const e: TableState = ctx.tables[E].at(fE, scratchE);
   const s: TableState = ctx.tables[S].at(fS, scratchS);
+  lastCtx = ctx;
+  lastEState = e;
+  lastSState = s;
+  lastE = E;
+  lastFE = fE;
+  lastS = S;
+  lastFS = fS;
   const e12 = e.f12;
   const s12 = s.f12;
   const G = gChargeGHz;
@@ -91,6 +99,27 @@ export function admixtureChecksBeyond(ctx: PlanContext, E: number, fE: number, S
 }
 
 const NONE: AdmixtureCheck[] = [];
+
+/** Arguments and table states of the last admixtureChecksBeyond (the states are scratch: valid until the next look-up here, which clears lastCtx or sets them anew). */
+let lastE = -1;
+let lastFE = NaN;
+let lastS = -1;
+let lastFS = NaN;
+let lastCtx: PlanContext | null = null;
+let lastEState: TableState = scratchE;
+let lastSState: TableState = scratchS;
+
+/**
+ * admixtureSum(ctx, E, fE, S, fS, G, withLevel2) right after admixtureChecksBeyond(ctx, E, fE, S,
+ * fS, ...) asked for the same E, fE, S and fS: from the table states it looked up (the same
+ * doubles a new look-up gives), without looking them up again. Throws when called otherwise.
+ */
+export function lastAdmixtureSum(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): number {
+  if (lastCtx !== ctx || E !== lastE || S !== lastS || !Object.is(fE, lastFE) || !Object.is(fS, lastFS)) {
+    throw new Error('lastAdmixtureSum: not right after admixtureChecksBeyond with the same qubits and frequencies');
+  }
+  return admixtureSumOf(lastEState, fE, lastSState, fS, gChargeGHz, withLevel2);
+}
 
 /** The admixture of admixtureCheck (the same arithmetic). */
 function admixtureOf(a: number, b: number, gChargeGHz: number, n1: number, n2: number): number {
@@ -112,6 +141,7 @@ function admixtureCheck(rule: RuleName, a: number, b: number, gChargeGHz: number
  * turns it into an error estimate). The same numbers as summing admixtureChecks (tested).
  */
 export function admixtureSum(ctx: PlanContext, E: number, fE: number, S: number, fS: number, gChargeGHz: number, withLevel2: boolean): number {
+  lastCtx = null;
   return admixtureSumOf(ctx.tables[E].at(fE, scratchE), fE, ctx.tables[S].at(fS, scratchS), fS, gChargeGHz, withLevel2);
 }
 
