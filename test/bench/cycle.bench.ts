@@ -9,7 +9,7 @@
  * layouts (test/bench/earlier-plans/*.json); `verifyPlan` recomputes their budget exactly as
  * `fluxlane verify` does, with each gate's estimate (no pulses), so both cycle errors below are
  * of plans without pulses and comparable; the designed plan's own cycle error is printed too.
- * Times of the earlier planner on this machine are in the README ("Performance").
+ * Times of the earlier planner on this machine are in DEVELOPERS.md ("Performance log").
  */
 import { readFileSync } from 'node:fs';
 import type { Benchmark } from './run.js';
