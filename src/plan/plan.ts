@@ -17,7 +17,7 @@ import { NO_PROFILE, type StageProfiler } from '../util/profile.js';
 import { buildPlanContext, type ContextOptions, type PlanContext } from './context.js';
 import { calibratedZzScale, crowding, type Crowding } from './crowding.js';
 import { exactQubitState, type ExactQubitState } from './exact-state.js';
-import { planEdge, type EdgePlan } from './interaction/plan-edge.js';
+import { parkingOf, planEdge, type EdgePlan } from './interaction/plan-edge.js';
 import { type LayerPlan } from './layers.js';
 import { fitMovesToLayers } from './layer-moves.js';
 import { planOptions, type PlanOptions, type PlanOptionsInput } from './options.js';
@@ -77,9 +77,11 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   const states = parking.idle.states.map((s, i) => s ?? fallbackState(ctx, i, parking.parkingGHz[i]));
   const blockersView = parking.state.blockers;
   let done = 0;
+  // (the states do not change while the edges are planned: their parking list is made once)
+  const planning = { ctx, options, blockers: blockersView, states, parking: parkingOf(states) };
   const edges = profiler.time('interaction', () =>
     ctx.edges.map((e) => {
-      const plan = planEdge({ ctx, options, blockers: blockersView, states }, e.index);
+      const plan = planEdge(planning, e.index);
       hooks.progress?.('interaction', ++done, ctx.edges.length);
       return plan;
     }),
@@ -95,7 +97,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   parking.stats.repairTrials = repair.trials;
   parking.stats.repairMoves = repair.moves;
   const parkingF12 = states.map((s) => s.f12GHz);
-  const ec = { ctx, options, blockers: blockersView, states };
+  const ec = { ctx, options, blockers: blockersView, states, parking: parkingOf(states) };
   // (the states stay as they are from here on: the fitting's candidates and the plan's own budget
   // share the estimates of the plan objects they have in common)
   const estimates: EstimateMemo = new WeakMap();

@@ -8,7 +8,10 @@
  *
  * All four options (each qubit as mover, each crossing) are evaluated with every rule of
  * src/plan/rules/cz-evaluate.ts. Problems a spectator causes are resolved by spectator parking
- * (./spectator-parking.ts), up to three rounds. Among the options that then break no rule the
+ * (./spectator-parking.ts), up to three rounds. An option that breaks a rule no spectator move
+ * clears (unclearableFindings) is infeasible whatever the spectators do: while another option is
+ * clean its spectators are left unplaced (it cannot be chosen); with no clean option they are
+ * placed, so the choice is the one made with every option placed. Among the options that then break no rule the
  * one with the smallest estimated error wins (estimateEdgeBudget below: the fast budget of
  * src/budget/gate-estimate.ts over the whole slot, the moved spectators' dephasing and the
  * spectators' admixtures; the same model the plan's budget reports, before any pulse exists).
@@ -154,7 +157,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
   const { ctx } = ec;
   const e = ctx.edges[edge];
   const reports: OptionReport[] = [];
-  const built: { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number }[] = [];
+  const built: ReturnType<typeof evaluateOption>[] = [];
   let options: { mover: number; crossing: Crossing }[] = [
     { mover: e.a, crossing: '11-20' }, { mover: e.a, crossing: '11-02' }, { mover: e.b, crossing: '11-20' }, { mover: e.b, crossing: '11-02' },
   ];
@@ -164,12 +167,23 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
     if (k > 0) options = [options[k], ...options.slice(0, k), ...options.slice(k + 1)];
   }
   const crossings = new Map<number, ReturnType<typeof crossingsOf>>();
+  const args: { mover: number; partner: number; crossing: Crossing; res: ReturnType<typeof crossingsOf>[Crossing] }[] = [];
   for (const { mover, crossing } of options) {
     const partner = mover === e.a ? e.b : e.a;
     let res = crossings.get(mover);
     if (!res) crossings.set(mover, (res = crossingsOf(ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz)));
-    built.push(evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs));
+    args.push({ mover, partner, crossing, res: res[crossing] });
+    built.push(evaluateOption(ec, edge, mover, partner, crossing, res[crossing], rampNs, true));
     if (quick && built[built.length - 1].report.feasible) break;
+  }
+  // (an option left without spectator placement, `unplaced`, breaks a rule no spectator move
+  // clears; it can matter for the choice only when no option is clean: then its spectators are
+  // placed as for every other option, and the choice below is the one made with all placed)
+  if (!built.some((b) => b.report.feasible)) {
+    built.forEach((b, k) => {
+      const a = args[k];
+      if (b.unplaced) built[k] = evaluateOption(ec, edge, a.mover, a.partner, a.crossing, a.res, rampNs);
+    });
   }
   // (no clean option: every option was evaluated; back in the usual order, so the choice below is the full plan's)
   if (quick && built.length === 4) {
@@ -249,7 +263,9 @@ function evaluateOption(
   crossing: Crossing,
   res: { moverFlux: number; moverF01GHz: number; couplingGHz: number } | null,
   rampNs: number,
-): { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number } {
+  /** Leave spectators unplaced when the gate breaks a rule no spectator move clears (unclearableRules). */
+  mayLeaveUnplaced = false,
+): { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number; unplaced?: boolean } {
   const { ctx } = ec;
   const id = ctx.ids;
   const range = ctx.ranges[mover];
@@ -281,6 +297,21 @@ function evaluateOption(
     parked,
   };
   const scoreOf = optionScore(ec, scenario, res.moverFlux);
+  // The gate with no spectator moved. A rule it breaks that no spectator's move can clear keeps
+  // the option infeasible whatever spectator parking does (unclearableRules); the option is then
+  // reported as it stands, without placing spectators, when the caller allows it.
+  const first = evaluateGate(ctx, scenario, QUIET);
+  const stuck = unclearableFindings(first.findings, mover, partner);
+  if (mayLeaveUnplaced && stuck.length > 0) {
+    // (with messages: these are the option's problems)
+    const ev = evaluateGate(ctx, scenario);
+    const score = estimateError(ec, scenario, res.moverFlux, [], ev);
+    const report: OptionReport = {
+      mover, crossing, feasible: false, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: [], problems: ev.findings,
+      note: `infeasible whatever spectators do: ${problemList(id, mover, stuck)} (${ev.findings.length} problem(s) with no spectator moved)`,
+    };
+    return { report, scenario, eval: ev, g: res.couplingGHz, unplaced: true };
+  }
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
   // and the result with fewer problems kept.
@@ -290,11 +321,11 @@ function evaluateOption(
   const nearestInfo: ParkedSpectator[] = [];
   const nearestScenario: GateScenario = { ...scenario, parked: new Map<number, DuringGate>() };
   let nearest: ReturnType<typeof parkSpectators> | null = null;
-  if (ec.feasibilityOnly) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+  if (ec.feasibilityOnly) nearest = parkSpectators(ec, nearestScenario, nearestInfo, undefined, first);
   if (nearest && nearest.evaluation.findings.length === 0) resolved = nearest;
   else {
-    resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf);
-    if (resolved.evaluation.findings.length > 0 && !nearest) nearest = parkSpectators(ec, nearestScenario, nearestInfo);
+    resolved = parkSpectators(ec, scenario, parkedInfo, scoreOf, first);
+    if (resolved.evaluation.findings.length > 0 && !nearest) nearest = parkSpectators(ec, nearestScenario, nearestInfo, undefined, first);
     if (nearest && nearest.evaluation.findings.length >= resolved.evaluation.findings.length) nearest = null;
   }
   if (nearest) {
@@ -312,7 +343,7 @@ function evaluateOption(
     mover, crossing, feasible, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: parkedInfo, problems: ev.findings,
     note: feasible
       ? `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`
-      : `${ev.findings.length} problem(s): ${[...new Set(ev.findings.map((f) => `${f.rule} ${f.qubits.filter((q) => q !== id[mover]).join('/')}`.trim()))].slice(0, 4).join('; ')}` +
+      : `${ev.findings.length} problem(s): ${problemList(id, mover, ev.findings)}` +
         (unmovable.length > 0 ? ` (${unmovable.join('; ')})` : ''),
   };
   return { report, scenario, eval: ev, g: res.couplingGHz };
@@ -330,13 +361,15 @@ export function parkSpectators(
   parkedInfo: ParkedSpectator[],
   /** The option's estimated error with the spectators where `scenario.parked` and `info` put them (evaluateOption's estimateError); with it, the clearing point of least error wins, and budgetMoves runs. */
   score?: OptionScore,
+  /** evaluateGate(ctx, scenario, { messages: false }) when the caller has it (the same scenario, nothing parked since). */
+  first?: ReturnType<typeof evaluateGate>,
 ): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
   const { ctx } = ec;
   const id = ctx.ids;
   const parked = scenario.parked as Map<number, DuringGate>;
   // (the evaluations while spectators are placed are only tested: no messages; the final one is
   // evaluated again with its messages when it has findings, below)
-  let ev = evaluateGate(ctx, scenario, QUIET);
+  let ev = first ?? evaluateGate(ctx, scenario, QUIET);
   const tried = new Set<number>();
   const unmovable: string[] = [];
   for (let round = 0; round < MAX_PARKING_ROUNDS; round++) {
@@ -387,6 +420,23 @@ export function parkSpectators(
 /** Rule evaluations whose findings are only tested, never reported: no messages built. */
 const QUIET = Object.freeze({ messages: false });
 
+/**
+ * The findings no spectator's temporary move can clear: those blamed on no qubit (the mover's flux
+ * excursion, its defects, its readout resonator, the gate's duration, which spectator moves only
+ * lengthen) or on the mover or the partner (a sweep past the partner), qubits parkSpectators never
+ * moves. For a gate evaluated with nothing parked each of them depends only on the mover, the
+ * partner and their own defects and resonators, so it stays whatever spectators do, and so does
+ * the option's infeasibility.
+ */
+export function unclearableFindings(findings: readonly CzFinding[], mover: number, partner: number): CzFinding[] {
+  return findings.filter((f) => f.blame < 0 || f.blame === mover || f.blame === partner);
+}
+
+/** An option's problems in its note: rule and the other qubits, the first four distinct. */
+function problemList(id: readonly string[], mover: number, findings: readonly CzFinding[]): string {
+  return [...new Set(findings.map((f) => `${f.rule} ${f.qubits.filter((q) => q !== id[mover]).join('/')}`.trim()))].slice(0, 4).join('; ');
+}
+
 /** The reason recorded for a spectator moved by budgetMoves (no rule asked for it). */
 export const BUDGET_MOVE_REASON = 'lower estimated error';
 
@@ -395,6 +445,18 @@ const SPECTATOR_POINTS_TRIED = 8;
 
 /** A move must lower the option's estimated error by more than this to be made (our choice: a move costs slot time and control). */
 const BUDGET_MOVE_GAIN = 1e-4;
+
+/**
+ * For tests: one option of an edge evaluated as planEdgeAtRamp evaluates it (`mayLeaveUnplaced`:
+ * as the first pass does, leaving spectators unplaced when a rule no move clears is broken).
+ */
+export function evaluateOptionForTest(ec: EdgeContext, edge: number, mover: number, crossing: Crossing, rampNs: number, mayLeaveUnplaced: boolean): { report: OptionReport; unplaced: boolean } {
+  const e = ec.ctx.edges[edge];
+  const partner = mover === e.a ? e.b : e.a;
+  const res = crossingsOf(ec.ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz)[crossing];
+  const b = evaluateOption({ ...ec, parking: ec.parking ?? parkingOf(ec.states) }, edge, mover, partner, crossing, res, rampNs, mayLeaveUnplaced);
+  return { report: b.report, unplaced: b.unplaced === true };
+}
 
 /** For tests: bestSpectatorPoint (with the score's floor when it has one). */
 export const bestSpectatorPointForTest = (...a: Parameters<typeof bestSpectatorPoint>): ReturnType<typeof bestSpectatorPoint> => bestSpectatorPoint(...a);
@@ -803,7 +865,7 @@ function withParkedDraft(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpec
     edge: plan.edge, mover: plan.mover, partner: plan.partner, crossing: plan.crossing,
     fromGHz: ec.states[plan.mover].f01GHz, toGHz: plan.crossingGHz, moverF12AtToGHz: plan.moverF12AtInteractionGHz,
     crossingCouplingGHz: plan.crossingCouplingGHz, rampNs: plan.rampNs,
-    parking: parkingOf(ec.states),
+    parking: ec.parking ?? parkingOf(ec.states),
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
   // (returned only without findings: no messages needed)
