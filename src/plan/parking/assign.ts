@@ -18,7 +18,7 @@ import type { LayerFitting } from '../layer-moves.js';
 import { Random } from '../../util/random.js';
 import type { PlanContext } from '../context.js';
 import type { PlanOptions } from '../options.js';
-import { evaluateIdle, type IdleEvaluation } from '../rules/idle-evaluate.js';
+import { evaluateIdle, exactStates, exactZz, type IdleEvaluation } from '../rules/idle-evaluate.js';
 import { narrowResonanceZz, secondOrderZz } from '../zz-second-order.js';
 import { frequencyGroupsOf } from './colouring.js';
 import { explainInfeasible, type Explanation } from './explain.js';
@@ -44,6 +44,7 @@ export function assignParking(ctx: PlanContext, options: PlanOptions, progress?:
   progress?.('constructed');
   const rng = new Random(options.seed);
   const stats: SearchStats & { rounds: number } = { sweeps: 0, moves: 0, kicks: 0, rounds: 0 };
+  let exact: ExactPoint | null = null;
   for (let round = 0; round < Math.max(1, options.search.calibrationRounds); round++) {
     stats.rounds++;
     // A cheap descent first, joint moves out of local minima, then the refined descent.
@@ -56,26 +57,46 @@ export function assignParking(ctx: PlanContext, options: PlanOptions, progress?:
     jointMoves(state, rng);
     add(localSearch(state, rng, options.search, true));
     progress?.(`search round ${round + 1}`);
-    if (!recalibrate(ctx, state)) break;
+    if (!recalibrate(ctx, state, (exact = emptyExactPoint(ctx)))) break;
   }
-  const idle = evaluateIdle(ctx, state.freq);
+  // (no search ran since the last calibration: its exact fluxes and ZZ are those of this parking)
+  const states = exactStates(ctx, state.freq, exact?.flux);
+  const idle = evaluateIdle(ctx, state.freq, { states, zzGHz: exactZz(ctx, states, exact ?? undefined) });
   const explanations = idle.violations.length > 0 ? explainInfeasible(ctx, options, state, groups, idle.violations) : [];
   return { parkingGHz: Float64Array.from(state.freq), groups, idle, explanations, stats, state };
 }
 
+/** What recalibrate found at a parking point: each qubit's exact flux (NaN outside its tunable range) and the exact ZZ of the edges it computed (`has`). */
+export interface ExactPoint {
+  flux: Float64Array;
+  zzGHz: Float64Array;
+  has: Uint8Array;
+}
+
+function emptyExactPoint(ctx: PlanContext): ExactPoint {
+  return { flux: new Float64Array(ctx.n), zzGHz: new Float64Array(ctx.edges.length), has: new Uint8Array(ctx.edges.length) };
+}
+
 /**
  * Rescale each edge's ZZ estimate to the exact dressed ZZ at the current parking point; returns
- * true when some exact ZZ breaks the limit (so another search round is worth running).
+ * true when some exact ZZ breaks the limit (so another search round is worth running). `found`,
+ * when given, receives the exact fluxes and ZZ values it computed (the final idle evaluation
+ * reuses them when no search ran since).
  */
-export function recalibrate(ctx: PlanContext, state: ParkingState): boolean {
+export function recalibrate(ctx: PlanContext, state: ParkingState, found?: ExactPoint): boolean {
   const flux = ctx.transmons.map((t, i) => {
     const f = state.freq[i];
     return f >= t.fMinGHz && f <= t.fMaxGHz ? t.fluxForF01(f) : NaN;
   });
+  if (found) found.flux.set(flux);
   let broken = false;
   for (const e of ctx.edges) {
     if (Number.isNaN(flux[e.a]) || Number.isNaN(flux[e.b])) continue;
     const exact = ctx.pair(e.index).zz(flux[e.a], flux[e.b]);
+    if (found) {
+      found.zzGHz[e.index] = exact;
+      found.has[e.index] = 1;
+    }
     const estimate = secondOrderZz(state.states[e.a], state.states[e.b], e.gChargeGHz) + narrowResonanceZz(state.states[e.a], state.states[e.b], e.gChargeGHz);
     if (Math.abs(estimate) > 1e-9 && Number.isFinite(exact)) {
       const ratio = exact / estimate;

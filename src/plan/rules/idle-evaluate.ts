@@ -7,7 +7,7 @@
  * findings with units in their messages.
  */
 import type { PlanContext } from '../context.js';
-import { exactQubitState, type ExactQubitState } from '../exact-state.js';
+import { exactQubitState, exactQubitStateAtFlux, type ExactQubitState } from '../exact-state.js';
 import { band, freq, ghz, mhz } from '../format.js';
 import type { Finding } from './findings.js';
 
@@ -19,23 +19,32 @@ export interface IdleEvaluation {
   violations: Finding[];
 }
 
-/** Exact states of every qubit at `parkingGHz` (null outside the tunable range). */
-export function exactStates(ctx: PlanContext, parkingGHz: ArrayLike<number>): (ExactQubitState | null)[] {
+/**
+ * Exact states of every qubit at `parkingGHz` (null outside the tunable range). `known`, when
+ * given: the flux of qubit i at f01 = parkingGHz[i] already found (Transmon.fluxForF01 of that very
+ * frequency, inside the tunable range), NaN where not; the state is then built on it (the same
+ * state: exactQubitState finds that flux first).
+ */
+export function exactStates(ctx: PlanContext, parkingGHz: ArrayLike<number>, known?: ArrayLike<number>): (ExactQubitState | null)[] {
   return ctx.transmons.map((t, i) => {
     const f = parkingGHz[i];
     // 1 Hz of slack: plan files carry 12 significant digits.
     if (!(f >= t.fMinGHz - 1e-9 && f <= t.fMaxGHz + 1e-9)) return null;
+    if (known && !Number.isNaN(known[i]) && f >= t.fMinGHz && f <= t.fMaxGHz) return exactQubitStateAtFlux(t, known[i], ctx.rules.resistanceSpread, f);
     return exactQubitState(t, Math.min(t.fMaxGHz, Math.max(t.fMinGHz, f)), ctx.rules.resistanceSpread);
   });
 }
 
-/** Exact ZZ of every edge at the states' fluxes. */
-export function exactZz(ctx: PlanContext, states: readonly (ExactQubitState | null)[]): Float64Array {
+/**
+ * Exact ZZ of every edge at the states' fluxes. `known`, when given: ZZ values already computed
+ * (CoupledPair.zz) for the edges whose `has` is true, at the same fluxes.
+ */
+export function exactZz(ctx: PlanContext, states: readonly (ExactQubitState | null)[], known?: { zzGHz: Float64Array; has: Uint8Array }): Float64Array {
   const out = new Float64Array(ctx.edges.length);
   for (const e of ctx.edges) {
     const a = states[e.a];
     const b = states[e.b];
-    out[e.index] = a && b ? ctx.pair(e.index).zz(a.flux, b.flux) : NaN;
+    out[e.index] = a && b ? (known && known.has[e.index] ? known.zzGHz[e.index] : ctx.pair(e.index).zz(a.flux, b.flux)) : NaN;
   }
   return out;
 }
