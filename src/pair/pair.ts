@@ -29,6 +29,11 @@ import {
 export interface CoupledPairOptions {
   /** Levels per transmon K (>= 4). */
   levels?: number;
+  /**
+   * The charge coupling G, when the caller has it: chargeCouplingForPair(a, b, g) of these very
+   * transmons and g, the same number (src/plan/context.ts finds each transmon's element once).
+   */
+  gChargeGHz?: number;
 }
 
 export const COUPLED_PAIR_DEFAULTS = Object.freeze({ levels: 6 });
@@ -70,7 +75,7 @@ export class CoupledPair {
     this.b = b;
     this.gMaxGHz = gGHz;
     this.levels = k;
-    this.gChargeGHz = chargeCouplingForPair(a, b, gGHz);
+    this.gChargeGHz = options.gChargeGHz ?? chargeCouplingForPair(a, b, gGHz);
     this.scratch = dressedSpectrumScratch(k);
   }
 

@@ -9,7 +9,7 @@ import type { ChipLayout, QubitLayout, Rules } from '../layout/types.js';
 import { buildChipGraph, type ChipGraph } from '../chip/graph.js';
 import { nextNearestPairs } from '../chip/neighbourhood.js';
 import { Transmon } from '../transmon/transmon.js';
-import { chargeCouplingForPair } from '../pair/coupling.js';
+import { chargeCouplingFromExchange } from '../pair/coupling.js';
 import { CoupledPair } from '../pair/pair.js';
 import { QubitTable, type QubitTableOptions, type SpectrumTable } from './qubit-table.js';
 import { reducedQubitTable } from './reduced-levels.js';
@@ -95,6 +95,8 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
   const neighbours: number[][] = Array.from({ length: n }, () => []);
   const edgesOf: number[][] = Array.from({ length: n }, () => []);
   const edgeMap = new Map<number, number>();
+  const n01Top = new Float64Array(n).fill(NaN);
+  const n01AtTop = (i: number): number => (Number.isNaN(n01Top[i]) ? (n01Top[i] = transmons[i].chargeElement01(0)) : n01Top[i]);
   const edges: PlanEdge[] = layout.couplings.map((c, k) => {
     const a = index.get(c.a)!;
     const b = index.get(c.b)!;
@@ -104,7 +106,8 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     edgesOf[b].push(k);
     edgeMap.set(a * n + b, k);
     edgeMap.set(b * n + a, k);
-    return { index: k, a, b, key: `${c.a}-${c.b}`, gGHz: c.gGHz, gChargeGHz: chargeCouplingForPair(transmons[a], transmons[b], c.gGHz) };
+    // (chargeCouplingForPair's arithmetic, with each transmon's |<0|n|1>| at Phi = 0 found once)
+    return { index: k, a, b, key: `${c.a}-${c.b}`, gGHz: c.gGHz, gChargeGHz: chargeCouplingFromExchange(c.gGHz, n01AtTop(a), n01AtTop(b)) };
   });
   for (const list of neighbours) list.sort((x, y) => x - y);
   const nextNearest: NextNearest[] = nextNearestPairs(graph).map((p) => ({
@@ -149,7 +152,7 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
       let p = pairs.get(edge);
       if (!p) {
         const e = edges[edge];
-        p = new CoupledPair(transmons[e.a], transmons[e.b], e.gGHz);
+        p = new CoupledPair(transmons[e.a], transmons[e.b], e.gGHz, { gChargeGHz: e.gChargeGHz });
         pairs.set(edge, p);
       }
       return p;
