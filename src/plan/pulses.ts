@@ -19,7 +19,7 @@ import { collectFindings, edgeExplanations } from './plan.js';
 import type { GateDesign, GateDesigner, GateDesignRequest, GateSpectatorRequest } from './gate-seam.js';
 import { evaluateGate, type DuringGate, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
-import { parkSpectators, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
+import { parkSpectators, sweptListOf, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
 import { planLayers } from './layers.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
@@ -267,14 +267,15 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
     out.push({ rule: 'cz-duration', qubits: [id[e.mover], id[e.partner]], value: total, threshold: ctx.rules.maxGateNs, edge: key,
       message: `the designed CZ on ${key} takes ${ns(design.durationNs)}${moves > 0 ? ` plus ${ns(moves)} of spectator moves` : ''}; the limit is ${ns(ctx.rules.maxGateNs)}` });
   }
-  out.push(...waveformSweepFindings(plan.ctx, e.mover, key, ev.swept, design.waveform));
+  const swept = sweptListOf(ctx, scenario, ev);
+  out.push(...waveformSweepFindings(plan.ctx, e.mover, key, swept, design.waveform));
   const edge: EdgePlan = {
     ...e,
     interactionGHz: to,
     moverInteractionFlux: toFlux,
     moverF12AtInteractionGHz: scenario.moverF12AtToGHz,
     parked: parkedInfo,
-    swept: ev.swept,
+    swept,
     durationNs: total,
   };
   return { findings: out, edge };

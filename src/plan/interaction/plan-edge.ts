@@ -235,7 +235,7 @@ export function planEdgeAtRamp(ec: EdgeContext, edge: number, rampNs: number, tr
     durationNs: chosen.eval.durationNs,
     rampNs,
     parked: chosen.report.parked,
-    swept: chosen.eval.swept,
+    swept: sweptListOf(ctx, s, chosen.eval),
     findings: chosen.report.problems,
     score: chosen.report.score,
     reason,
@@ -300,7 +300,7 @@ function evaluateOption(
   // The gate with no spectator moved. A rule it breaks that no spectator's move can clear keeps
   // the option infeasible whatever spectator parking does (unclearableRules); the option is then
   // reported as it stands, without placing spectators, when the caller allows it.
-  const first = evaluateGate(ctx, scenario, QUIET);
+  const first = evaluateGate(ctx, scenario, TALLY);
   const stuck = unclearableFindings(first.findings, mover, partner);
   if (mayLeaveUnplaced && stuck.length > 0) {
     // (with messages: these are the option's problems)
@@ -353,7 +353,8 @@ function evaluateOption(
  * Resolve by spectator parking every finding of a scenario that a spectator's temporary move
  * could clear (up to three rounds; the qubits already moved may be moved again). `scenario.parked`
  * and `parkedInfo` are updated in place. Returns the final evaluation and, for each spectator that
- * could not be moved, why.
+ * could not be moved, why. The evaluation may have summed its swept crossings instead of listing
+ * them (GateEvaluation.sweptError): sweptListOf gives the list.
  */
 export function parkSpectators(
   ec: EdgeContext,
@@ -401,7 +402,7 @@ export function parkSpectators(
         }
         // Every trial since `ev` was computed has been undone, so the scenario is the one `ev`
         // describes again (unless an earlier point of P could not be put back).
-        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario, QUIET);
+        if (before && !beforeInfo) ev = evaluateGate(ctx, scenario, TALLY);
         unmovable.push(
           search.points.length === 0
             ? `${id[P]} cannot be moved out of the way: from ${ghz(ec.states[P].f01GHz)} it can reach ${band(search.reachable.lo, search.reachable.hi)} without crossing a neighbour, and no point there clears the gate`
@@ -419,6 +420,19 @@ export function parkSpectators(
 
 /** Rule evaluations whose findings are only tested, never reported: no messages built. */
 const QUIET = Object.freeze({ messages: false });
+
+/**
+ * QUIET, and the swept crossings summed into the budget's term as they are found instead of
+ * listed (GateEvaluation.sweptError, the number sweptCrossingError gives for the list): for the
+ * evaluations that only rank or test. An evaluation kept for a plan has its list made by
+ * evaluating its scenario once more (sweptListOf).
+ */
+const TALLY = Object.freeze({ messages: false, sweptError: true });
+
+/** The swept crossings of an evaluation: its own list, or, when it summed them (TALLY), the list of its scenario evaluated again. */
+export function sweptListOf(ctx: PlanContext, scenario: GateScenario, ev: ReturnType<typeof evaluateGate>): SweptCrossing[] {
+  return ev.sweptError === undefined ? ev.swept : evaluateGate(ctx, scenario, QUIET).swept;
+}
 
 /**
  * The findings no spectator's temporary move can clear: those blamed on no qubit (the mover's flux
@@ -543,7 +557,7 @@ function confirmPoint(
   const st = transitionsOf(ctx, P, x);
   (scenario.parked as Map<number, DuringGate>).set(P, { f01GHz: st.f01GHz, f12GHz: st.f12GHz });
   // (its findings are only tested here; parkSpectators evaluates its final scenario again with messages)
-  const trial = evaluateGate(ctx, scenario, QUIET);
+  const trial = evaluateGate(ctx, scenario, TALLY);
   if (!clears(trial)) return null;
   const info: ParkedSpectator = { qubit: P, fGHz: st.f01GHz, flux: st.flux, f12GHz: st.f12GHz, reason };
   return { info, ev: trial, score: score ? score(trial, [...parkedInfo, info]) : 0 };
@@ -679,7 +693,7 @@ function estimateErrorFloor(ec: EdgeContext, s: GateScenario, fluxA: number): nu
 function estimateError(ec: EdgeContext, s: GateScenario, fluxA: number, parked: readonly ParkedSpectator[], ev: ReturnType<typeof evaluateGate>): number {
   const parts = estimateEdgeBudget(ec, s, fluxA, ev.durationNs);
   const e = { mover: s.mover, partner: s.partner, swept: ev.swept, parked: [...parked], rampNs: s.spectatorRampNs ?? s.rampNs };
-  return parts.t1 + parts.whiteDephasing + parts.fluxNoise + parts.spectators + sweptCrossingError(ec.ctx, e) + spectatorMoveError(ec.ctx, e, ec.states, ev.durationNs);
+  return parts.t1 + parts.whiteDephasing + parts.fluxNoise + parts.spectators + (ev.sweptError ?? sweptCrossingError(ec.ctx, e)) + spectatorMoveError(ec.ctx, e, ec.states, ev.durationNs);
 }
 
 /**
@@ -869,7 +883,7 @@ function withParkedDraft(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpec
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
   // (returned only without findings: no messages needed)
-  const ev = evaluateGate(ctx, scenario, QUIET);
+  const ev = evaluateGate(ctx, scenario, TALLY);
   if (ev.findings.length > 0) return null;
   const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
   let built: EdgePlan | undefined;
@@ -880,7 +894,7 @@ function withParkedDraft(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpec
     const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
     const chosen = options.find(isChosen)!;
     return {
-      ...plan, parked: parkedInfo, swept: ev.swept, findings: ev.findings, durationNs: ev.durationNs, score, options,
+      ...plan, parked: parkedInfo, swept: sweptListOf(ctx, scenario, ev), findings: ev.findings, durationNs: ev.durationNs, score, options,
       reason: reasonText(ctx, chosen, options, plan.partner),
     };
   };
