@@ -129,13 +129,24 @@ export function alignSpectatorPoints(ec: EdgeContext, edges: readonly EdgePlan[]
       const accepted: (EdgePlan | EdgePlanDraft)[] = [];
       const who: number[] = [];
       let error = 0;
-      for (const k of list) {
+      let lost = false;
+      for (let j = 0; j < list.length; j++) {
+        // (a point that can no longer beat the best so far is left: even if every gate left
+        // accepted it, it would gather fewer gates, or as many with an error sum (estimates are
+        // >= 0, so the sum only grows) already no lower; the choice is the one evaluating all)
+        const most = who.length + list.length - j;
+        if (best && (most < best.who.length || (most === best.who.length && error >= best.error))) {
+          lost = true;
+          break;
+        }
+        const k = list[j];
         const e = pointOf(k).fGHz === at.fGHz ? out[k] : movedTo(ec, memo, out[k], S, at);
         if (!e) continue;
         accepted.push(e);
         who.push(k);
         error += e.score;
       }
+      if (lost) continue;
       if (!best || who.length > best.who.length || (who.length === best.who.length && error < best.error)) best = { accepted, who, error };
     }
     if (best && best.who.length >= 2) best.who.forEach((k, i) => (out[k] = planOf(best!.accepted[i])));
