@@ -25,7 +25,7 @@
  * Deterministic: the same plans and seed give the same result.
  */
 import { BUDGET_MOVE_REASON, withSpectatorPointsDraft, withoutSpectators, type EdgeContext, type EdgePlan, type EdgePlanDraft, type ParkedSpectator } from './interaction/plan-edge.js';
-import { ConflictCache, conflictKind, explainLayers, planLayers, touchedQubits, type LayerPlan } from './layers.js';
+import { ConflictCache, conflictKind, explainLayers, nearLists, planLayers, touchedQubits, type LayerPlan } from './layers.js';
 
 export interface FittedLayers {
   edges: EdgePlan[];
@@ -185,7 +185,7 @@ function movedTo(ec: EdgeContext, memo: SpectatorMoveMemo, plan: EdgePlan, S: nu
  * evaluated again with fewer spectators moved, not planned again (the moves a rule asked for
  * stay where they are); an edge whose rules would break keeps its moves.
  */
-function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: ConflictCache): { edges: EdgePlan[]; layerOf?: Int32Array } {
+export function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: ConflictCache): { edges: EdgePlan[]; layerOf?: Int32Array } {
   const { ctx } = ec;
   const { parkingF12, parkingGHz } = cache;
   const withMoves = edges.map((e, k) => (optionalMoves(e).length > 0 ? k : -1)).filter((k) => k >= 0);
@@ -206,6 +206,15 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: Co
     for (const j of list) for (const q of touchedQubits(fitted[j])) count[q]++;
     return count;
   });
+  // per qubit, the plans occupying it (kept up to date as plans are replaced): a plan can conflict
+  // with a candidate only by occupying one of the candidate's qubits or a neighbour or next-nearest
+  // neighbour of a qubit the candidate moves (./layers.ts rules a-c), so only those are tested
+  const occupants: number[][] = Array.from({ length: ctx.n }, () => []);
+  fitted.forEach((g, j) => {
+    for (const q of touchedQubits(g)) occupants[q].push(j);
+  });
+  const near = nearLists(ctx);
+  const seen = new Int32Array(fitted.length).fill(-1);
   for (const k of withMoves) {
     if (fitted[k] === edges[k]) continue;
     const count = occupancy[layerOf[k]];
@@ -217,16 +226,33 @@ function fitOptionalMoves(ec: EdgeContext, edges: readonly EdgePlan[], cache: Co
     const moved = cache.movedOf(ctx, candidate);
     // (conflictKind is null exactly when gatesConflict is false for plans that do not park their own
     // mover or partner, which no planned gate does: the same rules without sets; tested)
+    // (whether any plan of its layer clashes: the plans that can are tested, each once)
     let clash = false;
-    for (const j of members[layerOf[k]]) {
-      if (j !== k && conflictKind(ctx, candidate, moved, fitted[j], cache.movedOf(ctx, fitted[j])) !== null) {
-        clash = true;
-        break;
+    const layer = layerOf[k];
+    const test = (q: number): boolean => {
+      for (const j of occupants[q]) {
+        if (j === k || seen[j] === k || layerOf[j] !== layer) continue;
+        seen[j] = k;
+        if (conflictKind(ctx, candidate, moved, fitted[j], cache.movedOf(ctx, fitted[j])) !== null) return true;
+      }
+      return false;
+    };
+    for (const q of touchedQubits(candidate)) if ((clash = test(q))) break;
+    if (!clash) {
+      outer: for (const x of moved) {
+        const list = near[x.qubit];
+        for (let i = 0; i < list.length; i++) if ((clash = test(list[i]))) break outer;
       }
     }
     if (!clash) {
-      for (const q of touchedQubits(own)) count[q]--;
-      for (const q of touchedQubits(candidate)) count[q]++;
+      for (const q of touchedQubits(own)) {
+        count[q]--;
+        occupants[q].splice(occupants[q].indexOf(k), 1);
+      }
+      for (const q of touchedQubits(candidate)) {
+        count[q]++;
+        occupants[q].push(k);
+      }
       fitted[k] = candidate;
     }
   }

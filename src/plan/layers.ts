@@ -262,7 +262,7 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
  * Per qubit, its neighbours and then its next-nearest neighbours not already listed (the order a
  * set built the same way iterates in), worked out once per context.
  */
-function nearLists(ctx: PlanContext): readonly Int32Array[] {
+export function nearLists(ctx: PlanContext): readonly Int32Array[] {
   let lists = nearListMemo.get(ctx);
   if (!lists) {
     lists = ctx.neighbours.map((ns, q) => {
