@@ -34,6 +34,18 @@ export interface CoupledPairOptions {
    * transmons and g, the same number (src/plan/context.ts finds each transmon's element once).
    */
   gChargeGHz?: number;
+  /**
+   * Where this pair's transmons keep their last computed eigenbasis for every pair that shares the
+   * slot (src/plan/context.ts: one per qubit, so each qubit's basis at a flux is solved once for
+   * all its pairs); each pair still remembers its own last one first. The same bases either way.
+   */
+  slotA?: BasisSlot;
+  slotB?: BasisSlot;
+}
+
+/** A transmon's last computed eigenbasis, shared by the pairs given the slot. */
+export interface BasisSlot {
+  last?: CachedBasis;
 }
 
 export const COUPLED_PAIR_DEFAULTS = Object.freeze({ levels: 6 });
@@ -49,8 +61,10 @@ export interface PairSpectrum extends DressedSpectrum {
   energy(i: number, j: number): number;
 }
 
-interface CachedBasis extends CouplingBasis {
+export interface CachedBasis extends CouplingBasis {
   flux: number;
+  /** Levels solved (the pair's K). */
+  levels: number;
   n01: number;
 }
 
@@ -63,6 +77,8 @@ export class CoupledPair {
   readonly gChargeGHz: number;
   readonly levels: number;
   private readonly scratch: DressedSpectrumScratch;
+  private readonly slotA: BasisSlot | undefined;
+  private readonly slotB: BasisSlot | undefined;
   private cacheA: CachedBasis | undefined;
   private cacheB: CachedBasis | undefined;
   private readonly e4 = new Float64Array(4);
@@ -77,17 +93,27 @@ export class CoupledPair {
     this.levels = k;
     this.gChargeGHz = options.gChargeGHz ?? chargeCouplingForPair(a, b, gGHz);
     this.scratch = dressedSpectrumScratch(k);
+    this.slotA = options.slotA;
+    this.slotB = options.slotB;
   }
 
-  /** A's eigenbasis (K levels) at `flux` (cached for the last flux). */
+  /** A's eigenbasis (K levels) at `flux` (cached for the last flux, here and in the shared slot). */
   basisA(flux: number): CachedBasis {
-    if (!this.cacheA || this.cacheA.flux !== flux) this.cacheA = this.computeBasis(this.a, flux);
+    if (!this.cacheA || this.cacheA.flux !== flux) this.cacheA = this.basisFromSlot(this.a, flux, this.slotA);
     return this.cacheA;
   }
 
   basisB(flux: number): CachedBasis {
-    if (!this.cacheB || this.cacheB.flux !== flux) this.cacheB = this.computeBasis(this.b, flux);
+    if (!this.cacheB || this.cacheB.flux !== flux) this.cacheB = this.basisFromSlot(this.b, flux, this.slotB);
     return this.cacheB;
+  }
+
+  private basisFromSlot(q: Transmon, flux: number, slot: BasisSlot | undefined): CachedBasis {
+    const last = slot?.last;
+    if (last && last.flux === flux && last.levels === this.levels) return last;
+    const basis = this.computeBasis(q, flux);
+    if (slot) slot.last = basis;
+    return basis;
   }
 
   /** g(Phi_A, Phi_B) = G |<0|n|1>_A| |<0|n|1>_B|. */
@@ -122,6 +148,6 @@ export class CoupledPair {
 
   private computeBasis(q: Transmon, flux: number): CachedBasis {
     const { energies, charge } = q.chargeBasis(flux, this.levels);
-    return { flux, energies, charge, n01: Math.abs(charge[1]) };
+    return { flux, levels: this.levels, energies, charge, n01: Math.abs(charge[1]) };
   }
 }

@@ -10,7 +10,7 @@ import { buildChipGraph, type ChipGraph } from '../chip/graph.js';
 import { nextNearestPairs } from '../chip/neighbourhood.js';
 import { Transmon } from '../transmon/transmon.js';
 import { chargeCouplingFromExchange } from '../pair/coupling.js';
-import { CoupledPair } from '../pair/pair.js';
+import { CoupledPair, type BasisSlot } from '../pair/pair.js';
 import { QubitTable, type QubitTableOptions, type SpectrumTable } from './qubit-table.js';
 import { reducedQubitTable } from './reduced-levels.js';
 import { sharedReducedSpectrum } from '../transmon/reduced-spectrum.js';
@@ -129,6 +129,9 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
   });
   const fixed = layout.qubits.map((q) => q.parkGHz);
   const pairs = new Map<number, CoupledPair>();
+  // (each qubit's last eigenbasis, shared by its pairs: the parking calibration asks every pair
+  // of a qubit at the same flux)
+  const basisSlots: BasisSlot[] = transmons.map(() => ({}));
   return {
     layout,
     graph,
@@ -152,7 +155,7 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
       let p = pairs.get(edge);
       if (!p) {
         const e = edges[edge];
-        p = new CoupledPair(transmons[e.a], transmons[e.b], e.gGHz, { gChargeGHz: e.gChargeGHz });
+        p = new CoupledPair(transmons[e.a], transmons[e.b], e.gGHz, { gChargeGHz: e.gChargeGHz, slotA: basisSlots[e.a], slotB: basisSlots[e.b] });
         pairs.set(edge, p);
       }
       return p;
