@@ -11,8 +11,8 @@
  * (./spectator-parking.ts), up to three rounds. An option that breaks a rule no spectator move
  * clears (unclearableFindings) is infeasible whatever the spectators do: while another option is
  * clean its spectators are left unplaced (it cannot be chosen); with no clean option they are
- * placed, so the choice is the one made with every option placed. Among the options that then break no rule the
- * one with the smallest estimated error wins (estimateEdgeBudget below: the fast budget of
+ * placed, so the choice is the one made with every option placed. Among the options that then
+ * break no rule the one with the smallest estimated error wins (estimateEdgeBudget below: the fast budget of
  * src/budget/gate-estimate.ts over the whole slot, the moved spectators' dephasing and the
  * spectators' admixtures; the same model the plan's budget reports, before any pulse exists).
  * When no option is clean, the one with the fewest problems is kept and its findings are
@@ -263,7 +263,7 @@ function evaluateOption(
   crossing: Crossing,
   res: { moverFlux: number; moverF01GHz: number; couplingGHz: number } | null,
   rampNs: number,
-  /** Leave spectators unplaced when the gate breaks a rule no spectator move clears (unclearableRules). */
+  /** Leave spectators unplaced when the gate breaks a rule no spectator move clears (unclearableFindings). */
   mayLeaveUnplaced = false,
 ): { report: OptionReport; scenario: GateScenario | null; eval: ReturnType<typeof evaluateGate> | null; g: number; unplaced?: boolean } {
   const { ctx } = ec;
@@ -298,7 +298,7 @@ function evaluateOption(
   };
   const scoreOf = optionScore(ec, scenario, res.moverFlux);
   // The gate with no spectator moved. A rule it breaks that no spectator's move can clear keeps
-  // the option infeasible whatever spectator parking does (unclearableRules); the option is then
+  // the option infeasible whatever spectator parking does (unclearableFindings); the option is then
   // reported as it stands, without placing spectators, when the caller allows it.
   const first = evaluateGate(ctx, scenario, TALLY);
   const stuck = unclearableFindings(first.findings, mover, partner);
@@ -362,7 +362,7 @@ export function parkSpectators(
   parkedInfo: ParkedSpectator[],
   /** The option's estimated error with the spectators where `scenario.parked` and `info` put them (evaluateOption's estimateError); with it, the clearing point of least error wins, and budgetMoves runs. */
   score?: OptionScore,
-  /** evaluateGate(ctx, scenario, { messages: false }) when the caller has it (the same scenario, nothing parked since). */
+  /** An evaluation of this scenario without messages (swept crossings listed or summed) when the caller has it, nothing parked since. */
   first?: ReturnType<typeof evaluateGate>,
 ): { evaluation: ReturnType<typeof evaluateGate>; unmovable: string[] } {
   const { ctx } = ec;
