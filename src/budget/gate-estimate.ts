@@ -54,7 +54,8 @@ export interface GateEstimate {
 
 const rate = (t: number | undefined): number => (t !== undefined && Number.isFinite(t) && t > 0 ? 1 / t : 0);
 
-export function estimateGateBudget(x: GateEstimateInput): GateEstimate {
+/** `out`, when given, receives the terms and is returned (callers that ask millions of times reuse one). */
+export function estimateGateBudget(x: GateEstimateInput, out?: GateEstimate): GateEstimate {
   const T = x.durationNs;
   const h = x.holdNs;
   const gA = rate(x.mover.coherence?.t1Ns);
@@ -79,7 +80,11 @@ export function estimateGateBudget(x: GateEstimateInput): GateEstimate {
   const sgA = quasiStaticFluxSigma(m.coherence?.fluxNoisePhi0 ?? 0, T, x.averagingTimeNs);
   const sgB = quasiStaticFluxSigma(p.coherence?.fluxNoisePhi0 ?? 0, T, x.averagingTimeNs);
   const fluxNoise = phaseCoefficient(0, 0, sA, s11A) * sgA * sgA + phaseCoefficient(0, sB, 0, s11B) * sgB * sgB;
-  return { t1, whiteDephasing, fluxNoise };
+  if (!out) return { t1, whiteDephasing, fluxNoise };
+  out.t1 = t1;
+  out.whiteDephasing = whiteDephasing;
+  out.fluxNoise = fluxNoise;
+  return out;
 }
 
 /**

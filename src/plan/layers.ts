@@ -376,7 +376,7 @@ const lowerBoundOf = (ctx: PlanContext) => ctx.edgesOf.reduce((m, list) => Math.
 
 function pairCounts(kinds: ReadonlyMap<number, ConflictKind>): Record<ConflictKind, number> {
   const pairs: Record<ConflictKind, number> = { shared: 0, spectator: 0, close: 0, next: 0 };
-  for (const kind of kinds.values()) pairs[kind]++;
+  kinds.forEach((kind) => void pairs[kind]++);
   return pairs;
 }
 
@@ -392,14 +392,16 @@ function explainKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: Reado
 function colourKinds(ctx: PlanContext, plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>, allowed: ReadonlySet<ConflictKind>, seed: number, given?: ArrayLike<number>): Int32Array {
   // (DSATUR on the adjacency lists: the same colours as on a graphology graph with one node per
   // plan in this order, without building one; src/plan/parking/colouring.ts)
+  // (forEach, not for-of over the entries: no [key, kind] array per conflict; the same order)
   const adjacency: number[][] = plans.map(() => []);
-  for (const [key, kind] of kinds) {
-    if (!allowed.has(kind)) continue;
-    const a = Math.floor(key / plans.length);
-    const b = key % plans.length;
+  const m = plans.length;
+  kinds.forEach((kind, key) => {
+    if (!allowed.has(kind)) return;
+    const a = Math.floor(key / m);
+    const b = key % m;
     adjacency[a].push(b);
     adjacency[b].push(a);
-  }
+  });
   let first: Int32Array = dsaturOfAdjacency(adjacency);
   if (given && given.length === plans.length) {
     // a start that no longer holds (a design moved a spectator) is repaired by greedy colouring

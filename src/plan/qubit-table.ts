@@ -73,7 +73,7 @@ export function emptyTableState(): TableState {
  */
 export type SpectrumTable = Pick<
   QubitTable,
-  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxSlopeOf' | 'f01ForF12' | 'f01ForLevel'
+  'fLowGHz' | 'fMaxGHz' | 'covers' | 'at' | 'f12At' | 'fluxAt' | 'slopeAt' | 'fluxSlopeOf' | 'fluxSlopeAtF01' | 'f01ForF12' | 'f01ForLevel'
 >;
 
 /**
@@ -288,6 +288,27 @@ export class QubitTable {
     const st = this.at(fGHz);
     const flux = fluxForJosephsonEnergy(1, this.transmon.asymmetry, Math.min(1, Math.max(this.transmon.asymmetry, st.ejRatio)));
     return st.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, this.transmon.asymmetry, flux);
+  }
+
+  /**
+   * fluxSlopeOf(at(fGHz)) without the rest of the state: the same cell inversion, E_J ratio and
+   * df01/dE_J as `at` computes them (the same operations, so the same bits), for scans that need
+   * only the slope (the idle-error bands: 401 points per qubit). Leaves `at`'s memo alone.
+   */
+  fluxSlopeAtF01(fGHz: number): number {
+    invertCell(this.v, this.dv, this.h, fGHz, this.m);
+    const cell = INVERSE.cell;
+    const t = INVERSE.t;
+    const h = this.h;
+    const v = this.v;
+    const dv = this.dv;
+    const u = this.uMin + (cell + t) * h;
+    const ejRatio = u * u;
+    const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
+    const df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
+    const d = this.transmon.asymmetry;
+    const flux = fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, ejRatio)));
+    return df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux);
   }
 
   /** df01/dPhi (GHz per Phi0, <= 0 on the working branch) in a state this table returned. */

@@ -30,7 +30,7 @@ import { bracketedNewton } from '../linalg/bracketed-root.js';
 import { AMBEGAOKAR_BARATOFF_DEFAULTS, josephsonEnergyFromResistance } from './ambegaokar-baratoff.js';
 import { josephsonEnergyForFrequency } from './flux-for-frequency.js';
 import { chargeCutoffFor } from './charge-cutoff.js';
-import { cosPhiElement, parityEigenbasis } from './parity-eigenbasis.js';
+import { lowestLevels } from './level-memo.js';
 import type { TransmonParams } from './spectrum.js';
 
 export interface ResolveOptions {
@@ -134,14 +134,13 @@ function solveFromFrequencies(
   const target = alpha / fMax;
   const nCut = chargeCutoffFor(SEARCH_R[1]);
   const ratio = (r: number, slope?: { value: number }): number => {
-    const lv = parityEigenbasis(1, r, 3, nCut, slope !== undefined);
-    const e = lv.energies;
-    const f = e[1] - e[0];
-    const a = e[2] - 2 * e[1] + e[0];
+    const L = lowestLevels(1, r, nCut, 3, slope !== undefined);
+    const f = L.e1 - L.e0;
+    const a = L.e2 - 2 * L.e1 + L.e0;
     if (slope) {
-      const c0 = cosPhiElement(lv, 0, 0);
-      const c1 = cosPhiElement(lv, 1, 1);
-      const c2 = cosPhiElement(lv, 2, 2);
+      const c0 = L.c0;
+      const c1 = L.c1;
+      const c2 = L.c2;
       const df = c0 - c1;
       const da = -(c2 - 2 * c1 + c0);
       slope.value = (da * f - a * df) / (f * f);
@@ -163,8 +162,8 @@ function solveFromFrequencies(
     xTol: 1e-13 * SEARCH_R[1],
     fTol: 1e-15,
   });
-  const lv = parityEigenbasis(1, r, 2, nCut, false);
-  const ec = fMax / (lv.energies[1] - lv.energies[0]);
+  const L = lowestLevels(1, r, nCut, 2, false);
+  const ec = fMax / (L.e1 - L.e0);
   return { ecGHz: ec, ejsGHz: r * ec, r };
 }
 

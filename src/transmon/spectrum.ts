@@ -17,7 +17,7 @@
  */
 import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
 import type { TransmonLevels } from './levels.js';
-import { cosPhiElement, parityEigenbasis } from './parity-eigenbasis.js';
+import { lowestLevels } from './level-memo.js';
 
 /** A transmon's circuit parameters (what src/transmon/resolve.ts produces from the layout). */
 export interface TransmonParams {
@@ -60,17 +60,16 @@ export function spectrumAt(params: TransmonParams, flux: number, options: { char
   const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
   const ej = josephsonEnergy(params.ejsGHz, params.asymmetry, flux);
   const dEj = josephsonEnergySlope(params.ejsGHz, params.asymmetry, flux);
-  const b = parityEigenbasis(params.ecGHz, ej, 3, nCut, true);
-  const e = b.energies;
-  const c0 = cosPhiElement(b, 0, 0);
-  const c1 = cosPhiElement(b, 1, 1);
-  const c2 = cosPhiElement(b, 2, 2);
+  const L = lowestLevels(params.ecGHz, ej, nCut, 3, true);
+  const c0 = L.c0;
+  const c1 = L.c1;
+  const c2 = L.c2;
   return {
     flux,
     ejGHz: ej,
-    f01GHz: e[1] - e[0],
-    f12GHz: e[2] - e[1],
-    anharmonicityGHz: e[2] - 2 * e[1] + e[0],
+    f01GHz: L.e1 - L.e0,
+    f12GHz: L.e2 - L.e1,
+    anharmonicityGHz: L.e2 - 2 * L.e1 + L.e0,
     df01dFluxGHz: -(c1 - c0) * dEj,
     df12dFluxGHz: -(c2 - c1) * dEj,
   };
@@ -88,8 +87,8 @@ export function f01FluxSlopeAt(params: TransmonParams, flux: number, options: { 
   const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
   const ej = josephsonEnergy(params.ejsGHz, params.asymmetry, flux);
   const dEj = josephsonEnergySlope(params.ejsGHz, params.asymmetry, flux);
-  const b = parityEigenbasis(params.ecGHz, ej, 2, nCut, true);
-  return -(cosPhiElement(b, 1, 1) - cosPhiElement(b, 0, 0)) * dEj;
+  const L = lowestLevels(params.ecGHz, ej, nCut, 2, true);
+  return -(L.c1 - L.c0) * dEj;
 }
 
 /**
@@ -98,8 +97,8 @@ export function f01FluxSlopeAt(params: TransmonParams, flux: number, options: { 
  */
 export function f12At(params: TransmonParams, flux: number, options: { chargeCutoff?: number } = {}): number {
   const nCut = options.chargeCutoff ?? SPECTRUM_DEFAULTS.chargeCutoff;
-  const e = parityEigenbasis(params.ecGHz, josephsonEnergy(params.ejsGHz, params.asymmetry, flux), 3, nCut, false).energies;
-  return e[2] - e[1];
+  const L = lowestLevels(params.ecGHz, josephsonEnergy(params.ejsGHz, params.asymmetry, flux), nCut, 3, false);
+  return L.e2 - L.e1;
 }
 
 /**
@@ -107,14 +106,14 @@ export function f12At(params: TransmonParams, flux: number, options: { chargeCut
  * (Hellmann-Feynman). Writes the slope into `slope.value` when given.
  */
 export function f01ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
-  const b = parityEigenbasis(ecGHz, ejGHz, 2, chargeCutoff, slope !== undefined);
-  if (slope) slope.value = cosPhiElement(b, 0, 0) - cosPhiElement(b, 1, 1);
-  return b.energies[1] - b.energies[0];
+  const L = lowestLevels(ecGHz, ejGHz, chargeCutoff, 2, slope !== undefined);
+  if (slope) slope.value = L.c0 - L.c1;
+  return L.e1 - L.e0;
 }
 
 /** f12 for (E_C, E_J) and df12/dE_J = <1|cos phi|1> - <2|cos phi|2>. */
 export function f12ForJosephsonEnergy(ecGHz: number, ejGHz: number, chargeCutoff: number, slope?: { value: number }): number {
-  const b = parityEigenbasis(ecGHz, ejGHz, 3, chargeCutoff, slope !== undefined);
-  if (slope) slope.value = cosPhiElement(b, 1, 1) - cosPhiElement(b, 2, 2);
-  return b.energies[2] - b.energies[1];
+  const L = lowestLevels(ecGHz, ejGHz, chargeCutoff, 3, slope !== undefined);
+  if (slope) slope.value = L.c1 - L.c2;
+  return L.e2 - L.e1;
 }

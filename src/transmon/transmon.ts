@@ -30,6 +30,7 @@ import { josephsonEnergy, josephsonEnergySlope } from './josephson.js';
 import { transmonLevels, type TransmonLevels } from './levels.js';
 import { chargeMatrix, cosPhiMatrix } from './matrix-elements.js';
 import { chargeMatrixFromParity, parityEigenbasis } from './parity-eigenbasis.js';
+import { lowestLevels } from './level-memo.js';
 import { resolveTransmon, type ResolveOptions } from './resolve.js';
 import { f01FluxSlopeAt, f12At, spectrumAt, type SpectrumPoint, type TransmonParams } from './spectrum.js';
 
@@ -175,8 +176,8 @@ export class Transmon {
 
   /** f01 at `flux` (GHz). */
   f01(flux: number): number {
-    const e = parityEigenbasis(this.ecGHz, this.ejGHz(flux), 2, this.chargeCutoff, false).energies;
-    return e[1] - e[0];
+    const L = lowestLevels(this.ecGHz, this.ejGHz(flux), this.chargeCutoff, 2, false);
+    return L.e1 - L.e0;
   }
 
   /** f01, f12, anharmonicity and flux slopes at `flux`. */

@@ -111,6 +111,11 @@ export class SampledSpectrum implements SpectrumTable {
     return st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio));
   }
 
+  /** fluxSlopeOf(at(fGHz)) (SpectrumTable's slope-only question; here simply that). */
+  fluxSlopeAtF01(fGHz: number): number {
+    return this.fluxSlopeOf(this.at(fGHz));
+  }
+
   /** df01/dPhi (GHz per Phi0) in a state this table returned. */
   fluxSlopeOf(st: TableState): number {
     return st.df01dEj * josephsonEnergySlope(this.ejsGHz, this.asymmetry, this.fluxOfRatio(st.ejRatio));

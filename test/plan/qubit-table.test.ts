@@ -32,6 +32,22 @@ describe('QubitTable', () => {
     });
   });
 
+  it('fluxSlopeAtF01 is fluxSlopeOf(at(f)) to the last bit (the idle-error scan asks for the slope alone)', () => {
+    // 401 points as the scan takes them, the range ends and points outside it (clamped by both);
+    // each asked fresh and again after at() has remembered the point
+    const lo = table.fLowGHz;
+    const hi = table.fMaxGHz;
+    const points = [lo - 0.1, hi + 0.1, ...Array.from({ length: 401 }, (_, k) => lo + ((hi - lo) * k) / 400)];
+    for (const round of [0, 1]) {
+      const fresh = new QubitTable(t);
+      for (const f of points) {
+        const slope = fresh.fluxSlopeAtF01(f);
+        expect(Object.is(slope, fresh.fluxSlopeOf(fresh.at(f))), `round ${round} f ${f}`).toBe(true);
+        if (round === 1) expect(Object.is(fresh.fluxSlopeAtF01(f), slope)).toBe(true);
+      }
+    }
+  });
+
   it('flux, f12 and df01/dPhi agree with the exact Transmon (inverse map and Hellmann-Feynman slope)', () => {
     for (const f of freqs) {
       const flux = t.fluxForF01(f);

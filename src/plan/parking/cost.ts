@@ -49,7 +49,7 @@ import type { PlanOptions } from '../options.js';
 import { emptyTableState, type TableState } from '../qubit-table.js';
 import { secondOrderZz } from '../zz-second-order.js';
 import { tuningRoomGHz } from '../rules/tuning-room.js';
-import { estimateGateBudget } from '../../budget/gate-estimate.js';
+import { estimateGateBudget, type GateEstimate, type GateEstimateInput } from '../../budget/gate-estimate.js';
 import { H_OVER_KB_K_PER_GHZ, zzIdleError } from '../../budget/idle-error.js';
 import { quasiStaticCoherence, quasiStaticFluxSigma } from '../../transmon/coherence.js';
 import { shortestGateNs } from '../rules/cz-duration.js';
@@ -329,13 +329,29 @@ export class ParkingCost {
     const hold = 1 / (2 * gc);
     const r = this.ctx.rules;
     // df12/dPhi taken equal to df01/dPhi here (they differ by a few per cent in a transmon)
-    const est = estimateGateBudget({
-      mover: { coherence: this.ctx.transmons[mover].coherenceSpec, slopeGHz: moverSlope, slope12GHz: moverSlope },
-      partner: { coherence: this.ctx.transmons[partner].coherenceSpec, slopeGHz: partnerSlope, slope12GHz: partnerSlope },
-      excited, holdNs: hold, rampNs: 0, durationNs: shortestGateNs(gc, r), averagingTimeNs: r.noiseAveragingTimeNs,
-    });
+    // (one input and one output object per ParkingCost, filled anew for each of the search's
+    // millions of calls: estimateGateBudget only reads the input)
+    const x = this.estimateIn;
+    x.mover.coherence = this.ctx.transmons[mover].coherenceSpec;
+    x.mover.slopeGHz = moverSlope;
+    x.mover.slope12GHz = moverSlope;
+    x.partner.coherence = this.ctx.transmons[partner].coherenceSpec;
+    x.partner.slopeGHz = partnerSlope;
+    x.partner.slope12GHz = partnerSlope;
+    x.excited = excited;
+    x.holdNs = hold;
+    x.durationNs = shortestGateNs(gc, r);
+    x.averagingTimeNs = r.noiseAveragingTimeNs;
+    const est = estimateGateBudget(x, this.estimateOut);
     return est.t1 + est.whiteDephasing + est.fluxNoise;
   }
+
+  private readonly estimateIn: GateEstimateInput = {
+    mover: { coherence: undefined, slopeGHz: 0, slope12GHz: 0 },
+    partner: { coherence: undefined, slopeGHz: 0, slope12GHz: 0 },
+    excited: 'mover', holdNs: 0, rampNs: 0, durationNs: 0, averagingTimeNs: 0,
+  };
+  private readonly estimateOut: GateEstimate = { t1: 0, whiteDephasing: 0, fluxNoise: 0 };
 }
 
 /**

@@ -89,7 +89,7 @@ export class IdleBlockers {
    */
   idleErrorIntervals(i: number): readonly Interval[] {
     let hit = this.idleCache.get(i);
-    if (!hit) this.idleCache.set(i, (hit = idleErrorBands(this.ctx, i, this.tmp)));
+    if (!hit) this.idleCache.set(i, (hit = idleErrorBands(this.ctx, i)));
     return hit;
   }
 
@@ -274,7 +274,7 @@ export class IdleBlockers {
  * The f01 bands where qubit i's own idle error over IDLE_REFERENCE_NS exceeds idleErrorLimit,
  * computed anew (IdleBlockers.idleErrorIntervals remembers them per context).
  */
-export function idleErrorBands(ctx: PlanContext, i: number, tmp: TableState = emptyTableState()): Interval[] {
+export function idleErrorBands(ctx: PlanContext, i: number): Interval[] {
   const t = ctx.transmons[i];
   const table = ctx.tables[i];
   const out: Interval[] = [];
@@ -290,9 +290,8 @@ export function idleErrorBands(ctx: PlanContext, i: number, tmp: TableState = em
     const options = { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK };
     for (let k = 0; k <= n; k++) {
       const f = lo + ((hi - lo) * k) / n;
-      const st = table.at(f, tmp);
       point.f01GHz = f;
-      point.slopeGHz = table.fluxSlopeOf(st);
+      point.slopeGHz = table.fluxSlopeAtF01(f);
       const e = qubitIdleError(point, IDLE_REFERENCE_NS, options);
       bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
     }
