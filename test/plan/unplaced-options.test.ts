@@ -4,14 +4,17 @@
  * or the partner is reported as it stands. The planner's choice must be the one it makes with every
  * option's spectators placed: so each such option must stay infeasible when its spectators are
  * placed in full, and an edge with no clean option must have every option placed. Checked on
- * every option of two demo plans and a generated chip.
+ * every option of two demo plans and a generated chip. Such an option's report is made from the
+ * evaluation that found it stuck (no messages, swept crossings summed): checked against the full
+ * evaluation of its scenario (findings messages aside, and the estimated error).
  */
 import { describe, expect, it } from 'vitest';
 import { loadLayoutFile, parseLayoutText } from '../../src/layout/load.js';
 import { generateLayout } from '../../src/chip/generate.js';
 import { layoutToYaml } from '../../src/layout/write.js';
 import { planChip } from '../../src/plan/plan.js';
-import { evaluateOptionForTest, unclearableFindings, type EdgeContext } from '../../src/plan/interaction/plan-edge.js';
+import { evaluateOptionForTest, optionScore, unclearableFindings, type EdgeContext } from '../../src/plan/interaction/plan-edge.js';
+import { evaluateGate, type CzFinding } from '../../src/plan/rules/cz-evaluate.js';
 
 const chips = {
   'Clove-17': () => loadLayoutFile('layouts/clove-17.yaml', 'layouts/clove-17.yaml'),
@@ -34,6 +37,13 @@ describe('options left without spectator placement', () => {
           if (!first.unplaced) continue;
           expect(first.report.note).toMatch(/^infeasible whatever spectators do: /);
           expect(first.report.parked).toEqual([]);
+          // its report comes from the first evaluation (no messages, swept crossings summed): the
+          // findings and the score of the full evaluation of the same scenario, messages aside
+          const full0 = evaluateGate(plan.ctx, first.scenario!);
+          const strip = (f: CzFinding) => ({ ...f, message: '' });
+          expect(first.report.problems.map(strip)).toEqual(full0.findings.map(strip));
+          expect(full0.findings.every((f) => f.message.length > 0)).toBe(true);
+          expect(first.report.score).toBe(optionScore(ec, first.scenario!, first.report.moverFlux!)(full0, []));
           unplaced++;
           const full = evaluateOptionForTest(ec, e.edge, o.mover, o.crossing, e.rampNs, false);
           expect(full.unplaced).toBe(false);

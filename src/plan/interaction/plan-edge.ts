@@ -303,14 +303,16 @@ function evaluateOption(
   const first = evaluateGate(ctx, scenario, TALLY);
   const stuck = unclearableFindings(first.findings, mover, partner);
   if (mayLeaveUnplaced && stuck.length > 0) {
-    // (with messages: these are the option's problems)
-    const ev = evaluateGate(ctx, scenario);
-    const score = estimateError(ec, scenario, res.moverFlux, [], ev);
+    // (such an option is never the chosen one: it stays unplaced only while another option of the
+    // edge is clean, planEdgeAtRamp places every option otherwise; so its problems are only counted
+    // and tested, never shown, and the first evaluation serves as it is: the same findings without
+    // their messages, and the same score, its swept crossings summed instead of listed)
+    const score = estimateError(ec, scenario, res.moverFlux, [], first);
     const report: OptionReport = {
-      mover, crossing, feasible: false, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: [], problems: ev.findings,
-      note: `infeasible whatever spectators do: ${problemList(id, mover, stuck)} (${ev.findings.length} problem(s) with no spectator moved)`,
+      mover, crossing, feasible: false, score, interactionGHz: res.moverF01GHz, moverFlux: res.moverFlux, parked: [], problems: first.findings,
+      note: `infeasible whatever spectators do: ${problemList(id, mover, stuck)} (${first.findings.length} problem(s) with no spectator moved)`,
     };
-    return { report, scenario, eval: ev, g: res.couplingGHz, unplaced: true };
+    return { report, scenario, eval: first, g: res.couplingGHz, unplaced: true };
   }
   // Spectators go to their points of least estimated error. A point of least error can leave the
   // next spectator no room where the nearest one would not: then the nearest points are tried too
@@ -464,12 +466,12 @@ const BUDGET_MOVE_GAIN = 1e-4;
  * For tests: one option of an edge evaluated as planEdgeAtRamp evaluates it (`mayLeaveUnplaced`:
  * as the first pass does, leaving spectators unplaced when a rule no move clears is broken).
  */
-export function evaluateOptionForTest(ec: EdgeContext, edge: number, mover: number, crossing: Crossing, rampNs: number, mayLeaveUnplaced: boolean): { report: OptionReport; unplaced: boolean } {
+export function evaluateOptionForTest(ec: EdgeContext, edge: number, mover: number, crossing: Crossing, rampNs: number, mayLeaveUnplaced: boolean): { report: OptionReport; unplaced: boolean; scenario: GateScenario | null } {
   const e = ec.ctx.edges[edge];
   const partner = mover === e.a ? e.b : e.a;
   const res = crossingsOf(ec.ctx, mover, partner, ec.states[partner].flux, e.gChargeGHz)[crossing];
   const b = evaluateOption({ ...ec, parking: ec.parking ?? parkingOf(ec.states) }, edge, mover, partner, crossing, res, rampNs, mayLeaveUnplaced);
-  return { report: b.report, unplaced: b.unplaced === true };
+  return { report: b.report, unplaced: b.unplaced === true, scenario: b.scenario };
 }
 
 /** For tests: bestSpectatorPoint (with the score's floor when it has one). */
