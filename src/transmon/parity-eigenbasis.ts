@@ -45,12 +45,18 @@ interface Scratch {
   dPlus: Float64Array;
   dMinus: Float64Array;
 }
-let scratch: Scratch | undefined;
+/**
+ * Work buffers by charge cutoff, kept for every cutoff asked for (a planner's run alternates
+ * between a few: its transmons', the reduced spectrum's and the layout solve's; one kept buffer
+ * set was made anew at every switch). Each solve writes what it reads.
+ */
+const scratchByCutoff: (Scratch | undefined)[] = [];
 
 function scratchFor(nCut: number): Scratch {
-  if (scratch && scratch.nCut === nCut) return scratch;
+  const kept = scratchByCutoff[nCut];
+  if (kept) return kept;
   const m = nCut + 1;
-  scratch = {
+  const scratch: Scratch = {
     nCut,
     dEven: new Float64Array(m),
     eEven: new Float64Array(m),
@@ -63,6 +69,7 @@ function scratchFor(nCut: number): Scratch {
     dPlus: new Float64Array(m),
     dMinus: new Float64Array(m),
   };
+  scratchByCutoff[nCut] = scratch;
   return scratch;
 }
 

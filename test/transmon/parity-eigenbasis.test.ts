@@ -6,7 +6,7 @@
  * documented sign convention; and against transmonLevels + chargeMatrix/cosPhiMatrix.
  */
 import { describe, expect, it } from 'vitest';
-import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../../src/transmon/parity-eigenbasis.js';
+import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis, type ParityEigenbasis } from '../../src/transmon/parity-eigenbasis.js';
 import { transmonLevels } from '../../src/transmon/levels.js';
 import { chargeMatrix, cosPhiMatrix } from '../../src/transmon/matrix-elements.js';
 import { expectAllClose } from '../support/close.js';
@@ -40,6 +40,25 @@ describe('parityEigenbasis(ec, ej, K, N)', () => {
       expectAllClose(b.energies, lv.energies, 1e-13, 'energies');
       expectAllClose(chargeMatrixFromParity(b), chargeMatrix(lv), 1e-13, 'charge');
       expectAllClose(cosPhiMatrixFromParity(b), cosPhiMatrix(lv), 1e-13, 'cos phi');
+    }
+  });
+
+  it('gives the same bits whatever was solved before, at this cutoff or another (work buffers are kept per cutoff)', () => {
+    // each question asked first on its own, then again after solves at other cutoffs and sizes
+    const questions = [
+      { ec: 0.21, ej: 18.4, k: 6, n: 20 }, { ec: 0.25, ej: 5, k: 3, n: 12 }, { ec: 0.19, ej: 40, k: 2, n: 31 },
+      { ec: 0.3, ej: 0.6, k: 5, n: 15 }, { ec: 0.2, ej: 14, k: 6, n: 20 }, { ec: 0.22, ej: 9, k: 4, n: 12 },
+    ];
+    const bits = (b: ParityEigenbasis) => [...b.energies, ...b.blockVectors];
+    const first = questions.map((q) => bits(parityEigenbasis(q.ec, q.ej, q.k, q.n)));
+    for (let round = 0; round < 3; round++) {
+      for (let i = questions.length - 1; i >= 0; i--) {
+        const q = questions[(i * 5 + round) % questions.length];
+        const again = bits(parityEigenbasis(q.ec, q.ej, q.k, q.n));
+        const want = first[questions.indexOf(q)];
+        expect(again.length).toBe(want.length);
+        again.forEach((x, j) => expect(Object.is(x, want[j]), `${JSON.stringify(q)} entry ${j}`).toBe(true));
+      }
     }
   });
 
