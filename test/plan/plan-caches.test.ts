@@ -17,7 +17,8 @@
  *   (spectator parking with and without the floor), and the floor against the score itself;
  * - the remembered last gate estimate (estimateEdgeBudget) and pair move error
  *   (spectatorMovePairError) against the answers computed after another question;
- * - the parking state's remembered blocked intervals against IdleBlockers.of computed anew, and its
+ * - the parking state's remembered blocked intervals (and IdleBlockers' remembered parts of them)
+ *   against IdleBlockers.of of a fresh instance, and its
  *   remembered allowed sets against the domain minus those intervals, through moves, changes of
  *   the active set and of the ZZ calibration;
  * - the plan budget with remembered gate estimates against computing them anew;
@@ -395,6 +396,9 @@ describe('the parking state\'s remembered blocked intervals', () => {
         const got = state.blockersOf(i).map((b) => ({ ...b }));
         expect(state.blockersOf(i)).toEqual(got);
         expect(got).toEqual(state.blockers.of(i, state, []));
+        // and what a fresh IdleBlockers builds (no remembered parts: every neighbour's, next-nearest
+        // neighbour's and the qubit's own intervals made anew)
+        expect(got).toEqual(new IdleBlockers(ctx).of(i, state, []));
         // and the remembered allowed set equals the domain minus them, computed anew
         const d = ctx.domains[i];
         expect(state.allowed(i, state.blockersOf(i))).toEqual(d ? subtract(d, got) : []);

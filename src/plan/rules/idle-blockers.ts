@@ -98,37 +98,92 @@ export class IdleBlockers {
     this.zzCache.clear();
   }
 
-  /** Blocked intervals of qubit i, appended to `out` (cleared first). */
+  /**
+   * Blocked intervals of qubit i, appended to `out` (cleared first). The intervals a neighbour
+   * blocks depend on its f01 and f12 and the edge's ZZ scale only, a next-nearest neighbour's on
+   * its f01, the qubit's own (defects, resonator, idle error) on nothing that changes: each part is
+   * remembered as its list of Blocker objects and appended again while what it depends on stays
+   * (the same objects, in the same order, as building them anew; blockers are never changed once
+   * made). The parking search asks for a qubit's list each time a neighbour moved.
+   */
   of(i: number, view: FrequencyView, out: Blocker[] = []): Blocker[] {
     out.length = 0;
     const ctx = this.ctx;
-    const r = ctx.rules;
-    for (const j of ctx.neighbours[i]) {
+    const ns = ctx.neighbours[i];
+    for (let s = 0; s < ns.length; s++) {
+      const j = ns[s];
       if (!view.active[j]) continue;
-      const fj = view.freq[j];
-      const sj = view.states[j];
-      out.push({ lo: fj - r.detuning0101GHz, hi: fj + r.detuning0101GHz, rule: '01-01', other: j });
-      out.push({ lo: sj.f12 - r.detuning0112GHz, hi: sj.f12 + r.detuning0112GHz, rule: '01-12', other: j });
-      const b = this.f12Preimage(i, fj - r.detuning0112GHz, fj + r.detuning0112GHz);
-      if (b) out.push({ lo: b.lo, hi: b.hi, rule: '01-12', other: j });
-      for (const z of this.zzIntervals(i, j, view)) out.push({ lo: z.lo, hi: z.hi, rule: 'zz', other: j });
+      const part = this.neighbourPart(i, j, view);
+      for (let k = 0; k < part.length; k++) out.push(part[k]);
     }
-    for (const p of ctx.nextNearestOf[i]) {
-      const pair = ctx.nextNearest[p];
+    const nn = ctx.nextNearestOf[i];
+    for (let s = 0; s < nn.length; s++) {
+      const pair = ctx.nextNearest[nn[s]];
       const k = pair.a === i ? pair.b : pair.a;
       if (!view.active[k]) continue;
-      const fk = view.freq[k];
-      out.push({ lo: fk - r.detuningNext0101GHz, hi: fk + r.detuningNext0101GHz, rule: 'next-01-01', other: k });
+      out.push(this.nextNearestPart(nn[s], i === pair.a ? 0 : 1, k, view.freq[k]));
     }
-    const q = ctx.qubits[i];
-    for (const d of q.tls) {
-      const w = d.widthGHz + r.tlsClearanceGHz;
-      out.push({ lo: d.atGHz - w, hi: d.atGHz + w, rule: 'tls', other: -1 });
-    }
-    if (q.readoutGHz !== undefined) out.push({ lo: q.readoutGHz - r.readoutDetuningGHz, hi: q.readoutGHz + r.readoutDetuningGHz, rule: 'readout', other: -1 });
-    for (const b of this.idleErrorIntervals(i)) out.push({ lo: b.lo, hi: b.hi, rule: 'idle-error', other: -1 });
+    const own = this.ownPart(i);
+    for (let k = 0; k < own.length; k++) out.push(own[k]);
     return out;
   }
+
+  /** The intervals neighbour j blocks for qubit i (01-01, 01-12 both ways, ZZ), remembered while f_j, its f12 and the edge's ZZ scale stay. */
+  private neighbourPart(i: number, j: number, view: FrequencyView): Blocker[] {
+    const ctx = this.ctx;
+    const r = ctx.rules;
+    const e = ctx.edgeBetween(i, j);
+    const key = e * 2 + (ctx.edges[e].a === i ? 0 : 1);
+    const fj = view.freq[j];
+    const sj = view.states[j];
+    const scale = view.zzScale[e];
+    const hit = this.neighbourParts.get(key);
+    if (hit && hit.fj === fj && hit.f12 === sj.f12 && hit.scale === scale && hit.limit === view.zzLimitGHz) return hit.list;
+    const list: Blocker[] = [];
+    list.push({ lo: fj - r.detuning0101GHz, hi: fj + r.detuning0101GHz, rule: '01-01', other: j });
+    list.push({ lo: sj.f12 - r.detuning0112GHz, hi: sj.f12 + r.detuning0112GHz, rule: '01-12', other: j });
+    const b = this.f12Preimage(i, fj - r.detuning0112GHz, fj + r.detuning0112GHz);
+    if (b) list.push({ lo: b.lo, hi: b.hi, rule: '01-12', other: j });
+    for (const z of this.zzIntervals(i, j, view)) list.push({ lo: z.lo, hi: z.hi, rule: 'zz', other: j });
+    this.neighbourParts.set(key, { fj, f12: sj.f12, scale, limit: view.zzLimitGHz, list });
+    return list;
+  }
+
+  private readonly neighbourParts = new Map<number, { fj: number; f12: number; scale: number; limit: number; list: Blocker[] }>();
+
+  /** The interval next-nearest neighbour k (pair p, i its end `end`) blocks, remembered while f_k stays. */
+  private nextNearestPart(p: number, end: number, k: number, fk: number): Blocker {
+    const key = p * 2 + end;
+    const hit = this.nextNearestParts.get(key);
+    if (hit && this.nextNearestAt.get(key) === fk) return hit;
+    const t = this.ctx.rules.detuningNext0101GHz;
+    const b: Blocker = { lo: fk - t, hi: fk + t, rule: 'next-01-01', other: k };
+    this.nextNearestParts.set(key, b);
+    this.nextNearestAt.set(key, fk);
+    return b;
+  }
+
+  private readonly nextNearestParts = new Map<number, Blocker>();
+  private readonly nextNearestAt = new Map<number, number>();
+
+  /** Qubit i's own blocked intervals (defects, readout resonator, idle error), made once. */
+  private ownPart(i: number): Blocker[] {
+    let list = this.ownParts[i];
+    if (list) return list;
+    const r = this.ctx.rules;
+    const q = this.ctx.qubits[i];
+    list = [];
+    for (const d of q.tls) {
+      const w = d.widthGHz + r.tlsClearanceGHz;
+      list.push({ lo: d.atGHz - w, hi: d.atGHz + w, rule: 'tls', other: -1 });
+    }
+    if (q.readoutGHz !== undefined) list.push({ lo: q.readoutGHz - r.readoutDetuningGHz, hi: q.readoutGHz + r.readoutDetuningGHz, rule: 'readout', other: -1 });
+    for (const b of this.idleErrorIntervals(i)) list.push({ lo: b.lo, hi: b.hi, rule: 'idle-error', other: -1 });
+    this.ownParts[i] = list;
+    return list;
+  }
+
+  private readonly ownParts: (Blocker[] | undefined)[] = [];
 
   /**
    * {f in the planning range of i : f12_i(f) in [lo, hi]} as an interval (f12 grows with f01),
