@@ -47,8 +47,9 @@ export interface IdleErrorOptions extends CoherenceOptions {
 }
 
 /** T1, dephasing and thermal parts of one qubit's idle error over t ns. */
-export function qubitIdleError(p: IdlePoint, tNs: number, options: IdleErrorOptions = {}): IdleErrorParts {
-  if (!(tNs > 0)) return { t1: 0, dephasing: 0, thermal: 0 };
+/** `out`, when given, receives the parts and is returned (the idle-error scans ask hundreds of thousands of times). */
+export function qubitIdleError(p: IdlePoint, tNs: number, options: IdleErrorOptions = {}, out?: IdleErrorParts): IdleErrorParts {
+  if (!(tNs > 0)) return fill(out, 0, 0, 0);
   const t1 = p.coherence.t1Ns;
   const gamma = Number.isFinite(t1) && t1 > 0 ? -Math.expm1(-tNs / t1) : 0;
   const c = dephasingCoherence(p.coherence, tNs, p.slopeGHz, p.curvatureGHz, options);
@@ -56,7 +57,15 @@ export function qubitIdleError(p: IdlePoint, tNs: number, options: IdleErrorOpti
   const dephasing = (Math.sqrt(1 - gamma) * (1 - c)) / 3;
   const temp = options.temperatureK ?? 0;
   const pUp = temp > 0 && Number.isFinite(t1) && t1 > 0 ? Math.min(1, (tNs / t1) * Math.exp(-(H_OVER_KB_K_PER_GHZ * p.f01GHz) / temp)) : 0;
-  return { t1: t1Part, dephasing, thermal: relaxationError(pUp) };
+  return fill(out, t1Part, dephasing, relaxationError(pUp));
+}
+
+function fill(out: IdleErrorParts | undefined, t1: number, dephasing: number, thermal: number): IdleErrorParts {
+  if (!out) return { t1, dephasing, thermal };
+  out.t1 = t1;
+  out.dephasing = dephasing;
+  out.thermal = thermal;
+  return out;
 }
 
 /** (2 + p - 2 sqrt(1 - p)) / 6, written to keep digits for small p. */

@@ -18,7 +18,7 @@
  * home slot's entry). Which entries stay decides only how often a solve is saved. Single-threaded
  * per module instance (each worker thread has its own).
  */
-import { cosPhiElement, parityEigenbasis } from './parity-eigenbasis.js';
+import { cosPhiElement, parityEigenbasis, type ParityEigenbasis } from './parity-eigenbasis.js';
 
 /** Entries (a power of two): 16,384, about 1.2 MB. */
 const SLOTS = 1 << 14;
@@ -93,7 +93,7 @@ export function lowestLevels(ecGHz: number, ejGHz: number, nCut: number, k: 2 | 
     keyCut[slot] = nCut;
     values.fill(NaN, slot * 6, slot * 6 + 6);
   }
-  const b = parityEigenbasis(ecGHz, ejGHz, k, nCut, cos);
+  const b = parityEigenbasis(ecGHz, ejGHz, k, nCut, cos, workFor(nCut));
   const e = b.energies;
   const v = slot * 6;
   o.e0 = values[v] = e[0];
@@ -107,6 +107,14 @@ export function lowestLevels(ecGHz: number, ejGHz: number, nCut: number, k: 2 | 
     if (k === 3) o.c2 = values[v + 5] = cosPhiElement(b, 2, 2);
   }
   return o;
+}
+
+/** The basis a solve fills (read at once above): three levels' room, grown with the cutoff. */
+let work: ParityEigenbasis | undefined;
+
+function workFor(nCut: number): ParityEigenbasis {
+  if (!work || work.blockVectors.length < 3 * (nCut + 1)) work = { levels: 3, chargeCutoff: nCut, energies: new Float64Array(3), blockVectors: new Float64Array(3 * (nCut + 1)) };
+  return work;
 }
 
 /** Forget every entry (tests). */

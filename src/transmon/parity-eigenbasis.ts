@@ -44,6 +44,8 @@ interface Scratch {
   gOdd: Float64Array;
   dPlus: Float64Array;
   dMinus: Float64Array;
+  /** One level's vector as the twisted factorisation finds it (nCut + 1). */
+  row: Float64Array;
 }
 /**
  * Work buffers by charge cutoff, kept for every cutoff asked for (a planner's run alternates
@@ -68,6 +70,7 @@ function scratchFor(nCut: number): Scratch {
     gOdd: new Float64Array(m),
     dPlus: new Float64Array(m),
     dMinus: new Float64Array(m),
+    row: new Float64Array(m),
   };
   scratchByCutoff[nCut] = scratch;
   return scratch;
@@ -80,9 +83,11 @@ function asymptoticLevel(ec: number, ej: number, m: number): number {
 
 /**
  * Lowest `k` levels (and, if `vectors`, block wave functions) for E_C, E_J at n_g = 0.
+ * `into`, when given, is filled and returned (its arrays at least k and k (N + 1) long; entries
+ * beyond those are left as they were): for callers that read the result at once, many times over.
  * @throws RangeError for E_C <= 0, E_J < 0, or k > 2N + 1.
  */
-export function parityEigenbasis(ecGHz: number, ejGHz: number, k: number, nCut: number, vectors = true): ParityEigenbasis {
+export function parityEigenbasis(ecGHz: number, ejGHz: number, k: number, nCut: number, vectors = true, into?: ParityEigenbasis): ParityEigenbasis {
   if (!(ecGHz > 0) || !(ejGHz >= 0)) throw new RangeError(`parityEigenbasis: need E_C > 0 and E_J >= 0 (got ${ecGHz}, ${ejGHz})`);
   const nEven = nCut + 1;
   const nOdd = nCut;
@@ -107,25 +112,32 @@ export function parityEigenbasis(ecGHz: number, ejGHz: number, k: number, nCut: 
     for (let i = 0; i < kOdd; i++) gOdd[i] = asymptoticLevel(ecGHz, ejGHz, 2 * i + 1);
     tridiagonalLowestEigenvalues(dOdd, eOdd, nOdd, kOdd, wOdd, gOdd);
   }
-  const energies = new Float64Array(k);
-  for (let m = 0; m < k; m++) energies[m] = m % 2 === 0 ? wEven[m >> 1] : wOdd[m >> 1];
   const stride = nCut + 1;
-  const blockVectors = new Float64Array(vectors ? k * stride : 0);
+  if (into && (into.energies.length < k || (vectors && into.blockVectors.length < k * stride))) throw new RangeError('parityEigenbasis: the result to fill is too small');
+  const energies = into ? into.energies : new Float64Array(k);
+  for (let m = 0; m < k; m++) energies[m] = m % 2 === 0 ? wEven[m >> 1] : wOdd[m >> 1];
+  const blockVectors = into ? into.blockVectors : new Float64Array(vectors ? k * stride : 0);
   if (vectors) {
+    // (each level's vector is found in the scratch row and copied to its place: no view per row)
+    const row = s.row;
     for (let m = 0; m < k; m++) {
       const even = m % 2 === 0;
-      const row = blockVectors.subarray(m * stride, (m + 1) * stride);
       if (even) tridiagonalTwistedEigenvector(dEven, eEven, nEven, energies[m], row, dPlus, dMinus);
       else tridiagonalTwistedEigenvector(dOdd, eOdd, nOdd, energies[m], row, dPlus, dMinus);
       const n = even ? nEven : nOdd;
       // Sign convention: first component positive (first non-negligible one if it vanishes).
       let lead = 0;
       while (lead < n - 1 && Math.abs(row[lead]) < 1e-300) lead++;
-      if (row[lead] < 0) for (let i = 0; i < n; i++) row[i] = -row[i];
-      if (!even) row[stride - 1] = 0;
+      const o = m * stride;
+      if (row[lead] < 0) for (let i = 0; i < n; i++) blockVectors[o + i] = -row[i];
+      else for (let i = 0; i < n; i++) blockVectors[o + i] = row[i];
+      if (!even) blockVectors[o + stride - 1] = 0;
     }
   }
-  return { levels: k, chargeCutoff: nCut, energies, blockVectors };
+  if (!into) return { levels: k, chargeCutoff: nCut, energies, blockVectors };
+  into.levels = k;
+  into.chargeCutoff = nCut;
+  return into;
 }
 
 /** K x K <m|n|m'> from a parity eigenbasis (zero unless m + m' is odd). */

@@ -24,6 +24,16 @@ function nielsen(kraus: number[][][]): number {
 }
 
 describe('qubitIdleError', () => {
+  it('fills a given parts object with the numbers it returns otherwise', () => {
+    const out = { t1: NaN, dephasing: NaN, thermal: NaN };
+    for (const [t, slope, temp] of [[0, 0, 0], [1000, 0, 0.05], [800, -2.1, 0.04], [2000, -0.3, 0]] as const) {
+      const p = { coherence: { t1Ns: 40_000, tphiNs: 90_000, fluxNoisePhi0: 2e-6 }, f01GHz: 4.7, slopeGHz: slope, curvatureGHz: 0 };
+      const want = qubitIdleError(p, t, { averagingTimeNs: 1e9, temperatureK: temp });
+      expect(qubitIdleError(p, t, { averagingTimeNs: 1e9, temperatureK: temp }, out)).toBe(out);
+      expect(out).toEqual(want);
+    }
+  });
+
   it('its T1 part is the amplitude-damping channel\'s average infidelity (Kraus operators, Nielsen 2002)', () => {
     for (const [t, t1] of [[1000, 50_000], [10_000, 20_000], [100, 100_000]]) {
       const g = 1 - Math.exp(-t / t1);

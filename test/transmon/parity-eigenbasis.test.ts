@@ -62,6 +62,23 @@ describe('parityEigenbasis(ec, ej, K, N)', () => {
     }
   });
 
+  it('fills a given result exactly as it builds a new one (a larger one, holding other numbers, included)', () => {
+    for (const c of cases.slice(0, 4)) {
+      for (const k of [1, 2, 3, 5]) {
+        const fresh = parityEigenbasis(c.ec, c.ej, k, c.cutoff);
+        const into = { levels: 0, chargeCutoff: 0, energies: new Float64Array(k + 2).fill(NaN), blockVectors: new Float64Array((k + 1) * (c.cutoff + 1)).fill(NaN) };
+        const got = parityEigenbasis(c.ec, c.ej, k, c.cutoff, true, into);
+        expect(got).toBe(into);
+        expect(got.levels).toBe(k);
+        expect(got.chargeCutoff).toBe(c.cutoff);
+        expect(Array.from(got.energies.subarray(0, k))).toEqual(Array.from(fresh.energies));
+        expect(Array.from(got.blockVectors.subarray(0, k * (c.cutoff + 1)))).toEqual(Array.from(fresh.blockVectors));
+        expect(Array.from(chargeMatrixFromParity(got))).toEqual(Array.from(chargeMatrixFromParity(fresh)));
+      }
+    }
+    expect(() => parityEigenbasis(0.2, 15, 3, 20, true, { levels: 0, chargeCutoff: 0, energies: new Float64Array(3), blockVectors: new Float64Array(10) })).toThrow(RangeError);
+  });
+
   it('without vectors returns energies only, and rejects bad input', () => {
     const b = parityEigenbasis(0.2, 15, 3, 20, false);
     expect(b.blockVectors.length).toBe(0);

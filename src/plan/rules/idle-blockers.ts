@@ -340,14 +340,16 @@ export function idleErrorBands(ctx: PlanContext, i: number): Interval[] {
     const lo = table.fLowGHz;
     const hi = table.fMaxGHz;
     const bad: boolean[] = [];
-    // (one point and one options object for the 401 calls: qubitIdleError only reads them)
+    // (one point, one options and one parts object for the 401 calls: qubitIdleError only reads the
+    // first two and fills the third)
     const point = { coherence: spec, f01GHz: 0, slopeGHz: 0, curvatureGHz: 0 };
     const options = { averagingTimeNs: r.noiseAveragingTimeNs, temperatureK: r.qubitTemperatureK };
+    const parts = { t1: 0, dephasing: 0, thermal: 0 };
     for (let k = 0; k <= n; k++) {
       const f = lo + ((hi - lo) * k) / n;
       point.f01GHz = f;
       point.slopeGHz = table.fluxSlopeAtF01(f);
-      const e = qubitIdleError(point, IDLE_REFERENCE_NS, options);
+      const e = qubitIdleError(point, IDLE_REFERENCE_NS, options, parts);
       bad.push(e.t1 + e.dephasing + e.thermal > r.idleErrorLimit);
     }
     if (bad.some((b) => !b)) {
