@@ -23,7 +23,7 @@
  * Search-only: every number the planner reports and every rule it checks in the end comes from
  * the exact Transmon (src/plan/exact-state.ts); this table only steers the search.
  */
-import { emptyMemoKeys, memoLookup, MEMO_SLOTS } from '../util/frequency-memo.js';
+import { memoLookup, MEMO_SLOTS } from '../util/frequency-memo.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
 import type { Transmon } from '../transmon/transmon.js';
@@ -158,8 +158,25 @@ export class QubitTable {
     this.uMin = Math.sqrt(sMin);
     this.m = o.points;
     this.h = (1 - this.uMin) / (this.m - 1);
-    this.v = new Float64Array(CHANNELS * this.m);
-    this.dv = new Float64Array(CHANNELS * this.m);
+    // (every array of the table, its memos included, is a view of one buffer: a 1,024-qubit chip
+    // builds 1,024 tables, and one backing store each instead of ~26 is what the garbage collector
+    // and the allocator then track)
+    const slabLength = 2 * CHANNELS * this.m + 2 * this.m + 16 * this.m + MEMO_SLOTS * (STATE_FIELDS + 5);
+    const slab = new Float64Array(slabLength);
+    let used = 0;
+    const take = (length: number): Float64Array => {
+      const view = slab.subarray(used, used + length);
+      used += length;
+      return view;
+    };
+    this.memoF = take(MEMO_SLOTS).fill(NaN);
+    this.memoV = take(MEMO_SLOTS * STATE_FIELDS);
+    this.fluxMemoF = take(MEMO_SLOTS).fill(NaN);
+    this.fluxMemo = take(MEMO_SLOTS);
+    this.f12MemoIn = take(MEMO_SLOTS).fill(NaN);
+    this.f12MemoOut = take(MEMO_SLOTS);
+    this.v = take(CHANNELS * this.m);
+    this.dv = take(CHANNELS * this.m);
     const m = this.m;
     const point = emptyLevelPoint();
     for (let k = 0; k < m; k++) {
@@ -179,8 +196,8 @@ export class QubitTable {
       this.v[10 * m + k] = point.n14;
     }
     for (let c = LEVEL_CHANNELS; c < CHANNELS; c++) finiteDifferenceSlopes(this.v, this.dv, c * m, m, this.h);
-    this.w12 = new Float64Array(m);
-    this.dw12 = new Float64Array(m);
+    this.w12 = take(m);
+    this.dw12 = take(m);
     for (let k = 0; k < m; k++) {
       this.w12[k] = this.v[m + k] - this.v[k];
       this.dw12[k] = this.dv[m + k] - this.dv[k];
@@ -188,8 +205,8 @@ export class QubitTable {
     for (let level = 2; level <= 5; level++) {
       const c = level - 1;
       for (const minus of [0, 1]) {
-        const y = new Float64Array(m);
-        const dy = new Float64Array(m);
+        const y = take(m);
+        const dy = take(m);
         for (let k = 0; k < m; k++) {
           y[k] = this.v[c * m + k] - minus * this.v[k];
           dy[k] = this.dv[c * m + k] - minus * this.dv[k];
@@ -200,6 +217,7 @@ export class QubitTable {
     }
     this.fLowGHz = this.v[0];
     this.fMaxGHz = this.v[m - 1];
+    if (used !== slabLength) throw new Error(`QubitTable: ${used} of ${slabLength} buffer entries laid out`);
   }
 
   /** True when f lies in the planning range [fLow, fMax]. */
@@ -280,8 +298,9 @@ export class QubitTable {
     return flux;
   }
 
-  private readonly fluxMemoF = emptyMemoKeys();
-  private readonly fluxMemo = new Float64Array(MEMO_SLOTS);
+  /** Keys (NaN when free, as emptyMemoKeys makes them) and values of fluxAt's memo. */
+  private readonly fluxMemoF: Float64Array;
+  private readonly fluxMemo: Float64Array;
 
   /** df01/dPhi (GHz per Phi0) at f01 = fGHz. */
   slopeAt(fGHz: number): number {
@@ -340,8 +359,8 @@ export class QubitTable {
     return out;
   }
 
-  private readonly f12MemoIn = emptyMemoKeys();
-  private readonly f12MemoOut = new Float64Array(MEMO_SLOTS);
+  private readonly f12MemoIn: Float64Array;
+  private readonly f12MemoOut: Float64Array;
 
   /**
    * The f01 at which E_level - E_0 - (minusF01 ? f01 : 0) equals `targetGHz` (level 2..5), or null
@@ -365,8 +384,8 @@ export class QubitTable {
    * from the gate cost, the flux excursion and the spectator term in turn); a remembered answer is
    * the state computing it again gives, to the last bit (at is a function of the frequency alone).
    */
-  private readonly memoF = emptyMemoKeys();
-  private readonly memoV = new Float64Array(MEMO_SLOTS * STATE_FIELDS);
+  private readonly memoF: Float64Array;
+  private readonly memoV: Float64Array;
 }
 
 /** Numbers of a TableState as the memo stores them. */
