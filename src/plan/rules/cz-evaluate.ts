@@ -426,7 +426,18 @@ function sweep(
   const f12Hi = Math.max(f12From, f12To);
   // (no closures made per call or per neighbour here: this loop runs millions of times on a
   // large chip; a crossing's kind names it in a message, built only for a finding)
-  const sw: SweepRecord = { ctx, Q, lo, hi, rate, swept, add, messages, tally };
+  // (one record for every sweep, filled anew: sweeps never nest, and recordCrossing reads it only
+  // while its sweep runs)
+  const sw = SWEEP;
+  sw.ctx = ctx;
+  sw.Q = Q;
+  sw.lo = lo;
+  sw.hi = hi;
+  sw.rate = rate;
+  sw.swept = swept;
+  sw.add = add;
+  sw.messages = messages;
+  sw.tally = tally;
   const memo = crossingMemoOf(ctx);
   const nq = ctx.neighbours[Q];
   for (let k = 0; k < nq.length; k++) {
@@ -486,6 +497,8 @@ interface SweepRecord {
   messages: boolean;
   tally: SweptTally | null;
 }
+
+const SWEEP: SweepRecord = { ctx: undefined as unknown as PlanContext, Q: 0, lo: 0, hi: 0, rate: 0, swept: [], add: () => undefined, messages: false, tally: null };
 
 /** The gate's mover and partner and the swept-crossing term summed so far (EvaluateOptions.sweptError). */
 interface SweptTally {
