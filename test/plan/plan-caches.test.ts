@@ -186,6 +186,20 @@ describe('rule evaluation without messages', () => {
     expect(findings).toBeGreaterThan(50);
   });
 
+  it('does not depend on the order the parked spectators were put in the map (they are taken in qubit order)', () => {
+    let reordered = 0;
+    for (const s of scenarios()) {
+      if (s.parked.size < 2) continue;
+      const backwards = new Map([...s.parked].sort((x, y) => y[0] - x[0]));
+      const ascending = new Map([...s.parked].sort((x, y) => x[0] - y[0]));
+      const want = evaluateGate(ctx, { ...s, parked: ascending });
+      expect(evaluateGate(ctx, { ...s, parked: backwards })).toEqual(want);
+      expect(evaluateGate(ctx, s)).toEqual(want);
+      reordered++;
+    }
+    expect(reordered).toBeGreaterThan(10);
+  });
+
   it('evaluating the same scenarios again (remembered couplings) gives the same results', () => {
     const list = scenarios();
     const first = list.map((s) => evaluateGate(ctx, s));

@@ -275,7 +275,10 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
   const f12To = ctx.tables[A].at(to, scratchA).f12;
   sweep(ctx, s, A, s.fromGHz, to, moverRate, (q) => during(s, q), true, swept, add, m, sc, findings, f12From, f12To, tally);
   // Parked spectators: their temporary point and their own sweep (the mover at parking then).
-  for (const [P, d] of parkedByQubit(s.parked)) {
+  const parkedCount = parkedByQubit(s.parked);
+  for (let pk = 0; pk < parkedCount; pk++) {
+    const P = PARKED_QUBITS[pk];
+    const d = PARKED_POINTS[pk];
     // (the screened spectator's own block reads its point throughout: one unit, never remembered)
     const own = sc !== undefined && P === sc.P;
     if (own) sc.unit++;
@@ -335,19 +338,33 @@ function evaluateGateWithParked(ctx: PlanContext, s: GateScenario, options: Eval
 }
 
 /**
- * The parked spectators in ascending qubit order (the keys are distinct, so any sort gives this
- * order; a map filled in that order, as most are, is not sorted again).
+ * The parked spectators in ascending qubit order, written to PARKED_QUBITS and PARKED_POINTS
+ * (returns how many): filled by insertion, each entry moved past the larger qubits before it (the
+ * keys are distinct, so this is the order any sort gives). Module-level lists, not an array of
+ * entries per evaluation: evaluations never nest, and the loop that reads them runs before the
+ * next one starts.
  */
-function parkedByQubit(parked: ReadonlyMap<number, DuringGate>): [number, DuringGate][] {
-  if (parked.size === 0) return NO_PARKED;
-  const out = [...parked.entries()];
-  for (let k = 1; k < out.length; k++) {
-    if (out[k - 1][0] > out[k][0]) return out.sort((x, y) => x[0] - y[0]);
-  }
-  return out;
+function parkedByQubit(parked: ReadonlyMap<number, DuringGate>): number {
+  parkedFilled = 0;
+  parked.forEach(placeParked);
+  return parkedFilled;
 }
 
-const NO_PARKED: [number, DuringGate][] = [];
+const PARKED_QUBITS: number[] = [];
+const PARKED_POINTS: DuringGate[] = [];
+let parkedFilled = 0;
+
+/** One entry of parkedByQubit's lists, moved past the larger qubits before it (a module-level callback: no closure per evaluation). */
+function placeParked(d: DuringGate, q: number): void {
+  let k = parkedFilled++;
+  while (k > 0 && PARKED_QUBITS[k - 1] > q) {
+    PARKED_QUBITS[k] = PARKED_QUBITS[k - 1];
+    PARKED_POINTS[k] = PARKED_POINTS[k - 1];
+    k--;
+  }
+  PARKED_QUBITS[k] = q;
+  PARKED_POINTS[k] = d;
+}
 
 /** The slot of a gate scenario by the shared duration model (./cz-duration.ts): evaluateGate's durationNs. */
 export function gateSlotNs(ctx: PlanContext, s: GateScenario): number {
