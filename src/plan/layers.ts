@@ -203,11 +203,12 @@ const LAYER_ROUNDS = 200;
  * The kind of every conflicting pair of gates (key a * plans.length + b, a < b indices into
  * `plans`): the conflict graph's edges, each with the first condition of the banner that holds.
  */
-export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, cache?: ConflictCache): Map<number, ConflictKind> {
+export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, cache?: ConflictCache): ReadonlyMap<number, ConflictKind> {
   if (cache && (cache.parkingF12 !== parkingF12 || cache.parkingGHz !== parkingGHz)) throw new Error('conflictKinds: the cache belongs to other parking frequencies');
-  // (the same plan objects in the same order as a list worked out before: its kinds, copied)
+  // (the same plan objects in the same order as a list worked out before: its kinds, the same
+  // read-only map; no caller changes it)
   const known = cache?.kindsOf(plans);
-  if (known) return new Map(known);
+  if (known) return known;
   const moved = plans.map((p) => (cache ? cache.movedOf(ctx, p) : movedQubits(ctx, p, parkingF12, parkingGHz)));
   // each plan's row of remembered pair kinds, looked up once per plan instead of once per pair
   const rows = cache ? plans.map((p) => cache.rowOf(p)) : null;
@@ -322,7 +323,7 @@ export class ConflictCache {
   }
 
   rememberKinds(plans: readonly EdgePlan[], kinds: ReadonlyMap<number, ConflictKind>): void {
-    this.lists.push({ plans: [...plans], kinds: new Map(kinds) });
+    this.lists.push({ plans: [...plans], kinds });
     if (this.lists.length > LISTS_KEPT) this.lists.shift();
   }
 }

@@ -43,7 +43,7 @@ describe('conflictKinds', () => {
         }
       }
       const got = conflictKinds(ctx, plans, f12, ghz);
-      const sorted = (x: Map<number, ConflictKind>) => [...x].sort((p, q) => p[0] - q[0]);
+      const sorted = (x: ReadonlyMap<number, ConflictKind>) => [...x].sort((p, q) => p[0] - q[0]);
       expect(sorted(got)).toEqual(sorted(want));
       expect(want.size).toBeGreaterThan(0);
       // the order: each qubit's occupants pairwise, then each gate's moved qubits' near occupants
