@@ -84,7 +84,8 @@ function asymptoticLevel(ec: number, ej: number, m: number): number {
 /**
  * Lowest `k` levels (and, if `vectors`, block wave functions) for E_C, E_J at n_g = 0.
  * `into`, when given, is filled and returned (its arrays at least k and k (N + 1) long; entries
- * beyond those are left as they were): for callers that read the result at once, many times over.
+ * beyond those, and without `vectors` every vector entry, are left as they were): for callers that
+ * read the result at once, many times over.
  * @throws RangeError for E_C <= 0, E_J < 0, or k > 2N + 1.
  */
 export function parityEigenbasis(ecGHz: number, ejGHz: number, k: number, nCut: number, vectors = true, into?: ParityEigenbasis): ParityEigenbasis {
