@@ -233,7 +233,7 @@ export class QubitTable {
     // a remembered answer (the state computed for the same frequency before) is copied out
     const found = memoLookup(this.memoF, fGHz);
     if (found >= 0) return readState(this.memoV, found * STATE_FIELDS, out);
-    invertCell(this.v, this.dv, this.h, fGHz, this.m);
+    this.locate(fGHz);
     const cell = INVERSE.cell;
     const t = INVERSE.t;
     const m = this.m;
@@ -269,10 +269,8 @@ export class QubitTable {
     k += m;
     out.n14 = b00 * v0[k] + b10 * dv[k] + b01 * v0[k + 1] + b11 * dv[k + 1];
     out.f12 = out.e2 - out.f01;
-    const u = this.uMin + (cell + t) * h;
-    out.ejRatio = u * u;
-    const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
-    out.df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
+    out.ejRatio = LOCATED.ejRatio;
+    out.df01dEj = LOCATED.df01dEj;
     const slot = -1 - found;
     this.memoF[slot] = fGHz;
     writeState(out, this.memoV, slot * STATE_FIELDS);
@@ -315,6 +313,17 @@ export class QubitTable {
    * only the slope (the idle-error bands: 401 points per qubit). Leaves `at`'s memo alone.
    */
   fluxSlopeAtF01(fGHz: number): number {
+    this.locate(fGHz);
+    const d = this.transmon.asymmetry;
+    const flux = fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, LOCATED.ejRatio)));
+    return LOCATED.df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux);
+  }
+
+  /**
+   * The cell and position of f01 = fGHz (invertCell, left in INVERSE) and there the E_J ratio and
+   * df01/dE_J (left in LOCATED): what `at` and fluxSlopeAtF01 both start from.
+   */
+  private locate(fGHz: number): void {
     invertCell(this.v, this.dv, this.h, fGHz, this.m);
     const cell = INVERSE.cell;
     const t = INVERSE.t;
@@ -322,12 +331,9 @@ export class QubitTable {
     const v = this.v;
     const dv = this.dv;
     const u = this.uMin + (cell + t) * h;
-    const ejRatio = u * u;
+    LOCATED.ejRatio = u * u;
     const df01du = h > 0 ? hermiteSlope(v[cell], v[cell + 1], dv[cell] * h, dv[cell + 1] * h, t) / h : 0;
-    const df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
-    const d = this.transmon.asymmetry;
-    const flux = fluxForJosephsonEnergy(1, d, Math.min(1, Math.max(d, ejRatio)));
-    return df01dEj * josephsonEnergySlope(this.transmon.ejsGHz, d, flux);
+    LOCATED.df01dEj = df01du / (2 * u * this.transmon.ejsGHz);
   }
 
   /** df01/dPhi (GHz per Phi0, <= 0 on the working branch) in a state this table returned. */
@@ -428,6 +434,9 @@ function readState(from: Float64Array, o: number, s: TableState): TableState {
 
 /** Where invertCell leaves its answer (single-threaded use, read right after the call). */
 const INVERSE = { cell: 0, t: 0 };
+
+/** Where QubitTable.locate leaves the E_J ratio and df01/dE_J (read right after the call). */
+const LOCATED = { ejRatio: 1, df01dEj: 0 };
 
 /**
  * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples
