@@ -20,7 +20,7 @@
  */
 import { cosPhiElement, parityEigenbasis, type ParityEigenbasis } from './parity-eigenbasis.js';
 
-/** Entries (a power of two): 16,384, about 1.2 MB. */
+/** Entries (a power of two): 16,384, about 1.1 MB of keys and values. */
 const SLOTS = 1 << 14;
 const MASK = SLOTS - 1;
 const PROBES = 4;

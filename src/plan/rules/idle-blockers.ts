@@ -128,7 +128,7 @@ export class IdleBlockers {
     return out;
   }
 
-  /** The intervals neighbour j blocks for qubit i (01-01, 01-12 both ways, ZZ), remembered while f_j, its f12 and the edge's ZZ scale stay. */
+  /** The intervals neighbour j blocks for qubit i (01-01, 01-12 both ways, ZZ), remembered while f_j, its f12, the edge's ZZ scale and the ZZ limit stay. */
   private neighbourPart(i: number, j: number, view: FrequencyView): Blocker[] {
     const ctx = this.ctx;
     const r = ctx.rules;
@@ -155,16 +155,14 @@ export class IdleBlockers {
   private nextNearestPart(p: number, end: number, k: number, fk: number): Blocker {
     const key = p * 2 + end;
     const hit = this.nextNearestParts.get(key);
-    if (hit && this.nextNearestAt.get(key) === fk) return hit;
+    if (hit && hit.fk === fk) return hit.blocker;
     const t = this.ctx.rules.detuningNext0101GHz;
-    const b: Blocker = { lo: fk - t, hi: fk + t, rule: 'next-01-01', other: k };
-    this.nextNearestParts.set(key, b);
-    this.nextNearestAt.set(key, fk);
-    return b;
+    const blocker: Blocker = { lo: fk - t, hi: fk + t, rule: 'next-01-01', other: k };
+    this.nextNearestParts.set(key, { fk, blocker });
+    return blocker;
   }
 
-  private readonly nextNearestParts = new Map<number, Blocker>();
-  private readonly nextNearestAt = new Map<number, number>();
+  private readonly nextNearestParts = new Map<number, { fk: number; blocker: Blocker }>();
 
   /** Qubit i's own blocked intervals (defects, readout resonator, idle error), made once. */
   private ownPart(i: number): Blocker[] {
