@@ -4,16 +4,12 @@
  * (`node dist/cli/main.js check FILE --json`, whole process: start-up, reading the YAML file, the
  * layout stage, chip graph, the planner's evaluation without pulse design, the JSON written; run
  * `npm run build` after changes), as for the yield's fixed mode (./yield.bench.ts). The same steps
- * from the TypeScript sources in this process are listed too, without a target: the planner's
- * code runs 15-25 % slower from tsx's transform than built (DEVELOPERS.md, Performance log, ninth
- * round).
+ * from the TypeScript sources in this process are listed too, without a target: from tsx's
+ * transform the planner's code ran 0-21 % slower than built in the runs measured (DEVELOPERS.md,
+ * Performance log, ninth round), and the whole process adds ~0.4 s of start-up and exit.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { Benchmark } from './run.js';
+import { chipFile, requireBuilt, runBuilt } from './built-command.js';
 import { generateLayout } from '../../src/chip/generate.js';
 import { buildChipGraph } from '../../src/chip/graph.js';
 import { layoutToYaml } from '../../src/layout/write.js';
@@ -23,8 +19,7 @@ import { checkChip } from '../../src/plan/check.js';
 let yaml: string | undefined;
 const text = () => (yaml ??= layoutToYaml(generateLayout({ kind: 'square', rows: 32, cols: 32, seed: 1 })));
 
-const builtMain = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
-let chipFile: string | undefined;
+const file = chipFile('square-32x32.yaml', text);
 
 export const check1024Built: Benchmark = {
   name: 'check, 1,024-qubit square chip (32 x 32), YAML file to JSON (built command, whole process)',
@@ -32,18 +27,10 @@ export const check1024Built: Benchmark = {
   runs: 1,
   warmup: 0,
   setup: () => {
-    if (!existsSync(builtMain)) throw new Error('check.bench.ts: dist/cli/main.js is missing; run npm run build first');
-    if (!chipFile) {
-      chipFile = path.join(mkdtempSync(path.join(tmpdir(), 'fluxlane-bench-')), 'square-32x32.yaml');
-      writeFileSync(chipFile, text());
-    }
+    requireBuilt('check.bench.ts');
+    file();
   },
-  run: () => {
-    const r = spawnSync(process.execPath, [builtMain, 'check', chipFile!, '--json'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-    // (exit 1: the check found violations; the generated chip has none, but the time is the same)
-    if (r.status !== 0 && r.status !== 1) throw new Error(`fluxlane check exited ${r.status}: ${r.stderr}`);
-    return r.stdout.length;
-  },
+  run: () => runBuilt(['check', file(), '--json']).length,
 };
 
 export const check1024: Benchmark = {

@@ -5,11 +5,10 @@
  * stages (src/cli/main.ts, lazy commands); the goal is well under a second each.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import type { Benchmark } from './run.js';
+import { BUILT_MAIN, requireBuilt } from './built-command.js';
 
-const main = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
 const demo = fileURLToPath(new URL('../../layouts/bowline-5.yaml', import.meta.url));
 
 function command(name: string, args: string[], target?: number): Benchmark {
@@ -18,11 +17,10 @@ function command(name: string, args: string[], target?: number): Benchmark {
     target,
     runs: 5,
     warmup: 1,
-    setup: () => {
-      if (!existsSync(main)) throw new Error('startup.bench.ts: dist/cli/main.js is missing; run npm run build first');
-    },
+    setup: () => requireBuilt('startup.bench.ts'),
     run: () => {
-      const r = spawnSync(process.execPath, [main, ...args], { encoding: 'utf8' });
+      // (exit 0 only: these commands break no rule)
+      const r = spawnSync(process.execPath, [BUILT_MAIN, ...args], { encoding: 'utf8' });
       if (r.status !== 0) throw new Error(`fluxlane ${args.join(' ')} exited ${r.status}: ${r.stderr}`);
       return r.stdout.length;
     },

@@ -9,12 +9,8 @@
  * - replan mode, one drawn chip planned anew (no pulses): target under 0.5 s;
  * - fixed mode, one drawn chip in this thread (the per-sample cost behind the first).
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { Benchmark } from './run.js';
+import { chipFile, requireBuilt, runBuilt } from './built-command.js';
 import { generateLayout } from '../../src/chip/generate.js';
 import { layoutToYaml } from '../../src/layout/write.js';
 import { parseLayoutText } from '../../src/layout/load.js';
@@ -40,8 +36,7 @@ export const fixedOne: Benchmark = {
   run: () => fixedEvaluator!.evaluate(0, fixedIndex++),
 };
 
-const builtMain = fileURLToPath(new URL('../../dist/cli/main.js', import.meta.url));
-let chipFile: string | undefined;
+const file = chipFile('square-10x10.yaml', () => layoutToYaml(generateLayout({ kind: 'square', rows: 10, cols: 10, seed: 1 })));
 
 export const fixed10kBuilt: Benchmark = {
   name: 'yield, fixed mode: 10,000 drawn 100-qubit chips on 2 worker threads (built command, whole process)',
@@ -49,17 +44,10 @@ export const fixed10kBuilt: Benchmark = {
   runs: 1,
   warmup: 0,
   setup: () => {
-    if (!existsSync(builtMain)) throw new Error('yield.bench.ts: dist/cli/main.js is missing; run npm run build first');
-    if (!chipFile) {
-      chipFile = path.join(mkdtempSync(path.join(tmpdir(), 'fluxlane-bench-')), 'square-10x10.yaml');
-      writeFileSync(chipFile, layoutToYaml(generateLayout({ kind: 'square', rows: 10, cols: 10, seed: 1 })));
-    }
+    requireBuilt('yield.bench.ts');
+    file();
   },
-  run: () => {
-    const r = spawnSync(process.execPath, [builtMain, 'yield', chipFile!, '--samples', '10000', '--seed', '1', '--threads', '2', '--json'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-    if (r.status !== 0 && r.status !== 1) throw new Error(`fluxlane yield exited ${r.status}: ${r.stderr}`);
-    return r.stdout.length;
-  },
+  run: () => runBuilt(['yield', file(), '--samples', '10000', '--seed', '1', '--threads', '2', '--json']).length,
 };
 
 export const fixed10k: Benchmark = {
