@@ -24,7 +24,9 @@ export const GATE_DESIGN_MODULE = '../gate/design.js';
 export async function loadGateDesigner(specifier: string = GATE_DESIGN_MODULE): Promise<GateDesigner | null> {
   let mod: Record<string, unknown>;
   try {
-    mod = (await import(new URL(specifier, import.meta.url).href)) as Record<string, unknown>;
+    // (the default as a literal specifier, so that the command's bundle, src/cli/build-bundle.ts,
+    // carries the gate stage as a chunk loaded here, not a second copy of its modules from dist/)
+    mod = (specifier === GATE_DESIGN_MODULE ? await import('../gate/design.js') : await import(new URL(specifier, import.meta.url).href)) as Record<string, unknown>;
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     const message = err instanceof Error ? err.message : String(err);
