@@ -27,6 +27,42 @@ export function hermiteSlope(y0: number, y1: number, d0: number, d1: number, t: 
 }
 
 /**
+ * The t in [0, 1] where p(t) = target on a cell whose interpolant increases (p(0) <= target <=
+ * p(1); arguments as for hermite): safeguarded Newton from t0 (Numerical Recipes, 3rd ed., sec.
+ * 9.4: a step that leaves the bracket [a, b] of the sign change is replaced by bisection). Stops
+ * when p(t) equals the target, when a step is shorter than `tol`, or after `maxIterations`
+ * evaluations. A Newton step shorter than `tol` ends the solve even when it rounds onto the
+ * bracket's end, which is then t itself (bisecting there threw the converged t away and started
+ * again: test/linalg/cubic-hermite.test.ts). `stats.iterations`, when given, gets the number of
+ * evaluations.
+ */
+export function hermiteInverse(y0: number, y1: number, d0: number, d1: number, target: number, t0: number, tol: number, maxIterations: number, stats?: { iterations: number }): number {
+  let a = 0;
+  let b = 1;
+  let t = t0;
+  let it = 0;
+  while (it < maxIterations) {
+    it++;
+    const r = hermite(y0, y1, d0, d1, t) - target;
+    if (r === 0) break;
+    if (r > 0) b = t;
+    else a = t;
+    const s = hermiteSlope(y0, y1, d0, d1, t);
+    const newton = s > 0 ? t - r / s : NaN;
+    if (Math.abs(newton - t) < tol) {
+      if (newton > a && newton < b) t = newton;
+      break;
+    }
+    const next = newton > a && newton < b ? newton : 0.5 * (a + b);
+    const done = Math.abs(next - t) < tol;
+    t = next;
+    if (done) break;
+  }
+  if (stats) stats.iterations = it;
+  return t;
+}
+
+/**
  * The four weights at t of a cell of width h, for tables of many functions interpolated at one
  * point: p = w[0] y0 + w[1] y0' + w[2] y1 + w[3] y1' with the unscaled derivatives (w[1] and
  * w[3] carry the factor h). Writes into `out` (length >= 4) and returns it.

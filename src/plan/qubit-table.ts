@@ -27,7 +27,7 @@ import { memoLookup, MEMO_SLOTS } from '../util/frequency-memo.js';
 import { fluxForJosephsonEnergy, josephsonEnergySlope } from '../transmon/josephson.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from '../transmon/parity-eigenbasis.js';
 import type { Transmon } from '../transmon/transmon.js';
-import { finiteDifferenceSlopes, hermite, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
+import { finiteDifferenceSlopes, hermite, hermiteInverse, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
 
 /** Scratch of the cubic Hermite weights (single-threaded use, filled and read in one call). */
 const HERMITE_WEIGHTS = new Float64Array(4);
@@ -441,7 +441,7 @@ const LOCATED = { ejRatio: 1, df01dEj: 0 };
 /**
  * Cell and local coordinate t in [0, 1] where the Hermite interpolant of the increasing samples
  * y[0..m-1] (slopes dy per unit u, spacing h) equals `target` (clamped to the ends):
- * binary search for the cell, then safeguarded Newton on the cubic. Leaves them in INVERSE.
+ * binary search for the cell, then safeguarded Newton on the cubic (hermiteInverse). Leaves them in INVERSE.
  */
 function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number, m: number = y.length): void {
   if (m < 2 || h === 0 || target <= y[0]) {
@@ -463,22 +463,6 @@ function invertCell(y: Float64Array, dy: Float64Array, h: number, target: number
   }
   const y0 = y[lo];
   const y1 = y[lo + 1];
-  const d0 = dy[lo] * h;
-  const d1 = dy[lo + 1] * h;
-  let a = 0;
-  let b = 1;
-  let t = (target - y0) / (y1 - y0);
-  for (let it = 0; it < 30; it++) {
-    const r = hermite(y0, y1, d0, d1, t) - target;
-    if (r > 0) b = t;
-    else a = t;
-    const s = hermiteSlope(y0, y1, d0, d1, t);
-    let next = s > 0 ? t - r / s : 0.5 * (a + b);
-    if (!(next > a && next < b)) next = 0.5 * (a + b);
-    const done = Math.abs(next - t) < 1e-14;
-    t = next;
-    if (done) break;
-  }
   INVERSE.cell = lo;
-  INVERSE.t = t;
+  INVERSE.t = hermiteInverse(y0, y1, dy[lo] * h, dy[lo + 1] * h, target, (target - y0) / (y1 - y0), 1e-14, 30);
 }

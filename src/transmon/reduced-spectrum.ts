@@ -24,7 +24,7 @@
  */
 import { chargeCutoffFor } from './charge-cutoff.js';
 import { chargeMatrixFromParity, cosPhiMatrixFromParity, parityEigenbasis } from './parity-eigenbasis.js';
-import { finiteDifferenceSlopes, hermite, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
+import { finiteDifferenceSlopes, hermite, hermiteInverse, hermiteSlope, hermiteWeights } from '../linalg/cubic-hermite.js';
 
 /** Scratch of the cubic Hermite weights (single-threaded use, filled and read in one call). */
 const HERMITE_WEIGHTS = new Float64Array(4);
@@ -189,20 +189,7 @@ export class ReducedSpectrum {
     const y1 = y[a + 1];
     const d0 = dy[a] * h;
     const d1 = dy[a + 1] * h;
-    let ta = 0;
-    let tb = 1;
-    let t = Math.min(1, Math.max(0, (target - y0) / (y1 - y0)));
-    for (let it = 0; it < 40; it++) {
-      const res = hermite(y0, y1, d0, d1, t) - target;
-      if (res > 0) tb = t;
-      else ta = t;
-      const sl = hermiteSlope(y0, y1, d0, d1, t);
-      let next = sl > 0 ? t - res / sl : 0.5 * (ta + tb);
-      if (!(next > ta && next < tb)) next = 0.5 * (ta + tb);
-      const done = Math.abs(next - t) < 1e-15;
-      t = next;
-      if (done) break;
-    }
+    const t = hermiteInverse(y0, y1, d0, d1, target, Math.min(1, Math.max(0, (target - y0) / (y1 - y0))), 1e-15, 40);
     const u = this.u0 + (a + t) * h;
     return Math.min(hi, Math.max(lo, u * u));
   }
