@@ -203,15 +203,21 @@ const LAYER_ROUNDS = 200;
  * The kind of every conflicting pair of gates (key a * plans.length + b, a < b indices into
  * `plans`): the conflict graph's edges, each with the first condition of the banner that holds.
  */
-export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], parkingF12: readonly number[], parkingGHz: ArrayLike<number>, cache?: ConflictCache): ReadonlyMap<number, ConflictKind> {
+export function conflictKinds(
+  ctx: PlanContext,
+  plans: readonly EdgePlan[],
+  parkingF12: readonly number[],
+  parkingGHz: ArrayLike<number>,
+  cache?: ConflictCache,
+  /** Up to this many plans the pairs met are marked in a bit array, beyond in a set (tests lower it). */
+  bitmapPlans = SEEN_BITMAP_PLANS,
+): ReadonlyMap<number, ConflictKind> {
   if (cache && (cache.parkingF12 !== parkingF12 || cache.parkingGHz !== parkingGHz)) throw new Error('conflictKinds: the cache belongs to other parking frequencies');
   // (the same plan objects in the same order as a list worked out before: its kinds, the same
   // read-only map; no caller changes it)
   const known = cache?.kindsOf(plans);
   if (known) return known;
   const moved = plans.map((p) => (cache ? cache.movedOf(ctx, p) : movedQubits(ctx, p, parkingF12, parkingGHz)));
-  // each plan's row of remembered pair kinds, looked up once per plan instead of once per pair
-  const rows = cache ? plans.map((p) => cache.rowOf(p)) : null;
   const touching: number[][] = Array.from({ length: ctx.n }, () => []);
   plans.forEach((p, k) => {
     for (const q of touchedQubits(p)) touching[q].push(k);
@@ -220,28 +226,26 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
   const kinds = new Map<number, ConflictKind>();
   // pairs already considered: one bit per pair (a byte array up to SEEN_BITMAP_PLANS plans, else a set)
   const m = plans.length;
-  const seenBits = m <= SEEN_BITMAP_PLANS ? new Uint8Array(Math.ceil((m * m) / 8)) : null;
+  const seenBits = m <= bitmapPlans ? new Uint8Array(Math.ceil((m * m) / 8)) : null;
   const seenSet = seenBits ? null : new Set<number>();
+  // a pair's kind at its first meeting (a < b; key a * m + b)
+  // (not remembered per pair of plan objects across lists: on the 32 x 32 chip 30 % of the
+  // pairs met first would be found there, and the maps cost more than conflictKind saved)
+  const measure = (a: number, b: number, key: number) => {
+    const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
+    if (kind) kinds.set(key, kind);
+  };
+  // (the near pairs' loop below tests the seen bit itself and calls measure only at a first
+  // meeting: of the 32 x 32 chip's ~684,000 candidate pairs per list, ~68,000 are met first)
   const consider = (k1: number, k2: number) => {
     if (k1 === k2) return;
-    const a = Math.min(k1, k2);
-    const b = Math.max(k1, k2);
+    const a = k1 < k2 ? k1 : k2;
+    const b = k1 < k2 ? k2 : k1;
     const key = a * m + b;
-    if (seenBits) {
-      const bit = 1 << (key & 7);
-      if (seenBits[key >> 3] & bit) return;
-      seenBits[key >> 3] |= bit;
-    } else {
-      if (seenSet!.has(key)) return;
-      seenSet!.add(key);
-    }
-    let kind: ConflictKind | null | undefined;
-    if (rows) {
-      const row = rows[a];
-      kind = row.get(plans[b]);
-      if (kind === undefined) row.set(plans[b], (kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b])));
-    } else kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
-    if (kind) kinds.set(key, kind);
+    let first: boolean;
+    if (seenBits) first = firstMeeting(seenBits, key);
+    else if ((first = !seenSet!.has(key))) seenSet!.add(key);
+    if (first) measure(a, b, key);
   };
   for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
   const nearOf = nearLists(ctx);
@@ -251,12 +255,28 @@ export function conflictKinds(ctx: PlanContext, plans: readonly EdgePlan[], park
       const near = nearOf[mk[j].qubit];
       for (let i = 0; i < near.length; i++) {
         const list = touching[near[i]];
-        for (let t = 0; t < list.length; t++) consider(k1, list[t]);
+        if (seenBits) {
+          for (let t = 0; t < list.length; t++) {
+            const k2 = list[t];
+            if (k2 === k1) continue;
+            const key = k1 < k2 ? k1 * m + k2 : k2 * m + k1;
+            if (firstMeeting(seenBits, key)) measure(k1 < k2 ? k1 : k2, k1 < k2 ? k2 : k1, key);
+          }
+        } else for (let t = 0; t < list.length; t++) consider(k1, list[t]);
       }
     }
   }
   cache?.rememberKinds(plans, kinds);
   return kinds;
+}
+
+/** Sets the bit of `key` and says whether it was clear (the pair's first meeting). */
+function firstMeeting(bits: Uint8Array, key: number): boolean {
+  const byte = key >> 3;
+  const bit = 1 << (key & 7);
+  if (bits[byte] & bit) return false;
+  bits[byte] |= bit;
+  return true;
 }
 
 /**
@@ -279,15 +299,14 @@ export function nearLists(ctx: PlanContext): readonly Int32Array[] {
 const nearListMemo = new WeakMap<PlanContext, readonly Int32Array[]>();
 
 /**
- * The moved qubits of each plan and the conflict kind of each pair of plans, remembered by plan
- * object for one set of parking frequencies: the layer fitting (./layer-moves.ts) colours several
- * candidate sets of plans that share most of their plan objects, and a plan's moved qubits and a
- * pair's kind depend only on the two plans and the parking (plans are never changed in place).
- * The same answers as computing them again (tested).
+ * The moved qubits of each plan, remembered by plan object, and the conflict kinds of the last few
+ * lists of plans, for one set of parking frequencies: the layer fitting (./layer-moves.ts) colours
+ * several candidate sets of plans that share most of their plan objects, and a plan's moved
+ * qubits depend only on the plan and the parking (plans are never changed in place). The same
+ * answers as computing them again (tested).
  */
 export class ConflictCache {
   private readonly moved = new WeakMap<EdgePlan, MovedQubit[]>();
-  private readonly kinds = new WeakMap<EdgePlan, Map<EdgePlan, ConflictKind | null>>();
   /** The kinds of the last few lists of plans (plan objects in order), as conflictKinds found them. */
   private readonly lists: { plans: EdgePlan[]; kinds: ReadonlyMap<number, ConflictKind> }[] = [];
 
@@ -300,21 +319,6 @@ export class ConflictCache {
     let m = this.moved.get(plan);
     if (!m) this.moved.set(plan, (m = movedQubits(ctx, plan, this.parkingF12, this.parkingGHz)));
     return m;
-  }
-
-  /** conflictKind(ctx, g1, m1, g2, m2), remembered for the ordered pair (g1, g2); m1, m2 their movedOf. */
-  kindOf(ctx: PlanContext, g1: EdgePlan, m1: readonly MovedQubit[], g2: EdgePlan, m2: readonly MovedQubit[]): ConflictKind | null {
-    const row = this.rowOf(g1);
-    let k = row.get(g2);
-    if (k === undefined) row.set(g2, (k = conflictKind(ctx, g1, m1, g2, m2)));
-    return k;
-  }
-
-  /** The remembered kinds of the ordered pairs (g1, g2), by g2 (conflictKind's answers only). */
-  rowOf(g1: EdgePlan): Map<EdgePlan, ConflictKind | null> {
-    let row = this.kinds.get(g1);
-    if (!row) this.kinds.set(g1, (row = new Map()));
-    return row;
   }
 
   /** The kinds conflictKinds found for the same plan objects in the same order, if among the last LISTS_KEPT lists. */

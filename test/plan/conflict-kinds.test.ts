@@ -61,6 +61,8 @@ describe('conflictKinds', () => {
       for (const list of occupants) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) meet(list[i], list[j]);
       for (let k1 = 0; k1 < m; k1++) for (const x of moved[k1]) for (const r of near[x.qubit]) for (const k2 of occupants[r]) meet(k1, k2);
       expect([...got.keys()]).toEqual(order);
+      // the pairs met kept in a set (beyond SEEN_BITMAP_PLANS plans) instead of the bit array: the same map, in the same order
+      expect([...conflictKinds(ctx, plans, f12, ghz, undefined, 0)]).toEqual([...got]);
     });
   }
 });
