@@ -18,7 +18,6 @@
 
 import { resolve } from 'node:path';
 import type { Command } from 'commander';
-import { loadLayoutFile } from '../layout/load.js';
 import type { ChipLayout } from '../layout/types.js';
 import { formatDiagnostic, InputError, type Diagnostic } from '../util/errors.js';
 import { StageProfiler } from '../util/profile.js';
@@ -58,6 +57,9 @@ export async function runCommand(
   flags: CommonFlags,
   body: (ctx: CommandContext) => Promise<CommandOutcome> | CommandOutcome,
 ): Promise<number> {
+  // (the layout stage, with zod and the yaml package, is loaded here, when a command runs:
+  // `fluxlane --version` and `--help` never load it)
+  const { loadLayoutFile } = await import('../layout/load.js');
   const json = Boolean(flags.json);
   const profiler = new StageProfiler(Boolean(flags.profile));
   const warnings: Diagnostic[] = [];

@@ -12,6 +12,7 @@ import { join, relative, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { BUNDLE_BANNER, bundleCommand, withModuleUrl } from '../../src/cli/build-bundle.js';
 import { runFluxlane } from '../support/cli.js';
+import { loadedModules } from '../support/loaded-modules.js';
 
 const DIST = resolve('dist');
 const temp: string[] = [];
@@ -56,17 +57,9 @@ describe('bundleCommand', () => {
   });
 
   it('plan with pulses in one thread loads no module of dist/: the gate stage comes from the bundle (src/plan/gate-seam.ts imports it by a literal specifier)', () => {
-    // module hooks (node:module register) log every module the process loads
-    const d = tempDir();
-    const log = join(d, 'loaded.txt');
-    writeFileSync(join(d, 'hooks.mjs'), "import { appendFileSync } from 'node:fs';\nexport async function load(url, context, next) { appendFileSync(process.env.LOADED_LOG, url + '\\n'); return next(url, context); }\n");
-    writeFileSync(join(d, 'register.mjs'), "import { register } from 'node:module';\nregister(new URL('./hooks.mjs', import.meta.url));\n");
-    const r = spawnSync(process.execPath, ['--import', pathToFileURL(join(d, 'register.mjs')).href, join(bundle, 'main.js'), 'plan', 'layouts/bowline-5.yaml', '--threads', '1', '-o', join(d, 'out')], {
-      encoding: 'utf8',
-      env: { ...process.env, LOADED_LOG: log },
-    });
-    expect(r.status, r.stderr).toBe(0);
-    const loaded = readFileSync(log, 'utf8').trim().split('\n');
+    const out = join(tempDir(), 'out');
+    const { run, loaded } = loadedModules([], join(bundle, 'main.js'), ['plan', 'layouts/bowline-5.yaml', '--threads', '1', '-o', out]);
+    expect(run.status, run.stderr).toBe(0);
     expect(loaded.filter((u) => u.startsWith(pathToFileURL(bundle).href)).length).toBeGreaterThan(3);
     expect(loaded.filter((u) => u.startsWith(pathToFileURL(DIST).href) && u.endsWith('.js'))).toEqual([]);
   }, 60_000);
