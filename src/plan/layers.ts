@@ -229,7 +229,7 @@ export function conflictKinds(
   const seenBits = m <= bitmapPlans ? new Uint8Array(Math.ceil((m * m) / 8)) : null;
   const seenSet = seenBits ? null : new Set<number>();
   // a pair's kind at its first meeting (a < b; key a * m + b)
-  // (not remembered per pair of plan objects across lists: on the 32 x 32 chip 30 % of the
+  // (not remembered per pair of plan objects across lists: on the 32 x 32 chip 28 % of the
   // pairs met first would be found there, and the maps cost more than conflictKind saved)
   const measure = (a: number, b: number, key: number) => {
     const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
