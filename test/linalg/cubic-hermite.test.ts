@@ -1,6 +1,7 @@
 /**
  * The cubic Hermite kernels (src/linalg/cubic-hermite.ts) against SciPy's CubicHermiteSpline
- * (live through test/reference/cubic_hermite.py) on one cell, and the fourth-order slopes against
+ * (live through test/reference/cubic_hermite.py) on one cell, the inverse against its PPoly.solve,
+ * and the fourth-order slopes against
  * exact derivatives of quartics (Fornberg's stencils are exact to degree 4; Math. Comp. 51, 699
  * (1988)).
  */
@@ -15,8 +16,8 @@ const DYDX = [4.1, -1.9];
 const T = [0, 0.1, 0.37, 0.5, 0.81, 1];
 const ref = runPython<{ values: number[]; slopes: number[] }>('cubic_hermite.py', { x: [X0, X0 + H], y: Y, dydx: DYDX, at: T.map((t) => X0 + t * H) });
 
-// an increasing cell (end slopes below 3 (y1 - y0) / h: monotone, Fritsch and Carlson, SIAM J.
-// Numer. Anal. 17, 238 (1980)) and values to invert, its ends included
+// an increasing cell (end slopes below 3 (y1 - y0) / h: monotone, the Fritsch-Carlson condition,
+// SIAM J. Numer. Anal. 17, 238 (1980), from memory) and values to invert, its ends included
 const YI = [5.1, 6.4];
 const DYDXI = [4.9, 2.2];
 const TARGETS = [5.1, 5.1000001, 5.37, 5.75, 6.0, 6.399999, 6.4];
