@@ -2,7 +2,7 @@
  * The command bundle (src/cli/build-bundle.ts): each module keeps its own import.meta.url, and
  * the bundled command gives, byte for byte, what the commands give run from the sources
  * in-process (the reference here: the same code without the bundle). Needs the compiled dist/
- * (`npm run build`; CI's `npm ci` runs it).
+ * (`npm run build`; CI's `npm ci` runs it): a dist/ older than the sources fails it.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
