@@ -110,6 +110,10 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     return { index: k, a, b, key: `${c.a}-${c.b}`, gGHz: c.gGHz, gChargeGHz: chargeCouplingFromExchange(c.gGHz, n01AtTop(a), n01AtTop(b)) };
   });
   for (const list of neighbours) list.sort((x, y) => x - y);
+  // per qubit, the edge to each neighbour (aligned with neighbours[i]): edgeBetween scans these
+  // few entries instead of hashing (it is asked millions of times on a large chip: the layer
+  // conflicts, the gate evaluations)
+  const neighbourEdges = neighbours.map((ns, i) => Int32Array.from(ns, (j) => edgeMap.get(i * n + j)!));
   const nextNearest: NextNearest[] = nextNearestPairs(graph).map((p) => ({
     a: index.get(p.a)!,
     b: index.get(p.b)!,
@@ -150,7 +154,13 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     domains,
     ranges,
     fixed,
-    edgeBetween: (i, j) => edgeMap.get(i * n + j) ?? -1,
+    edgeBetween: (i, j) => {
+      const ns = neighbours[i];
+      if (ns === undefined) return -1;
+      const es = neighbourEdges[i];
+      for (let k = 0; k < ns.length; k++) if (ns[k] === j) return es[k];
+      return -1;
+    },
     pair(edge: number): CoupledPair {
       let p = pairs.get(edge);
       if (!p) {
