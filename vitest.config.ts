@@ -3,6 +3,8 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],
+    // one temporary folder per run, removed at its end (test/support/global-temp.ts)
+    globalSetup: ['test/support/global-temp.ts'],
     testTimeout: 120_000,
     hookTimeout: 120_000,
     pool: 'forks',
