@@ -14,19 +14,16 @@ export type { GateDesign, GateDesignRequest, GateSpectatorRequest };
 
 export type GateDesigner = (request: GateDesignRequest) => GateDesign;
 
-/** Where the gate stage lives, relative to this module (src/ under tsx and vitest, dist/ when built). */
-export const GATE_DESIGN_MODULE = '../gate/design.js';
-
 /**
  * The gate stage's designer, or null when this build has no gate stage. Any other failure to
  * load it (a syntax error, a missing export) is thrown: that is a bug, not a missing feature.
  */
-export async function loadGateDesigner(specifier: string = GATE_DESIGN_MODULE): Promise<GateDesigner | null> {
+export async function loadGateDesigner(): Promise<GateDesigner | null> {
   let mod: Record<string, unknown>;
   try {
-    // (the default as a literal specifier, so that the command's bundle, src/cli/build-bundle.ts,
+    // (a literal specifier, relative to this module: the command's bundle, src/cli/build-bundle.ts,
     // carries the gate stage as a chunk loaded here, not a second copy of its modules from dist/)
-    mod = (specifier === GATE_DESIGN_MODULE ? await import('../gate/design.js') : await import(new URL(specifier, import.meta.url).href)) as Record<string, unknown>;
+    mod = (await import('../gate/design.js')) as Record<string, unknown>;
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     const message = err instanceof Error ? err.message : String(err);
@@ -36,6 +33,6 @@ export async function loadGateDesigner(specifier: string = GATE_DESIGN_MODULE): 
     throw err;
   }
   const fn = mod.designCzGate;
-  if (typeof fn !== 'function') throw new Error(`${specifier} does not export designCzGate`);
+  if (typeof fn !== 'function') throw new Error('the gate stage (gate/design.js) does not export designCzGate');
   return fn as GateDesigner;
 }
