@@ -51,6 +51,8 @@ export interface PlanContext {
   edges: PlanEdge[];
   /** Edge indices touching each qubit. */
   edgesOf: number[][];
+  /** Per qubit, the edge to each of its neighbours (aligned with neighbours[i]). */
+  neighbourEdges: Int32Array[];
   nextNearest: NextNearest[];
   /** Next-nearest pair indices of each qubit. */
   nextNearestOf: number[][];
@@ -110,9 +112,8 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     return { index: k, a, b, key: `${c.a}-${c.b}`, gGHz: c.gGHz, gChargeGHz: chargeCouplingFromExchange(c.gGHz, n01AtTop(a), n01AtTop(b)) };
   });
   for (const list of neighbours) list.sort((x, y) => x - y);
-  // per qubit, the edge to each neighbour (aligned with neighbours[i]): edgeBetween scans these
-  // few entries instead of hashing (it is asked millions of times on a large chip: the layer
-  // conflicts, the gate evaluations)
+  // (edgeBetween scans these few entries instead of hashing: it is asked millions of times on a
+  // large chip, by the layer conflicts and the gate evaluations)
   const neighbourEdges = neighbours.map((ns, i) => Int32Array.from(ns, (j) => edgeMap.get(i * n + j)!));
   const nextNearest: NextNearest[] = nextNearestPairs(graph).map((p) => ({
     a: index.get(p.a)!,
@@ -149,6 +150,7 @@ export function buildPlanContext(layout: ChipLayout, options: ContextOptions = {
     neighbours,
     edges,
     edgesOf,
+    neighbourEdges,
     nextNearest,
     nextNearestOf,
     domains,

@@ -38,6 +38,8 @@ describe('edgeBetween', () => {
         }
       }
       expect(found).toBe(2 * l.couplings.length);
+      // the per-neighbour edges it scans (the parking cost reads them too)
+      ctx.neighbours.forEach((ns, i) => ns.forEach((j, q) => expect(ctx.neighbourEdges[i][q]).toBe(want.get(`${i},${j}`))));
     });
   }
 });

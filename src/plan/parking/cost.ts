@@ -108,7 +108,7 @@ export class ParkingCost {
     private readonly ctx: PlanContext,
     private readonly options: PlanOptions,
   ) {
-    this.edgeOf = ctx.neighbours.map((ns, i) => Int32Array.from(ns, (j) => ctx.edgeBetween(i, j)));
+    this.edgeOf = ctx.neighbourEdges;
     this.gOf = this.edgeOf.map((es) => Float64Array.from(es, (e) => ctx.edges[e].gChargeGHz));
     this.weightsNonNegative = Object.values(options.weights).every((x) => x >= 0) && options.search.violationPenalty >= 0;
     const d = ctx.neighbours.reduce((m, ns) => Math.max(m, ns.length), 0);
