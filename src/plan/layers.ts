@@ -235,8 +235,7 @@ export function conflictKinds(
     const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
     if (kind) kinds.set(key, kind);
   };
-  // (the near pairs' loop below tests the seen bit itself and calls measure only at a first
-  // meeting: of the 32 x 32 chip's ~684,000 candidate pairs per list, ~68,000 are met first)
+  // (of the 32 x 32 chip's ~684,000 candidate pairs per list, ~68,000 are met first)
   const consider = (k1: number, k2: number) => {
     if (k1 === k2) return;
     const a = k1 < k2 ? k1 : k2;
@@ -255,14 +254,7 @@ export function conflictKinds(
       const near = nearOf[mk[j].qubit];
       for (let i = 0; i < near.length; i++) {
         const list = touching[near[i]];
-        if (seenBits) {
-          for (let t = 0; t < list.length; t++) {
-            const k2 = list[t];
-            if (k2 === k1) continue;
-            const key = k1 < k2 ? k1 * m + k2 : k2 * m + k1;
-            if (firstMeeting(seenBits, key)) measure(k1 < k2 ? k1 : k2, k1 < k2 ? k2 : k1, key);
-          }
-        } else for (let t = 0; t < list.length; t++) consider(k1, list[t]);
+        for (let t = 0; t < list.length; t++) consider(k1, list[t]);
       }
     }
   }
