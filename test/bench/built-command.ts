@@ -4,7 +4,7 @@
  * YAML written once to a temporary file, and one run.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -16,12 +16,14 @@ export function requireBuilt(benchFile: string): void {
   if (!existsSync(BUILT_MAIN)) throw new Error(`${benchFile}: dist/cli/main.js is missing; run npm run build first`);
 }
 
-/** A file holding `text()` as `name` in a fresh temporary folder, written on the first call. */
+/** A file holding `text()` as `name` in a fresh temporary folder, written on the first call (the folder is removed when the process exits). */
 export function chipFile(name: string, text: () => string): () => string {
   let file: string | undefined;
   return () => {
     if (!file) {
-      file = path.join(mkdtempSync(path.join(tmpdir(), 'fluxlane-bench-')), name);
+      const dir = mkdtempSync(path.join(tmpdir(), 'fluxlane-bench-'));
+      process.on('exit', () => rmSync(dir, { recursive: true, force: true }));
+      file = path.join(dir, name);
       writeFileSync(file, text());
     }
     return file;
