@@ -8,7 +8,7 @@
  *
  * Why: Node 20 loads ES modules one file at a time (resolve, stat, read, compile, link). `check`
  * of a small chip opened 298 JavaScript files (124 of them ours, 95 zod's, 72 the yaml package's);
- * as one bundle and its chunks they load in a few reads. Measured in DEVELOPERS.md (Performance log, tenth round).
+ * bundled, it loads 28 (main.js and its chunks). Measured in DEVELOPERS.md (Performance log, tenth round).
  *
  * The bundled code is the compiled code: esbuild only joins the modules (renaming top-level names
  * where two modules use the same one), so every computation is the same. Two things are kept as

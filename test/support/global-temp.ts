@@ -3,7 +3,8 @@
  * temporary directory (TMPDIR, which os.tmpdir() reads) for every test file and every process the
  * tests start, and removed when the run ends. Tests make their scratch folders with mkdtemp in
  * os.tmpdir(), and not all of them can remove them (the interrupt tests kill writers on purpose):
- * before this, each run of the suite left a few hundred fluxlane-* folders in /tmp.
+ * before this, the suite's runs had left 2,425 fluxlane-* folders in /tmp on the development
+ * machine.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
