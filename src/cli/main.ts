@@ -15,6 +15,7 @@ import { Command, CommanderError } from 'commander';
 import { processIo, type CliIo } from './io.js';
 import { EXIT, reportError } from './handler.js';
 import { packageVersion } from './version.js';
+import { tuneV8 } from './v8-tuning.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
@@ -121,6 +122,7 @@ function isMainModule(): boolean {
 }
 
 if (isMainModule()) {
+  tuneV8();
   process.stdout.on('error', (err: NodeJS.ErrnoException) => {
     if (err.code === 'EPIPE') process.exit(0); // reader went away (e.g. `| head`): stop quietly
   });
