@@ -36,7 +36,7 @@ export function bracketedNewton(fn: FunctionWithSlope, lo: number, hi: number, o
   const xTol = options.xTol ?? BRACKETED_ROOT_DEFAULTS.xTol;
   const fTol = options.fTol ?? BRACKETED_ROOT_DEFAULTS.fTol;
   const maxIt = options.maxIterations ?? BRACKETED_ROOT_DEFAULTS.maxIterations;
-  const slope: Slope = { value: NaN };
+  const slope: Slope = { value: Number.NaN };
   const swap = lo > hi;
   const a = swap ? hi : lo;
   const b = swap ? lo : hi;
@@ -45,7 +45,7 @@ export function bracketedNewton(fn: FunctionWithSlope, lo: number, hi: number, o
   if (fa === 0) return a;
   const fb = known(swap ? options.fLo : options.fHi) ? (swap ? options.fLo! : options.fHi!) : fn(b, slope);
   if (fb === 0) return b;
-  if (!(fa * fb < 0)) return NaN;
+  if (!(fa * fb < 0)) return Number.NaN;
   // Orient so that f(a) < 0 < f(b).
   let xNeg = fa < 0 ? a : b;
   let xPos = fa < 0 ? b : a;
@@ -61,7 +61,7 @@ export function bracketedNewton(fn: FunctionWithSlope, lo: number, hi: number, o
     const left = Math.min(xNeg, xPos);
     const right = Math.max(xNeg, xPos);
     if (right - left <= xTol) return x;
-    const newton = Number.isFinite(df) && df !== 0 ? x - f / df : NaN;
+    const newton = Number.isFinite(df) && df !== 0 ? x - f / df : Number.NaN;
     if (!(newton > left && newton < right) || Math.abs(2 * f) > Math.abs(stepOld * df)) {
       stepOld = step;
       step = 0.5 * (right - left);

@@ -48,7 +48,9 @@ export function hermiteInverse(y0: number, y1: number, d0: number, d1: number, t
     if (r > 0) b = t;
     else a = t;
     const s = hermiteSlope(y0, y1, d0, d1, t);
-    const newton = s > 0 ? t - r / s : NaN;
+    // (Number.NaN, never the global NaN: DEVELOPERS.md, "Numbers in hot code"; here the global
+    // cost a heap number per Newton step, ~65 bytes per inversion)
+    const newton = s > 0 ? t - r / s : Number.NaN;
     if (Math.abs(newton - t) < tol) {
       if (newton > a && newton < b) t = newton;
       break;
