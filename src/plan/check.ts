@@ -24,7 +24,8 @@ export interface ChipCheck {
 }
 
 export function checkChip(layout: ChipLayout, graph: ChipGraph, options: PlanOptionsInput = {}, hooks: { profiler?: StageProfiler; progress?: (stage: string, done: number, total: number) => void } = {}): ChipCheck {
-  const plan = planChip(layout, options, hooks, graph);
+  // (the layers' kind-by-kind explanation is not part of the check's output)
+  const plan = planChip(layout, options, { ...hooks, layerExplanation: false }, graph);
   const { ctx } = plan;
   const id = ctx.ids;
   const parking = idRecord<unknown>();

@@ -63,13 +63,16 @@ export function fitMovesToLayers(
   parkingGHz: ArrayLike<number>,
   /** The predicted cycle error of a set of edge plans in given layers (./plan-budget.ts). */
   cycleError: CycleError,
+  /** false: the kept layers without their kind-by-kind explanation (its counts NaN: planLayers with explain false), for callers that do not report it. */
+  explain = true,
 ): FittedLayers {
   const { ctx } = ec;
   // the candidates share most plan objects: their moved qubits and pair conflicts are worked out once
   const cache = new ConflictCache(parkingF12, parkingGHz);
   const quiet = { explain: false, cache };
   const layers = planLayers(ctx, edges, parkingF12, parkingGHz, 1, undefined, quiet);
-  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers: explainLayers(ctx, edges, parkingF12, parkingGHz, layers, 1, cache), fitting: null };
+  const explained = (list: readonly EdgePlan[], l: LayerPlan): LayerPlan => (explain ? explainLayers(ctx, list, parkingF12, parkingGHz, l, 1, cache) : l);
+  if (!edges.some((e) => e.parked.length > 0) || layers.layers.length <= layers.lowerBound) return { edges: [...edges], layers: explained(edges, layers), fitting: null };
   const step = (list: readonly EdgePlan[], l: LayerPlan): FittingStep => ({
     layers: l.layers.length,
     cycleError: cycleError(list, l),
@@ -91,7 +94,7 @@ export function fitMovesToLayers(
   const all = { planned, aligned, fitted } as const;
   let kept: LayerFitting['kept'] = 'planned';
   for (const k of ['aligned', 'fitted'] as const) if (all[k].step.cycleError < all[kept].step.cycleError) kept = k;
-  const keptLayers = explainLayers(ctx, all[kept].edges, parkingF12, parkingGHz, all[kept].layers, 1, cache);
+  const keptLayers = explained(all[kept].edges, all[kept].layers);
   return { edges: all[kept].edges, layers: keptLayers, fitting: { planned: planned.step, aligned: aligned.step, fitted: fitted.step, kept } };
 }
 

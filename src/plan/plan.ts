@@ -62,6 +62,11 @@ export interface PlanHooks {
   progress?: (stage: string, done: number, total: number) => void;
   /** Transmons and spectrum tables given by the caller (src/yield re-plans drawn chips with them). */
   context?: Pick<ContextOptions, 'transmons' | 'tableFor'>;
+  /**
+   * false: the layers' kind-by-kind explanation (LayerPlan.explanation) is left out, its counts
+   * NaN (`fluxlane check` does not report it; every other part of the plan is the same).
+   */
+  layerExplanation?: boolean;
 }
 
 export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks: PlanHooks = {}, graph?: ChipGraph): ChipPlan {
@@ -103,7 +108,7 @@ export function planChip(layout: ChipLayout, input: PlanOptionsInput = {}, hooks
   const estimates: EstimateMemo = new WeakMap();
   const cycleError = (list: readonly EdgePlan[], layers: LayerPlan) =>
     planBudget({ ctx, options, parking, states, edges: [...list], layers, gates: null }, estimates).cycle.error;
-  const fit = profiler.time('layers', () => fitMovesToLayers(ec, edges, parkingF12, parking.parkingGHz, cycleError));
+  const fit = profiler.time('layers', () => fitMovesToLayers(ec, edges, parkingF12, parking.parkingGHz, cycleError, hooks.layerExplanation !== false));
   edges.splice(0, edges.length, ...fit.edges);
   const layers = fit.layers;
   parking.stats.layerFitting = fit.fitting;
