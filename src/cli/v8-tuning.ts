@@ -6,9 +6,10 @@
  * background thread (the process used ~1.55 cores for a 1,024-qubit check, ~2 s of it compiling
  * and collecting on the second core; with `--single-threaded` the same run took 7.0 s instead of
  * 5.1 s): functions that run a little are optimised, deoptimised and optimised again. With a
- * budget of 250,000 the process used ~1.35 cores and finished ~6 % sooner (DEVELOPERS.md,
- * Performance log, eleventh round). Results do not depend on it: every tier computes the same
- * IEEE doubles (the outputs are compared byte for byte in test/cli/v8-tuning.test.ts).
+ * budget of 250,000 the process used ~1.35-1.4 cores, and the medians of three sessions of turns
+ * fell by 7-11 % (DEVELOPERS.md, Performance log, eleventh round). Results do not depend on it:
+ * every tier computes the same IEEE doubles (test/cli/v8-tuning.test.ts compares the output with
+ * V8's default budget byte for byte).
  *
  * A setting the user gave node on its command line is left as given (NODE_OPTIONS is looked at too,
  * though node accepts only a few V8 flags there).
