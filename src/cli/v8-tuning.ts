@@ -20,11 +20,12 @@ export const V8_SETTINGS: readonly { flag: string; value: string }[] = [{ flag: 
 
 /** The settings applied: those the user did not give node themselves. */
 export function tuneV8(execArgv: readonly string[] = process.execArgv, nodeOptions = process.env.NODE_OPTIONS ?? '', set: (flags: string) => void = setFlagsFromString): string[] {
-  const given = `${execArgv.join(' ')} ${nodeOptions}`;
+  // the names of the options given, `_` read as `-` (node takes --interrupt-budget and
+  // --interrupt_budget alike); whole names, so that --interrupt-budget-factor-for-... is another
+  const given = new Set([...execArgv, ...nodeOptions.split(/\s+/)].map((a) => a.split('=')[0].replace(/_/g, '-')));
   const applied: string[] = [];
   for (const { flag, value } of V8_SETTINGS) {
-    // (node takes --interrupt-budget and --interrupt_budget alike)
-    if (given.includes(flag) || given.includes(`--${flag.slice(2).replace(/-/g, '_')}`)) continue;
+    if (given.has(flag)) continue;
     set(`${flag}=${value}`);
     applied.push(`${flag}=${value}`);
   }

@@ -17,6 +17,12 @@ describe('tuneV8', () => {
     expect(tuneV8([], '--max-old-space-size=4096 --interrupt_budget=5000', (f) => set.push(f))).toEqual([]);
     expect(set).toEqual([]);
   });
+
+  it('sets it when the user gave only another flag whose name begins the same way', () => {
+    const set: string[] = [];
+    expect(tuneV8(['--interrupt-budget-factor-for-feedback-allocation=8'], '', (f) => set.push(f))).toEqual(['--interrupt-budget=250000']);
+    expect(set).toEqual(['--interrupt-budget=250000']);
+  });
 });
 
 describe('the command with and without the settings', () => {
