@@ -17,6 +17,7 @@ import { EXIT, reportError } from './handler.js';
 import { packageVersion } from './version.js';
 import { tuneV8 } from './v8-tuning.js';
 import { exitWhenFlushed } from './exit-when-flushed.js';
+import { afterHeldSignals } from './output-write.js';
 
 /** Adds one command to the program; commands print through `io` only. */
 export type CommandRegistration = (program: Command, io: CliIo) => void;
@@ -130,7 +131,8 @@ if (isMainModule()) {
   const io = processIo();
   runCli(process.argv.slice(2), io).then((code) => {
     process.exitCode = code;
-    // (ends the process once the output is out, without Node's heap teardown: ./exit-when-flushed.ts)
-    exitWhenFlushed(code);
+    // (ends the process once the output is out, without Node's heap teardown
+    // (./exit-when-flushed.ts), and after a signal held during the write phase has been acted on)
+    afterHeldSignals(() => exitWhenFlushed(code));
   });
 }

@@ -51,6 +51,7 @@ export function withSignalsHeld<T>(write: () => T): T {
   };
   const had = new Map(HELD_SIGNALS.map((s) => [s, process.listenerCount(s)]));
   for (const s of HELD_SIGNALS) process.on(s, hold);
+  holding++;
   try {
     return write();
   } finally {
@@ -60,10 +61,27 @@ export function withSignalsHeld<T>(write: () => T): T {
     setImmediate(() =>
       setImmediate(() => {
         for (const s of HELD_SIGNALS) process.off(s, hold);
+        holding--;
         if (received.length > 0) reraise(received[0], had.get(received[0]) ?? 0);
+        if (holding === 0) for (const callback of waiting.splice(0)) callback();
       }),
     );
   }
+}
+
+/** Write phases whose signals are still held (withSignalsHeld), and what waits for their release. */
+let holding = 0;
+const waiting: (() => void)[] = [];
+
+/**
+ * Call `callback` once no write phase holds signals any more: at once when none does, else after
+ * the last one has acted on a signal it held (a re-raised signal with its default action ends the
+ * process first). The command's own exit waits for it (src/cli/main.ts), so that an interrupt
+ * held during the write phase still ends the process as that signal says.
+ */
+export function afterHeldSignals(callback: () => void): void {
+  if (holding === 0) callback();
+  else waiting.push(callback);
 }
 
 function reraise(signal: NodeJS.Signals, otherListeners: number): void {

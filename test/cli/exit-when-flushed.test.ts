@@ -1,10 +1,13 @@
 // The command's last step (src/cli/exit-when-flushed.ts): the process ends only after stdout and
-// stderr have taken what was written, with the command's exit code; whole output through a pipe.
+// stderr have taken what was written, with the command's exit code, and after a write phase has
+// acted on a signal it held (afterHeldSignals, src/cli/output-write.ts; the signals themselves:
+// test/cli/interrupt.test.ts); whole output through a pipe.
 import { spawn } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { exitWhenFlushed, type FlushableStream } from '../../src/cli/exit-when-flushed.js';
 import { memoryIo } from '../../src/cli/io.js';
 import { runCli } from '../../src/cli/main.js';
+import { afterHeldSignals, HELD_SIGNALS, withSignalsHeld } from '../../src/cli/output-write.js';
 
 /** A stream whose writes complete only when the test says so. */
 function slowStream(): FlushableStream & { finish: () => void; writes: number } {
@@ -86,4 +89,32 @@ describe('the command as a process, read through a pipe by a slow reader', () =>
     expect(child.code).toBe(2);
     expect(JSON.parse(child.stdout).ok).toBe(false);
   }, 60_000);
+});
+
+describe('afterHeldSignals (the exit waits for a write phase to act on a held signal)', () => {
+  const turn = () => new Promise((r) => setImmediate(r));
+
+  it('runs at once when no write phase holds signals', () => {
+    const calls: string[] = [];
+    afterHeldSignals(() => calls.push('now'));
+    expect(calls).toEqual(['now']);
+  });
+
+  it('waits until the write phase has released its signals (two check phases after it), in order', async () => {
+    const calls: string[] = [];
+    withSignalsHeld(() => {
+      afterHeldSignals(() => calls.push('during'));
+    });
+    afterHeldSignals(() => calls.push('after'));
+    expect(calls).toEqual([]);
+    await turn();
+    expect(calls).toEqual([]);
+    await turn();
+    await turn();
+    expect(calls).toEqual(['during', 'after']);
+    // released: the next runs at once, and the process has no listener of ours left
+    afterHeldSignals(() => calls.push('later'));
+    expect(calls).toEqual(['during', 'after', 'later']);
+    for (const s of HELD_SIGNALS) expect(process.listeners(s).length).toBe(0);
+  });
 });
