@@ -88,13 +88,27 @@ export function readSimpleYaml(text: string, maxNodes: number): FastYaml | undef
   if (lines.length === 0 || lines[0].indent !== 0) return undefined;
   const reader = new Reader(lines, maxNodes);
   try {
-    const value = reader.block(0, [], 0);
+    const value = reader.block(0, ROOT_KEY, 0);
     if (reader.at < lines.length) return undefined;
     return { value, valuePositions: reader.valuePositions, keyPositions: reader.keyPositions };
   } catch (e) {
     if (e instanceof NotSimple) return undefined;
     throw e;
   }
+}
+
+/** The key of the root's path, JSON.stringify([]). */
+const ROOT_KEY = '[]';
+
+/**
+ * The key of a child's path, JSON.stringify([...path, segment]), from the key of the parent's
+ * path: JSON.stringify writes an array's items joined by commas, without spaces, so the child's
+ * key is the parent's with the segment's own JSON added before the closing bracket (no path
+ * arrays copied and no whole path written again for each of the ~15,000 values of a generated
+ * 1,024-qubit layout; test/layout/yaml-fast.test.ts compares the positions with the full reader's).
+ */
+function childKey(parent: string, segment: string | number): string {
+  return parent === ROOT_KEY ? `[${JSON.stringify(segment)}]` : `${parent.slice(0, -1)},${JSON.stringify(segment)}]`;
 }
 
 class Reader {
@@ -108,15 +122,15 @@ class Reader {
     private readonly maxNodes: number,
   ) {}
 
-  /** The block (map or list) starting at the current line, which has indentation `indent`. */
-  block(indent: number, path: (string | number)[], depth: number): unknown {
+  /** The block (map or list) starting at the current line, which has indentation `indent`; `path`: its path's key (childKey). */
+  block(indent: number, path: string, depth: number): unknown {
     const first = this.lines[this.at];
     this.value(path, { line: first.line, column: indent + 1 });
     if (depth > 30) throw new NotSimple();
     return first.text === '-' || first.text.startsWith('- ') ? this.list(indent, path) : this.map(indent, path, depth);
   }
 
-  private map(indent: number, path: (string | number)[], depth: number): Record<string, unknown> {
+  private map(indent: number, path: string, depth: number): Record<string, unknown> {
     const out: Record<string, unknown> = {};
     while (this.at < this.lines.length) {
       const l = this.lines[this.at];
@@ -126,8 +140,8 @@ class Reader {
       if (!m) throw new NotSimple();
       const key = this.key(m[1]);
       if (Object.prototype.hasOwnProperty.call(out, key)) throw new NotSimple();
-      const childPath = [...path, key];
-      this.keyPositions.set(JSON.stringify(childPath), { line: l.line, column: indent + 1 });
+      const childPath = childKey(path, key);
+      this.keyPositions.set(childPath, { line: l.line, column: indent + 1 });
       this.at++;
       let v: unknown;
       if (m[2] === undefined) {
@@ -137,12 +151,12 @@ class Reader {
       } else {
         v = this.inline(m[2], l.line, indent + 1 + l.text.length - m[2].length, childPath);
       }
-      Object.defineProperty(out, key, { value: v, enumerable: true, writable: true, configurable: true });
+      setOwn(out, key, v);
     }
     return out;
   }
 
-  private list(indent: number, path: (string | number)[]): unknown[] {
+  private list(indent: number, path: string): unknown[] {
     const out: unknown[] = [];
     while (this.at < this.lines.length) {
       const l = this.lines[this.at];
@@ -151,18 +165,18 @@ class Reader {
       const item = l.text.slice(2).trimStart();
       if (item === '' || KEY.test(item) || /^[A-Za-z_][A-Za-z0-9_.-]*:$/.test(item)) throw new NotSimple();
       this.at++;
-      out.push(this.inline(item, l.line, indent + 1 + l.text.length - item.length, [...path, out.length]));
+      out.push(this.inline(item, l.line, indent + 1 + l.text.length - item.length, childKey(path, out.length)));
     }
     return out;
   }
 
   /** A value on one line: a flow list, a flow map or a plain scalar, starting at 1-based `column`. */
-  private inline(s: string, line: number, column: number, path: (string | number)[]): unknown {
+  private inline(s: string, line: number, column: number, path: string): unknown {
     this.value(path, { line, column });
     if (s.startsWith('[')) {
       if (!s.endsWith(']')) throw new NotSimple();
       return this.flowItems(s, column).map(({ text, column: c }, i) => {
-        this.value([...path, i], { line, column: c });
+        this.value(childKey(path, i), { line, column: c });
         return this.scalar(text, FLOW_PLAIN);
       });
     }
@@ -174,10 +188,10 @@ class Reader {
         if (!m) throw new NotSimple();
         const key = this.key(m[1]);
         if (Object.prototype.hasOwnProperty.call(out, key)) throw new NotSimple();
-        const childPath = [...path, key];
-        this.keyPositions.set(JSON.stringify(childPath), { line, column: c });
+        const childPath = childKey(path, key);
+        this.keyPositions.set(childPath, { line, column: c });
         this.value(childPath, { line, column: c + text.length - m[2].length });
-        Object.defineProperty(out, key, { value: this.scalar(m[2], FLOW_PLAIN), enumerable: true, writable: true, configurable: true });
+        setOwn(out, key, this.scalar(m[2], FLOW_PLAIN));
       }
       return out;
     }
@@ -232,9 +246,18 @@ class Reader {
     return s;
   }
 
-  private value(path: (string | number)[], position: Position): void {
+  private value(path: string, position: Position): void {
     if (++this.nodes > this.maxNodes) throw new NotSimple();
-    const key = JSON.stringify(path);
-    if (!this.valuePositions.has(key)) this.valuePositions.set(key, position);
+    if (!this.valuePositions.has(path)) this.valuePositions.set(path, position);
   }
+}
+
+/**
+ * Adds `key` to a map's object as an own, enumerable, writable data property, as the yaml
+ * package's plain reading does: an assignment makes exactly that for every key but `__proto__`,
+ * which an assignment would take as the object's prototype (defined as a property instead).
+ */
+function setOwn(out: Record<string, unknown>, key: string, value: unknown): void {
+  if (key === '__proto__') Object.defineProperty(out, key, { value, enumerable: true, writable: true, configurable: true });
+  else out[key] = value;
 }

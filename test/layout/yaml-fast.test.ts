@@ -78,6 +78,19 @@ describe('readSimpleYaml against the yaml package', () => {
     expectSameReading(text);
   });
 
+  it('reads keys an object has on its prototype (__proto__, constructor) as the own keys the yaml package gives', () => {
+    // (an assignment to __proto__ would set the object's prototype instead of adding a key)
+    const text = ['m:', '  __proto__: 1', '  constructor: 2', '  toString: x', 'f: { __proto__: 3, valueOf: 4 }', ''].join('\n');
+    expect(inSubset(text)).toBe(true);
+    expectSameReading(text);
+    const v = readSimpleYaml(text, YAML_LIMITS.maxNodes)!.value as Record<string, Record<string, unknown>>;
+    for (const [map, keys] of [[v.m, ['__proto__', 'constructor', 'toString']], [v.f, ['__proto__', 'valueOf']]] as const) {
+      expect(Object.getPrototypeOf(map)).toBe(Object.prototype);
+      expect(Object.keys(map)).toEqual(keys);
+    }
+    expect(Object.getOwnPropertyDescriptor(v.m, '__proto__')).toEqual({ value: 1, enumerable: true, writable: true, configurable: true });
+  });
+
   it('leaves text outside the subset to the full reader', () => {
     const outside = [
       'a: "quoted"', "a: 'quoted'", 'a: b # trailing comment', 'a:\tb', 'a: b\r\nc: d', 'a: &x 1\nb: *x', 'a: !!str 1', 'a: |\n  text', 'a: >\n  text',
