@@ -9,7 +9,7 @@
  */
 
 import type { Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { parseQuantity } from '../layout/units.js';
 import { InputError, type Diagnostic } from '../util/errors.js';
 

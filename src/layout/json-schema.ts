@@ -10,7 +10,7 @@
  *   tphi or fluxNoise.
  */
 
-import { z } from 'zod';
+import * as z from 'zod';
 import { LayoutFileSchema, QUANTITY_META_KEY } from './schema.js';
 import type { QuantityKind } from './units.js';
 

@@ -6,7 +6,7 @@
  */
 
 import { readFileSync } from 'node:fs';
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Rules } from './types.js';
 import { parseQuantity, type QuantityKind } from './units.js';
 import { describeFound } from './diagnostics.js';

@@ -8,7 +8,7 @@
  * that follows "expected" in a diagnostic (see zodIssues.ts).
  */
 
-import { z } from 'zod';
+import * as z from 'zod';
 import { quantityExample, quantityNoun, type QuantityKind } from './units.js';
 import { RULE_SPECS } from './rules.js';
 

@@ -21,7 +21,7 @@ import { mergePlateaus, type Trajectory } from '../sim/trajectory.js';
 import { readTrajectoryFile } from '../sim/trajectory-file.js';
 import { InputError } from '../util/errors.js';
 import { hasOwn } from '../util/own.js';
-import { z } from 'zod';
+import * as z from 'zod';
 import type { ChipLayout } from '../layout/types.js';
 import { readJsonSource } from './json-source.js';
 

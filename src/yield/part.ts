@@ -14,7 +14,7 @@
  * the first field that differs), parts of different shard counts, the same shard twice, missing
  * shards, and a part whose samples are not its shard's.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { InputError, type Diagnostic } from '../util/errors.js';
 import { rowSpreads } from './job.js';
 import type { SampleOutcome } from './outcome.js';

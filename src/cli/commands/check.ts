@@ -20,7 +20,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
 import { enforceChipLimits, enforceWork, plannerWork } from '../work-limits.js';
-import { z } from 'zod';
+import * as z from 'zod';
 import { PLANNER_CHECK_STAGE } from './check-planner.js';
 import { wrapLine } from '../../util/wrap.js';
 

@@ -19,7 +19,7 @@
  * feasible, reason?, crossing, crossingFrequency, gap, populations: {"20", "02"} }.
  */
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { Transmon } from '../../transmon/transmon.js';
 import { designCzGate, DEFAULT_FAMILY, FALLBACK_FAMILY } from '../../gate/design.js';
 import { RAMP_FAMILIES } from '../../gate/families/index.js';

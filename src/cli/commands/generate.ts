@@ -5,7 +5,7 @@
  */
 
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { GENERATE_DEFAULTS, GENERATE_LIMITS, generateLayout } from '../../chip/generate.js';
 import type { LatticeKind } from '../../chip/lattice.js';
 import { layoutToYaml } from '../../layout/write.js';

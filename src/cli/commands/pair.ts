@@ -18,7 +18,7 @@
  * resonanceCoupling: {...} (Hz or null), sweep?: [ { moverFlux, moverF01, zz, g } ] }.
  */
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
 import { Transmon } from '../../transmon/transmon.js';
 import { CoupledPair } from '../../pair/pair.js';

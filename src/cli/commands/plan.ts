@@ -11,7 +11,7 @@
  * say so). It also writes DIR/report.html (the chip report, src/report/html).
  */
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { buildChipGraph } from '../../chip/graph.js';
 import { InputError } from '../../util/errors.js';
 import { planChip } from '../../plan/plan.js';

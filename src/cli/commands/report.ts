@@ -7,7 +7,7 @@
  * report is still written, and says what is broken); 2 on bad input, with no file written.
  */
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { chipReportHtml, readPlanForReport } from '../../report/html/index.js';
 import { InputError } from '../../util/errors.js';
 import { commandAction, type CommandContext } from '../handler.js';

@@ -24,7 +24,7 @@
  */
 import { resolve } from 'node:path';
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { Transmon } from '../../transmon/transmon.js';
 import { buildManifoldFrame } from '../../sim/manifold-frame.js';
 import { edgeSimModel, moverEjRange, type EdgeSpectator } from '../../sim/pair-model.js';

@@ -9,7 +9,7 @@
  * Hz, df01dflux in Hz per Phi0, times in s (tphi null when no dephasing source acts there).
  */
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import type { ChipLayout, QubitLayout } from '../../layout/types.js';
 import { roundSignificant } from '../../layout/units.js';
 import { Transmon } from '../../transmon/transmon.js';

@@ -16,7 +16,7 @@ import type { CliIo } from '../io.js';
 import type { CommandOutcome } from '../outcome.js';
 import { MAX_SECONDS_HELP, maxSecondsOption, parseOptions, withCommonOptions } from '../options.js';
 import { enforceChipLimits, enforceWork, verifyWork } from '../work-limits.js';
-import { z } from 'zod';
+import * as z from 'zod';
 
 const VerifyOptions = z.object({ maxSeconds: maxSecondsOption().optional() });
 

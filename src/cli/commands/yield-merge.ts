@@ -6,7 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { Argument, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { InputError } from '../../util/errors.js';
 import { mergeParts, readPart, type YieldPart } from '../../yield/part.js';
 import { yieldText } from '../../yield/yield-text.js';

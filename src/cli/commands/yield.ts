@@ -10,7 +10,7 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { Argument, Option, type Command } from 'commander';
-import { z } from 'zod';
+import * as z from 'zod';
 import { loadLayoutFile } from '../../layout/load.js';
 import type { ChipLayout } from '../../layout/types.js';
 import { readPlan, type PlanInput } from '../../plan/plan-read.js';
