@@ -615,6 +615,7 @@ describe('an edge re-evaluated with other spectator points, its plan built on de
   it('the draft\'s score and plan are withSpectatorPoints\' plan (the same object on every call)', () => {
     const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
     let tried = 0;
+    let movedSweeps = 0;
     for (const e of clove.edges) {
       for (const p of e.parked) {
         const t = ctx.tables[p.qubit];
@@ -634,9 +635,25 @@ describe('an edge re-evaluated with other spectator points, its plan built on de
           const built = draft!.plan();
           expect(built).toEqual(full);
           expect(draft!.plan()).toBe(built);
+          // the plan's swept crossings, findings and slot are those of the gate evaluated here on
+          // its own scenario (the draft keeps neither its scenario nor its evaluation)
+          const scenario: GateScenario = {
+            edge: e.edge, mover: e.mover, partner: e.partner, crossing: e.crossing,
+            fromGHz: clove.states[e.mover].f01GHz, toGHz: e.crossingGHz, moverF12AtToGHz: e.moverF12AtInteractionGHz,
+            crossingCouplingGHz: e.crossingCouplingGHz, rampNs: e.rampNs, parking: parkingOf(clove.states),
+            parked: new Map(built.parked.map((q) => [q.qubit, { f01GHz: q.fGHz, f12GHz: q.f12GHz }])),
+          };
+          const ev = evaluateGate(ctx, scenario, { messages: false });
+          expect(ev.findings).toEqual([]);
+          expect(built.findings).toEqual([]);
+          expect(built.swept).toEqual(ev.swept);
+          expect(built.durationNs).toBe(ev.durationNs);
+          if (ev.swept.some((x) => x.moving === p.qubit)) movedSweeps++;
         }
       }
     }
     expect(tried).toBeGreaterThan(5);
+    // (some of them pass crossings on the spectator's own sweep: a plan built without its moves would differ)
+    expect(movedSweeps).toBeGreaterThan(0);
   });
 });

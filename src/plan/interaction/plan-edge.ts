@@ -873,32 +873,63 @@ function withParked(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator
   return withParkedDraft(ec, plan, parkedInfo)?.plan() ?? null;
 }
 
-/** withParked's evaluation now, its plan object (reason and notes) on demand. */
+/**
+ * withParked's evaluation now, its plan object (reason and notes) on demand. The draft keeps only
+ * what the plan is built from (the plan, the spectators' points, the score and the slot): the
+ * layer fitting remembers every draft it makes (~18,000 on the generated 32 x 32 chip) and builds
+ * the plan of few, so the gate's scenario and evaluation are left to the garbage collector at
+ * once and made again, the same way, for a plan that is built (ParkedPlanDraft).
+ */
 function withParkedDraft(ec: EdgeContext, plan: EdgePlan, parkedInfo: ParkedSpectator[]): EdgePlanDraft | null {
-  const { ctx } = ec;
   if (!plan.feasible) return null;
-  const scenario: GateScenario = {
+  const scenario = parkedScenario(ec, plan, parkedInfo);
+  // (returned only without findings: no messages needed)
+  const ev = evaluateGate(ec.ctx, scenario, TALLY);
+  if (ev.findings.length > 0) return null;
+  const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
+  return new ParkedPlanDraft(ec, plan, parkedInfo, score, ev.durationNs);
+}
+
+/** The gate of a planned edge with the spectators of `parkedInfo` moved (the rest at parking). */
+function parkedScenario(ec: EdgeContext, plan: EdgePlan, parkedInfo: readonly ParkedSpectator[]): GateScenario {
+  return {
     edge: plan.edge, mover: plan.mover, partner: plan.partner, crossing: plan.crossing,
     fromGHz: ec.states[plan.mover].f01GHz, toGHz: plan.crossingGHz, moverF12AtToGHz: plan.moverF12AtInteractionGHz,
     crossingCouplingGHz: plan.crossingCouplingGHz, rampNs: plan.rampNs,
     parking: ec.parking ?? parkingOf(ec.states),
     parked: new Map(parkedInfo.map((p) => [p.qubit, { f01GHz: p.fGHz, f12GHz: p.f12GHz }])),
   };
-  // (returned only without findings: no messages needed)
-  const ev = evaluateGate(ctx, scenario, TALLY);
-  if (ev.findings.length > 0) return null;
-  const score = estimateError(ec, scenario, plan.moverInteractionFlux, parkedInfo, ev);
-  let built: EdgePlan | undefined;
-  const build = (): EdgePlan => {
+}
+
+/** withParkedDraft's result: its plan object built on the first call of plan(), the same object after. */
+class ParkedPlanDraft implements EdgePlanDraft {
+  private built: EdgePlan | undefined;
+
+  constructor(
+    private readonly ec: EdgeContext,
+    private readonly base: EdgePlan,
+    private readonly parkedInfo: ParkedSpectator[],
+    readonly score: number,
+    private readonly durationNs: number,
+  ) {}
+
+  plan(): EdgePlan {
+    return (this.built ??= this.build());
+  }
+
+  private build(): EdgePlan {
+    const { ec, base: plan, parkedInfo, score } = this;
+    const { ctx } = ec;
     const id = ctx.ids;
     const isChosen = (o: OptionReport) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible;
     const note = `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`;
     const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
     const chosen = options.find(isChosen)!;
+    // (the draft's evaluation summed the swept crossings (TALLY): they are listed by evaluating the
+    // same scenario again, as sweptListOf does for such an evaluation; it had no findings)
     return {
-      ...plan, parked: parkedInfo, swept: sweptListOf(ctx, scenario, ev), findings: ev.findings, durationNs: ev.durationNs, score, options,
+      ...plan, parked: parkedInfo, swept: evaluateGate(ctx, parkedScenario(ec, plan, parkedInfo), QUIET).swept, findings: [], durationNs: this.durationNs, score, options,
       reason: reasonText(ctx, chosen, options, plan.partner),
     };
-  };
-  return { score, plan: () => (built ??= build()) };
+  }
 }
