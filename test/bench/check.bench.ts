@@ -3,7 +3,10 @@
  * square chip (seed 1). The target is for the built command as users run it
  * (`node dist/cli/main.js check FILE --json`, whole process: start-up, reading the YAML file, the
  * layout stage, chip graph, the planner's evaluation without pulse design, the JSON written; run
- * `npm run build` after changes), as for the yield's fixed mode (./yield.bench.ts). The same steps
+ * `npm run build` after changes), as for the yield's fixed mode (./yield.bench.ts). Three
+ * processes, one after the other; the target is on their median (each is a cold start: no run
+ * warms another up), and the slowest is printed too (this machine's speed drifts 20-35 % within
+ * the hour: DEVELOPERS.md, Performance log). The same steps
  * from the TypeScript sources in this process are listed too, without a target: from tsx's
  * transform the planner's code ran 0-21 % slower than built in the runs measured (DEVELOPERS.md,
  * Performance log, ninth round), and the whole process adds ~0.4 s of start-up and exit.
@@ -24,7 +27,7 @@ const file = chipFile('square-32x32.yaml', text);
 export const check1024Built: Benchmark = {
   name: 'check, 1,024-qubit square chip (32 x 32), YAML file to JSON (built command, whole process)',
   target: 5e6,
-  runs: 1,
+  runs: 3,
   warmup: 0,
   setup: () => {
     requireBuilt('check.bench.ts');

@@ -46,6 +46,8 @@ export interface BenchResult {
   name: string;
   medianUs: number;
   minUs: number;
+  /** Longest call (fixed runs only: benchmarks with `runs`). */
+  maxUs?: number;
   calls: number;
   target?: number;
   underTarget?: boolean;
@@ -67,7 +69,7 @@ function now(): number {
 
 let sink: unknown;
 
-export async function measure(b: Benchmark): Promise<{ medianUs: number; minUs: number; calls: number }> {
+export async function measure(b: Benchmark): Promise<{ medianUs: number; minUs: number; maxUs?: number; calls: number }> {
   await b.setup?.();
   if (b.runs !== undefined) return measureFixed(b, b.runs, b.warmup ?? 1);
   // Warm-up, and a first estimate of the time per call.
@@ -96,7 +98,7 @@ export async function measure(b: Benchmark): Promise<{ medianUs: number; minUs: 
 }
 
 /** `warmup` untimed calls, then `runs` timed calls one by one (a returned promise is awaited). */
-async function measureFixed(b: Benchmark, runs: number, warmup: number): Promise<{ medianUs: number; minUs: number; calls: number }> {
+async function measureFixed(b: Benchmark, runs: number, warmup: number): Promise<{ medianUs: number; minUs: number; maxUs: number; calls: number }> {
   for (let i = 0; i < warmup; i++) sink = await b.run();
   const samples: number[] = [];
   for (let i = 0; i < Math.max(1, runs); i++) {
@@ -107,7 +109,7 @@ async function measureFixed(b: Benchmark, runs: number, warmup: number): Promise
   samples.sort((x, y) => x - y);
   const mid = samples.length >> 1;
   const median = samples.length % 2 ? samples[mid] : 0.5 * (samples[mid - 1] + samples[mid]);
-  return { medianUs: median * 1e6, minUs: samples[0] * 1e6, calls: samples.length };
+  return { medianUs: median * 1e6, minUs: samples[0] * 1e6, maxUs: samples[samples.length - 1] * 1e6, calls: samples.length };
 }
 
 function formatUs(us: number): string {
@@ -137,7 +139,8 @@ async function runFile(dir: string, file: string, filters: string[]): Promise<Be
 
 function printResult(r: BenchResult): void {
   const verdict = r.target === undefined ? '' : `  target < ${formatUs(r.target)}: ${r.underTarget ? 'ok' : 'MISSED'}`;
-  process.stdout.write(`${r.file}  ${r.name}\n    median ${formatUs(r.medianUs)}  min ${formatUs(r.minUs)}  (${r.calls} calls)${verdict}\n`);
+  const max = r.maxUs !== undefined && r.calls > 1 ? `  max ${formatUs(r.maxUs)}` : '';
+  process.stdout.write(`${r.file}  ${r.name}\n    median ${formatUs(r.medianUs)}  min ${formatUs(r.minUs)}${max}  (${r.calls} calls)${verdict}\n`);
   if (r.note) process.stdout.write(`    ${r.note}\n`);
 }
 
