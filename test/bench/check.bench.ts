@@ -5,11 +5,12 @@
  * layout stage, chip graph, the planner's evaluation without pulse design, the JSON written; run
  * `npm run build` after changes), as for the yield's fixed mode (./yield.bench.ts). Three
  * processes, one after the other; the target is on their median (each is a cold start: no run
- * warms another up), and the slowest is printed too (this machine's speed drifts 20-35 % within
- * the hour: DEVELOPERS.md, Performance log). The same steps
+ * warms another up), and the slowest is printed too (this machine's speed changes by up to 1.5x
+ * between minutes: DEVELOPERS.md, Performance log, twelfth round). The same steps
  * from the TypeScript sources in this process are listed too, without a target: from tsx's
  * transform the planner's code ran 0-21 % slower than built in the runs measured (DEVELOPERS.md,
- * Performance log, ninth round), and the whole process adds ~0.4 s of start-up and exit.
+ * Performance log, ninth round), and the whole process adds ~0.4 s of start-up, output and exit
+ * (0.36-0.39 s beside the in-process total of `--profile`, 2026-12-04 evening, a slow phase).
  */
 import type { Benchmark } from './run.js';
 import { chipFile, requireBuilt, runBuilt } from './built-command.js';
