@@ -8,7 +8,7 @@ import type { ChipPlan } from './plan.js';
 import type { PlanContext } from './context.js';
 import type { ExactQubitState } from './exact-state.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
-import { estimateEdgeBudget, parkingOf } from './interaction/plan-edge.js';
+import { edgePlanOf, estimateEdgeBudget, parkingOf } from './interaction/plan-edge.js';
 import type { DuringGate, GateScenario } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
 import { designedGateBudget, estimatedGateBudget, type GateBudget } from './gate-budget.js';
@@ -64,7 +64,7 @@ export function planBudget(plan: Pick<ChipPlan, 'ctx' | 'options' | 'parking' | 
     if (design) {
       const slot = slotDurationNs(ctx, e, design.durationNs);
       slotsNs.push(slot);
-      return estimatedGateBudget(ctx, { ...e, durationNs: slot }, plan.states, estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, slot));
+      return estimatedGateBudget(ctx, edgePlanOf({ ...e, durationNs: slot }), plan.states, estimateEdgeBudget(ec, scenarioOf(plan, e, parkingList()), e.moverInteractionFlux, slot));
     }
     const hit = estimates?.get(e);
     if (hit) {

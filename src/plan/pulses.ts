@@ -19,7 +19,7 @@ import { collectFindings, edgeExplanations } from './plan.js';
 import type { GateDesign, GateDesigner, GateDesignRequest, GateSpectatorRequest } from './gate-seam.js';
 import { evaluateGate, type DuringGate, type GateScenario, type SweptCrossing } from './rules/cz-evaluate.js';
 import type { Finding } from './rules/findings.js';
-import { parkSpectators, sweptListOf, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
+import { edgePlanOf, parkSpectators, sweptListOf, type EdgePlan, type ParkedSpectator } from './interaction/plan-edge.js';
 import { planLayers } from './layers.js';
 import { calibratedZzScale, crowding } from './crowding.js';
 import { landauZenerTransfer } from './landau-zener.js';
@@ -269,7 +269,7 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
   }
   const swept = sweptListOf(ctx, scenario, ev);
   out.push(...waveformSweepFindings(plan.ctx, e.mover, key, swept, design.waveform));
-  const edge: EdgePlan = {
+  const edge = edgePlanOf({
     ...e,
     interactionGHz: to,
     moverInteractionFlux: toFlux,
@@ -277,7 +277,7 @@ export function checkDesign(plan: ChipPlan, e: EdgePlan, design: GateDesign): { 
     parked: parkedInfo,
     swept,
     durationNs: total,
-  };
+  });
   return { findings: out, edge };
 }
 

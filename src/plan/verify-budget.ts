@@ -17,7 +17,7 @@
 import type { PlanContext } from './context.js';
 import type { ExactQubitState } from './exact-state.js';
 import type { EdgePlan } from './interaction/plan-edge.js';
-import { estimateEdgeBudget } from './interaction/plan-edge.js';
+import { edgePlanOf, estimateEdgeBudget } from './interaction/plan-edge.js';
 import type { GateScenario } from './rules/cz-evaluate.js';
 import { estimatedGateBudget, gateBudgetFromStage, type GateBudget, type StageBudget } from './gate-budget.js';
 import { cycleBudget, type CycleBudget } from './cycle-budget.js';
@@ -63,7 +63,7 @@ export function recomputeBudget(
     slotsNs.push(src.slotNs);
     if (src.kind === 'designed') return gateBudgetFromStage(ctx, e, states, src.stage(), src.waveform, src.slotNs);
     // (the plan over the slot: a copy only when its duration is another; estimatedGateBudget reads it and keeps nothing of it)
-    const over = Object.is(e.durationNs, src.slotNs) ? e : { ...e, durationNs: src.slotNs };
+    const over = Object.is(e.durationNs, src.slotNs) ? e : edgePlanOf({ ...e, durationNs: src.slotNs });
     return estimatedGateBudget(ctx, over, states, estimateEdgeBudget({ ctx, states }, src.scenario, e.moverInteractionFlux, src.slotNs, src.spectators), src.swept);
   });
   // the layers the plan names, in order (an index out of line, e.g. 1e9, is a layer-index

@@ -36,7 +36,7 @@ import { fluxCurvatureMemo, fluxForF01Memo, fluxSlopeMemo, spectrumMemo } from '
 import { crossingCouplingsForTest, evaluateGate, nextNearestCouplingForTest, SpectatorScreen, type GateScenario } from '../../src/plan/rules/cz-evaluate.js';
 import { admixtureChecks, admixtureChecksBeyond } from '../../src/plan/rules/spectator-admixture.js';
 import { ConflictCache, conflictKinds } from '../../src/plan/layers.js';
-import { bestSpectatorPointForTest, estimateEdgeBudget, exchangeAtInteraction, optionScore, parkingOf, parkSpectators, withoutSpectators, withSpectatorPoints, withSpectatorPointsDraft, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
+import { bestSpectatorPointForTest, edgePlanOf, estimateEdgeBudget, optionReportOf, exchangeAtInteraction, optionScore, parkingOf, parkSpectators, withoutSpectators, withSpectatorPoints, withSpectatorPointsDraft, type ParkedSpectator } from '../../src/plan/interaction/plan-edge.js';
 import { exactQubitState } from '../../src/plan/exact-state.js';
 import { planBudget, scenarioOf, type EstimateMemo } from '../../src/plan/plan-budget.js';
 import { idleTotalForTest, spectatorMovePairError } from '../../src/plan/gate-budget.js';
@@ -655,5 +655,36 @@ describe('an edge re-evaluated with other spectator points, its plan built on de
     expect(tried).toBeGreaterThan(5);
     // (some of them pass crossings on the spectator's own sweep: a plan built without its moves would differ)
     expect(movedSweeps).toBeGreaterThan(0);
+  });
+
+  it('derived plans and option reports have the planned ones\' fields in the same order (one object shape), with the same values', () => {
+    const ec = { ctx, options: clove.options, blockers: clove.parking.state.blockers, states: clove.states };
+    const planKeys = Object.keys(clove.edges[0]);
+    const optionKeys = Object.keys(clove.edges[0].options[0]);
+    let built = 0;
+    for (const e of clove.edges) {
+      expect(Object.keys(e)).toEqual(planKeys);
+      const copy = edgePlanOf(e);
+      expect(Object.keys(copy)).toEqual(planKeys);
+      expect(copy).toEqual(e);
+      for (const o of e.options) {
+        expect(Object.keys(optionReportOf(o))).toEqual(optionKeys);
+        expect(optionReportOf(o)).toEqual(o);
+      }
+      for (const p of e.parked) {
+        const t = ctx.tables[p.qubit];
+        for (const f of [p.fGHz - 0.03, p.fGHz + 0.02]) {
+          if (!(f > t.fLowGHz && f < t.fMaxGHz)) continue;
+          const st = exactQubitState(ctx.transmons[p.qubit], f, ctx.rules.resistanceSpread);
+          const draft = withSpectatorPointsDraft(ec, e, new Map([[p.qubit, { fGHz: f, flux: st.flux, f12GHz: st.f12GHz }]]));
+          if (!draft) continue;
+          const plan = draft.plan();
+          built++;
+          expect(Object.keys(plan)).toEqual(planKeys);
+          for (const o of plan.options) expect(Object.keys(o)).toEqual(optionKeys);
+        }
+      }
+    }
+    expect(built).toBeGreaterThan(2);
   });
 });

@@ -923,13 +923,35 @@ class ParkedPlanDraft implements EdgePlanDraft {
     const id = ctx.ids;
     const isChosen = (o: OptionReport) => o.mover === plan.mover && o.crossing === plan.crossing && o.feasible;
     const note = `feasible${parkedInfo.length > 0 ? ` with ${parkedInfo.map((p) => `${id[p.qubit]} parked at ${ghz(p.fGHz)}`).join(', ')}` : ''}, estimated error ${prob(score)}`;
-    const options = plan.options.map((o) => (isChosen(o) ? { ...o, parked: parkedInfo, score, note } : o));
+    const options = plan.options.map((o) => (isChosen(o) ? optionReportOf({ ...o, parked: parkedInfo, score, note }) : o));
     const chosen = options.find(isChosen)!;
     // (the draft's evaluation summed the swept crossings (TALLY): they are listed by evaluating the
     // same scenario again, as sweptListOf does for such an evaluation; it had no findings)
-    return {
+    return edgePlanOf({
       ...plan, parked: parkedInfo, swept: evaluateGate(ctx, parkedScenario(ec, plan, parkedInfo), QUIET).swept, findings: [], durationNs: this.durationNs, score, options,
       reason: reasonText(ctx, chosen, options, plan.partner),
-    };
+    });
   }
+}
+
+/**
+ * The plan's fields copied in the interface's order into one object literal. A plan made by
+ * spreading another (`{ ...plan, parked }`) gets a hidden class of its own from the engine (V8's
+ * copy of the source's shape); on the generated 32 x 32 chip the plans the layer fitting kept had
+ * six, and the conflict tests that read every candidate pair of plans (src/plan/layers.ts) had to
+ * tell them apart: with every derived plan made here the kept plans have one (counted with V8's
+ * %HaveSameMap). The same values: only the object's shape changes.
+ */
+export function edgePlanOf(p: EdgePlan): EdgePlan {
+  return {
+    edge: p.edge, mover: p.mover, partner: p.partner, crossing: p.crossing, feasible: p.feasible, crossingGHz: p.crossingGHz, interactionGHz: p.interactionGHz,
+    moverInteractionFlux: p.moverInteractionFlux, moverF12AtInteractionGHz: p.moverF12AtInteractionGHz, crossingCouplingGHz: p.crossingCouplingGHz,
+    speedLimitNs: p.speedLimitNs, gAtInteractionGHz: p.gAtInteractionGHz, durationNs: p.durationNs, rampNs: p.rampNs, parked: p.parked, swept: p.swept,
+    findings: p.findings, score: p.score, reason: p.reason, options: p.options,
+  };
+}
+
+/** An option report's fields in the interface's order in one object literal (as edgePlanOf, for the options a derived plan lists). */
+export function optionReportOf(o: OptionReport): OptionReport {
+  return { mover: o.mover, crossing: o.crossing, feasible: o.feasible, score: o.score, interactionGHz: o.interactionGHz, moverFlux: o.moverFlux, parked: o.parked, problems: o.problems, note: o.note };
 }
