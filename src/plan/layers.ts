@@ -223,28 +223,9 @@ export function conflictKinds(
     for (const q of touchedQubits(p)) touching[q].push(k);
   });
   // candidate pairs: gates touching a common qubit, or a neighbour or next-nearest neighbour of a moved qubit
-  const kinds = new Map<number, ConflictKind>();
-  // pairs already considered: one bit per pair (a byte array up to SEEN_BITMAP_PLANS plans, else a set)
   const m = plans.length;
-  const seenBits = m <= bitmapPlans ? new Uint8Array(Math.ceil((m * m) / 8)) : null;
-  const seenSet = seenBits ? null : new Set<number>();
-  // a pair's kind at its first meeting (a < b; key a * m + b): of the 32 x 32 chip's ~684,000
-  // candidate pairs per list, ~68,000 are met first
-  // (not remembered per pair of plan objects across lists: on the 32 x 32 chip 28 % of the
-  // pairs met first would be found there, and the maps cost more than conflictKind saved)
-  const consider = (k1: number, k2: number) => {
-    if (k1 === k2) return;
-    const a = k1 < k2 ? k1 : k2;
-    const b = k1 < k2 ? k2 : k1;
-    const key = a * m + b;
-    let first: boolean;
-    if (seenBits) first = firstMeeting(seenBits, key);
-    else if ((first = !seenSet!.has(key))) seenSet!.add(key);
-    if (!first) return;
-    const kind = conflictKind(ctx, plans[a], moved[a], plans[b], moved[b]);
-    if (kind) kinds.set(key, kind);
-  };
-  for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) consider(list[i], list[j]);
+  const scan = new PairScan(ctx, plans, moved, m <= bitmapPlans);
+  for (const list of touching) for (let i = 0; i < list.length; i++) for (let j = i + 1; j < list.length; j++) scan.consider(list[i], list[j]);
   const nearOf = nearLists(ctx);
   for (let k1 = 0; k1 < m; k1++) {
     const mk = moved[k1];
@@ -252,12 +233,54 @@ export function conflictKinds(
       const near = nearOf[mk[j].qubit];
       for (let i = 0; i < near.length; i++) {
         const list = touching[near[i]];
-        for (let t = 0; t < list.length; t++) consider(k1, list[t]);
+        for (let t = 0; t < list.length; t++) scan.consider(k1, list[t]);
       }
     }
   }
+  const kinds = scan.kinds;
   cache?.rememberKinds(plans, kinds);
   return kinds;
+}
+
+/**
+ * The candidate pairs of conflictKinds, each given its kind at its first meeting (a < b; key
+ * a * m + b): of the 32 x 32 chip's ~684,000 candidate pairs per list, ~68,000 are met first.
+ * Pairs already considered are marked one bit per pair (a byte array up to SEEN_BITMAP_PLANS
+ * plans, else a set). (Not remembered per pair of plan objects across lists: on the 32 x 32 chip
+ * 28 % of the pairs met first would be found there, and the maps cost more than conflictKind
+ * saved.) A class rather than a closure made per call: the engine's optimised code of
+ * conflictKinds calls the same method on every call (a new closure per call undid it, "wrong call
+ * target", each time the layer fitting asked for another list).
+ */
+class PairScan {
+  readonly kinds = new Map<number, ConflictKind>();
+  private readonly m: number;
+  private readonly seenBits: Uint8Array | null;
+  private readonly seenSet: Set<number> | null;
+
+  constructor(
+    private readonly ctx: PlanContext,
+    private readonly plans: readonly EdgePlan[],
+    private readonly moved: readonly (readonly MovedQubit[])[],
+    bitmap: boolean,
+  ) {
+    this.m = plans.length;
+    this.seenBits = bitmap ? new Uint8Array(Math.ceil((this.m * this.m) / 8)) : null;
+    this.seenSet = bitmap ? null : new Set<number>();
+  }
+
+  consider(k1: number, k2: number): void {
+    if (k1 === k2) return;
+    const a = k1 < k2 ? k1 : k2;
+    const b = k1 < k2 ? k2 : k1;
+    const key = a * this.m + b;
+    let first: boolean;
+    if (this.seenBits) first = firstMeeting(this.seenBits, key);
+    else if ((first = !this.seenSet!.has(key))) this.seenSet!.add(key);
+    if (!first) return;
+    const kind = conflictKind(this.ctx, this.plans[a], this.moved[a], this.plans[b], this.moved[b]);
+    if (kind) this.kinds.set(key, kind);
+  }
 }
 
 /** Sets the bit of `key` and says whether it was clear (the pair's first meeting). */
